@@ -1,0 +1,53 @@
+/**
+ * The growth surface as the field engine sees it: a triangle mesh on typed arrays.
+ *
+ * Faces are counter-clockwise seen from the side the coat grows on, so a face normal
+ * (right-hand rule) points out of the skin.
+ */
+export interface TriangleMesh {
+  /** x, y, z of each vertex, in the surface's declared units. */
+  readonly positions: Float64Array;
+  /** Three vertex indices per face. */
+  readonly triangles: Uint32Array;
+  /**
+   * For each vertex as numbered in the source file, the welded vertex it became.
+   * Present when the mesh came from a file; several file vertices may map to one.
+   */
+  readonly fileVertexToVertex?: Uint32Array;
+  /** Named face groups (OBJ `g`/`o`), when the file had them. */
+  readonly groups?: FaceGroups;
+}
+
+export interface FaceGroups {
+  readonly names: readonly string[];
+  /** Index into `names` for each face. */
+  readonly groupOfFace: Uint16Array;
+}
+
+export function vertexCount(mesh: TriangleMesh): number {
+  return mesh.positions.length / 3;
+}
+
+export function faceCount(mesh: TriangleMesh): number {
+  return mesh.triangles.length / 3;
+}
+
+/** A problem in a surface that the field engine cannot work with, or a request it cannot satisfy. */
+export class FieldError extends Error {
+  constructor(
+    /** Stable machine-readable reason, e.g. `non-manifold-edge`, `index-budget`. */
+    readonly code: string,
+    message: string,
+  ) {
+    super(message);
+    this.name = 'FieldError';
+  }
+}
+
+/** Lists up to `limit` items of a list for an error message: "3, 17, 20 and 12 more". */
+export function describeFirst(items: ArrayLike<number | string>, limit = 5): string {
+  const shown: string[] = [];
+  for (let i = 0; i < Math.min(limit, items.length); i++) shown.push(String(items[i]));
+  const rest = items.length - shown.length;
+  return rest > 0 ? `${shown.join(', ')} and ${rest} more` : shown.join(', ');
+}
