@@ -1,0 +1,20 @@
+// The JSON envelope of every route handler under app/api, shared with the client code.
+// Success: { data: T } with a 2xx status. Failure: { error: ApiError } with a 4xx/5xx status.
+import type { FieldErrors } from '../validation/fields';
+
+export type ApiErrorCode =
+  | 'invalid-input'
+  | 'email-taken'
+  | 'invalid-token'
+  | 'expired-token'
+  | 'used-token'
+  | 'not-signed-in'
+  | 'forbidden'
+  | 'not-found'
+  | 'mail-failed'
+  | 'service-unavailable';
+
+export type ApiError = { code: ApiErrorCode; message: string; fields?: FieldErrors };
+
+export type ApiSuccess<T> = { data: T };
+export type ApiFailure = { error: ApiError };

@@ -1,0 +1,65 @@
+// File storage in an S3-compatible object store through @aws-sdk/client-s3. Locally the store
+// is s3rver (services/s3.ts); production points S3_* at a hosted bucket. The store is never
+// exposed directly: the app decides who may read or write, then hands out short-lived URLs.
+import {
+  GetObjectCommand,
+  HeadBucketCommand,
+  PutObjectCommand,
+  S3Client,
+  type PutObjectCommandInput,
+} from '@aws-sdk/client-s3';
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+import { env } from './env';
+
+let client: S3Client | undefined;
+
+export function storageClient(): S3Client {
+  if (!client) {
+    const config = env();
+    client = new S3Client({
+      region: config.S3_REGION,
+      endpoint: config.S3_ENDPOINT || undefined,
+      forcePathStyle: config.S3_FORCE_PATH_STYLE,
+      credentials: { accessKeyId: config.S3_ACCESS_KEY_ID, secretAccessKey: config.S3_SECRET_ACCESS_KEY },
+      // Without these, streamed uploads are stored with their chunk framing by S3 stand-ins,
+      // and presigned uploads carry the checksum of an empty body.
+      requestChecksumCalculation: 'WHEN_REQUIRED',
+      responseChecksumValidation: 'WHEN_REQUIRED',
+    });
+  }
+  return client;
+}
+
+const PRESIGNED_URL_SECONDS = 5 * 60;
+
+export async function putObject(key: string, body: PutObjectCommandInput['Body'], contentType: string) {
+  await storageClient().send(new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body, ContentType: contentType }));
+}
+
+export async function getObjectBytes(key: string): Promise<Uint8Array> {
+  const response = await storageClient().send(new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key }));
+  if (!response.Body) throw new Error(`object ${key} has no body`);
+  return response.Body.transformToByteArray();
+}
+
+export function presignUpload(key: string, contentType: string): Promise<string> {
+  return getSignedUrl(storageClient(), new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, ContentType: contentType }), {
+    expiresIn: PRESIGNED_URL_SECONDS,
+  });
+}
+
+export function presignDownload(key: string): Promise<string> {
+  return getSignedUrl(storageClient(), new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key }), {
+    expiresIn: PRESIGNED_URL_SECONDS,
+  });
+}
+
+/** True when the bucket exists and the credentials reach it. */
+export async function storageReachable(): Promise<boolean> {
+  try {
+    await storageClient().send(new HeadBucketCommand({ Bucket: env().S3_BUCKET }));
+    return true;
+  } catch {
+    return false;
+  }
+}

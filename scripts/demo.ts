@@ -1,0 +1,31 @@
+// `npm run demo`: starts PostgreSQL and the stand-ins, migrates and seeds the demo scenario,
+// builds the app and serves it on http://127.0.0.1:3000 (APP_PORT) until Ctrl-C, which stops
+// everything this run started. The demo's data stays in .data/demo between runs.
+import { DEMO_ACCOUNTS } from '../db/demo-scenario';
+import { ROLE_LABELS } from '../lib/roles';
+import { demoProfile, migrateAndSeed, startStack } from './lib/stack';
+import { buildApp, startApp } from './lib/next-app';
+import { log, shutdown, stopEverythingOnSignals } from './lib/processes';
+
+stopEverythingOnSignals();
+const profile = demoProfile();
+try {
+  await startStack(profile);
+  await migrateAndSeed(profile);
+  await buildApp(profile);
+  const app = await startApp(profile);
+  const url = `http://127.0.0.1:${profile.ports.app}`;
+  log(`Whorlwind is running at ${url} — Ctrl-C stops it and everything it started.`);
+  log(`caught e-mail: ${url}/admin/mail (as the admin)`);
+  for (const account of DEMO_ACCOUNTS) {
+    log(`  ${account.roles.map((role) => ROLE_LABELS[role]).join(', ').padEnd(8)} ${account.email}  password: ${account.password}`);
+  }
+  const code = await app.exited;
+  log(`the app server exited with code ${code}; stopping the services`);
+  await shutdown();
+  process.exit(code === 0 ? 0 : 1);
+} catch (error) {
+  console.error(`[whorlwind] the demo could not start: ${(error as Error).message}`);
+  await shutdown();
+  process.exit(1);
+}

@@ -1,0 +1,156 @@
+// Starts what the app needs on this machine, on loopback: PostgreSQL, the S3 stand-in, the
+// SMTP sink and the payments fake. The demo and the test run use separate ports and data
+// directories (.data/demo, .data/test), so both can run at once.
+import { createServer } from 'node:net';
+import { join } from 'node:path';
+import { rm } from 'node:fs/promises';
+import knex from 'knex';
+import { DEMO_PORTS, LOCAL_DATABASE, LOCAL_S3, LOCAL_STRIPE_SECRET_KEY, TEST_PORTS, localServiceEnv, type LocalPorts } from '../../lib/local-services';
+import { startS3StandIn } from '../../services/s3';
+import { startSmtpSink } from '../../services/smtp-sink';
+import { startPaymentsFake } from '../../services/payments-fake';
+import { migrationConfig } from '../../knexfile';
+import { CommandFailed, log, onShutdown } from './processes';
+import { startPostgres } from './postgres';
+
+export const projectRoot = join(import.meta.dirname, '..', '..');
+
+export type StackProfile = {
+  name: 'demo' | 'test';
+  ports: LocalPorts;
+  databaseName: string;
+  dataDir: string;
+  /** Throw the data away before starting (and after stopping). */
+  throwaway: boolean;
+};
+
+const PORT_VARIABLES: Record<keyof LocalPorts, string> = {
+  app: 'APP_PORT',
+  postgres: 'PG_PORT',
+  s3: 'S3_PORT',
+  smtp: 'SMTP_SINK_PORT',
+  mailSink: 'MAIL_SINK_PORT',
+  payments: 'PAYMENTS_PORT',
+};
+
+/** Ports come from APP_PORT, PG_PORT, … for the demo and TEST_APP_PORT, TEST_PG_PORT, … for tests. */
+function portsFromEnvironment(defaults: LocalPorts, prefix: string): LocalPorts {
+  const ports = { ...defaults };
+  for (const [key, variable] of Object.entries(PORT_VARIABLES) as [keyof LocalPorts, string][]) {
+    const raw = process.env[prefix + variable];
+    if (raw === undefined || raw === '') continue;
+    const port = Number(raw);
+    if (!Number.isInteger(port) || port < 1 || port > 65535) {
+      throw new CommandFailed(`${prefix + variable}=${raw} is not a port number (1–65535).`);
+    }
+    ports[key] = port;
+  }
+  return ports;
+}
+
+export function demoProfile(): StackProfile {
+  return {
+    name: 'demo',
+    ports: portsFromEnvironment(DEMO_PORTS, ''),
+    databaseName: LOCAL_DATABASE.demoName,
+    dataDir: join(projectRoot, '.data', 'demo'),
+    throwaway: false,
+  };
+}
+
+export function testProfile(): StackProfile {
+  return {
+    name: 'test',
+    ports: portsFromEnvironment(TEST_PORTS, 'TEST_'),
+    databaseName: LOCAL_DATABASE.testName,
+    dataDir: join(projectRoot, '.data', 'test'),
+    throwaway: true,
+  };
+}
+
+function portIsFree(port: number): Promise<boolean> {
+  return new Promise((resolve) => {
+    const probe = createServer();
+    probe.once('error', () => resolve(false));
+    probe.listen(port, '127.0.0.1', () => probe.close(() => resolve(true)));
+  });
+}
+
+async function checkPortsFree(profile: StackProfile) {
+  const prefix = profile.name === 'test' ? 'TEST_' : '';
+  const busy: string[] = [];
+  for (const [key, variable] of Object.entries(PORT_VARIABLES) as [keyof LocalPorts, string][]) {
+    if (!(await portIsFree(profile.ports[key]))) busy.push(`${profile.ports[key]} (${prefix + variable})`);
+  }
+  if (busy.length > 0) {
+    throw new CommandFailed(
+      `These ports on 127.0.0.1 are already in use: ${busy.join(', ')}. ` +
+        `Stop what holds them (another ${profile.name} run?) or choose other ports with those variables.`,
+    );
+  }
+}
+
+/** Environment for everything that talks to this stack: the app, migrations, tests. */
+export function stackEnvironment(profile: StackProfile): NodeJS.ProcessEnv {
+  return {
+    ...process.env,
+    ...localServiceEnv(profile.ports, profile.databaseName),
+    NEXT_TELEMETRY_DISABLED: '1',
+    AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: 'true',
+  };
+}
+
+/** Starts every service of the profile; each one is stopped by shutdown(). */
+export async function startStack(profile: StackProfile) {
+  await checkPortsFree(profile);
+  const { ports } = profile;
+
+  log(`starting PostgreSQL on 127.0.0.1:${ports.postgres}`);
+  const postgres = await startPostgres(
+    {
+      dataDir: join(profile.dataDir, 'postgres'),
+      port: ports.postgres,
+      user: LOCAL_DATABASE.user,
+      password: LOCAL_DATABASE.password,
+      database: profile.databaseName,
+    },
+    { fresh: profile.throwaway },
+  );
+  onShutdown('PostgreSQL', async () => {
+    await postgres.stop();
+    if (profile.throwaway) await rm(postgres.dataDir, { recursive: true, force: true });
+  });
+
+  const s3Directory = join(profile.dataDir, 's3');
+  if (profile.throwaway) await rm(s3Directory, { recursive: true, force: true });
+  const s3 = await startS3StandIn({ port: ports.s3, directory: s3Directory, bucket: LOCAL_S3.bucket });
+  onShutdown('the S3 stand-in', async () => {
+    await s3.close();
+    if (profile.throwaway) await rm(s3Directory, { recursive: true, force: true });
+  });
+
+  const sink = await startSmtpSink({ smtpPort: ports.smtp, httpPort: ports.mailSink });
+  onShutdown('the SMTP sink', sink.close);
+
+  const paymentsFake = await startPaymentsFake({ port: ports.payments, secretKey: LOCAL_STRIPE_SECRET_KEY });
+  onShutdown('the payments fake', paymentsFake.close);
+
+  log(
+    `services up: S3 ${s3.endpoint} (bucket ${LOCAL_S3.bucket}), SMTP 127.0.0.1:${ports.smtp} ` +
+      `(caught mail: ${sink.url}/messages), payments ${paymentsFake.url}`,
+  );
+}
+
+/** Brings the schema up to date and loads the demo scenario (the seeds are idempotent). */
+export async function migrateAndSeed(profile: StackProfile) {
+  const environment = stackEnvironment(profile);
+  const connection = knex(migrationConfig(environment.DATABASE_URL!));
+  try {
+    const [, applied] = await connection.migrate.latest();
+    log(applied.length > 0 ? `applied migrations: ${applied.join(', ')}` : 'database schema is up to date');
+    await connection.seed.run();
+    log('demo scenario seeded');
+  } finally {
+    await connection.destroy();
+  }
+}
