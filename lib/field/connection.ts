@@ -81,6 +81,12 @@ export interface FieldSurface {
   readonly cornerAngles: Float64Array;
   /** Angle defect per vertex (2π − Σ angles inside, π − Σ angles on the boundary). */
   readonly angleDefects: Float64Array;
+  /**
+   * The curvature each vertex ring's holonomy is measured against: the angle defect, except on a
+   * held boundary, where a corner vertex with a single face hands its defect to the next vertex
+   * along the loop (it has no edge of its own to turn across).
+   */
+  readonly ringDefect: Float64Array;
   readonly boundary: BoundaryMode;
   /** Euler characteristic, boundary loop count and closedness per component. */
   readonly components: readonly ComponentFacts[];
@@ -168,6 +174,7 @@ export function prepareSurface(mesh: TriangleMesh, options: { boundary?: Boundar
     frames,
     cornerAngles: corners,
     angleDefects: defects,
+    ringDefect: solver.ringDefect,
     boundary,
     components,
     componentOfVertex,

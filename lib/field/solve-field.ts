@@ -1,6 +1,7 @@
 import { solveConnection, type ConnectionResult, type FieldRequest, type FieldSurface } from './connection';
 import { buildDirectionField, type DirectionField } from './direction-field';
 import { compareIndices, measureIndices, type IndexMismatch } from './indices';
+import { FieldError, describeFirst } from './mesh';
 
 /** Everything a solve produces, with the proof that it did what was asked. */
 export interface SolvedField {
@@ -8,8 +9,6 @@ export interface SolvedField {
   readonly field: DirectionField;
   /** Index measured from the field alone, per vertex (see `measureIndices`). */
   readonly measuredIndex: Float64Array;
-  /** Vertices where the measured index differs from the requested one; empty when the guarantee holds. */
-  readonly mismatches: readonly IndexMismatch[];
   readonly timings: { readonly solveMilliseconds: number; readonly fieldMilliseconds: number; readonly measureMilliseconds: number };
 }
 
@@ -18,25 +17,33 @@ const now = () => (typeof performance !== 'undefined' ? performance.now() : Date
 /**
  * Solves the connection, builds the field and measures its indices independently.
  *
- * Guarantees: throws FieldError for an infeasible request; otherwise returns a unit direction per
- * face, and `mismatches` lists every vertex whose measured index differs from the one asked
- * (zero where nothing was placed). The list is empty whenever every connection angle is below
- * π/order in size, which smooth requests on reasonable meshes satisfy; a non-empty list names the
- * vertices so the caller can show them instead of trusting a wrong field.
+ * Guarantees: either returns a unit direction per face whose independently measured index equals
+ * the requested one at every vertex where an index is defined (zero where nothing was placed), or
+ * throws a FieldError naming the reason: an infeasible request (see `solveConnection`), or
+ * (`singularities-too-close`) singularities packed more tightly than the mesh can resolve, where
+ * the field would have to turn by π/order or more between neighbouring faces.
  */
 export function solveField(surface: FieldSurface, request: FieldRequest): SolvedField {
   const connection = solveConnection(surface, request);
   const t0 = now();
   const field = buildDirectionField(surface, connection, request);
   const t1 = now();
-  const measurement = measureIndices(surface, field.faceDirection, connection.order, surface.boundary === 'free' ? undefined : surface.solver.ringDefect);
+  const measurement = measureIndices(surface, field.faceDirection, connection.order, surface.boundary === 'free' ? undefined : surface.ringDefect);
   const mismatches = compareIndices(connection, measurement);
+  if (mismatches.length > 0) throw tooCloseError(mismatches);
   const t2 = now();
   return {
     connection,
     field,
     measuredIndex: measurement.index,
-    mismatches,
     timings: { solveMilliseconds: connection.solveMilliseconds, fieldMilliseconds: t1 - t0, measureMilliseconds: t2 - t1 },
   };
+}
+
+function tooCloseError(mismatches: readonly IndexMismatch[]): FieldError {
+  const where = describeFirst(mismatches.map((m) => `${m.vertex} (asked ${m.requested}, would get ${Math.round(m.measured * 1e6) / 1e6})`), 4);
+  return new FieldError(
+    'singularities-too-close',
+    `The singularities sit too close together for this surface's resolution: the field would turn too fast between neighbouring faces at vertices ${where}. Move them apart or use a finer surface.`,
+  );
 }
