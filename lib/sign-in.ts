@@ -7,21 +7,12 @@ import { passwordMatches, spendComparisonTime } from './passwords';
 import { rolesOf } from './accounts';
 import type { Role } from './roles';
 import { signInSchema } from './validation/account';
+import { SIGN_IN_WINDOW_MINUTES, type SignInProblem } from './sign-in-problems';
 
-export const SIGN_IN_WINDOW_MINUTES = 15;
 /** Failed attempts for one e-mail address within the window before it is locked. */
 export const MAX_FAILURES_PER_EMAIL = 5;
 /** Failed attempts from one client address within the window, whatever the e-mail. */
 export const MAX_FAILURES_PER_CLIENT = 50;
-
-export type SignInProblem = 'invalid-input' | 'invalid-credentials' | 'email-not-verified' | 'too-many-attempts';
-
-export const SIGN_IN_PROBLEM_MESSAGES: Record<SignInProblem, string> = {
-  'invalid-input': 'Enter your e-mail address and password.',
-  'invalid-credentials': 'The e-mail address or the password is wrong.',
-  'email-not-verified': 'Confirm your e-mail address first: open the link we sent you, or ask for a new one.',
-  'too-many-attempts': `Too many failed sign-ins. Wait ${SIGN_IN_WINDOW_MINUTES} minutes, or reset your password to sign in now.`,
-};
 
 export type SignedInUser = { id: string; email: string; name: string; roles: Role[] };
 

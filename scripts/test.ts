@@ -1,12 +1,13 @@
 // `npm test`: everything against a throwaway stack (TEST_* ports, .data/test), so it can run
-// while the demo runs. Phases: vitest (tests/unit and tests/integration), then one `next build`
-// and Playwright (tests/browser) against `next start`. Every phase runs even when an earlier one
-// failed (except the browser tests when the build failed); the exit code is non-zero if any failed.
+// while the demo runs. Phases: tsc (type check of the whole project), vitest (tests/unit and
+// tests/integration), then one `next build` and Playwright (tests/browser) against `next start`.
+// Every phase runs even when an earlier one failed (except the browser tests when the build
+// failed); the exit code is non-zero if any failed.
 //   npm test                      all phases
 //   npm test -- vitest [args]     only vitest, e.g. `npm test -- vitest tests/integration/accounts.test.ts`
 //   npm test -- browser [args]    only the build and the browser tests, e.g. `npm test -- browser --grep 403`
 import { existsSync } from 'node:fs';
-import { mkdir, readFile } from 'node:fs/promises';
+import { mkdir, readFile, rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import { migrateAndSeed, projectRoot, stackEnvironment, startStack, testProfile, type StackProfile } from './lib/stack';
 import { buildApp, startApp } from './lib/next-app';
@@ -27,8 +28,20 @@ async function ensureChromium() {
   await aptInstall('chromium');
 }
 
+async function runTypeCheck(): Promise<Tally> {
+  log('type-checking the project (tsc --noEmit)');
+  const tsc = join(projectRoot, 'node_modules', 'typescript', 'bin', 'tsc');
+  try {
+    await runCommand(process.execPath, [tsc, '--noEmit', '-p', projectRoot], { cwd: projectRoot });
+    return { phase: 'typecheck', passed: 0, failed: 0 };
+  } catch (failure) {
+    return { phase: 'typecheck', passed: 0, failed: 0, error: (failure as Error).message };
+  }
+}
+
 async function runVitest(profile: StackProfile, args: string[]): Promise<Tally> {
   const report = join(reportDir, 'vitest.json');
+  await rm(report, { force: true });
   const vitest = join(projectRoot, 'node_modules', 'vitest', 'vitest.mjs');
   let error: string | undefined;
   try {
@@ -52,6 +65,7 @@ async function runBrowserTests(profile: StackProfile, args: string[]): Promise<T
   await buildApp(profile);
   await startApp(profile);
   const report = join(reportDir, 'playwright.json');
+  await rm(report, { force: true });
   const playwright = join(projectRoot, 'node_modules', '@playwright', 'test', 'cli.js');
   let error: string | undefined;
   try {
@@ -96,6 +110,7 @@ const profile = testProfile();
 const tallies: Tally[] = [];
 try {
   await mkdir(reportDir, { recursive: true });
+  if (only === undefined) tallies.push(await runTypeCheck());
   await startStack(profile);
   await migrateAndSeed(profile);
   if (only !== 'browser') tallies.push(await runVitest(profile, only === 'vitest' ? passThrough : []));

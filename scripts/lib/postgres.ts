@@ -121,7 +121,8 @@ async function postgresIds(): Promise<[number, number]> {
 
 async function pgCtl(bin: string, args: string[]) {
   const [command, fullArgs] = asServerUser(join(bin, 'pg_ctl'), args);
-  return runCommand(command, fullArgs, { quiet: true });
+  // Stopping the server is a teardown step, so pg_ctl may run while shutting down.
+  return runCommand(command, fullArgs, { quiet: true, duringShutdown: true });
 }
 
 async function isRunning(bin: string, dataDir: string) {
@@ -134,22 +135,31 @@ async function isRunning(bin: string, dataDir: string) {
   }
 }
 
-export type RunningPostgres = { dataDir: string; stop: () => Promise<void> };
+export type PostgresServer = {
+  dataDir: string;
+  start: (options: { fresh: boolean }) => Promise<void>;
+  stop: () => Promise<void>;
+};
+
+/** Installs PostgreSQL if needed and settles where its data lives; starts nothing yet. */
+export async function preparePostgres(settings: PostgresSettings): Promise<PostgresServer> {
+  const bin = await ensurePostgresInstalled();
+  const dataDir = await usableDataDir(settings.dataDir);
+  const stop = async () => {
+    if (await isRunning(bin, dataDir)) await pgCtl(bin, ['-D', dataDir, '-m', 'fast', '-w', 'stop']);
+  };
+  return { dataDir, stop, start: (options) => startServer(bin, dataDir, settings, options.fresh, stop) };
+}
 
 /**
  * Starts the server on 127.0.0.1:port (creating the cluster when needed, or afresh when `fresh`)
  * and makes sure the database exists. Unix sockets are off: everything connects over TCP, and
  * long checkout paths would overflow the socket path limit.
  */
-export async function startPostgres(settings: PostgresSettings, options: { fresh: boolean }): Promise<RunningPostgres> {
-  const bin = await ensurePostgresInstalled();
-  const dataDir = await usableDataDir(settings.dataDir);
-  const stop = async () => {
-    if (await isRunning(bin, dataDir)) await pgCtl(bin, ['-D', dataDir, '-m', 'fast', '-w', 'stop']);
-  };
+async function startServer(bin: string, dataDir: string, settings: PostgresSettings, fresh: boolean, stop: () => Promise<void>) {
   // A server left behind by an interrupted run would hold the port and the files.
   await stop();
-  if (options.fresh) await rm(dataDir, { recursive: true, force: true });
+  if (fresh) await rm(dataDir, { recursive: true, force: true });
   if (!existsSync(join(dataDir, 'PG_VERSION'))) {
     log(`creating a PostgreSQL cluster in ${dataDir}`);
     await initCluster(bin, dataDir, settings);
@@ -163,7 +173,6 @@ export async function startPostgres(settings: PostgresSettings, options: { fresh
     );
   }
   await createDatabaseIfMissing(settings);
-  return { dataDir, stop };
 }
 
 async function createDatabaseIfMissing(settings: PostgresSettings) {

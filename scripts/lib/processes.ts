@@ -51,10 +51,16 @@ export function stopEverythingOnSignals() {
 
 export class CommandFailed extends Error {}
 
-type CommandOptions = { env?: NodeJS.ProcessEnv; cwd?: string; quiet?: boolean };
+type CommandOptions = {
+  env?: NodeJS.ProcessEnv;
+  cwd?: string;
+  quiet?: boolean;
+  /** Teardown steps run commands too; everything else must not start once shutdown began. */
+  duringShutdown?: boolean;
+};
 
 function spawnTracked(command: string, args: string[], options: CommandOptions): ChildProcess {
-  if (shuttingDown) throw new CommandFailed(`not starting ${command}: shutting down`);
+  if (shuttingDown && !options.duringShutdown) throw new CommandFailed(`not starting ${command}: shutting down`);
   const spawnOptions: SpawnOptions = {
     cwd: options.cwd,
     env: options.env ?? process.env,

@@ -11,7 +11,7 @@ import { startSmtpSink } from '../../services/smtp-sink';
 import { startPaymentsFake } from '../../services/payments-fake';
 import { migrationConfig } from '../../knexfile';
 import { CommandFailed, log, onShutdown } from './processes';
-import { startPostgres } from './postgres';
+import { preparePostgres } from './postgres';
 
 export const projectRoot = join(import.meta.dirname, '..', '..');
 
@@ -106,20 +106,19 @@ export async function startStack(profile: StackProfile) {
   const { ports } = profile;
 
   log(`starting PostgreSQL on 127.0.0.1:${ports.postgres}`);
-  const postgres = await startPostgres(
-    {
-      dataDir: join(profile.dataDir, 'postgres'),
-      port: ports.postgres,
-      user: LOCAL_DATABASE.user,
-      password: LOCAL_DATABASE.password,
-      database: profile.databaseName,
-    },
-    { fresh: profile.throwaway },
-  );
+  const postgres = await preparePostgres({
+    dataDir: join(profile.dataDir, 'postgres'),
+    port: ports.postgres,
+    user: LOCAL_DATABASE.user,
+    password: LOCAL_DATABASE.password,
+    database: profile.databaseName,
+  });
+  // Registered before starting, so an interruption during start-up still stops the server.
   onShutdown('PostgreSQL', async () => {
     await postgres.stop();
     if (profile.throwaway) await rm(postgres.dataDir, { recursive: true, force: true });
   });
+  await postgres.start({ fresh: profile.throwaway });
 
   const s3Directory = join(profile.dataDir, 's3');
   if (profile.throwaway) await rm(s3Directory, { recursive: true, force: true });

@@ -1,0 +1,19 @@
+// Sends a password reset link; answers the same whether or not the address has an account.
+import { requestPasswordReset } from '@/lib/accounts';
+import { MailNotSent } from '@/lib/mail';
+import { jsonData, jsonError, readJson } from '@/lib/api/server';
+import { emailOnlySchema } from '@/lib/validation/account';
+
+export type PasswordResetRequestResponse = { email: string };
+
+export async function POST(request: Request) {
+  const input = await readJson(request, emailOnlySchema);
+  if (!input.ok) return input.response;
+  try {
+    await requestPasswordReset(input.value.email);
+    return jsonData<PasswordResetRequestResponse>({ email: input.value.email });
+  } catch (error) {
+    if (error instanceof MailNotSent) return jsonError(502, 'mail-failed', 'The e-mail could not be sent. Try again in a moment.');
+    throw error;
+  }
+}

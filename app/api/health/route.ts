@@ -1,0 +1,14 @@
+// Answers 200 when the server can reach its database; the task scripts wait on it.
+import { db } from '@/lib/db';
+import { jsonData, jsonError } from '@/lib/api/server';
+
+export type HealthResponse = { database: 'reachable' };
+
+export async function GET() {
+  try {
+    await db().raw('SELECT 1');
+    return jsonData<HealthResponse>({ database: 'reachable' });
+  } catch (error) {
+    return jsonError(503, 'service-unavailable', `The database cannot be reached: ${(error as Error).message}`);
+  }
+}

@@ -1,0 +1,30 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { AccountPanel } from '@/components/account/AccountPanel';
+import { SignInForm } from '@/components/account/SignInForm';
+import { currentSession } from '@/lib/auth';
+import { safeCallbackPath } from '@/lib/safe-callback';
+
+export const metadata: Metadata = { title: 'Sign in' };
+
+export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const callbackUrl = safeCallbackPath((await searchParams).callbackUrl);
+  const session = await currentSession();
+  if (session) {
+    return (
+      <AccountPanel title="You are signed in">
+        <p>
+          You are signed in as <strong>{session.user.email}</strong>.{' '}
+          <Link href={callbackUrl} className="font-semibold text-tarn">
+            Continue
+          </Link>
+        </p>
+      </AccountPanel>
+    );
+  }
+  return (
+    <AccountPanel title="Sign in" intro="Welcome back to the studio floor.">
+      <SignInForm callbackUrl={callbackUrl} />
+    </AccountPanel>
+  );
+}

@@ -1,0 +1,117 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { db, closeDb } from '@/lib/db';
+import { requestPasswordReset, resetPassword, resendVerification, signUp, verifyEmail } from '@/lib/accounts';
+import { checkCredentials } from '@/lib/sign-in';
+import { mailTo, onlyMailTo, tokenFromLink, uniqueEmail } from './helpers';
+
+afterAll(closeDb);
+
+const password = 'lay-of-the-coat-7';
+
+async function confirmedAccount(label: string) {
+  const email = uniqueEmail(label);
+  await signUp({ displayName: 'Juniper Vale', email, password, role: 'groomer' });
+  await verifyEmail(tokenFromLink(await onlyMailTo(email), '/verify-email'));
+  return email;
+}
+
+describe('sign-up and e-mail confirmation', () => {
+  it('creates the account with its role and mails a confirmation link that works once', async () => {
+    const email = uniqueEmail('signup');
+    const result = await signUp({ displayName: 'Juniper Vale', email, password, role: 'buyer' });
+    expect(result).toMatchObject({ ok: true, email });
+
+    const user = await db()('users').where({ email }).first();
+    expect(user.email_verified_at).toBeNull();
+    expect(user.password_hash).not.toContain(password);
+    expect(await db()('user_roles').where({ user_id: user.id }).pluck('role')).toEqual(['buyer']);
+
+    const mail = await onlyMailTo(email);
+    expect(mail.subject).toBe('Confirm your e-mail address for Whorlwind');
+    const token = tokenFromLink(mail, '/verify-email');
+
+    expect(await verifyEmail(token)).toEqual({ ok: true, email });
+    expect((await db()('users').where({ email }).first()).email_verified_at).not.toBeNull();
+    expect(await verifyEmail(token)).toEqual({ ok: false, problem: 'used-token' });
+  });
+
+  it('refuses a taken e-mail address, whatever its case, and changes nothing', async () => {
+    const email = uniqueEmail('taken');
+    await signUp({ displayName: 'First Owner', email, password, role: 'groomer' });
+    const usersBefore = await db()('users').count<{ count: string }[]>('* as count');
+
+    const again = await signUp({ displayName: 'Second Try', email, password: 'another-password', role: 'buyer' });
+    expect(again).toEqual({ ok: false, problem: 'email-taken' });
+
+    expect(await db()('users').count('* as count')).toEqual(usersBefore);
+    expect((await db()('users').where({ email }).first()).display_name).toBe('First Owner');
+    expect(await mailTo(email)).toHaveLength(1);
+  });
+
+  it('refuses a wrong verification token', async () => {
+    expect(await verifyEmail('A'.repeat(43))).toEqual({ ok: false, problem: 'invalid-token' });
+  });
+
+  it('refuses an expired verification token and can send a new link', async () => {
+    const email = uniqueEmail('late');
+    await signUp({ displayName: 'Late Opener', email, password, role: 'groomer' });
+    const token = tokenFromLink(await onlyMailTo(email), '/verify-email');
+    await db()('account_tokens').where({ purpose: 'verify-email' }).whereIn('user_id', db()('users').where({ email }).select('id')).update({
+      expires_at: db().raw(`now() - interval '1 minute'`),
+    });
+
+    expect(await verifyEmail(token)).toEqual({ ok: false, problem: 'expired-token' });
+
+    await resendVerification(email);
+    const [newest] = await mailTo(email);
+    expect(await verifyEmail(tokenFromLink(newest, '/verify-email'))).toEqual({ ok: true, email });
+  });
+
+  it('sends no new link to confirmed or unknown addresses', async () => {
+    const email = await confirmedAccount('confirmed');
+    await resendVerification(email);
+    expect(await mailTo(email)).toHaveLength(1);
+
+    const nobody = uniqueEmail('nobody');
+    await resendVerification(nobody);
+    expect(await mailTo(nobody)).toHaveLength(0);
+  });
+});
+
+describe('password reset', () => {
+  it('changes the password through the mailed link, once', async () => {
+    const email = await confirmedAccount('reset');
+    await requestPasswordReset(email);
+    const [resetMail] = await mailTo(email);
+    expect(resetMail.subject).toBe('Choose a new Whorlwind password');
+    const token = tokenFromLink(resetMail, '/reset-password');
+
+    expect(await resetPassword({ token, password: 'a-brand-new-pass' })).toEqual({ ok: true, email });
+    expect((await checkCredentials({ email, password: 'a-brand-new-pass' }, null)).ok).toBe(true);
+    expect(await checkCredentials({ email, password }, null)).toEqual({ ok: false, problem: 'invalid-credentials' });
+    expect(await resetPassword({ token, password: 'yet-another-pass' })).toEqual({ ok: false, problem: 'used-token' });
+  });
+
+  it('refuses an expired reset token and keeps the old password', async () => {
+    const email = await confirmedAccount('expired');
+    await requestPasswordReset(email);
+    const token = tokenFromLink((await mailTo(email))[0], '/reset-password');
+    await db()('account_tokens').where({ purpose: 'reset-password' }).whereIn('user_id', db()('users').where({ email }).select('id')).update({
+      expires_at: db().raw(`now() - interval '1 second'`),
+    });
+
+    expect(await resetPassword({ token, password: 'should-not-stick' })).toEqual({ ok: false, problem: 'expired-token' });
+    expect((await checkCredentials({ email, password }, null)).ok).toBe(true);
+    expect(await checkCredentials({ email, password: 'should-not-stick' }, null)).toEqual({ ok: false, problem: 'invalid-credentials' });
+  });
+
+  it('refuses a wrong reset token', async () => {
+    expect(await resetPassword({ token: 'B'.repeat(43), password: 'whatever-pass' })).toEqual({ ok: false, problem: 'invalid-token' });
+  });
+
+  it('sends nothing for an unknown address', async () => {
+    const nobody = uniqueEmail('unknown');
+    await requestPasswordReset(nobody);
+    expect(await mailTo(nobody)).toHaveLength(0);
+  });
+});

@@ -1,0 +1,53 @@
+// When the confirmation e-mail cannot be sent, sign-up must leave nothing behind. The SMTP
+// server address is pointed at a port where nothing listens (vitest gives each test file its
+// own modules, so this configuration stays in this file).
+import { createServer } from 'node:net';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { jsonRequest, uniqueEmail } from './helpers';
+
+async function closedPort(): Promise<number> {
+  const server = createServer();
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const { port } = server.address() as { port: number };
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+  return port;
+}
+
+let modules: {
+  db: typeof import('@/lib/db');
+  accounts: typeof import('@/lib/accounts');
+  mail: typeof import('@/lib/mail');
+  signUpRoute: typeof import('@/app/api/account/sign-up/route');
+};
+
+beforeAll(async () => {
+  process.env.SMTP_PORT = String(await closedPort());
+  modules = {
+    db: await import('@/lib/db'),
+    accounts: await import('@/lib/accounts'),
+    mail: await import('@/lib/mail'),
+    signUpRoute: await import('@/app/api/account/sign-up/route'),
+  };
+});
+
+afterAll(() => modules.db.closeDb());
+
+describe('sign-up while mail cannot be sent', () => {
+  it('rolls back the account, its role and its token', async () => {
+    const email = uniqueEmail('nomail');
+    await expect(modules.accounts.signUp({ displayName: 'Unlucky', email, password: 'pass-word-pass', role: 'groomer' })).rejects.toThrow(
+      modules.mail.MailNotSent,
+    );
+    expect(await modules.db.db()('users').where({ email })).toHaveLength(0);
+  });
+
+  it('tells the person through the API that no account was created', async () => {
+    const email = uniqueEmail('nomail-api');
+    const response = await modules.signUpRoute.POST(
+      jsonRequest('/api/account/sign-up', { displayName: 'Unlucky', email, password: 'pass-word-pass', role: 'buyer' }),
+    );
+    expect(response.status).toBe(502);
+    expect((await response.json()).error).toMatchObject({ code: 'mail-failed', message: expect.stringMatching(/no account was created/) });
+    expect(await modules.db.db()('users').where({ email })).toHaveLength(0);
+  });
+});

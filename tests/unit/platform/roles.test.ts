@@ -1,0 +1,30 @@
+import { describe, expect, it } from 'vitest';
+import { area, mayEnter, visibleAreas } from '@/lib/roles';
+
+const ids = (roles: Parameters<typeof visibleAreas>[0]) => visibleAreas(roles).map((entry) => entry.id);
+
+describe('areas by role', () => {
+  it('shows visitors only the market', () => {
+    expect(ids(null)).toEqual(['market']);
+  });
+
+  it('gives groomers the studio and sales, and lets them buy', () => {
+    expect(ids(['groomer'])).toEqual(['studio', 'market', 'library', 'sales']);
+  });
+
+  it('keeps buyers out of the studio and sales', () => {
+    expect(ids(['buyer'])).toEqual(['market', 'library']);
+    expect(mayEnter(area('studio'), ['buyer'])).toBe(false);
+    expect(mayEnter(area('sales'), ['buyer'])).toBe(false);
+  });
+
+  it('opens admin to admins only', () => {
+    expect(mayEnter(area('admin'), ['admin'])).toBe(true);
+    expect(mayEnter(area('admin'), ['groomer', 'buyer'])).toBe(false);
+    expect(mayEnter(area('admin'), null)).toBe(false);
+  });
+
+  it('adds up the areas of several roles', () => {
+    expect(ids(['admin', 'groomer'])).toEqual(['studio', 'market', 'library', 'sales', 'admin']);
+  });
+});
