@@ -12,6 +12,7 @@
  */
 import { assertSymmetricSparse, type SymmetricSparse } from './sparse';
 import { graphOfSymmetric, minimumDegreeOrder, nestedDissectionOrder } from './ordering';
+import { factorPanel, subtractGram } from './cholesky-dense';
 
 export interface CholeskyFactor {
   readonly n: number;
@@ -576,7 +577,11 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     }
   }
   // A pivot this small relative to its diagonal is rounding noise on a singular matrix.
-  const pivotFloor = n * 2.220446049250313e-16;
+  const pivotFloor = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    const q = diagonalEntry[j];
+    pivotFloor[j] = q >= 0 ? n * 2.220446049250313e-16 * Math.abs(aValues[q]) : 0;
+  }
   const failedPivot = new Float64Array(1);
   let stackTop = 0;
   for (let s = 0; s < supernodes; s++) {
@@ -595,9 +600,9 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
       const cr = rowPtr[c + 1] - rowPtr[c] - ck;
       extendAdd(stack, updateAt[c], cr, rel, relPtr[c], relSplit[c], L, off, k, stack, uAt, r);
     }
-    const bad = factorPanel(L, off, m, k, diagonalEntry, f, aValues, pivotFloor, failedPivot);
+    const bad = factorPanel(L, off, m, k, pivotFloor, f, failedPivot);
     if (bad >= 0) throw new NotPositiveDefiniteError(symbolic.perm[f + bad], failedPivot[0]);
-    if (r > 0) updateSchur(L, off + k * k, r, k, stack, uAt);
+    if (r > 0) subtractGram(stack, uAt, r, r, L, off + k * k, k, k);
     if (uAt !== base) stack.copyWithin(base, uAt, uAt + r * r);
     updateAt[s] = base;
     stackTop = base + r * r;
@@ -638,59 +643,6 @@ function extendAdd(
     if (a >= split) {
       const uRow = uAt + (ra - k) * r - k;
       for (let b = split; b <= a; b++) stack[uRow + rel[relAt + b]] += child[src + b];
-    }
-  }
-}
-
-/**
- * Factors the supernode's m×k row-major panel in place: the top k×k block becomes L₁₁
- * (lower), the rows below become L₂₁ = A₂₁ L₁₁⁻ᵀ. Returns the local column of a failed
- * pivot, or −1.
- */
-function factorPanel(
-  L: Float64Array,
-  off: number,
-  m: number,
-  k: number,
-  diagonalEntry: Int32Array,
-  firstPivot: number,
-  aValues: Float64Array,
-  pivotFloor: number,
-  failedPivot: Float64Array,
-): number {
-  for (let i = 0; i < m; i++) {
-    const rowI = off + i * k;
-    const lim = i < k ? i : k;
-    for (let j = 0; j < lim; j++) {
-      const rowJ = off + j * k;
-      let sum = L[rowI + j];
-      for (let q = 0; q < j; q++) sum -= L[rowI + q] * L[rowJ + q];
-      L[rowI + j] = sum / L[rowJ + j];
-    }
-    if (i < k) {
-      let d = L[rowI + i];
-      for (let q = 0; q < i; q++) d -= L[rowI + q] * L[rowI + q];
-      const dq = diagonalEntry[firstPivot + i];
-      const scale = dq >= 0 ? Math.abs(aValues[dq]) : 0;
-      if (!(d > pivotFloor * scale) || d === Infinity) {
-        failedPivot[0] = d;
-        return i;
-      }
-      L[rowI + i] = Math.sqrt(d);
-    }
-  }
-  return -1;
-}
-
-/** U −= L₂₁ L₂₁ᵀ on the lower triangle of the r×r update matrix. */
-function updateSchur(L: Float64Array, l21: number, r: number, k: number, U: Float64Array, uAt: number): void {
-  for (let a = 0; a < r; a++) {
-    const rowA = l21 + a * k;
-    for (let b = 0; b <= a; b++) {
-      const rowB = l21 + b * k;
-      let sum = 0;
-      for (let q = 0; q < k; q++) sum += L[rowA + q] * L[rowB + q];
-      U[uAt + a * r + b] -= sum;
     }
   }
 }

@@ -451,14 +451,14 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
       continue;
     }
 
-    // pseudo-peripheral vertex: restart from a low-degree vertex of the last level
-    // while the eccentricity keeps growing
-    let root = verts[lo];
-    let height = levelStart.length - 1;
-    for (let pass = 0; pass < 8; pass++) {
+    // Two sweeps find a pseudo-peripheral vertex: the search above ended on the far
+    // side of the piece, so a low-degree vertex of its last level starts the level
+    // structure. More sweeps rarely lengthen the diameter enough to pay for themselves.
+    {
       let best = -1;
       let bestDegree = Infinity;
-      for (let t = levelStart[height - 1]; t < levelStart[height]; t++) {
+      const last = levelStart.length - 1;
+      for (let t = levelStart[last - 1]; t < levelStart[last]; t++) {
         const v = queue[t];
         const d = offsets[v + 1] - offsets[v];
         if (d < bestDegree) {
@@ -467,15 +467,8 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
         }
       }
       bfs(best, id);
-      const h = levelStart.length - 1;
-      if (h <= height) {
-        bfs(root, id);
-        break;
-      }
-      root = best;
-      height = h;
     }
-    height = levelStart.length - 1;
+    const height = levelStart.length - 1;
     if (height < 3) {
       orderLeaf(lo, hi);
       continue;
