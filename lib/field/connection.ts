@@ -129,7 +129,14 @@ interface RowCacheEntry {
   readonly couplingIdx: Int32Array;
   readonly couplingVal: Float64Array;
   readonly schur: Map<string, number>;
+  /** L⁻¹Pᵣ, kept while memory allows so a re-solve needs one sparse solve instead of two. */
+  response: Float64Array | null;
 }
+
+/** Doubles of L⁻¹Pᵣ columns kept per surface (≈ 200 MB). */
+const RESPONSE_BUDGET = 24_000_000;
+/** Extra rows remembered per surface before the caches start over. */
+const ROW_CACHE_LIMIT = 4000;
 
 /** The factored vertex-ring system C Cᵀ and the Schur-complement caches for extra rows. */
 interface RingSolver {
@@ -141,6 +148,7 @@ interface RingSolver {
   readonly factor: CholeskyFactor;
   readonly rowCache: Map<string, RowCacheEntry>;
   readonly luCache: Map<string, DenseLU>;
+  storedResponses: number;
   readonly scratch: Float64Array;
 }
 
@@ -273,6 +281,7 @@ function buildRingSolver(
     factor,
     rowCache: new Map(),
     luCache: new Map(),
+    storedResponses: 0,
     scratch: new Float64Array(topology.edgeCount),
   };
 }
@@ -508,12 +517,18 @@ function sparseDot(idx: Int32Array, val: Float64Array, dense: Float64Array): num
 
 /** Makes sure every row has its coupling and its Schur entries against all the others cached. */
 function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEntry[] {
-  const { rowCache, factor, scratch } = surface.solver;
+  const solver = surface.solver;
+  const { rowCache, factor, scratch } = solver;
+  if (rowCache.size + rows.length > ROW_CACHE_LIMIT) {
+    rowCache.clear();
+    solver.luCache.clear();
+    solver.storedResponses = 0;
+  }
   const entries = rows.map((row) => {
     let entry = rowCache.get(row.key);
     if (!entry) {
       const { idx, val } = coupling(surface, row);
-      entry = { couplingIdx: idx, couplingVal: val, schur: new Map() };
+      entry = { couplingIdx: idx, couplingVal: val, schur: new Map(), response: null };
       rowCache.set(row.key, entry);
     }
     return entry;
@@ -526,6 +541,10 @@ function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEn
     rhs.fill(0);
     for (let k = 0; k < entry.couplingIdx.length; k++) rhs[entry.couplingIdx[k]] = entry.couplingVal[k];
     const w = factor.solve(rhs);
+    if (solver.storedResponses + w.length <= RESPONSE_BUDGET) {
+      entry.response = w;
+      solver.storedResponses += w.length;
+    }
     if (row.chain) for (let k = 0; k < row.chain.edges.length; k++) scratch[row.chain.edges[k]] += row.chain.signs[k];
     rows.forEach((other, j) => {
       if (entry.schur.has(other.key)) return;
@@ -569,12 +588,21 @@ function solveRows(surface: FieldSurface, ringValues: Float64Array, rows: readon
     const rhs = new Float64Array(k);
     for (let i = 0; i < k; i++) rhs[i] = rows[i].value - sparseDot(entries[i].couplingIdx, entries[i].couplingVal, t);
     z = lu.solve(rhs);
-    const corrected = ringValues.slice();
-    for (let i = 0; i < k; i++) {
-      const e = entries[i];
-      for (let q = 0; q < e.couplingIdx.length; q++) corrected[e.couplingIdx[q]] -= z[i] * e.couplingVal[q];
+    if (entries.every((e) => e.response)) {
+      y = t.slice();
+      for (let i = 0; i < k; i++) {
+        const w = entries[i].response!;
+        const zi = z[i];
+        for (let r = 0; r < y.length; r++) y[r] -= zi * w[r];
+      }
+    } else {
+      const corrected = ringValues.slice();
+      for (let i = 0; i < k; i++) {
+        const e = entries[i];
+        for (let q = 0; q < e.couplingIdx.length; q++) corrected[e.couplingIdx[q]] -= z[i] * e.couplingVal[q];
+      }
+      y = factor.solve(corrected);
     }
-    y = factor.solve(corrected);
   }
   const removed = new Uint8Array(vertexOfRow.length);
   rows.forEach((r) => {
@@ -709,7 +737,7 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
 
   // Tie each feature to the first fixed face of its piece of surface; the turning along the tie
   // is whatever the field would do without it, rounded to a whole symmetry step.
-  const piece = dualPieces(topology, curves.cutEdge);
+  const piece = features.length > 0 ? dualPieces(topology, curves.cutEdge) : topology.componentOfFace;
   const referenceOfPiece = new Map<number, number>();
   const stage2: ExtraRow[] = [];
   for (const f of features) {

@@ -35,7 +35,7 @@ export function buildDirectionField(surface: FieldSurface, connection: Connectio
   const topology = surface.topology;
   const frames = surface.frames;
   const nF = topology.faceCount;
-  const piece = dualPieces(topology, connection.cutEdge);
+  const piece = connection.cutEdge.includes(1) ? dualPieces(topology, connection.cutEdge) : topology.componentOfFace;
   const rootOfPiece = new Map<number, number>();
   for (const face of connection.fixedFaces.keys()) if (!rootOfPiece.has(piece[face])) rootOfPiece.set(piece[face], face);
 
