@@ -81,8 +81,15 @@ interface SupernodalLayout {
   /** rows of supernode s (pivot numbering): rows[rowPtr[s] .. rowPtr[s+1]), increasing */
   rowPtr: Int32Array;
   rows: Int32Array;
-  /** start of supernode s's m×k row-major block in the values array */
+  /**
+   * Supernode s's values start at valuePtr[s]: first its k×k diagonal block L₁₁, packed
+   * lower triangle by rows (row i holds i+1 entries), then the r×k block L₂₁ below it,
+   * by rows. Packing spares the upper half of each diagonal block, which on large
+   * meshes is an eighth of the factor's memory.
+   */
   valuePtr: Float64Array;
+  /** largest k among supernodes, to size the dense scratch for one diagonal block */
+  maxColumns: number;
   /** for each child's update row, its row position in the parent's front */
   relPtr: Int32Array;
   rel: Int32Array;
@@ -456,7 +463,7 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   for (let s = 0; s < supernodes; s++) {
     const k = firstCol[s + 1] - firstCol[s];
     const m = rowPtr[s + 1] - rowPtr[s];
-    valuePtr[s + 1] = valuePtr[s] + m * k;
+    valuePtr[s + 1] = valuePtr[s] + (k * (k + 1)) / 2 + (m - k) * k;
     const r = m - k;
     // k³/3 for the diagonal block, r·k² for the panel solve, r²·k for the update
     flops += (k * k * k) / 3 + r * k * k + r * r * k;
@@ -490,14 +497,19 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       relSplit[c] = split;
     }
     const base = valuePtr[s];
+    const below = base + (k * (k + 1)) / 2 - k * k; // row p ≥ k of the supernode starts at below + p·k
     for (let j = f; j < f + k; j++) {
+      const c = j - f;
       const dq = diagonalEntry[j];
-      if (dq >= 0) entryDestination[dq] = base + (j - f) * k + (j - f);
+      if (dq >= 0) entryDestination[dq] = base + (c * (c + 1)) / 2 + c;
       for (let q = lower.ptr[j]; q < lower.ptr[j + 1]; q++) {
-        entryDestination[lower.src[q]] = base + position[lower.idx[q]] * k + (j - f);
+        const p = position[lower.idx[q]];
+        entryDestination[lower.src[q]] = p < k ? base + (p * (p + 1)) / 2 + c : below + p * k + c;
       }
     }
   }
+  let maxColumns = 0;
+  for (let s = 0; s < supernodes; s++) maxColumns = Math.max(maxColumns, firstCol[s + 1] - firstCol[s]);
   // Simulate the update stack in factorization order to size it once.
   let stackTop = 0;
   let stackSize = 0;
@@ -526,6 +538,7 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       rowPtr,
       rows,
       valuePtr,
+      maxColumns,
       relPtr,
       rel,
       relSplit,
@@ -583,6 +596,8 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     pivotFloor[j] = q >= 0 ? n * 2.220446049250313e-16 * Math.abs(aValues[q]) : 0;
   }
   const failedPivot = new Float64Array(1);
+  // the diagonal block being factored, unpacked to full rows for the dense kernels
+  const D = new Float64Array(lay.maxColumns * lay.maxColumns);
   let stackTop = 0;
   for (let s = 0; s < supernodes; s++) {
     const f = firstCol[s];
@@ -590,6 +605,11 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     const m = rowPtr[s + 1] - rowPtr[s];
     const r = m - k;
     const off = valuePtr[s];
+    const below = off + (k * (k + 1)) / 2;
+    for (let i = 0, t = off; i < k; i++) {
+      const row = i * k;
+      for (let j = 0; j <= i; j++) D[row + j] = L[t++];
+    }
     const firstChild = childHead[s];
     const base = firstChild === -1 ? stackTop : updateAt[firstChild];
     // the new update matrix goes above the children's, then slides down over them
@@ -598,11 +618,15 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     for (let c = firstChild; c !== -1; c = childNext[c]) {
       const ck = firstCol[c + 1] - firstCol[c];
       const cr = rowPtr[c + 1] - rowPtr[c] - ck;
-      extendAdd(stack, updateAt[c], cr, rel, relPtr[c], relSplit[c], L, off, k, stack, uAt, r);
+      extendAdd(stack, updateAt[c], cr, rel, relPtr[c], relSplit[c], D, L, below, k, stack, uAt, r);
     }
-    const bad = factorPanel(L, off, m, k, pivotFloor, f, failedPivot);
+    const bad = factorPanel(D, L, below, k, r, pivotFloor, f, failedPivot);
     if (bad >= 0) throw new NotPositiveDefiniteError(symbolic.perm[f + bad], failedPivot[0]);
-    if (r > 0) subtractGram(stack, uAt, r, r, L, off + k * k, k, k);
+    for (let i = 0, t = off; i < k; i++) {
+      const row = i * k;
+      for (let j = 0; j <= i; j++) L[t++] = D[row + j];
+    }
+    if (r > 0) subtractGram(stack, uAt, r, r, L, below, k, k);
     if (uAt !== base) stack.copyWithin(base, uAt, uAt + r * r);
     updateAt[s] = base;
     stackTop = base + r * r;
@@ -619,7 +643,11 @@ function samePattern(lay: SupernodalLayout, A: SymmetricSparse): boolean {
   return true;
 }
 
-/** Adds a child's update matrix (cr×cr, lower part) into its parent's front. */
+/**
+ * Adds a child's update matrix (cr×cr, lower part) into its parent's front: rows that are
+ * the parent's own pivots go to the unpacked diagonal block D (k×k), other rows' pivot
+ * columns to L₂₁ (row p ≥ k at below + (p−k)·k), the rest to the parent's update matrix.
+ */
 function extendAdd(
   child: Float64Array,
   childAt: number,
@@ -627,8 +655,9 @@ function extendAdd(
   rel: Int32Array,
   relAt: number,
   split: number,
+  D: Float64Array,
   L: Float64Array,
-  panelAt: number,
+  below: number,
   k: number,
   stack: Float64Array,
   uAt: number,
@@ -637,10 +666,12 @@ function extendAdd(
   for (let a = 0; a < cr; a++) {
     const ra = rel[relAt + a];
     const src = childAt + a * cr;
-    const panelRow = panelAt + ra * k;
-    const lim = a < split ? a + 1 : split;
-    for (let b = 0; b < lim; b++) L[panelRow + rel[relAt + b]] += child[src + b];
-    if (a >= split) {
+    if (a < split) {
+      const dRow = ra * k;
+      for (let b = 0; b <= a; b++) D[dRow + rel[relAt + b]] += child[src + b];
+    } else {
+      const panelRow = below + (ra - k) * k;
+      for (let b = 0; b < split; b++) L[panelRow + rel[relAt + b]] += child[src + b];
       const uRow = uAt + (ra - k) * r - k;
       for (let b = split; b <= a; b++) stack[uRow + rel[relAt + b]] += child[src + b];
     }
@@ -675,18 +706,17 @@ class SupernodalFactor implements CholeskyFactor {
       const f = firstCol[s];
       const k = firstCol[s + 1] - f;
       const m = rowPtr[s + 1] - rowPtr[s];
-      const off = valuePtr[s];
+      let t = valuePtr[s];
       for (let i = 0; i < k; i++) {
-        const rowI = off + i * k;
         let sum = y[f + i];
-        for (let q = 0; q < i; q++) sum -= L[rowI + q] * y[f + q];
-        y[f + i] = sum / L[rowI + i];
+        for (let q = 0; q < i; q++) sum -= L[t + q] * y[f + q];
+        y[f + i] = sum / L[t + i];
+        t += i + 1;
       }
       const rp = rowPtr[s];
-      for (let i = k; i < m; i++) {
-        const rowI = off + i * k;
+      for (let i = k; i < m; i++, t += k) {
         let sum = 0;
-        for (let q = 0; q < k; q++) sum += L[rowI + q] * y[f + q];
+        for (let q = 0; q < k; q++) sum += L[t + q] * y[f + q];
         y[rows[rp + i]] -= sum;
       }
     }
@@ -695,17 +725,17 @@ class SupernodalFactor implements CholeskyFactor {
       const f = firstCol[s];
       const k = firstCol[s + 1] - f;
       const m = rowPtr[s + 1] - rowPtr[s];
-      const off = valuePtr[s];
       const rp = rowPtr[s];
-      for (let i = k; i < m; i++) {
-        const rowI = off + i * k;
-        const t = y[rows[rp + i]];
-        if (t !== 0) for (let q = 0; q < k; q++) y[f + q] -= L[rowI + q] * t;
+      let t = valuePtr[s] + (k * (k + 1)) / 2;
+      for (let i = k; i < m; i++, t += k) {
+        const yi = y[rows[rp + i]];
+        if (yi !== 0) for (let q = 0; q < k; q++) y[f + q] -= L[t + q] * yi;
       }
+      t = valuePtr[s] + (k * (k - 1)) / 2; // row k−1 of the packed diagonal block
       for (let i = k - 1; i >= 0; i--) {
-        const rowI = off + i * k;
-        const t = (y[f + i] /= L[rowI + i]);
-        for (let q = 0; q < i; q++) y[f + q] -= L[rowI + q] * t;
+        const zi = (y[f + i] /= L[t + i]);
+        for (let q = 0; q < i; q++) y[f + q] -= L[t + q] * zi;
+        t -= i;
       }
     }
     for (let k = 0; k < n; k++) x[perm[k]] = y[k];
