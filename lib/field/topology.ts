@@ -54,7 +54,7 @@ export function nextAroundVertex(t: Topology, h: number): number {
  * consistently, and the faces around every vertex form a single fan (closed, or open at the
  * boundary). Throws a FieldError naming the first offending edges or vertices otherwise
  * (codes `non-manifold-edge`, `inconsistent-orientation`, `non-manifold-vertex`,
- * `vertex-out-of-range`).
+ * `vertex-out-of-range`, `degenerate-faces` for a face that uses a vertex twice).
  */
 export function buildTopology(mesh: TriangleMesh): Topology {
   const nV = vertexCount(mesh);
@@ -63,6 +63,15 @@ export function buildTopology(mesh: TriangleMesh): Topology {
   const nH = 3 * nF;
   for (let h = 0; h < nH; h++) {
     if (tri[h] >= nV) throw new FieldError('vertex-out-of-range', `Face ${(h / 3) | 0} uses vertex ${tri[h]}, but the surface has ${nV} vertices.`);
+  }
+  // A face that repeats a vertex would pair its own sides as twins below.
+  const repeated: number[] = [];
+  for (let f = 0; f < nF; f++) {
+    const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
+    if (a === b || b === c || c === a) repeated.push(f);
+  }
+  if (repeated.length > 0) {
+    throw new FieldError('degenerate-faces', `${repeated.length} faces use the same vertex twice, so they have no area (faces ${describeFirst(repeated)}).`);
   }
 
   // Outgoing halfedges grouped by tail vertex (compressed rows), so twins are found by a short scan.
