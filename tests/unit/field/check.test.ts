@@ -1,0 +1,206 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from '@/lib/field/check';
+import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
+import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/lib/field/shapes';
+import { buildTopology } from '@/lib/field/topology';
+import { concatenate, stanfordBunny } from './surfaces';
+
+const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));
+
+function problem(report: SurfaceReport, code: string): Problem {
+  const found = report.problems.find((p) => p.code === code);
+  if (!found) throw new Error(`no ${code} in ${JSON.stringify(report.problems.map((p) => p.code))}`);
+  return found;
+}
+
+const codes = (report: SurfaceReport) => report.problems.map((p) => p.code).sort();
+
+function meshOf(positions: number[], triangles: number[]): TriangleMesh {
+  return { positions: Float64Array.from(positions), triangles: Uint32Array.from(triangles) };
+}
+
+describe('checkSurface on good surfaces', () => {
+  // Expected values: χ = 2 − 2g − b (classification of compact surfaces) and the counts of each
+  // test surface as constructed.
+  it('passes closed surfaces of genus 0, 1 and 2 and the Stanford bunny, with their facts', () => {
+    const cases: [TriangleMesh, number, number][] = [
+      [icosphere(2), 2, 0],
+      [torus(2, 0.5, 24, 12), 0, 1],
+      [genusTwoSurface(), -2, 2],
+      [stanfordBunny(), 2, 0],
+    ];
+    for (const [mesh, chi, genus] of cases) {
+      const report = checkSurface(mesh);
+      expect(report.problems).toEqual([]);
+      expect(report.ok).toBe(true);
+      expect(report.facts).toMatchObject({ eulerCharacteristic: chi, genus, boundaryLoopCount: 0, componentCount: 1 });
+    }
+  });
+
+  it('measures a sphere and a disc', () => {
+    const { facts } = checkSurface(icosphere(1, 2));
+    expect(facts).toMatchObject({ vertexCount: 42, usedVertexCount: 42, faceCount: 80, edgeCount: 120 });
+    expect(facts!.boundingBox!.max[0]).toBeCloseTo(2, 12);
+    expect(facts!.surfaceArea).toBeGreaterThan(0.9 * 16 * Math.PI);
+    expect(facts!.surfaceArea).toBeLessThan(16 * Math.PI);
+    const open = checkSurface(disc(3, 12)).facts!;
+    expect(open).toMatchObject({ eulerCharacteristic: 1, boundaryLoopCount: 1, genus: 0 });
+    expect(open.components).toEqual([{ faceCount: 60, vertexCount: 37, edgeCount: 96, boundaryLoopCount: 1, eulerCharacteristic: 1, genus: 0 }]);
+  });
+});
+
+describe('checkSurface finds each problem, with counts and examples', () => {
+  it('a vertex where two fans touch (bowtie)', () => {
+    const { report } = checkSurfaceFile(fixture('bowtie.obj'), 'bowtie.obj');
+    expect(codes(report)).toEqual(['non-manifold-vertex', 'several-components']);
+    expect(problem(report, 'non-manifold-vertex')).toMatchObject({ severity: 'error', count: 1, examples: [2], where: 'vertex' });
+    expect(problem(report, 'non-manifold-vertex').message).toMatch(/At 1 vertex, pieces of surface touch at a single point \(vertices 2\)/);
+    expect(report.ok).toBe(false);
+    expect(report.facts!.genus).toBeNull();
+    // buildTopology refuses the same surface, for the same reason.
+    expect(() => buildTopology(checkSurfaceFile(fixture('bowtie.obj'), 'bowtie.obj').read!.mesh)).toThrow(FieldError);
+  });
+
+  it('an edge with three faces (fin)', () => {
+    const { report } = checkSurfaceFile(fixture('fin.obj'), 'fin.obj');
+    expect(codes(report)).toEqual(['non-manifold-edge']);
+    expect(problem(report, 'non-manifold-edge')).toMatchObject({ count: 1, examples: [0, 1], where: 'edge' });
+    expect(problem(report, 'non-manifold-edge').message).toMatch(/1 edge is shared by more than two faces \(between vertices 0–1\)/);
+  });
+
+  it('a flipped face in a strip: two misoriented edges', () => {
+    const { report } = checkSurfaceFile(fixture('misoriented-strip.obj'), 'strip.obj');
+    expect(codes(report)).toEqual(['inconsistent-orientation']);
+    expect(problem(report, 'inconsistent-orientation')).toMatchObject({ count: 2, examples: [2, 3, 3, 4], where: 'edge' });
+  });
+
+  it('zero-area faces, unused vertices and non-finite coordinates', () => {
+    const { report } = checkSurfaceFile(fixture('degenerate-and-isolated.obj'), 'a.obj');
+    expect(codes(report)).toEqual(['degenerate-faces', 'isolated-vertices', 'non-finite-coordinates', 'several-components']);
+    expect(problem(report, 'degenerate-faces')).toMatchObject({ severity: 'error', count: 1, examples: [2], where: 'face' });
+    expect(problem(report, 'isolated-vertices')).toMatchObject({ severity: 'warning', count: 1, examples: [7], where: 'vertex' });
+    expect(problem(report, 'non-finite-coordinates')).toMatchObject({ severity: 'error', count: 1, examples: [8], where: 'vertex' });
+    expect(problem(report, 'several-components')).toMatchObject({ severity: 'warning', count: 3, examples: [0, 2, 3], where: 'face' });
+    // The square counts; the face with a non-finite corner does not.
+    expect(report.facts!.surfaceArea).toBe(1);
+  });
+
+  it('judges flatness relative to the face’s own size, so scaling changes nothing', () => {
+    for (const scale of [1e-6, 1, 1e6]) {
+      const flat = (height: number) => meshOf([0, 0, 0, scale, 0, 0, scale / 2, height * scale, 0], [0, 1, 2]);
+      expect(checkSurface(flat(1e-6)).ok).toBe(true);
+      expect(problem(checkSurface(flat(1e-12)), 'degenerate-faces').count).toBe(1);
+      expect(problem(checkSurface(flat(1e-6), { degenerateTolerance: 1e-3 }), 'degenerate-faces').count).toBe(1);
+    }
+    expect(problem(checkSurface(meshOf([0, 0, 0, 1, 0, 0], [0, 1, 1])), 'degenerate-faces').count).toBe(1);
+  });
+
+  it('several components, as a warning that still lets the field be computed', () => {
+    const report = checkSurface(concatenate(icosphere(0), torus(2, 0.5, 6, 4), gridPlane(1, 1)));
+    expect(report.ok).toBe(true);
+    expect(problem(report, 'several-components')).toMatchObject({ severity: 'warning', count: 3, examples: [0, 20, 68] });
+    expect(report.facts).toMatchObject({ eulerCharacteristic: 3, genus: 1, boundaryLoopCount: 1 });
+  });
+
+  it('faces referring to missing vertices, no faces, too many faces', () => {
+    const report = checkSurface(meshOf([0, 0, 0, 1, 0, 0, 0, 1, 0], [0, 1, 2, 0, 2, 9, 7, 1, 2]));
+    expect(problem(report, 'vertex-out-of-range')).toMatchObject({ count: 2, examples: [1, 2], where: 'face' });
+    expect(report.facts!.genus).toBeNull();
+    expect(problem(checkSurface(meshOf([0, 0, 0], [])), 'no-faces').severity).toBe('error');
+    expect(problem(checkSurface(icosphere(1), { maxFaces: 79 }), 'too-many-faces')).toMatchObject({ count: 80 });
+  });
+
+  it('counts every problem but keeps ten examples', () => {
+    const bowties: number[] = [];
+    const positions: number[] = [];
+    for (let i = 0; i < 15; i++) {
+      const o = positions.length / 3;
+      positions.push(10 * i, 0, 0, 10 * i + 1, 0, 0, 10 * i + 1, 1, 0, 10 * i + 2, 1, 0, 10 * i + 2, 2, 0);
+      bowties.push(o, o + 1, o + 2, o + 2, o + 3, o + 4);
+    }
+    const pinched = problem(checkSurface(meshOf(positions, bowties)), 'non-manifold-vertex');
+    expect(pinched.count).toBe(15);
+    expect(pinched.examples).toEqual([2, 7, 12, 17, 22, 27, 32, 37, 42, 47]);
+    expect(pinched.message).toMatch(/vertices 2, 7, 12, 17, 22 and 5 more/);
+  });
+
+  it('reports files that cannot be read as one file problem', () => {
+    const { read, report } = checkSurfaceFile(fixture('truncated-binary.stl'), 'tetra.stl');
+    expect(read).toBeNull();
+    expect(report).toMatchObject({ ok: false, facts: null, problems: [{ code: 'truncated-file', severity: 'error', where: 'file', count: 1 }] });
+    expect(checkSurfaceFile(fixture('empty.stl'), 'empty.stl').report.problems[0].code).toBe('empty-file');
+  });
+
+  it('passes on the faces the reader had to leave out', () => {
+    const obj = new TextEncoder().encode('v 0 0 0\nv 1 0 0\nv 0 1 0\nv 1e-9 0 0\nf 1 2 3\nf 1 4 3\n');
+    const { report } = checkSurfaceFile(obj, 'thin.obj');
+    expect(report.ok).toBe(true);
+    expect(problem(report, 'collapsed-faces')).toMatchObject({ severity: 'warning', count: 1, examples: [1], where: 'face' });
+  });
+
+  it('passes a UV-split cube once welded', () => {
+    const { report } = checkSurfaceFile(fixture('uv-split-cube.obj'), 'cube.obj');
+    expect(report).toMatchObject({ ok: true, problems: [] });
+    expect(report.facts).toMatchObject({ vertexCount: 8, faceCount: 12, edgeCount: 18, eulerCharacteristic: 2, genus: 0, surfaceArea: 6 });
+  });
+});
+
+describe('checkSurface on hostile meshes', () => {
+  const smallMesh = fc
+    .integer({ min: 1, max: 9 })
+    .chain((nV) =>
+      fc.record({
+        positions: fc.array(fc.oneof(fc.double({ min: -2, max: 2, noNaN: true }), fc.constantFrom(Number.NaN, Infinity)), { minLength: 3 * nV, maxLength: 3 * nV }),
+        triangles: fc.array(fc.tuple(...[0, 1, 2].map(() => fc.integer({ min: 0, max: nV + 1 }))), { maxLength: 12 }),
+      }),
+    )
+    .map(({ positions, triangles }) => meshOf(positions, triangles.flat()));
+
+  // Meshes whose faces have three different, existing vertices: all the connectivity problems
+  // and clean surfaces turn up often.
+  const plausibleMesh = fc
+    .integer({ min: 3, max: 8 })
+    .chain((nV) =>
+      fc.record({
+        positions: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 3 * nV, maxLength: 3 * nV }),
+        triangles: fc.array(fc.uniqueArray(fc.integer({ min: 0, max: nV - 1 }), { minLength: 3, maxLength: 3 }), { maxLength: 10 }),
+      }),
+    )
+    .map(({ positions, triangles }) => meshOf(positions, triangles.flat()));
+
+  it('never throws, and agrees with buildTopology about what breaks the connectivity', () => {
+    // The reference for agreement is lib/field/topology.ts's buildTopology, which the field
+    // engine uses: it must accept exactly the meshes the checker finds manifold and oriented.
+    fc.assert(
+      fc.property(fc.oneof(smallMesh, plausibleMesh), (mesh) => {
+        const report = checkSurface(mesh);
+        const repeated = Array.from({ length: mesh.triangles.length / 3 }, (_, f) => new Set(mesh.triangles.subarray(3 * f, 3 * f + 3)).size < 3).some(Boolean);
+        const intact = !repeated && !report.problems.some((p) => ['vertex-out-of-range', 'non-manifold-edge', 'inconsistent-orientation', 'non-manifold-vertex'].includes(p.code));
+        let thrown: FieldError | null = null;
+        try {
+          buildTopology(mesh);
+        } catch (error) {
+          thrown = error as FieldError;
+        }
+        expect(thrown === null).toBe(intact);
+        if (thrown) expect(codes(report)).toContain(thrown.code);
+        if (report.ok) expect(report.facts!.genus).not.toBeNull();
+      }),
+      { numRuns: 4000 },
+    );
+  });
+
+  it('never throws on meshes with ragged arrays, or on files of random bytes', () => {
+    expect(() => checkSurface({ positions: new Float64Array(7), triangles: Uint32Array.of(0, 1, 2, 4294967295, 1) })).not.toThrow();
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 2000 }), fc.constantFrom('obj', 'ply', 'stl', 'gltf', 'glb', 'txt'), (bytes, extension) => {
+        const started = performance.now();
+        checkSurfaceFile(bytes, `random.${extension}`);
+        expect(performance.now() - started).toBeLessThan(2000);
+      }),
+      { numRuns: 500 },
+    );
+  });
+});
