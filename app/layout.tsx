@@ -7,6 +7,8 @@ import './globals.css';
 export const metadata: Metadata = {
   title: { default: 'Whorlwind', template: '%s · Whorlwind' },
   description: 'Lay out the flow of a coat — whorls, partings, crests — and hand the pipeline guide curves.',
+  // The mark of components/shell/WhorlMark.tsx, rendered to a file.
+  icons: { icon: '/whorlwind-mark.svg' },
 };
 
 export default function RootLayout({ children }: { children: ReactNode }) {

@@ -5,27 +5,21 @@ import { DEMO_ACCOUNTS } from '../db/demo-scenario';
 import { ROLE_LABELS } from '../lib/roles';
 import { demoProfile, migrateAndSeed, startStack } from './lib/stack';
 import { buildApp, startApp } from './lib/next-app';
-import { log, shutdown, stopEverythingOnSignals } from './lib/processes';
+import { log } from './lib/processes';
+import { serveUntilStopped } from './lib/serve-task';
 
-stopEverythingOnSignals();
-const profile = demoProfile();
-try {
+await serveUntilStopped('the demo', async () => {
+  const profile = demoProfile();
   await startStack(profile);
   await migrateAndSeed(profile);
   await buildApp(profile);
   const app = await startApp(profile);
   const url = `http://127.0.0.1:${profile.ports.app}`;
   log(`Whorlwind is running at ${url} — Ctrl-C stops it and everything it started.`);
-  log(`caught e-mail: ${url}/admin/mail (as the admin)`);
+  log(`sent e-mail can be read at ${url}/admin/mail (as the admin). Demo accounts:`);
   for (const account of DEMO_ACCOUNTS) {
-    log(`  ${account.roles.map((role) => ROLE_LABELS[role]).join(', ').padEnd(8)} ${account.email}  password: ${account.password}`);
+    const roles = account.roles.map((role) => ROLE_LABELS[role]).join(', ');
+    log(`  ${roles.padEnd(8)} ${account.email}  password: ${account.password}`);
   }
-  const code = await app.exited;
-  log(`the app server exited with code ${code}; stopping the services`);
-  await shutdown();
-  process.exit(code === 0 ? 0 : 1);
-} catch (error) {
-  console.error(`[whorlwind] the demo could not start: ${(error as Error).message}`);
-  await shutdown();
-  process.exit(1);
-}
+  return app;
+});

@@ -2,7 +2,7 @@
 // expects. lib/payments.ts points the SDK at it with the host/port/protocol options.
 // For now it knows the account balance (a health check through the SDK); checkout, webhooks,
 // refunds and payouts come with the market.
-import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
+import { serveJson } from './json-http';
 
 export type PaymentsFakeOptions = { port: number; secretKey: string };
 
@@ -12,13 +12,8 @@ function stripeError(type: string, code: string, message: string): StripeErrorBo
   return { error: { type, code, message } };
 }
 
-export async function startPaymentsFake({ port, secretKey }: PaymentsFakeOptions) {
-  const server = createServer((request: IncomingMessage, response: ServerResponse) => {
-    const reply = (status: number, body: unknown) => {
-      response.writeHead(status, { 'content-type': 'application/json' });
-      response.end(JSON.stringify(body));
-    };
-    const url = new URL(request.url ?? '/', 'http://payments');
+export function startPaymentsFake({ port, secretKey }: PaymentsFakeOptions) {
+  return serveJson(port, (request, url, reply) => {
     if (url.pathname === '/health') return reply(200, { ok: true });
 
     if (request.headers.authorization !== `Bearer ${secretKey}`) {
@@ -37,17 +32,4 @@ export async function startPaymentsFake({ port, secretKey }: PaymentsFakeOptions
       stripeError('invalid_request_error', 'resource_missing', `Unrecognized request URL (${request.method}: ${url.pathname}).`),
     );
   });
-
-  await new Promise<void>((resolve, reject) => {
-    server.on('error', reject);
-    server.listen(port, '127.0.0.1', () => resolve());
-  });
-
-  return {
-    url: `http://127.0.0.1:${port}`,
-    close: async () => {
-      server.closeAllConnections();
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-    },
-  };
 }

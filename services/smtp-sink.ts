@@ -1,20 +1,12 @@
 // Local stand-in for the outgoing mail service: an SMTP server that accepts every message,
 // keeps it in memory and shows it over a small HTTP JSON endpoint, which the admin mail page
-// (through lib/mail-sink.ts) and the tests read. The app sends to it with nodemailer over SMTP.
+// and the tests read through lib/mail-sink.ts (where the shape of a message is defined).
+// The app sends to it with nodemailer over SMTP.
 import { SMTPServer } from 'smtp-server';
 import { simpleParser, type AddressObject } from 'mailparser';
-import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import { randomUUID } from 'node:crypto';
-
-export type CaughtMail = {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  html: string | null;
-};
+import type { CaughtMail } from '../lib/mail-sink';
+import { serveJson } from './json-http';
 
 export type SmtpSinkOptions = { smtpPort: number; httpPort: number };
 
@@ -50,12 +42,12 @@ export async function startSmtpSink({ smtpPort, httpPort }: SmtpSinkOptions) {
     },
   });
 
-  const http = createServer((request: IncomingMessage, response: ServerResponse) => {
-    const url = new URL(request.url ?? '/', 'http://sink');
-    const reply = (status: number, body: unknown) => {
-      response.writeHead(status, { 'content-type': 'application/json' });
-      response.end(JSON.stringify(body));
-    };
+  await new Promise<void>((resolve, reject) => {
+    smtp.on('error', reject);
+    smtp.listen(smtpPort, '127.0.0.1', () => resolve());
+  });
+
+  const http = await serveJson(httpPort, (request, url, reply) => {
     if (url.pathname === '/health') return reply(200, { ok: true });
     if (url.pathname !== '/messages') return reply(404, { error: `no such path: ${url.pathname}` });
     if (request.method === 'DELETE') {
@@ -68,21 +60,11 @@ export async function startSmtpSink({ smtpPort, httpPort }: SmtpSinkOptions) {
     return reply(200, { messages: selected });
   });
 
-  await new Promise<void>((resolve, reject) => {
-    smtp.on('error', reject);
-    smtp.listen(smtpPort, '127.0.0.1', () => resolve());
-  });
-  await new Promise<void>((resolve, reject) => {
-    http.on('error', reject);
-    http.listen(httpPort, '127.0.0.1', () => resolve());
-  });
-
   return {
-    url: `http://127.0.0.1:${httpPort}`,
+    url: http.url,
     close: async () => {
       await new Promise<void>((resolve) => smtp.close(() => resolve()));
-      http.closeAllConnections();
-      await new Promise<void>((resolve) => http.close(() => resolve()));
+      await http.close();
     },
   };
 }

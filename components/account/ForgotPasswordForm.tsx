@@ -1,5 +1,5 @@
 'use client';
-import { useState, type FormEvent } from 'react';
+import { useState } from 'react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
@@ -10,22 +10,7 @@ import type { PasswordResetRequestResponse } from '@/app/api/account/password-re
 
 export function ForgotPasswordForm() {
   const form = useValidatedForm(emailOnlySchema);
-  const [failure, setFailure] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  async function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const input = form.validate(event.currentTarget);
-    if (!input) return;
-    setBusy(true);
-    setFailure(null);
-    const outcome = await postJson<PasswordResetRequestResponse>('/api/account/password-reset', input);
-    setBusy(false);
-    if (outcome.ok) return setSentTo(outcome.data.email);
-    if (outcome.error.fields) form.setErrors(outcome.error.fields);
-    setFailure(outcome.error.message);
-  }
 
   if (sentTo) {
     return (
@@ -35,11 +20,19 @@ export function ForgotPasswordForm() {
     );
   }
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-4">
-      {failure && <Notice tone="error">{failure}</Notice>}
+    <form
+      noValidate
+      className="flex flex-col gap-4"
+      onSubmit={form.onSubmit(async (input) => {
+        const outcome = await postJson<PasswordResetRequestResponse>('/api/account/password-reset', input);
+        if (!outcome.ok) return outcome.error;
+        setSentTo(outcome.data.email);
+      })}
+    >
+      {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
       <TextField label="E-mail address" type="email" autoComplete="email" {...form.field('email')} />
-      <Button type="submit" disabled={!form.ready || busy}>
-        {busy ? 'Sending…' : 'Send me a reset link'}
+      <Button type="submit" disabled={!form.ready || form.busy}>
+        {form.busy ? 'Sending…' : 'Send me a reset link'}
       </Button>
     </form>
   );

@@ -1,5 +1,5 @@
 'use client';
-import { useState, type FormEvent } from 'react';
+import { useState } from 'react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
@@ -10,32 +10,29 @@ import type { ResendVerificationResponse } from '@/app/api/account/verification/
 
 export function ResendVerificationForm({ email = '' }: { email?: string }) {
   const form = useValidatedForm(emailOnlySchema);
-  const [state, setState] = useState<{ sentTo?: string; failure?: string; busy: boolean }>({ busy: false });
+  const [sentTo, setSentTo] = useState<string | null>(null);
 
-  async function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const input = form.validate(event.currentTarget);
-    if (!input) return;
-    setState({ busy: true });
-    const outcome = await postJson<ResendVerificationResponse>('/api/account/verification', input);
-    if (outcome.ok) return setState({ busy: false, sentTo: outcome.data.email });
-    if (outcome.error.fields) form.setErrors(outcome.error.fields);
-    setState({ busy: false, failure: outcome.error.message });
-  }
-
-  if (state.sentTo) {
+  if (sentTo) {
     return (
       <Notice tone="success">
-        If an unconfirmed account uses <strong>{state.sentTo}</strong>, a new confirmation link is on its way.
+        If an unconfirmed account uses <strong>{sentTo}</strong>, a new confirmation link is on its way.
       </Notice>
     );
   }
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-3">
-      {state.failure && <Notice tone="error">{state.failure}</Notice>}
+    <form
+      noValidate
+      className="flex flex-col gap-3"
+      onSubmit={form.onSubmit(async (input) => {
+        const outcome = await postJson<ResendVerificationResponse>('/api/account/verification', input);
+        if (!outcome.ok) return outcome.error;
+        setSentTo(outcome.data.email);
+      })}
+    >
+      {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
       <TextField label="E-mail address for a new link" type="email" autoComplete="email" defaultValue={email} {...form.field('email')} />
-      <Button type="submit" look="quiet" disabled={!form.ready || state.busy}>
-        {state.busy ? 'Sending…' : 'Send a new confirmation link'}
+      <Button type="submit" look="quiet" disabled={!form.ready || form.busy}>
+        {form.busy ? 'Sending…' : 'Send a new confirmation link'}
       </Button>
     </form>
   );

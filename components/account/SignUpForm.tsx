@@ -1,6 +1,6 @@
 'use client';
 import Link from 'next/link';
-import { useState, type FormEvent } from 'react';
+import { useState } from 'react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
@@ -16,22 +16,7 @@ const ROLE_CHOICES = [
 
 export function SignUpForm() {
   const form = useValidatedForm(signUpSchema);
-  const [failure, setFailure] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-
-  async function submit(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const input = form.validate(event.currentTarget);
-    if (!input) return;
-    setBusy(true);
-    setFailure(null);
-    const outcome = await postJson<SignUpResponse>('/api/account/sign-up', input);
-    setBusy(false);
-    if (outcome.ok) return setSentTo(outcome.data.email);
-    if (outcome.error.fields) form.setErrors(outcome.error.fields);
-    setFailure(outcome.error.message);
-  }
 
   if (sentTo) {
     return (
@@ -42,8 +27,16 @@ export function SignUpForm() {
   }
 
   return (
-    <form onSubmit={submit} noValidate className="flex flex-col gap-4">
-      {failure && <Notice tone="error">{failure}</Notice>}
+    <form
+      noValidate
+      className="flex flex-col gap-4"
+      onSubmit={form.onSubmit(async (input) => {
+        const outcome = await postJson<SignUpResponse>('/api/account/sign-up', input);
+        if (!outcome.ok) return outcome.error;
+        setSentTo(outcome.data.email);
+      })}
+    >
+      {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
       <TextField label="Your name" autoComplete="name" {...form.field('displayName')} />
       <TextField label="E-mail address" type="email" autoComplete="email" {...form.field('email')} />
       <TextField
@@ -81,8 +74,8 @@ export function SignUpForm() {
           </p>
         )}
       </fieldset>
-      <Button type="submit" disabled={!form.ready || busy}>
-        {busy ? 'Creating your account…' : 'Create my account'}
+      <Button type="submit" disabled={!form.ready || form.busy}>
+        {form.busy ? 'Creating your account…' : 'Create my account'}
       </Button>
       <p className="text-sm text-loam-soft">
         Already have an account?{' '}

@@ -3,7 +3,7 @@
 // it loses focus (and as it is edited once it shows an error), every field on submit, and the
 // server's field messages appear in the same places. Inputs are uncontrolled and read from the
 // form itself, so text typed before the page finished loading is what gets checked and sent.
-import { useEffect, useState, type ChangeEvent, type FocusEvent } from 'react';
+import { useEffect, useState, type ChangeEvent, type FocusEvent, type FormEvent } from 'react';
 import type { z } from 'zod';
 import { fieldErrors, type FieldErrors } from '@/lib/validation/fields';
 
@@ -13,9 +13,14 @@ function readForm(form: HTMLFormElement): Record<string, string> {
   return values;
 }
 
+/** Why a submission failed: a message for the whole form and, optionally, one per field. */
+export type FormFailure = { message: string; fields?: FieldErrors };
+
 export function useValidatedForm<Schema extends z.ZodObject>(schema: Schema) {
   type Name = keyof z.input<Schema> & string;
   const [errors, setErrors] = useState<FieldErrors>({});
+  const [failure, setFailure] = useState<FormFailure | null>(null);
+  const [busy, setBusy] = useState(false);
   // Until the page is interactive a submit would be a plain browser form post; buttons wait.
   const [ready, setReady] = useState(false);
   useEffect(() => setReady(true), []);
@@ -59,5 +64,24 @@ export function useValidatedForm<Schema extends z.ZodObject>(schema: Schema) {
     setErrors(({ [name]: _cleared, ...others }) => others);
   }
 
-  return { errors, setErrors, field, validate, clearError, ready };
+  /**
+   * The form's submit handler: checks the fields, then runs `action` with the parsed values.
+   * A failure the action returns is shown above the form and, per field, under the fields.
+   */
+  function onSubmit(action: (input: z.output<Schema>) => Promise<FormFailure | void>) {
+    return async (event: FormEvent<HTMLFormElement>) => {
+      event.preventDefault();
+      const input = validate(event.currentTarget);
+      if (!input) return;
+      setBusy(true);
+      setFailure(null);
+      const result = await action(input);
+      setBusy(false);
+      if (!result) return;
+      setFailure(result);
+      if (result.fields) setErrors(result.fields);
+    };
+  }
+
+  return { errors, field, clearError, onSubmit, failure, busy, ready };
 }
