@@ -52,6 +52,10 @@ describe('checkSurface on good surfaces', () => {
 });
 
 describe('checkSurface finds each problem, with counts and examples', () => {
+  // What counts as a problem follows the definition of a 2-manifold triangle mesh: every edge in
+  // one or two faces, the faces around a vertex forming a single fan, neighbouring faces
+  // oriented alike (Botsch, Kobbelt, Pauly, Alliez, Lévy, "Polygon Mesh Processing", 2010, §1.3).
+  // Expected counts and examples come from the fixtures' construction (tests/fixtures/surfaces/README.md).
   it('a vertex where two fans touch (bowtie)', () => {
     const { report } = checkSurfaceFile(fixture('bowtie.obj'), 'bowtie.obj');
     expect(codes(report)).toEqual(['non-manifold-vertex', 'several-components']);

@@ -106,6 +106,7 @@ describe('cornerAngles', () => {
 
 describe('areas and normals', () => {
   it('measures a grid plane and a disc exactly', () => {
+    // Source: the area of a rectangle, and of a regular n-gon of circumradius r, (n/2)·r²·sin(2π/n).
     expect(surfaceArea(gridPlane(7, 5, 3, 2))).toBeCloseTo(6, 13);
     // A regular 16-gon of circumradius 1 has area (16/2)·sin(2π/16).
     expect(surfaceArea(disc(4, 16))).toBeCloseTo(8 * Math.sin(TWO_PI / 16), 13);

@@ -11,6 +11,7 @@ import { STLLoader } from 'three/examples/jsm/loaders/STLLoader.js';
 import { surfaceArea } from '@/lib/field/geometry';
 import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
 import { readSurface, sniffContent } from '@/lib/field/read';
+import { weldVertices } from '@/lib/field/read/weld';
 import { icosphere, torus } from '@/lib/field/shapes';
 import { buildTopology } from '@/lib/field/topology';
 
@@ -188,6 +189,11 @@ describe('round trips through writers outside the project', () => {
 });
 
 describe('hand-written files', () => {
+  // Expected values come from the files' construction, described in tests/fixtures/surfaces/README.md,
+  // and from the format specifications: Wavefront OBJ (Appendix B1 of the Advanced Visualizer
+  // manual), PLY (Turk, "The PLY Polygon File Format"), STL (3D Systems, "StereoLithography
+  // Interface Specification") and glTF 2.0 (Khronos Group), whose rules for strips, fans
+  // and mirrored node transforms the glTF test follows.
   it('welds a UV-split cube of 24 file vertices into 8, closed, with positive and negative indices', () => {
     const result = readSurface(fixture('uv-split-cube.obj'), 'cube.obj');
     expect([result.sourceVertexCount, result.weldedVertexCount, result.sourceFaceCount, result.splitFaceCount]).toEqual([24, 8, 6, 6]);
@@ -275,6 +281,21 @@ describe('hand-written files', () => {
     expect(result.notes.join(' ')).toMatch(/2 triangles were left out/);
     // With welding only of equal positions, the thin triangle stays.
     expect(readSurface(text(obj), 'thin.obj', { weldTolerance: 0 }).mesh.triangles.length).toBe(6);
+  });
+
+  it('reads CRLF line ends, a byte-order mark, comments after statements and continued lines', () => {
+    const obj = '\ufeffv 0 0 0 # origin\r\nv 1 0 0\r\nv 0 1 \\\r\n 0\r\nf 1 2 \\\r\n3\r\n';
+    const result = readSurface(text(obj), 'crlf.obj');
+    expect(Array.from(result.mesh.positions)).toEqual([0, 0, 0, 1, 0, 0, 0, 1, 0]);
+    expect(Array.from(result.mesh.triangles)).toEqual([0, 1, 2]);
+  });
+
+  it('welds each vertex to a kept vertex within the tolerance, without chaining', () => {
+    // 0 and 0.6 are within 1 of each other, so are 0.6 and 1.2, but 0 and 1.2 are not.
+    const { map, positions } = weldVertices(Float64Array.of(0, 0, 0, 0.6, 0, 0, 1.2, 0, 0, 1.2, 0, 1e-12, -0, 0, 0), 1);
+    expect(Array.from(map)).toEqual([0, 0, 1, 1, 0]);
+    expect(Array.from(positions)).toEqual([0, 0, 0, 1.2, 0, 0]);
+    expect(Array.from(weldVertices(Float64Array.of(0, 0, 0, -0, 0, 0, 0, 0, 1e-300, NaN, 0, 0, NaN, 0, 0), 0).map)).toEqual([0, 0, 1, 2, 3]);
   });
 
   it('uses 1e-6 of the bounding-box diagonal as the default weld distance', () => {

@@ -28,6 +28,9 @@ function counts(mesh: TriangleMesh): [number, number] {
 
 describe('test surfaces', () => {
   it('have the promised sizes', () => {
+    // Source: an icosahedron has 12 vertices and 20 faces, and each split into four adds a vertex
+    // per edge (E = 3F/2) and quadruples the faces; the other counts follow from Euler's formula
+    // V − E + F = χ for the sphere (2), torus (0) and disc (1).
     expect(counts(icosphere(0))).toEqual([12, 20]);
     expect(counts(icosphere(3))).toEqual([10 * 64 + 2, 20 * 64]);
     expect(counts(uvSphere(6, 10))).toEqual([2 + 5 * 10, 2 * 5 * 10]);
