@@ -126,7 +126,7 @@ function determinant3(m: Matrix): number {
   return m[0] * (m[5] * m[10] - m[9] * m[6]) - m[4] * (m[1] * m[10] - m[9] * m[2]) + m[8] * (m[1] * m[6] - m[5] * m[2]);
 }
 
-interface Document {
+interface GltfDocument {
   readonly json: Json;
   readonly buffers: Uint8Array[];
 }
@@ -194,7 +194,7 @@ function decodeDataUri(uri: string, bufferIndex: number): Uint8Array {
   return out;
 }
 
-function loadDocument(bytes: Uint8Array, binary: boolean): Document {
+function loadDocument(bytes: Uint8Array, binary: boolean): GltfDocument {
   let json: Json;
   let bin: Uint8Array | undefined;
   if (binary) ({ json, bin } = parseGlb(bytes));
@@ -223,7 +223,7 @@ function loadDocument(bytes: Uint8Array, binary: boolean): Document {
 }
 
 /** Count of an accessor's elements without reading them, for the face budget. */
-function accessorCount(doc: Document, index: unknown): number {
+function accessorCount(doc: GltfDocument, index: unknown): number {
   return count(entry(doc.json.accessors, index, 'accessor').count, `the count of accessor ${String(index)}`);
 }
 
@@ -232,7 +232,7 @@ function accessorCount(doc: Document, index: unknown): number {
  * substitution applied. `maxCount` bounds accessors that have no buffer view (all zeros plus
  * sparse values), the only ones whose size is not limited by the file's bytes.
  */
-function readAccessor(doc: Document, index: number, expectedType: string, maxCount: number): Float64Array {
+function readAccessor(doc: GltfDocument, index: number, expectedType: string, maxCount: number): Float64Array {
   const accessor = entry(doc.json.accessors, index, 'accessor');
   const what = `accessor ${index}`;
   if (accessor.type !== expectedType) throw bad(`${what} holds ${clip(String(accessor.type))} values where ${expectedType} values are needed`);
