@@ -25,3 +25,4 @@ export { measureIndices, compareIndices, type IndexMismatch } from './indices';
 export { solveField, type SolvedField } from './solve-field';
 export { prepareHarmonic, type HarmonicInterpolator, type Pin } from './harmonic';
 export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult } from './read';
+export { checkSurface, checkSurfaceFile, type SurfaceReport } from './check';
