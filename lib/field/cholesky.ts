@@ -87,7 +87,7 @@ interface SupernodalLayout {
    * by rows. Packing spares the upper half of each diagonal block, which on large
    * meshes is an eighth of the factor's memory.
    */
-  valuePtr: Float64Array;
+  valuePtr: Int32Array;
   /** largest k among supernodes, to size the dense scratch for one diagonal block */
   maxColumns: number;
   /** for each child's update row, its row position in the parent's front */
@@ -97,13 +97,15 @@ interface SupernodalLayout {
   relSplit: Int32Array;
   superParent: Int32Array;
   /** where each entry of A lands in the values array */
-  entryDestination: Float64Array;
+  entryDestination: Int32Array;
   /** for each pivot, the position of A's diagonal entry, or -1 */
   diagonalEntry: Int32Array;
   stackSize: number;
 }
 
 const AUTO_COMPARE_LIMIT = 20000;
+/** A Float64Array holds at most this many entries in V8 (4 GiB), and offsets stay int32. */
+const MAX_STORED_ENTRIES = 2 ** 29;
 
 /**
  * Symbolic analysis: fill-reducing ordering, elimination tree, column counts,
@@ -458,12 +460,19 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   }
 
   // ---- storage plan, relative indices, entry destinations, stack size, flops
-  const valuePtr = new Float64Array(supernodes + 1);
+  // Offsets are kept in int32 on purpose: V8 compiles index arithmetic that has ever
+  // seen a non-integer-typed number into much slower code, which the dense kernels feel.
+  const valuePtr = new Int32Array(supernodes + 1);
   let flops = 0;
+  let stored = 0;
   for (let s = 0; s < supernodes; s++) {
     const k = firstCol[s + 1] - firstCol[s];
     const m = rowPtr[s + 1] - rowPtr[s];
-    valuePtr[s + 1] = valuePtr[s] + (k * (k + 1)) / 2 + (m - k) * k;
+    stored += ((k * (k + 1)) >> 1) + (m - k) * k;
+    if (stored > MAX_STORED_ENTRIES) {
+      throw new RangeError(`analyzeCholesky: the factor would need more than ${MAX_STORED_ENTRIES} entries; the matrix is too large to factor in memory`);
+    }
+    valuePtr[s + 1] = stored;
     const r = m - k;
     // k³/3 for the diagonal block, r·k² for the panel solve, r²·k for the update
     flops += (k * k * k) / 3 + r * k * k + r * r * k;
@@ -477,7 +486,7 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   const rel = new Int32Array(relPtr[supernodes]);
   const relSplit = new Int32Array(supernodes);
   const position = new Int32Array(n);
-  const entryDestination = new Float64Array(A.colPtr[n]).fill(-1);
+  const entryDestination = new Int32Array(A.colPtr[n]);
   const diagonalEntry = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
     for (let q = A.colPtr[j]; q < A.colPtr[j + 1]; q++) if (A.rowIdx[q] === j) diagonalEntry[inverse[j]] = q;
@@ -497,14 +506,14 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       relSplit[c] = split;
     }
     const base = valuePtr[s];
-    const below = base + (k * (k + 1)) / 2 - k * k; // row p ≥ k of the supernode starts at below + p·k
+    const below = base + ((k * (k + 1)) >> 1) - k * k; // row p ≥ k of the supernode starts at below + p·k
     for (let j = f; j < f + k; j++) {
       const c = j - f;
       const dq = diagonalEntry[j];
-      if (dq >= 0) entryDestination[dq] = base + (c * (c + 1)) / 2 + c;
+      if (dq >= 0) entryDestination[dq] = base + ((c * (c + 1)) >> 1) + c;
       for (let q = lower.ptr[j]; q < lower.ptr[j + 1]; q++) {
         const p = position[lower.idx[q]];
-        entryDestination[lower.src[q]] = p < k ? base + (p * (p + 1)) / 2 + c : below + p * k + c;
+        entryDestination[lower.src[q]] = p < k ? base + ((p * (p + 1)) >> 1) + c : below + p * k + c;
       }
     }
   }
@@ -513,13 +522,16 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   // Simulate the update stack in factorization order to size it once.
   let stackTop = 0;
   let stackSize = 0;
-  const updateAt = new Float64Array(supernodes);
+  const updateAt = new Int32Array(supernodes);
   for (let s = 0; s < supernodes; s++) {
     const k = firstCol[s + 1] - firstCol[s];
     const r = rowPtr[s + 1] - rowPtr[s] - k;
     const firstChild = childHead[s];
     const base = firstChild === -1 ? stackTop : updateAt[firstChild];
     stackSize = Math.max(stackSize, stackTop + r * r);
+    if (stackSize > MAX_STORED_ENTRIES) {
+      throw new RangeError('analyzeCholesky: the update matrices would not fit in memory; the matrix is too large to factor');
+    }
     updateAt[s] = base;
     stackTop = base + r * r;
   }
@@ -579,7 +591,7 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
   const aValues = A.values;
   for (let q = 0; q < entryDestination.length; q++) L[entryDestination[q]] += aValues[q];
   const stack = new Float64Array(lay.stackSize);
-  const updateAt = new Float64Array(supernodes);
+  const updateAt = new Int32Array(supernodes);
   const childHead = new Int32Array(supernodes).fill(-1);
   const childNext = new Int32Array(supernodes).fill(-1);
   for (let s = supernodes - 1; s >= 0; s--) {
@@ -605,7 +617,7 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     const m = rowPtr[s + 1] - rowPtr[s];
     const r = m - k;
     const off = valuePtr[s];
-    const below = off + (k * (k + 1)) / 2;
+    const below = off + ((k * (k + 1)) >> 1);
     for (let i = 0, t = off; i < k; i++) {
       const row = i * k;
       for (let j = 0; j <= i; j++) D[row + j] = L[t++];
@@ -726,12 +738,12 @@ class SupernodalFactor implements CholeskyFactor {
       const k = firstCol[s + 1] - f;
       const m = rowPtr[s + 1] - rowPtr[s];
       const rp = rowPtr[s];
-      let t = valuePtr[s] + (k * (k + 1)) / 2;
+      let t = valuePtr[s] + ((k * (k + 1)) >> 1);
       for (let i = k; i < m; i++, t += k) {
         const yi = y[rows[rp + i]];
         if (yi !== 0) for (let q = 0; q < k; q++) y[f + q] -= L[t + q] * yi;
       }
-      t = valuePtr[s] + (k * (k - 1)) / 2; // row k−1 of the packed diagonal block
+      t = valuePtr[s] + ((k * (k - 1)) >> 1); // row k−1 of the packed diagonal block
       for (let i = k - 1; i >= 0; i--) {
         const zi = (y[f + i] /= L[t + i]);
         for (let q = 0; q < i; q++) y[f + q] -= L[t + q] * zi;
