@@ -1,0 +1,238 @@
+import { randomStream } from './random';
+
+/**
+ * Guide roots: blue-noise points on the growth surface, by weighted sample elimination (Yuksel,
+ * "Sample Elimination for Generating Poisson Disk Sample Sets", Computer Graphics Forum 34(2),
+ * Eurographics 2015): scatter several times too many random candidates, then remove, one at a
+ * time, the candidate most crowded by its neighbours until exactly the wanted number is left.
+ */
+export interface Roots {
+  readonly count: number;
+  /** x, y, z of each root, on the surface. */
+  readonly position: Float64Array;
+  /** The face each root lies in. */
+  readonly face: Uint32Array;
+}
+
+export interface RootRequest {
+  readonly positions: Float64Array;
+  readonly triangles: Uint32Array;
+  readonly faceArea: Float64Array;
+  /** How many roots. */
+  readonly count: number;
+  /** 1 for faces roots may grow on; all faces when absent. */
+  readonly allowedFace?: Uint8Array;
+  /** Relative density per vertex (≥ 0), blended across each face; uniform when absent. */
+  readonly vertexDensity?: Float64Array;
+  readonly seed: number;
+}
+
+/** Candidates per kept root; the paper finds 5 ample for a Poisson-disk quality set. */
+const CANDIDATES_PER_ROOT = 5;
+/** The paper's r_min parameters (its weight exponent, 8, is written out in `pairWeight`). */
+const BETA = 0.65;
+const GAMMA = 1.5;
+/** No root's spacing is allowed to exceed this many times the mean spacing, so sparse regions do not make the search grid coarse. */
+const MAX_SPACING_RATIO = 4;
+
+/**
+ * Samples roots.
+ *
+ * Guarantees: exactly `count` roots (0 when the allowed faces have no area), each inside an
+ * allowed face of non-zero density; spread like a Poisson-disk set at the local density; the same
+ * request (same seed) gives the same roots, in the same order — which is spatially coherent
+ * (grid-cell order), so that work done root after root touches nearby memory.
+ */
+export function sampleRoots(request: RootRequest): Roots {
+  const { positions: p, triangles: tri, faceArea, count, allowedFace, vertexDensity } = request;
+  const nF = tri.length / 3;
+  const cdf = new Float64Array(nF);
+  let total = 0;
+  for (let f = 0; f < nF; f++) {
+    let weight = allowedFace && !allowedFace[f] ? 0 : faceArea[f];
+    if (vertexDensity && weight > 0) weight *= (vertexDensity[tri[3 * f]] + vertexDensity[tri[3 * f + 1]] + vertexDensity[tri[3 * f + 2]]) / 3;
+    total += weight;
+    cdf[f] = total;
+  }
+  if (count <= 0 || !(total > 0)) return { count: 0, position: new Float64Array(0), face: new Uint32Array(0) };
+
+  const m = CANDIDATES_PER_ROOT * count;
+  const random = randomStream(request.seed);
+  const cx = new Float64Array(m), cy = new Float64Array(m), cz = new Float64Array(m);
+  const cFace = new Uint32Array(m);
+  const radius = new Float64Array(m);
+  // Spacing of a hexagonal packing of `count` points over the (density-weighted) area.
+  const meanRadius = Math.sqrt(total / (2 * Math.sqrt(3) * count));
+  let largest = 0;
+  for (let i = 0; i < m; i++) {
+    const target = random() * total;
+    let lo = 0, hi = nF - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (cdf[mid] > target) hi = mid;
+      else lo = mid + 1;
+    }
+    const f = lo;
+    const s = Math.sqrt(random()), t = random();
+    const wa = 1 - s, wb = s * (1 - t), wc = s * t;
+    const a = 3 * tri[3 * f], b = 3 * tri[3 * f + 1], c = 3 * tri[3 * f + 2];
+    cx[i] = wa * p[a] + wb * p[b] + wc * p[c];
+    cy[i] = wa * p[a + 1] + wb * p[b + 1] + wc * p[c + 1];
+    cz[i] = wa * p[a + 2] + wb * p[b + 2] + wc * p[c + 2];
+    cFace[i] = f;
+    const density = vertexDensity ? wa * vertexDensity[tri[3 * f]] + wb * vertexDensity[tri[3 * f + 1]] + wc * vertexDensity[tri[3 * f + 2]] : 1;
+    radius[i] = Math.min(MAX_SPACING_RATIO * meanRadius, meanRadius / Math.sqrt(Math.max(density, 1e-12)));
+    largest = Math.max(largest, radius[i]);
+  }
+
+  const grid = buildGrid(cx, cy, cz, 2 * largest);
+  const shrink = BETA * (1 - Math.pow(count / m, GAMMA));
+  const pairWeight = (i: number, j: number): number => {
+    const r = 0.5 * (radius[i] + radius[j]);
+    const dx = cx[i] - cx[j], dy = cy[i] - cy[j], dz = cz[i] - cz[j];
+    const d = Math.max(Math.sqrt(dx * dx + dy * dy + dz * dz), shrink * r);
+    if (d >= 2 * r) return 0;
+    const q = 1 - d / (2 * r), q2 = q * q, q4 = q2 * q2;
+    return q4 * q4;
+  };
+  const weight = new Float64Array(m);
+  for (let i = 0; i < m; i++) {
+    let w = 0;
+    grid.forNeighbour(i, (j) => {
+      w += pairWeight(i, j);
+    });
+    weight[i] = w;
+  }
+
+  const heap = new MaxHeap(weight);
+  const alive = new Uint8Array(m).fill(1);
+  for (let removed = 0; removed < m - count; removed++) {
+    const i = heap.pop();
+    alive[i] = 0;
+    grid.forNeighbour(i, (j) => {
+      if (!alive[j]) return;
+      const w = pairWeight(i, j);
+      if (w > 0) heap.decrease(j, weight[j] - w);
+    });
+  }
+
+  const position = new Float64Array(3 * count);
+  const face = new Uint32Array(count);
+  let k = 0;
+  for (const i of grid.order) {
+    if (!alive[i]) continue;
+    position[3 * k] = cx[i]; position[3 * k + 1] = cy[i]; position[3 * k + 2] = cz[i];
+    face[k++] = cFace[i];
+  }
+  return { count, position, face };
+}
+
+/** Points bucketed in cubes of side `cell`, for visiting every other point within `cell` of one. */
+function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: number) {
+  const n = x.length;
+  let minX = Infinity, minY = Infinity, minZ = Infinity;
+  for (let i = 0; i < n; i++) {
+    minX = Math.min(minX, x[i]); minY = Math.min(minY, y[i]); minZ = Math.min(minZ, z[i]);
+  }
+  const ci = new Int32Array(n), cj = new Int32Array(n), ck = new Int32Array(n);
+  const key = new Float64Array(n);
+  // Cell coordinates packed into one number (21 bits each), exact in a double.
+  const pack = (i: number, j: number, k: number) => (i * 2097152 + j) * 2097152 + k;
+  for (let i = 0; i < n; i++) {
+    ci[i] = Math.floor((x[i] - minX) / cell);
+    cj[i] = Math.floor((y[i] - minY) / cell);
+    ck[i] = Math.floor((z[i] - minZ) / cell);
+    key[i] = pack(ci[i], cj[i], ck[i]);
+  }
+  const order = Uint32Array.from({ length: n }, (_, i) => i).sort((a, b) => key[a] - key[b] || a - b);
+  // Open-addressing table from a cell to its run in `order`.
+  let size = 1;
+  while (size < 2 * n) size <<= 1;
+  const mask = size - 1;
+  const tableKey = new Float64Array(size).fill(-1);
+  const tableStart = new Int32Array(size);
+  const tableEnd = new Int32Array(size);
+  const slotOf = (i: number, j: number, k: number, packed: number): number => {
+    let h = (Math.imul(i, 73856093) ^ Math.imul(j, 19349663) ^ Math.imul(k, 83492791)) & mask;
+    while (tableKey[h] !== -1 && tableKey[h] !== packed) h = (h + 1) & mask;
+    return h;
+  };
+  for (let r = 0; r < n; r++) {
+    const i = order[r];
+    const h = slotOf(ci[i], cj[i], ck[i], key[i]);
+    if (tableKey[h] === -1) {
+      tableKey[h] = key[i];
+      tableStart[h] = r;
+    }
+    tableEnd[h] = r + 1;
+  }
+  return {
+    order,
+    forNeighbour(i: number, visit: (j: number) => void): void {
+      for (let di = -1; di <= 1; di++) {
+        const a = ci[i] + di;
+        if (a < 0) continue;
+        for (let dj = -1; dj <= 1; dj++) {
+          const b = cj[i] + dj;
+          if (b < 0) continue;
+          for (let dk = -1; dk <= 1; dk++) {
+            const c = ck[i] + dk;
+            if (c < 0) continue;
+            const packed = pack(a, b, c);
+            const h = slotOf(a, b, c, packed);
+            if (tableKey[h] !== packed) continue;
+            for (let r = tableStart[h], end = tableEnd[h]; r < end; r++) if (order[r] !== i) visit(order[r]);
+          }
+        }
+      }
+    },
+  };
+}
+
+/** A max-heap over item weights held in a shared array, with decrease-key. Ties pop the lower item first. */
+class MaxHeap {
+  private readonly heap: Int32Array;
+  private readonly slot: Int32Array;
+  private size: number;
+  constructor(private readonly weight: Float64Array) {
+    const n = weight.length;
+    this.heap = Int32Array.from({ length: n }, (_, i) => i);
+    this.slot = Int32Array.from({ length: n }, (_, i) => i);
+    this.size = n;
+    for (let i = (n >> 1) - 1; i >= 0; i--) this.down(i);
+  }
+  private above(a: number, b: number): boolean {
+    const wa = this.weight[a], wb = this.weight[b];
+    return wa > wb || (wa === wb && a < b);
+  }
+  private place(at: number, item: number): void {
+    this.heap[at] = item;
+    this.slot[item] = at;
+  }
+  private down(at: number): void {
+    const item = this.heap[at];
+    for (;;) {
+      let child = 2 * at + 1;
+      if (child >= this.size) break;
+      if (child + 1 < this.size && this.above(this.heap[child + 1], this.heap[child])) child++;
+      if (!this.above(this.heap[child], item)) break;
+      this.place(at, this.heap[child]);
+      at = child;
+    }
+    this.place(at, item);
+  }
+  pop(): number {
+    const top = this.heap[0];
+    this.size--;
+    if (this.size > 0) {
+      this.place(0, this.heap[this.size]);
+      this.down(0);
+    }
+    this.slot[top] = -1;
+    return top;
+  }
+  decrease(item: number, value: number): void {
+    this.weight[item] = value;
+    this.down(this.slot[item]);
+  }
+}

@@ -1,0 +1,41 @@
+import type { TriangleMesh } from '@/lib/field';
+import { growGuides } from '@/lib/groom/guides';
+import { solveGroomField } from '@/lib/groom/request';
+import { parseGroomSpec, type GroomSpecInput } from '@/lib/groom/spec';
+import { prepareGroomSurface } from '@/lib/groom/surface';
+
+/** Prepares, solves and grows a spec on a mesh, as the app does. */
+export function groomOn(mesh: TriangleMesh, input: GroomSpecInput) {
+  const spec = parseGroomSpec(input);
+  const surface = prepareGroomSurface(mesh, { boundary: spec.field.boundary });
+  const solved = solveGroomField(spec, surface);
+  return { spec, surface, solved, ...growGuides(surface, solved, spec) };
+}
+
+/** The same mesh with its faces split into named groups by a rule. */
+export function withGroups(mesh: TriangleMesh, names: string[], groupOf: (cx: number, cy: number, cz: number) => number): TriangleMesh {
+  const nF = mesh.triangles.length / 3;
+  const groupOfFace = new Uint16Array(nF);
+  const p = mesh.positions;
+  for (let f = 0; f < nF; f++) {
+    const c = [0, 1, 2].map((k) => [0, 1, 2].reduce((s, j) => s + p[3 * mesh.triangles[3 * f + j] + k], 0) / 3);
+    groupOfFace[f] = groupOf(c[0], c[1], c[2]);
+  }
+  return { ...mesh, groups: { names, groupOfFace } };
+}
+
+/** Distance from each of the first `sample` points to its nearest other point. */
+export function nearestNeighbourDistances(position: Float64Array, sample: number): Float64Array {
+  const n = position.length / 3;
+  const out = new Float64Array(Math.min(sample, n));
+  for (let i = 0; i < out.length; i++) {
+    let best = Infinity;
+    for (let j = 0; j < n; j++) {
+      if (j === i) continue;
+      const d = Math.hypot(position[3 * i] - position[3 * j], position[3 * i + 1] - position[3 * j + 1], position[3 * i + 2] - position[3 * j + 2]);
+      if (d < best) best = d;
+    }
+    out[i] = best;
+  }
+  return out;
+}
