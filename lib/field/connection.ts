@@ -11,7 +11,7 @@ import {
 import { angleDefects, componentFacts, cornerAngles, type ComponentFacts } from './geometry';
 import { FieldError, describeFirst, type TriangleMesh } from './mesh';
 import { symmetricFromTriplets } from './sparse';
-import { buildTopology, faceOfHalfedge, nextAroundVertex, nextHalfedge, type Topology } from './topology';
+import { buildTopology, faceOfHalfedge, facePieces, nextAroundVertex, nextHalfedge, type Topology } from './topology';
 import { TWO_PI, angleInFace, buildFaceFrames, type FaceFrames } from './transport';
 
 /**
@@ -778,29 +778,6 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
 }
 
 /** Pieces of the dual graph once the curve edges are cut: the field is continuous within each. */
-export function dualPieces(topology: Topology, cutEdge: Uint8Array): Int32Array {
-  const piece = new Int32Array(topology.faceCount).fill(-1);
-  const stack = new Int32Array(topology.faceCount);
-  let count = 0;
-  for (let f0 = 0; f0 < topology.faceCount; f0++) {
-    if (piece[f0] !== -1) continue;
-    let top = 0;
-    stack[top++] = f0;
-    piece[f0] = count;
-    while (top > 0) {
-      const f = stack[--top];
-      for (let k = 0; k < 3; k++) {
-        const h = 3 * f + k;
-        const t = topology.twin[h];
-        if (t === -1 || cutEdge[topology.edgeOf[h]]) continue;
-        const g = faceOfHalfedge(t);
-        if (piece[g] === -1) {
-          piece[g] = count;
-          stack[top++] = g;
-        }
-      }
-    }
-    count++;
-  }
-  return piece;
+export function dualPieces(topology: Topology, cutEdge: Uint8Array): Uint32Array {
+  return facePieces(topology.faceCount, topology.twin, topology.edgeOf, cutEdge).piece;
 }

@@ -192,29 +192,37 @@ export function buildTopology(mesh: TriangleMesh): Topology {
     boundaryLoops.push(Uint32Array.from(loop));
   }
 
-  const componentOfFace = topo.componentOfFace as Uint32Array;
-  componentOfFace.fill(0xffffffff);
-  let componentCount = 0;
-  const stack = new Int32Array(nF);
-  for (let f0 = 0; f0 < nF; f0++) {
-    if (componentOfFace[f0] !== 0xffffffff) continue;
+  const { piece: componentOfFace, count: componentCount } = facePieces(nF, twin, edgeOf);
+  return { ...topo, boundaryLoops, componentOfFace, componentCount };
+}
+
+/**
+ * Groups faces into pieces that are joined across shared edges, not crossing the edges marked in
+ * `cutEdge` (none when omitted). Pieces are numbered from 0 in order of their lowest face.
+ */
+export function facePieces(faceCount: number, twin: Int32Array, edgeOf: Uint32Array, cutEdge?: Uint8Array): { piece: Uint32Array; count: number } {
+  const piece = new Uint32Array(faceCount).fill(0xffffffff);
+  const stack = new Int32Array(faceCount);
+  let count = 0;
+  for (let f0 = 0; f0 < faceCount; f0++) {
+    if (piece[f0] !== 0xffffffff) continue;
     let top = 0;
     stack[top++] = f0;
-    componentOfFace[f0] = componentCount;
+    piece[f0] = count;
     while (top > 0) {
       const f = stack[--top];
       for (let k = 0; k < 3; k++) {
-        const t = twin[3 * f + k];
-        if (t === -1) continue;
+        const h = 3 * f + k;
+        const t = twin[h];
+        if (t === -1 || (cutEdge && cutEdge[edgeOf[h]])) continue;
         const g = faceOfHalfedge(t);
-        if (componentOfFace[g] === 0xffffffff) {
-          componentOfFace[g] = componentCount;
+        if (piece[g] === 0xffffffff) {
+          piece[g] = count;
           stack[top++] = g;
         }
       }
     }
-    componentCount++;
+    count++;
   }
-
-  return { ...topo, boundaryLoops, componentCount };
+  return { piece, count };
 }
