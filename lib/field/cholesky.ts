@@ -96,8 +96,15 @@ interface SupernodalLayout {
   /** number of leading update rows that fall into the parent's own pivot columns */
   relSplit: Int32Array;
   superParent: Int32Array;
-  /** where each entry of A lands in the values array */
-  entryDestination: Int32Array;
+  /**
+   * A's entries in factorization order: supernode s assembles entries
+   * entryPtr[s] .. entryPtr[s+1]−1, adding values[entrySource[t]] at entryTarget[t]:
+   * a position in L₂₁ if ≥ 0, else position −1−target in the unpacked diagonal block.
+   * Assembling supernode by supernode touches L in order instead of at random.
+   */
+  entryPtr: Int32Array;
+  entrySource: Int32Array;
+  entryTarget: Int32Array;
   /** for each pivot, the position of A's diagonal entry, or -1 */
   diagonalEntry: Int32Array;
   stackSize: number;
@@ -486,7 +493,10 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   const rel = new Int32Array(relPtr[supernodes]);
   const relSplit = new Int32Array(supernodes);
   const position = new Int32Array(n);
-  const entryDestination = new Int32Array(A.colPtr[n]);
+  const entryPtr = new Int32Array(supernodes + 1);
+  const entrySource = new Int32Array(A.colPtr[n]);
+  const entryTarget = new Int32Array(A.colPtr[n]);
+  let entries = 0;
   const diagonalEntry = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
     for (let q = A.colPtr[j]; q < A.colPtr[j + 1]; q++) if (A.rowIdx[q] === j) diagonalEntry[inverse[j]] = q;
@@ -505,18 +515,23 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       }
       relSplit[c] = split;
     }
-    const base = valuePtr[s];
-    const below = base + ((k * (k + 1)) >> 1) - k * k; // row p ≥ k of the supernode starts at below + p·k
+    const below = valuePtr[s] + ((k * (k + 1)) >> 1) - k * k; // row p ≥ k starts at below + p·k
+    entryPtr[s] = entries;
     for (let j = f; j < f + k; j++) {
       const c = j - f;
       const dq = diagonalEntry[j];
-      if (dq >= 0) entryDestination[dq] = base + ((c * (c + 1)) >> 1) + c;
+      if (dq >= 0) {
+        entrySource[entries] = dq;
+        entryTarget[entries++] = -1 - (c * k + c);
+      }
       for (let q = lower.ptr[j]; q < lower.ptr[j + 1]; q++) {
         const p = position[lower.idx[q]];
-        entryDestination[lower.src[q]] = p < k ? base + ((p * (p + 1)) >> 1) + c : below + p * k + c;
+        entrySource[entries] = lower.src[q];
+        entryTarget[entries++] = p < k ? -1 - (p * k + c) : below + p * k + c;
       }
     }
   }
+  entryPtr[supernodes] = entries;
   let maxColumns = 0;
   for (let s = 0; s < supernodes; s++) maxColumns = Math.max(maxColumns, firstCol[s + 1] - firstCol[s]);
   // Simulate the update stack in factorization order to size it once.
@@ -555,7 +570,9 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       rel,
       relSplit,
       superParent,
-      entryDestination,
+      entryPtr,
+      entrySource,
+      entryTarget,
       diagonalEntry,
       stackSize,
     },
@@ -586,10 +603,9 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     throw new RangeError('factorNumeric: A does not have the sparsity pattern the symbolic analysis was made for');
   }
   const supernodes = symbolic.supernodeCount;
-  const { firstCol, rowPtr, valuePtr, relPtr, rel, relSplit, entryDestination, diagonalEntry } = lay;
+  const { firstCol, rowPtr, valuePtr, relPtr, rel, relSplit, entryPtr, entrySource, entryTarget, diagonalEntry } = lay;
   const L = new Float64Array(valuePtr[supernodes]);
   const aValues = A.values;
-  for (let q = 0; q < entryDestination.length; q++) L[entryDestination[q]] += aValues[q];
   const stack = new Float64Array(lay.stackSize);
   const updateAt = new Int32Array(supernodes);
   const childHead = new Int32Array(supernodes).fill(-1);
@@ -618,9 +634,11 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     const r = m - k;
     const off = valuePtr[s];
     const below = off + ((k * (k + 1)) >> 1);
-    for (let i = 0, t = off; i < k; i++) {
-      const row = i * k;
-      for (let j = 0; j <= i; j++) D[row + j] = L[t++];
+    D.fill(0, 0, k * k);
+    for (let t = entryPtr[s]; t < entryPtr[s + 1]; t++) {
+      const target = entryTarget[t];
+      if (target >= 0) L[target] += aValues[entrySource[t]];
+      else D[-1 - target] += aValues[entrySource[t]];
     }
     const firstChild = childHead[s];
     const base = firstChild === -1 ? stackTop : updateAt[firstChild];
@@ -726,7 +744,29 @@ class SupernodalFactor implements CholeskyFactor {
         t += i + 1;
       }
       const rp = rowPtr[s];
-      for (let i = k; i < m; i++, t += k) {
+      let i = k;
+      // four rows of L₂₁ at a time share each load of y
+      for (; i + 3 < m; i += 4, t += 4 * k) {
+        const t1 = t + k;
+        const t2 = t1 + k;
+        const t3 = t2 + k;
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        for (let q = 0; q < k; q++) {
+          const yq = y[f + q];
+          s0 += L[t + q] * yq;
+          s1 += L[t1 + q] * yq;
+          s2 += L[t2 + q] * yq;
+          s3 += L[t3 + q] * yq;
+        }
+        y[rows[rp + i]] -= s0;
+        y[rows[rp + i + 1]] -= s1;
+        y[rows[rp + i + 2]] -= s2;
+        y[rows[rp + i + 3]] -= s3;
+      }
+      for (; i < m; i++, t += k) {
         let sum = 0;
         for (let q = 0; q < k; q++) sum += L[t + q] * y[f + q];
         y[rows[rp + i]] -= sum;
@@ -739,9 +779,20 @@ class SupernodalFactor implements CholeskyFactor {
       const m = rowPtr[s + 1] - rowPtr[s];
       const rp = rowPtr[s];
       let t = valuePtr[s] + ((k * (k + 1)) >> 1);
-      for (let i = k; i < m; i++, t += k) {
+      let i = k;
+      for (; i + 3 < m; i += 4, t += 4 * k) {
+        const t1 = t + k;
+        const t2 = t1 + k;
+        const t3 = t2 + k;
+        const y0 = y[rows[rp + i]];
+        const y1 = y[rows[rp + i + 1]];
+        const y2 = y[rows[rp + i + 2]];
+        const y3 = y[rows[rp + i + 3]];
+        for (let q = 0; q < k; q++) y[f + q] -= L[t + q] * y0 + L[t1 + q] * y1 + L[t2 + q] * y2 + L[t3 + q] * y3;
+      }
+      for (; i < m; i++, t += k) {
         const yi = y[rows[rp + i]];
-        if (yi !== 0) for (let q = 0; q < k; q++) y[f + q] -= L[t + q] * yi;
+        for (let q = 0; q < k; q++) y[f + q] -= L[t + q] * yi;
       }
       t = valuePtr[s] + ((k * (k - 1)) >> 1); // row k−1 of the packed diagonal block
       for (let i = k - 1; i >= 0; i--) {
