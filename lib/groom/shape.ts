@@ -1,0 +1,139 @@
+/**
+ * The shape of one guide over its skin path: lifted off the skin, bent by gravity, curled and
+ * jittered. The first segment is the groomed root direction itself — the field's direction tilted
+ * off the skin by the lift — and every bend starts after it, so what the groomer combed at the
+ * root is what the renderer receives.
+ */
+export interface ShapeParameters {
+  /** Guide length along the combed curve, in surface units. */
+  readonly length: number;
+  /** Angle off the skin, radians, 0 … π/2. */
+  readonly lift: number;
+  /** 0 … 1: how far the tip turns toward gravity (1: the last segment points straight down). */
+  readonly droop: number;
+  /** Unit direction of gravity. */
+  readonly gravity: readonly [number, number, number];
+  /** Curl radius and wavelength (surface units), and the guide's own phase (radians). */
+  readonly curlAmplitude: number;
+  readonly curlWavelength: number;
+  readonly curlPhase: number;
+  /** Sideways offset of the tip from the jitter (surface units), and the direction it leans (radians around the guide). */
+  readonly jitterOffset: number;
+  readonly jitterAngle: number;
+  /** Height the guide keeps above the skin, surface units. */
+  readonly clearance: number;
+}
+
+/**
+ * Writes the guide's `n` points into `out` from index `at` (3 numbers each).
+ *
+ * `skin` holds for i = 1 … n−1 the skin point under point i (at arc length s_i·cos(lift) along the
+ * field's streamline) and `skinNormal` the unit skin normal there; `root`, `rootDirection` (unit
+ * field direction) and `rootNormal` (unit face normal) describe the root.
+ *
+ * Guarantees: point 0 is the root; the segment from point 0 to point 1 is
+ * s₁·(cos(lift)·rootDirection + sin(lift)·rootNormal) + clearance·rootNormal, so its part in the
+ * skin's tangent plane points exactly along the field; droop turns segments without changing their
+ * lengths; all points are finite when the inputs are.
+ */
+export function shapeGuide(
+  out: Float64Array,
+  at: number,
+  n: number,
+  root: ArrayLike<number>,
+  rootDirection: ArrayLike<number>,
+  rootNormal: ArrayLike<number>,
+  skin: Float64Array,
+  skinNormal: Float64Array,
+  params: ShapeParameters,
+): void {
+  const { length, lift, clearance } = params;
+  const step = length / (n - 1);
+  const cosLift = Math.cos(lift), sinLift = Math.sin(lift);
+  const o = 3 * at;
+  for (let k = 0; k < 3; k++) out[o + k] = root[k];
+  if (n === 1) return;
+  for (let k = 0; k < 3; k++) out[o + 3 + k] = root[k] + step * (cosLift * rootDirection[k] + sinLift * rootNormal[k]) + clearance * rootNormal[k];
+  // The combed curve: each later point stands over its skin point at the height the lift gives.
+  for (let i = 2; i < n; i++) {
+    const height = i * step * sinLift + clearance;
+    for (let k = 0; k < 3; k++) out[o + 3 * i + k] = skin[3 * i + k] + height * skinNormal[3 * i + k];
+  }
+  droop(out, o, n, params);
+  bend(out, o, n, step, skinNormal, params);
+}
+
+/** Turns segments 1 … n−2 toward gravity, more toward the tip, keeping each segment's length. */
+function droop(out: Float64Array, o: number, n: number, params: ShapeParameters): void {
+  if (params.droop <= 0 || n < 3) return;
+  const [gx, gy, gz] = params.gravity;
+  // Positions are rebuilt segment by segment from the original segment vectors.
+  let px = out[o + 3], py = out[o + 4], pz = out[o + 5];
+  let prevX = px, prevY = py, prevZ = pz;
+  for (let i = 2; i < n; i++) {
+    const cx = out[o + 3 * i], cy = out[o + 3 * i + 1], cz = out[o + 3 * i + 2];
+    let sx = cx - prevX, sy = cy - prevY, sz = cz - prevZ;
+    prevX = cx; prevY = cy; prevZ = cz;
+    const len = Math.sqrt(sx * sx + sy * sy + sz * sz);
+    if (len > 0) {
+      const ux = sx / len, uy = sy / len, uz = sz / len;
+      const angle = Math.acos(Math.max(-1, Math.min(1, ux * gx + uy * gy + uz * gz)));
+      const turn = params.droop * ((i - 1) / (n - 2)) * angle;
+      // Rotation of u toward g in the plane they span (any plane when they are opposite).
+      let ax = uy * gz - uz * gy, ay = uz * gx - ux * gz, az = ux * gy - uy * gx;
+      let al = Math.sqrt(ax * ax + ay * ay + az * az);
+      if (al < 1e-12) {
+        ax = Math.abs(ux) < 0.9 ? 0 : -uz; ay = Math.abs(ux) < 0.9 ? -uz : 0; az = Math.abs(ux) < 0.9 ? uy : ux;
+        al = Math.sqrt(ax * ax + ay * ay + az * az) || 1;
+      }
+      ax /= al; ay /= al; az /= al;
+      const c = Math.cos(turn), s = Math.sin(turn);
+      // Rodrigues' rotation; u is perpendicular to the axis.
+      const wx = ay * uz - az * uy, wy = az * ux - ax * uz, wz = ax * uy - ay * ux;
+      sx = len * (c * ux + s * wx); sy = len * (c * uy + s * wy); sz = len * (c * uz + s * wz);
+    }
+    px += sx; py += sy; pz += sz;
+    out[o + 3 * i] = px; out[o + 3 * i + 1] = py; out[o + 3 * i + 2] = pz;
+  }
+}
+
+/** Adds curl (a helix around the guide) and jitter (a sideways lean of the tip), both zero up to point 1. */
+function bend(out: Float64Array, o: number, n: number, step: number, skinNormal: Float64Array, params: ShapeParameters): void {
+  const { curlAmplitude, curlWavelength, curlPhase, jitterOffset, jitterAngle } = params;
+  if ((curlAmplitude <= 0 && jitterOffset <= 0) || n < 3) return;
+  const span = (n - 2) * step;
+  // Offsets are computed on the unbent curve first, then applied, so each frame sees the same curve.
+  const offsets = new Float64Array(3 * n);
+  for (let i = 2; i < n; i++) {
+    const q = o + 3 * i;
+    let tx = out[q] - out[q - 3], ty = out[q + 1] - out[q - 2], tz = out[q + 2] - out[q - 1];
+    const tl = Math.sqrt(tx * tx + ty * ty + tz * tz) || 1;
+    tx /= tl; ty /= tl; tz /= tl;
+    const nx = skinNormal[3 * i], ny = skinNormal[3 * i + 1], nz = skinNormal[3 * i + 2];
+    // Sideways (skin normal × tangent) and its partner, both across the guide.
+    let bx = ny * tz - nz * ty, by = nz * tx - nx * tz, bz = nx * ty - ny * tx;
+    let bl = Math.sqrt(bx * bx + by * by + bz * bz);
+    if (bl < 1e-9) {
+      bx = Math.abs(tx) < 0.9 ? 0 : -tz; by = Math.abs(tx) < 0.9 ? -tz : 0; bz = Math.abs(tx) < 0.9 ? ty : tx;
+      bl = Math.sqrt(bx * bx + by * by + bz * bz) || 1;
+    }
+    bx /= bl; by /= bl; bz /= bl;
+    const cx = ty * bz - tz * by, cy = tz * bx - tx * bz, cz = tx * by - ty * bx;
+    const s = (i - 1) * step;
+    let a = 0, b = 0;
+    if (curlAmplitude > 0) {
+      // The helix grows to its full radius over the first half wavelength, so the root stays combed.
+      const ramp = Math.min(1, s / (0.5 * curlWavelength));
+      const phase = curlPhase + (2 * Math.PI * s) / curlWavelength;
+      a += curlAmplitude * ramp * Math.cos(phase);
+      b += curlAmplitude * ramp * Math.sin(phase);
+    }
+    if (jitterOffset > 0) {
+      const lean = jitterOffset * (s / span) ** 2;
+      a += lean * Math.cos(jitterAngle);
+      b += lean * Math.sin(jitterAngle);
+    }
+    offsets[3 * i] = a * bx + b * cx; offsets[3 * i + 1] = a * by + b * cy; offsets[3 * i + 2] = a * bz + b * cz;
+  }
+  for (let i = 2; i < n; i++) for (let k = 0; k < 3; k++) out[o + 3 * i + k] += offsets[3 * i + k];
+}
