@@ -382,6 +382,9 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
   const localIndex = new Int32Array(n);
   const levelStart: number[] = [];
   const scratch = new Int32Array(n);
+  const leafLow = new Int32Array(64);
+  const leafHigh = new Int32Array(64);
+  const leafDegree = new Float64Array(64);
   let nextOwner = 1;
 
   const rangeLo: number[] = [0];
@@ -529,6 +532,10 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
     if (size <= 2) return;
     for (let t = 0; t < size; t++) localIndex[verts[lo + t]] = t;
     const id = owner[verts[lo]];
+    if (size <= 64) {
+      orderSmallLeaf(lo, size, id);
+      return;
+    }
     const subOffsets = new Int32Array(size + 1);
     let edges = 0;
     for (let t = 0; t < size; t++) {
@@ -549,4 +556,63 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
     for (let t = 0; t < size; t++) scratch[t] = verts[lo + local[t]];
     for (let t = 0; t < size; t++) verts[lo + t] = scratch[t];
   }
+
+  // Exact minimum degree on an explicit elimination graph held as 64-bit rows (two int32
+  // words): most pieces end this small, and for them bit operations beat the quotient
+  // graph's bookkeeping many times over.
+  function orderSmallLeaf(lo: number, size: number, id: number): void {
+    for (let t = 0; t < size; t++) {
+      let low = 0;
+      let high = 0;
+      const v = verts[lo + t];
+      for (let q = offsets[v]; q < offsets[v + 1]; q++) {
+        const u = adjacency[q];
+        if (owner[u] !== id) continue;
+        const b = localIndex[u];
+        if (b < 32) low |= 1 << b;
+        else high |= 1 << (b - 32);
+      }
+      leafLow[t] = low;
+      leafHigh[t] = high;
+      leafDegree[t] = popCount(low) + popCount(high);
+    }
+    for (let step = 0; step < size; step++) {
+      let v = -1;
+      let best = Infinity;
+      for (let t = 0; t < size; t++) {
+        if (leafDegree[t] < best) {
+          best = leafDegree[t];
+          v = t;
+        }
+      }
+      scratch[step] = verts[lo + v];
+      leafDegree[v] = Infinity;
+      const low = leafLow[v];
+      const high = leafHigh[v];
+      const clearLow = v < 32 ? ~(1 << v) : -1;
+      const clearHigh = v < 32 ? -1 : ~(1 << (v - 32));
+      // neighbours of v become a clique, and forget v
+      for (let word = 0; word < 2; word++) {
+        let bits = word === 0 ? low : high;
+        while (bits !== 0) {
+          const lowest = bits & -bits;
+          const u = 31 - Math.clz32(lowest) + 32 * word;
+          bits ^= lowest;
+          const uLow = ((leafLow[u] | low) & clearLow) & (u < 32 ? ~(1 << u) : -1);
+          const uHigh = ((leafHigh[u] | high) & clearHigh) & (u < 32 ? -1 : ~(1 << (u - 32)));
+          leafLow[u] = uLow;
+          leafHigh[u] = uHigh;
+          leafDegree[u] = popCount(uLow) + popCount(uHigh);
+        }
+      }
+    }
+    for (let t = 0; t < size; t++) verts[lo + t] = scratch[t];
+  }
+}
+
+function popCount(x: number): number {
+  x -= (x >>> 1) & 0x55555555;
+  x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+  x = (x + (x >>> 4)) & 0x0f0f0f0f;
+  return Math.imul(x, 0x01010101) >>> 24;
 }
