@@ -1,0 +1,106 @@
+import type { Guides } from './guides';
+import { decimalFormatter } from './number-text';
+import { CENTIMETRES_PER_UNIT } from './spec';
+
+/** How the curves are interpolated: linear segments, or cubic through pinned end points. */
+export type UsdCurveBasis = 'linear' | 'bspline' | 'catmullRom';
+
+const PER_LINE = 8;
+
+function list<T>(items: ArrayLike<T>, format: (item: T) => string, indent: string): string {
+  const lines: string[] = [];
+  for (let i = 0; i < items.length; i += PER_LINE) {
+    const row: string[] = [];
+    for (let j = i; j < Math.min(items.length, i + PER_LINE); j++) row.push(format(items[j]));
+    lines.push(indent + row.join(', '));
+  }
+  return `[\n${lines.join(',\n')}\n${indent.slice(4)}]`;
+}
+
+/**
+ * The guides as OpenUSD text (`.usda`): one `BasisCurves` prim `/Groom/Guides` holding every
+ * guide, with `curveVertexCounts`, `points`, per-vertex `widths` (root width tapering to the tip)
+ * and `extent`, in the surface's units (`metersPerUnit`) and up axis.
+ *
+ * Cubic bases are written with `wrap = "pinned"`, so the rendered curve starts exactly at the root
+ * and ends at the tip. Guarantees: `curveVertexCounts` sums to the number of points; widths have
+ * one value per point ("vertex" interpolation); the extent contains every point and, for cubic
+ * curves, the whole curve (the hull of each segment's Bézier control points), widened by half
+ * the largest width.
+ */
+export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear'): string {
+  const n = guides.pointsPerGuide;
+  const total = guides.count * n;
+  const p = guides.points;
+  const number = decimalFormatter(p);
+  const points = Array.from({ length: total }, (_, i) => i);
+  const widths = new Float64Array(total);
+  for (let i = 0; i < total; i++) {
+    const t = n > 1 ? (i % n) / (n - 1) : 0;
+    widths[i] = guides.rootWidth + (guides.tipWidth - guides.rootWidth) * t;
+  }
+  const extent = curveExtent(guides, basis);
+  const tuple = (i: number) => `(${number(p[3 * i])}, ${number(p[3 * i + 1])}, ${number(p[3 * i + 2])})`;
+  const widthNumber = decimalFormatter(widths);
+  const topology =
+    basis === 'linear'
+      ? `        uniform token type = "linear"\n        uniform token wrap = "nonperiodic"`
+      : `        uniform token type = "cubic"\n        uniform token basis = "${basis}"\n        uniform token wrap = "pinned"`;
+  return `#usda 1.0
+(
+    defaultPrim = "Groom"
+    metersPerUnit = ${CENTIMETRES_PER_UNIT[guides.units] / 100}
+    upAxis = "${guides.upAxis.toUpperCase()}"
+    doc = "Guide curves written by Whorlwind: ${guides.count} guides of ${n} points."
+)
+
+def Xform "Groom"
+{
+    def BasisCurves "Guides"
+    {
+${topology}
+        int[] curveVertexCounts = ${list(new Array<number>(guides.count).fill(n), String, '            ')}
+        point3f[] points = ${list(points, tuple, '            ')}
+        float[] widths = ${list(widths, widthNumber, '            ')} (
+            interpolation = "vertex"
+        )
+        float3[] extent = [(${extent.min.map(number).join(', ')}), (${extent.max.map(number).join(', ')})]
+        int primvars:hairsPerGuide = ${guides.hairsPerGuide} (
+            interpolation = "constant"
+        )
+    }
+}
+`;
+}
+
+/** Bounds of the rendered curves, widened by half the largest width. */
+function curveExtent(guides: Guides, basis: UsdCurveBasis): { min: number[]; max: number[] } {
+  const n = guides.pointsPerGuide;
+  const p = guides.points;
+  const min = [Infinity, Infinity, Infinity];
+  const max = [-Infinity, -Infinity, -Infinity];
+  const include = (x: number, k: number) => {
+    if (x < min[k]) min[k] = x;
+    if (x > max[k]) max[k] = x;
+  };
+  for (let g = 0; g < guides.count; g++) {
+    for (let i = 0; i < n; i++) {
+      const q = 3 * (g * n + i);
+      for (let k = 0; k < 3; k++) {
+        include(p[q + k], k);
+        if (basis === 'catmullRom') {
+          // A Catmull-Rom segment from Pᵢ to Pᵢ₊₁ is the Bézier segment with inner control points
+          // Pᵢ ± (Pᵢ₊₁ − Pᵢ₋₁)/6 (the pinned ends repeat the end point), which bound it.
+          const before = 3 * (g * n + Math.max(0, i - 1)), after = 3 * (g * n + Math.min(n - 1, i + 1));
+          const tangent = (p[after + k] - p[before + k]) / 6;
+          include(p[q + k] + tangent, k);
+          include(p[q + k] - tangent, k);
+        }
+      }
+    }
+  }
+  // A B-spline lies in the hull of its control points, and the pinned ends only repeat points.
+  const pad = Math.max(guides.rootWidth, guides.tipWidth) / 2;
+  if (guides.count === 0) return { min: [0, 0, 0], max: [0, 0, 0] };
+  return { min: min.map((x) => x - pad), max: max.map((x) => x + pad) };
+}
