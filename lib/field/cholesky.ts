@@ -96,6 +96,8 @@ interface SupernodalLayout {
   /** number of leading update rows that fall into the parent's own pivot columns */
   relSplit: Int32Array;
   superParent: Int32Array;
+  childHead: Int32Array;
+  childNext: Int32Array;
   /**
    * A's entries in factorization order: supernode s assembles entries
    * entryPtr[s] .. entryPtr[s+1]−1, adding values[entrySource[t]] at entryTarget[t]:
@@ -352,6 +354,8 @@ function relabelTree(parent: Int32Array, post: Int32Array): Int32Array {
 }
 
 function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): CholeskySymbolic {
+  // Each step is its own function: V8 optimizes a long one-shot function loop by loop,
+  // recompiling all of it each time, which made cold analyses several times slower.
   const n = A.n;
   // Postordering the elimination tree changes no fill but makes every subtree, and so
   // every supernode, a contiguous range of pivots.
@@ -367,49 +371,87 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   let nonZeros = 0;
   for (let j = 0; j < n; j++) nonZeros += counts[j];
 
-  // ---- fundamental supernodes: j+1 continues j's supernode when j is its only child
-  // and their columns share a pattern
+  const firstCol = findSupernodes(n, parent, counts);
+  const tree = supernodeTree(n, firstCol, parent);
+  const { rowPtr, rows } = supernodeRows(n, firstCol, counts, tree, lower);
+  const { valuePtr, flops, maxColumns } = storagePlan(firstCol, rowPtr);
+  const assembly = assemblyPlan(A, inverse, firstCol, rowPtr, rows, valuePtr, tree, lower);
+  const stackSize = stackPlan(firstCol, rowPtr, tree);
+  const supernodes = firstCol.length - 1;
+  return {
+    n,
+    perm,
+    nonZerosInFactor: nonZeros,
+    storedEntries: valuePtr[supernodes],
+    supernodeCount: supernodes,
+    flops,
+    layout: {
+      colPtr: A.colPtr,
+      rowIdx: A.rowIdx,
+      firstCol,
+      rowPtr,
+      rows,
+      valuePtr,
+      maxColumns,
+      superParent: tree.superParent,
+      childHead: tree.childHead,
+      childNext: tree.childNext,
+      ...assembly,
+      stackSize,
+    },
+  };
+}
+
+/**
+ * Supernodes as ranges of pivots (firstCol[s] .. firstCol[s+1]−1). Fundamental ones
+ * first — j+1 continues j's supernode when j is its only child and their columns share a
+ * pattern — then relaxed amalgamation merges a supernode into its parent when the parent
+ * immediately follows it and the explicit zeros this adds stay few: small dense blocks
+ * waste more time in loop overhead than a few zeros cost.
+ */
+function findSupernodes(n: number, parent: Int32Array, counts: Int32Array): Int32Array {
   const childCount = new Int32Array(n);
   for (let j = 0; j < n; j++) if (parent[j] !== -1) childCount[parent[j]]++;
-  const fundamentalStart: number[] = [];
-  for (let j = 0; j < n; j++) {
-    const continues = j > 0 && parent[j - 1] === j && childCount[j] === 1 && counts[j - 1] === counts[j] + 1;
-    if (!continues) fundamentalStart.push(j);
-  }
-  fundamentalStart.push(n);
-
-  // ---- relaxed amalgamation: merge a supernode into its parent when the parent
-  // immediately follows it and the explicit zeros this adds stay few; small dense blocks
-  // waste more time in loop overhead than a few zeros cost
-  const mergedStart: number[] = [];
-  const mergedCount: number[] = []; // exact nonzeros of the merged columns
-  for (let f = 0; f + 1 < fundamentalStart.length; f++) {
-    const first = fundamentalStart[f];
-    const last = fundamentalStart[f + 1] - 1;
-    let exact = 0;
-    for (let j = first; j <= last; j++) exact += counts[j];
-    const below = counts[last] - 1;
-    const top = mergedStart.length - 1;
-    if (top >= 0) {
-      const prevFirst = mergedStart[top];
-      if (parent[first - 1] === first) {
-        const cols = last - prevFirst + 1;
-        const dense = cols * below + (cols * (cols + 1)) / 2;
-        const total = exact + mergedCount[top];
-        const zeros = dense - total;
-        if (acceptMerge(cols, zeros / dense)) {
-          mergedCount[top] = total;
-          continue;
-        }
+  const start = new Int32Array(n + 1);
+  const exactCount = new Float64Array(n + 1); // exact nonzeros of the columns merged so far
+  let groups = 0;
+  let j = 0;
+  while (j < n) {
+    const first = j;
+    let exact = counts[j];
+    j++;
+    while (j < n && parent[j - 1] === j && childCount[j] === 1 && counts[j - 1] === counts[j] + 1) {
+      exact += counts[j];
+      j++;
+    }
+    const last = j - 1;
+    if (groups > 0 && parent[first - 1] === first) {
+      const cols = last - start[groups - 1] + 1;
+      const below = counts[last] - 1;
+      const dense = cols * below + (cols * (cols + 1)) / 2;
+      const total = exact + exactCount[groups - 1];
+      if (acceptMerge(cols, (dense - total) / dense)) {
+        exactCount[groups - 1] = total;
+        continue;
       }
     }
-    mergedStart.push(first);
-    mergedCount.push(exact);
+    start[groups] = first;
+    exactCount[groups] = exact;
+    groups++;
   }
-  const supernodes = mergedStart.length;
-  const firstCol = new Int32Array(supernodes + 1);
-  for (let s = 0; s < supernodes; s++) firstCol[s] = mergedStart[s];
-  firstCol[supernodes] = n;
+  start[groups] = n;
+  return start.slice(0, groups + 1);
+}
+
+interface SupernodeTree {
+  superParent: Int32Array;
+  /** children of each supernode in increasing order, as linked lists */
+  childHead: Int32Array;
+  childNext: Int32Array;
+}
+
+function supernodeTree(n: number, firstCol: Int32Array, parent: Int32Array): SupernodeTree {
+  const supernodes = firstCol.length - 1;
   const superOf = new Int32Array(n);
   for (let s = 0; s < supernodes; s++) for (let j = firstCol[s]; j < firstCol[s + 1]; j++) superOf[j] = s;
   const superParent = new Int32Array(supernodes);
@@ -417,14 +459,6 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
     const p = parent[firstCol[s + 1] - 1];
     superParent[s] = p === -1 ? -1 : superOf[p];
   }
-
-  // ---- row patterns: own pivots, A's entries below them, and the children's rows
-  const rowPtr = new Int32Array(supernodes + 1);
-  for (let s = 0; s < supernodes; s++) {
-    const k = firstCol[s + 1] - firstCol[s];
-    rowPtr[s + 1] = rowPtr[s] + k + counts[firstCol[s + 1] - 1] - 1;
-  }
-  const rows = new Int32Array(rowPtr[supernodes]);
   const childHead = new Int32Array(supernodes).fill(-1);
   const childNext = new Int32Array(supernodes).fill(-1);
   for (let s = supernodes - 1; s >= 0; s--) {
@@ -434,6 +468,25 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       childHead[p] = s;
     }
   }
+  return { superParent, childHead, childNext };
+}
+
+/** Row pattern of each supernode: its own pivots, A's entries below them, and its children's rows. */
+function supernodeRows(
+  n: number,
+  firstCol: Int32Array,
+  counts: Int32Array,
+  tree: SupernodeTree,
+  lower: { ptr: Int32Array; idx: Int32Array },
+): { rowPtr: Int32Array; rows: Int32Array } {
+  const supernodes = firstCol.length - 1;
+  const rowPtr = new Int32Array(supernodes + 1);
+  for (let s = 0; s < supernodes; s++) {
+    const k = firstCol[s + 1] - firstCol[s];
+    rowPtr[s + 1] = rowPtr[s] + k + counts[firstCol[s + 1] - 1] - 1;
+  }
+  const rows = new Int32Array(rowPtr[supernodes]);
+  const { childHead, childNext } = tree;
   const marker = new Int32Array(n).fill(-1);
   for (let s = 0; s < supernodes; s++) {
     const f = firstCol[s];
@@ -443,13 +496,11 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       rows[at++] = j;
       marker[j] = s;
     }
-    for (let j = f; j <= l; j++) {
-      for (let q = lower.ptr[j]; q < lower.ptr[j + 1]; q++) {
-        const i = lower.idx[q];
-        if (marker[i] !== s) {
-          marker[i] = s;
-          rows[at++] = i;
-        }
+    for (let q = lower.ptr[f]; q < lower.ptr[l + 1]; q++) {
+      const i = lower.idx[q];
+      if (marker[i] !== s) {
+        marker[i] = s;
+        rows[at++] = i;
       }
     }
     for (let c = childHead[s]; c !== -1; c = childNext[c]) {
@@ -462,28 +513,61 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
         }
       }
     }
-    if (at !== rowPtr[s + 1]) throw new Error(`internal: supernode ${s} has ${at - rowPtr[s]} rows, expected ${rowPtr[s + 1] - rowPtr[s]}`);
+    if (at !== rowPtr[s + 1]) {
+      throw new Error(`internal: supernode ${s} has ${at - rowPtr[s]} rows, expected ${rowPtr[s + 1] - rowPtr[s]}`);
+    }
     rows.subarray(rowPtr[s] + (l - f + 1), at).sort();
   }
+  return { rowPtr, rows };
+}
 
-  // ---- storage plan, relative indices, entry destinations, stack size, flops
-  // Offsets are kept in int32 on purpose: V8 compiles index arithmetic that has ever
-  // seen a non-integer-typed number into much slower code, which the dense kernels feel.
+/**
+ * Where each supernode's values start, and the factorization's flop count. Offsets are
+ * int32 on purpose: V8 compiles index arithmetic that has ever seen a non-integer-typed
+ * number into much slower code, which the dense kernels feel.
+ */
+function storagePlan(firstCol: Int32Array, rowPtr: Int32Array): { valuePtr: Int32Array; flops: number; maxColumns: number } {
+  const supernodes = firstCol.length - 1;
   const valuePtr = new Int32Array(supernodes + 1);
   let flops = 0;
   let stored = 0;
+  let maxColumns = 0;
   for (let s = 0; s < supernodes; s++) {
     const k = firstCol[s + 1] - firstCol[s];
     const m = rowPtr[s + 1] - rowPtr[s];
-    stored += ((k * (k + 1)) >> 1) + (m - k) * k;
+    const r = m - k;
+    stored += ((k * (k + 1)) >> 1) + r * k;
     if (stored > MAX_STORED_ENTRIES) {
-      throw new RangeError(`analyzeCholesky: the factor would need more than ${MAX_STORED_ENTRIES} entries; the matrix is too large to factor in memory`);
+      throw new RangeError(
+        `analyzeCholesky: the factor would need more than ${MAX_STORED_ENTRIES} entries; the matrix is too large to factor in memory`,
+      );
     }
     valuePtr[s + 1] = stored;
-    const r = m - k;
     // k³/3 for the diagonal block, r·k² for the panel solve, r²·k for the update
     flops += (k * k * k) / 3 + r * k * k + r * r * k;
+    if (k > maxColumns) maxColumns = k;
   }
+  return { valuePtr, flops, maxColumns };
+}
+
+/**
+ * How the numeric phase assembles each front: for every child's update row, its row in
+ * the parent's front (rel), how many of them are the parent's own pivots (relSplit), and
+ * where A's entries go (entryPtr/entrySource/entryTarget, see SupernodalLayout).
+ */
+function assemblyPlan(
+  A: SymmetricSparse,
+  inverse: Int32Array,
+  firstCol: Int32Array,
+  rowPtr: Int32Array,
+  rows: Int32Array,
+  valuePtr: Int32Array,
+  tree: SupernodeTree,
+  lower: { ptr: Int32Array; idx: Int32Array; src: Int32Array },
+) {
+  const n = A.n;
+  const supernodes = firstCol.length - 1;
+  const { superParent, childHead, childNext } = tree;
   const relPtr = new Int32Array(supernodes + 1);
   for (let s = 0; s < supernodes; s++) {
     const k = firstCol[s + 1] - firstCol[s];
@@ -496,11 +580,11 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   const entryPtr = new Int32Array(supernodes + 1);
   const entrySource = new Int32Array(A.colPtr[n]);
   const entryTarget = new Int32Array(A.colPtr[n]);
-  let entries = 0;
   const diagonalEntry = new Int32Array(n).fill(-1);
   for (let j = 0; j < n; j++) {
     for (let q = A.colPtr[j]; q < A.colPtr[j + 1]; q++) if (A.rowIdx[q] === j) diagonalEntry[inverse[j]] = q;
   }
+  let entries = 0;
   for (let s = 0; s < supernodes; s++) {
     const f = firstCol[s];
     const k = firstCol[s + 1] - f;
@@ -532,16 +616,19 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
     }
   }
   entryPtr[supernodes] = entries;
-  let maxColumns = 0;
-  for (let s = 0; s < supernodes; s++) maxColumns = Math.max(maxColumns, firstCol[s + 1] - firstCol[s]);
-  // Simulate the update stack in factorization order to size it once.
+  return { relPtr, rel, relSplit, entryPtr, entrySource, entryTarget, diagonalEntry };
+}
+
+/** Peak size of the update-matrix stack, by simulating the factorization order. */
+function stackPlan(firstCol: Int32Array, rowPtr: Int32Array, tree: SupernodeTree): number {
+  const supernodes = firstCol.length - 1;
   let stackTop = 0;
   let stackSize = 0;
   const updateAt = new Int32Array(supernodes);
   for (let s = 0; s < supernodes; s++) {
     const k = firstCol[s + 1] - firstCol[s];
     const r = rowPtr[s + 1] - rowPtr[s] - k;
-    const firstChild = childHead[s];
+    const firstChild = tree.childHead[s];
     const base = firstChild === -1 ? stackTop : updateAt[firstChild];
     stackSize = Math.max(stackSize, stackTop + r * r);
     if (stackSize > MAX_STORED_ENTRIES) {
@@ -550,33 +637,7 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
     updateAt[s] = base;
     stackTop = base + r * r;
   }
-
-  return {
-    n,
-    perm,
-    nonZerosInFactor: nonZeros,
-    storedEntries: valuePtr[supernodes],
-    supernodeCount: supernodes,
-    flops,
-    layout: {
-      colPtr: A.colPtr,
-      rowIdx: A.rowIdx,
-      firstCol,
-      rowPtr,
-      rows,
-      valuePtr,
-      maxColumns,
-      relPtr,
-      rel,
-      relSplit,
-      superParent,
-      entryPtr,
-      entrySource,
-      entryTarget,
-      diagonalEntry,
-      stackSize,
-    },
-  };
+  return stackSize;
 }
 
 /** How many explicit zeros a merged supernode of `cols` columns may carry. */
@@ -608,15 +669,7 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
   const aValues = A.values;
   const stack = new Float64Array(lay.stackSize);
   const updateAt = new Int32Array(supernodes);
-  const childHead = new Int32Array(supernodes).fill(-1);
-  const childNext = new Int32Array(supernodes).fill(-1);
-  for (let s = supernodes - 1; s >= 0; s--) {
-    const p = lay.superParent[s];
-    if (p !== -1) {
-      childNext[s] = childHead[p];
-      childHead[p] = s;
-    }
-  }
+  const { childHead, childNext } = lay;
   // A pivot this small relative to its diagonal is rounding noise on a singular matrix.
   const pivotFloor = new Float64Array(n);
   for (let j = 0; j < n; j++) {
