@@ -6,7 +6,8 @@
  *   npx tsx bench/cholesky.ts                 all sizes (~10k, 50k, 200k, 800k vertices)
  *   npx tsx bench/cholesky.ts 50000 200000    chosen vertex counts
  *
- * Each size runs in its own child process so that its peak RSS is its own.
+ * Each size runs in its own child process so that its peak RSS is its own; see runOne for
+ * the cold and warm rows. "cpu s" far below "total s" means other work shared the cores.
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
@@ -70,40 +71,38 @@ function triangulatedGridLaplacian(side: number): SymmetricSparse {
   return symmetricFromTriplets(n, rows.subarray(0, k), cols.subarray(0, k), values.subarray(0, k));
 }
 
-interface Row {
-  vertices: number;
-  faces: number;
-  n: number;
-  nnzA: number;
-  nnzL: number;
-  gflop: number;
+interface Timing {
   orderingS: number;
   symbolicS: number;
   numericS: number;
   totalS: number;
+  /** user + system CPU seconds of ordering..numeric; far below totalS means the machine was busy */
+  cpuS: number;
   solveMs: number;
   residual: number;
+}
+
+interface Row {
+  vertices: number;
+  faces: number;
+  n: number;
+  nnzL: number;
+  gflop: number;
+  cold: Timing;
+  warm: Timing;
   peakRssMB: number;
 }
 
-function runOne(vertices: number): Row {
-  let peak = 0;
-  const sample = () => {
-    peak = Math.max(peak, process.memoryUsage().rss);
-  };
-  const side = Math.round(Math.sqrt(vertices));
-  const A = triangulatedGridLaplacian(side);
-  sample();
+function measure(A: SymmetricSparse): { timing: Timing; nnzL: number; flops: number } {
+  const c0 = process.cpuUsage();
   const t0 = performance.now();
   const perm = computeOrdering(A, 'auto');
   const t1 = performance.now();
-  sample();
   const symbolic = analyzeCholesky(A, { permutation: perm });
   const t2 = performance.now();
-  sample();
   const factor = factorNumeric(symbolic, A);
   const t3 = performance.now();
-  sample();
+  const cpu = process.cpuUsage(c0);
 
   const b = new Float64Array(A.n);
   for (let i = 0; i < A.n; i++) b[i] = Math.sin(0.37 * i) + 0.5;
@@ -114,7 +113,6 @@ function runOne(vertices: number): Row {
     factor.solve(b, x);
     times.push(performance.now() - s0);
   }
-  sample();
   times.sort((p, q) => p - q);
   const Ax = multiplySymmetric(A, x);
   let rr = 0;
@@ -123,22 +121,42 @@ function runOne(vertices: number): Row {
     rr += (Ax[i] - b[i]) ** 2;
     bb += b[i] ** 2;
   }
+  return {
+    timing: {
+      orderingS: (t1 - t0) / 1000,
+      symbolicS: (t2 - t1) / 1000,
+      numericS: (t3 - t2) / 1000,
+      totalS: (t3 - t0) / 1000,
+      cpuS: (cpu.user + cpu.system) / 1e6,
+      solveMs: times[times.length >> 1],
+      residual: Math.sqrt(rr / bb),
+    },
+    nnzL: factor.nonZerosInFactor,
+    flops: symbolic.flops,
+  };
+}
+
+/**
+ * One size, twice: "cold" in a fresh process (every function still unoptimized, all
+ * memory new — what the first mesh of a session costs), then "warm" on the same matrix
+ * (what a worker that has already factored once pays).
+ */
+function runOne(vertices: number): Row {
+  const side = Math.round(Math.sqrt(vertices));
+  const A = triangulatedGridLaplacian(side);
+  const cold = measure(A);
   // maxRSS (kB) covers moments between samples, e.g. inside the numeric factorization
-  peak = Math.max(peak, process.resourceUsage().maxRSS * 1024);
+  const peakRssMB = Math.max(process.memoryUsage().rss, process.resourceUsage().maxRSS * 1024) / 2 ** 20;
+  const warm = measure(A);
   return {
     vertices: side * side,
     faces: 2 * (side - 1) * (side - 1),
     n: A.n,
-    nnzA: A.colPtr[A.n],
-    nnzL: factor.nonZerosInFactor,
-    gflop: symbolic.flops / 1e9,
-    orderingS: (t1 - t0) / 1000,
-    symbolicS: (t2 - t1) / 1000,
-    numericS: (t3 - t2) / 1000,
-    totalS: (t3 - t0) / 1000,
-    solveMs: times[times.length >> 1],
-    residual: Math.sqrt(rr / bb),
-    peakRssMB: peak / 2 ** 20,
+    nnzL: cold.nnzL,
+    gflop: cold.flops / 1e9,
+    cold: cold.timing,
+    warm: warm.timing,
+    peakRssMB,
   };
 }
 
@@ -161,21 +179,26 @@ function main(): void {
       throw new Error(`benchmark for ${vertices} vertices failed (exit ${child.status})`);
     }
     const row = JSON.parse(child.stdout) as Row;
-    table.push({
-      vertices: row.vertices,
-      faces: row.faces,
-      n: row.n,
-      'nnz(L)': row.nnzL,
-      'GFlop': +row.gflop.toFixed(2),
-      'ordering s': +row.orderingS.toFixed(3),
-      'symbolic s': +row.symbolicS.toFixed(3),
-      'numeric s': +row.numericS.toFixed(3),
-      'total s': +row.totalS.toFixed(3),
-      'solve ms (median)': +row.solveMs.toFixed(2),
-      '‖Ax−b‖/‖b‖': row.residual.toExponential(1),
-      'peak RSS MB': Math.round(row.peakRssMB),
-    });
-    console.error(`done: ${row.vertices} vertices in ${row.totalS.toFixed(2)} s`);
+    for (const run of ['cold', 'warm'] as const) {
+      const t = row[run];
+      table.push({
+        vertices: row.vertices,
+        faces: row.faces,
+        n: row.n,
+        'nnz(L)': row.nnzL,
+        GFlop: +row.gflop.toFixed(2),
+        run,
+        'ordering s': +t.orderingS.toFixed(3),
+        'symbolic s': +t.symbolicS.toFixed(3),
+        'numeric s': +t.numericS.toFixed(3),
+        'total s': +t.totalS.toFixed(3),
+        'cpu s': +t.cpuS.toFixed(3),
+        'solve ms (median)': +t.solveMs.toFixed(2),
+        '‖Ax−b‖/‖b‖': t.residual.toExponential(1),
+        'peak RSS MB': run === 'cold' ? Math.round(row.peakRssMB) : '',
+      });
+    }
+    console.error(`done: ${row.vertices} vertices, cold ${row.cold.totalS.toFixed(2)} s, warm ${row.warm.totalS.toFixed(2)} s`);
   }
   console.table(table);
 }
