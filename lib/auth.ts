@@ -9,6 +9,8 @@ import { checkCredentials } from './sign-in';
 import { area, isRole, mayEnter, type AreaId, type Role } from './roles';
 import { jsonError } from './api/server';
 
+// The address the proxy in front of the app reports. A client can forge these headers, so the
+// per-client limit only slows down spraying; the per-address limit is what protects an account.
 function clientAddress(headers: Record<string, string | string[] | undefined> | undefined): string | null {
   const forwarded = headers?.['x-forwarded-for'];
   const first = (Array.isArray(forwarded) ? forwarded[0] : forwarded)?.split(',')[0]?.trim();

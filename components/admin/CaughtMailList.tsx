@@ -16,7 +16,7 @@ export function CaughtMailList() {
   if (!data.configured) {
     return <Notice tone="info">No mail sink is configured here (MAIL_SINK_URL is empty): mail goes to the SMTP service directly.</Notice>;
   }
-  if (data.messages.length === 0) return <Notice tone="info">No mail has been sent yet.</Notice>;
+  if (data.messages.length === 0) return <Notice tone="info">No mail has arrived since the mail sink started.</Notice>;
   return (
     <ul className="flex flex-col gap-4" aria-label="Sent mail">
       {data.messages.map((mail) => (

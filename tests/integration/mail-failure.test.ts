@@ -1,8 +1,9 @@
 // When the confirmation e-mail cannot be sent, sign-up must leave nothing behind. The SMTP
-// server address is pointed at a port where nothing listens (vitest gives each test file its
-// own modules, so this configuration stays in this file).
+// server address is pointed at a port where nothing listens; the modules are imported after
+// that (vitest gives each test file its own module instances) and the variable is restored
+// afterwards, so other test files keep the working configuration.
 import { createServer } from 'node:net';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { jsonRequest, uniqueEmail } from './helpers';
 
 async function closedPort(): Promise<number> {
@@ -21,7 +22,7 @@ let modules: {
 };
 
 beforeAll(async () => {
-  process.env.SMTP_PORT = String(await closedPort());
+  vi.stubEnv('SMTP_PORT', String(await closedPort()));
   modules = {
     db: await import('@/lib/db'),
     accounts: await import('@/lib/accounts'),
@@ -30,7 +31,10 @@ beforeAll(async () => {
   };
 });
 
-afterAll(() => modules.db.closeDb());
+afterAll(async () => {
+  await modules.db.closeDb();
+  vi.unstubAllEnvs();
+});
 
 describe('sign-up while mail cannot be sent', () => {
   it('rolls back the account, its role and its token', async () => {

@@ -11,8 +11,8 @@ export default async function OutgoingMailPage() {
       <div className="flex flex-col gap-2">
         <h1 className="text-4xl font-extrabold tracking-tight">Outgoing mail</h1>
         <p className="max-w-2xl text-loam-soft">
-          What Whorlwind sent — confirmation and reset links among it — as the local mail sink received it. Newest first; the list
-          refreshes by itself.
+          What Whorlwind sent — confirmation and reset links among it — as the local mail sink received it. The sink keeps mail
+          until it stops. Newest first; the list refreshes by itself.
         </p>
       </div>
       <CaughtMailList />

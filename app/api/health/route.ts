@@ -9,6 +9,7 @@ export async function GET() {
     await db().raw('SELECT 1');
     return jsonData<HealthResponse>({ database: 'reachable' });
   } catch (error) {
-    return jsonError(503, 'service-unavailable', `The database cannot be reached: ${(error as Error).message}`);
+    console.error('health check: the database cannot be reached', error);
+    return jsonError(503, 'service-unavailable', 'The database cannot be reached.');
   }
 }
