@@ -1,5 +1,5 @@
 import sharp from 'sharp';
-import type { TriangleMesh } from '@/lib/field';
+import type { TriangleMesh } from '../field';
 import type { Guides } from './guides';
 import { renderThumbnail, THUMBNAIL_VIEWS, type GuideColouring, type RgbaImage, type ThumbnailView } from './render';
 

@@ -1,4 +1,4 @@
-import type { DirectionField, TriangleMesh } from '@/lib/field';
+import type { DirectionField, TriangleMesh } from '../field';
 import { decimalFormatter } from './number-text';
 
 /**

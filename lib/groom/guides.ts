@@ -1,4 +1,4 @@
-import type { SolvedField } from '@/lib/field';
+import type { SolvedField } from '../field';
 import { GroomError } from './errors';
 import { blendPins, type PinnedFactors } from './pins';
 import { guideRandom } from './random';

@@ -1,4 +1,4 @@
-import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '@/lib/field/topology';
+import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '../field/topology';
 import { GroomError } from './errors';
 import { SKIN_QUERY_SIZE } from './skin';
 import type { PlaceSpec } from './spec';

@@ -1,4 +1,4 @@
-import type { TriangleMesh } from '@/lib/field';
+import type { TriangleMesh } from '../field';
 import type { Guides } from './guides';
 
 /**

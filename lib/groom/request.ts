@@ -1,4 +1,4 @@
-import { solveField, type CurveFeature, type FaceAlignment, type FieldRequest, type PointSingularity, type SolvedField } from '@/lib/field';
+import { solveField, type CurveFeature, type FaceAlignment, type FieldRequest, type PointSingularity, type SolvedField } from '../field';
 import { GroomError } from './errors';
 import { edgePath, surfacePointOf, vertexOfPlace } from './place';
 import type { CurveSpec, GroomSpec, StrokeSpec } from './spec';

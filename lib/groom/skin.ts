@@ -1,6 +1,6 @@
 import { BufferAttribute, BufferGeometry } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
-import type { Topology, TriangleMesh } from '@/lib/field';
+import type { Topology, TriangleMesh } from '../field';
 
 /**
  * The skin as a spatial index: the closest skin point to any point in space, and which side of
