@@ -28,7 +28,7 @@ export const TOKEN_PROBLEM_MESSAGES: Record<TokenPurpose, Record<TokenProblem, s
   'reset-password': {
     'invalid-token': 'This reset link is not valid. Check that the whole link was opened, or ask for a new one.',
     'expired-token': 'This reset link has expired. Ask for a new one.',
-    'used-token': 'This reset link was already used. Ask for a new one if you need to change your password again.',
+    'used-token': 'This reset link can no longer be used: it was used already, or the password has changed since. Ask for a new one if you need it.',
   },
 };
 

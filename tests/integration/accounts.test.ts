@@ -105,6 +105,18 @@ describe('password reset', () => {
     expect(await checkCredentials({ email, password: 'should-not-stick' }, null)).toEqual({ ok: false, problem: 'invalid-credentials' });
   });
 
+  it('voids older reset links once the password has changed', async () => {
+    const email = await confirmedAccount('two-links');
+    await requestPasswordReset(email);
+    await requestPasswordReset(email);
+    const [newer, older] = await mailTo(email);
+    expect((await resetPassword({ token: tokenFromLink(newer, '/reset-password'), password: 'chosen-with-newer' })).ok).toBe(true);
+    expect(await resetPassword({ token: tokenFromLink(older, '/reset-password'), password: 'chosen-with-older' })).toEqual({
+      ok: false,
+      problem: 'used-token',
+    });
+  });
+
   it('refuses a wrong reset token', async () => {
     expect(await resetPassword({ token: 'B'.repeat(43), password: 'whatever-pass' })).toEqual({ ok: false, problem: 'invalid-token' });
   });
