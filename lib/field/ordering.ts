@@ -434,23 +434,25 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
       continue;
     }
 
-    // one connected component at a time
-    const reached = bfs(verts[lo], id);
+    // A disconnected piece is split into all its components at once (one search each),
+    // so that many small components — separate shells of one mesh — cost linear time.
+    let reached = bfs(verts[lo], id);
     if (reached < size) {
-      const compId = nextOwner++;
-      for (let t = 0; t < reached; t++) owner[queue[t]] = compId;
-      let a = lo;
-      let b = lo + reached;
-      const rest = scratch;
-      let restCount = 0;
-      for (let t = lo; t < hi; t++) {
-        const v = verts[t];
-        if (owner[v] !== compId) rest[restCount++] = v;
+      let count = 0;
+      for (let t = lo; ; ) {
+        const componentId = nextOwner++;
+        rangeLo.push(lo + count);
+        for (let u = 0; u < reached; u++) {
+          const v = queue[u];
+          owner[v] = componentId;
+          scratch[count++] = v;
+        }
+        rangeHi.push(lo + count);
+        while (t < hi && owner[verts[t]] !== id) t++;
+        if (t === hi) break;
+        reached = bfs(verts[t], id);
       }
-      for (let t = 0; t < reached; t++) verts[a++] = queue[t];
-      for (let t = 0; t < restCount; t++) verts[b++] = rest[t];
-      rangeLo.push(lo + reached, lo);
-      rangeHi.push(hi, lo + reached);
+      for (let t = 0; t < size; t++) verts[lo + t] = scratch[t];
       continue;
     }
 
