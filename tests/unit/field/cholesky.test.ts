@@ -261,6 +261,55 @@ describe('factorCholesky on triangulated-grid Laplacians with Dirichlet vertices
   });
 });
 
+describe('factorCholesky on other shapes', () => {
+  it('matches the dense solve on a dense SPD matrix (one big supernode, no separator to find)', () => {
+    const n = 100;
+    const random = rng(99);
+    const B = Matrix.zeros(n, n);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) B.set(i, j, random() - 0.5);
+    const dense = B.transpose().mmul(B).add(Matrix.eye(n, n));
+    const rows: number[] = [];
+    const cols: number[] = [];
+    const values: number[] = [];
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j <= i; j++) {
+        rows.push(i);
+        cols.push(j);
+        values.push(dense.get(i, j));
+      }
+    }
+    checkAgainstDense('dense BᵀB+I', symmetricFromTriplets(n, rows, cols, values), 5);
+  });
+
+  it('matches the dense solve on many separate small grids (a mesh of many shells)', () => {
+    const piece = gridLaplacian(5, [12], 4);
+    const copies = 12;
+    const rows: number[] = [];
+    const cols: number[] = [];
+    const values: number[] = [];
+    for (let c = 0; c < copies; c++) {
+      for (let j = 0; j < piece.n; j++) {
+        for (let p = piece.colPtr[j]; p < piece.colPtr[j + 1]; p++) {
+          rows.push(piece.rowIdx[p] + c * piece.n);
+          cols.push(j + c * piece.n);
+          values.push(piece.values[p] * (1 + c / 10));
+        }
+      }
+    }
+    checkAgainstDense('12 grids 5×5', symmetricFromTriplets(copies * piece.n, rows, cols, values), 6);
+  });
+
+  it("'auto' keeps the smaller factor of nested dissection and minimum degree on small matrices", () => {
+    for (const side of [10, 30]) {
+      const A = gridLaplacian(side, [0], side);
+      const auto = analyzeCholesky(A).nonZerosInFactor;
+      const nd = analyzeCholesky(A, { ordering: 'nested-dissection' }).nonZerosInFactor;
+      const md = analyzeCholesky(A, { ordering: 'minimum-degree' }).nonZerosInFactor;
+      expect(auto).toBe(Math.min(nd, md));
+    }
+  });
+});
+
 describe('refactoring and reuse', () => {
   it('factors new values on the analysed pattern and solves repeatedly with an out buffer', () => {
     const A = gridLaplacian(15, [3], 11);
