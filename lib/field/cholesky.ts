@@ -3,10 +3,11 @@
  * positive-definite systems, factored once per mesh and reused for many right-hand sides.
  *
  * Multifrontal and supernodal: columns of L with (nearly) the same pattern are grouped
- * into supernodes, each stored as one dense row-major block, so the arithmetic runs in
- * dense kernels over contiguous memory instead of scattered scalar updates. Each
- * supernode's contribution to its ancestors (its Schur complement, the "update matrix")
- * is kept on a stack; postorder guarantees a parent finds its children's updates on top.
+ * into supernodes, each stored as dense blocks (a packed triangle and a row-major
+ * rectangle below it), so the arithmetic runs in dense kernels over contiguous memory
+ * instead of scattered scalar updates. Each supernode's contribution to its ancestors
+ * (its Schur complement, the "update matrix") is kept on a stack; postorder guarantees a
+ * parent finds its children's updates on top.
  *
  * Pure TypeScript on typed arrays: runs unchanged in a Web Worker and on the server.
  */
@@ -18,7 +19,11 @@ export interface CholeskyFactor {
   readonly n: number;
   /** Entries of L (diagonal included), as implied by the pattern of A and the ordering. */
   readonly nonZerosInFactor: number;
-  /** x = A⁻¹ b. Does not modify b. Reuses internal work buffers; safe to call many times. */
+  /**
+   * x = A⁻¹ b. Does not modify b. Reuses internal work buffers; safe to call many times.
+   * Writes into and returns `out` when given (it may be b itself). Throws RangeError
+   * when b or out does not have length n.
+   */
   solve(b: Float64Array, out?: Float64Array): Float64Array;
 }
 
@@ -95,7 +100,7 @@ interface SupernodalLayout {
   rel: Int32Array;
   /** number of leading update rows that fall into the parent's own pivot columns */
   relSplit: Int32Array;
-  superParent: Int32Array;
+  /** children of each supernode, in increasing order, as linked lists */
   childHead: Int32Array;
   childNext: Int32Array;
   /**
@@ -134,6 +139,8 @@ export function analyzeCholesky(A: SymmetricSparse, options: CholeskyAnalysisOpt
 /**
  * The fill-reducing permutation `analyzeCholesky` would use (perm[k] = original index of
  * the k-th pivot). Exposed so callers can time or cache the ordering on its own.
+ * Guarantees a permutation of 0..n−1 that depends only on A's pattern; throws
+ * RangeError for an unknown ordering name.
  */
 export function computeOrdering(
   A: SymmetricSparse,
@@ -393,7 +400,6 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
       rows,
       valuePtr,
       maxColumns,
-      superParent: tree.superParent,
       childHead: tree.childHead,
       childNext: tree.childNext,
       ...assembly,
