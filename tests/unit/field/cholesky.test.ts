@@ -299,6 +299,20 @@ describe('factorCholesky on other shapes', () => {
     checkAgainstDense('12 grids 5×5', symmetricFromTriplets(copies * piece.n, rows, cols, values), 6);
   });
 
+  it('factors and solves the empty matrix', () => {
+    for (const ordering of ORDERINGS) {
+      const factor = factorCholesky(symmetricFromTriplets(0, [], [], []), { ordering });
+      expect(factor.nonZerosInFactor).toBe(0);
+      expect(factor.solve(new Float64Array(0)).length).toBe(0);
+    }
+  });
+
+  it('rejects right-hand sides of the wrong length', () => {
+    const factor = factorCholesky(gridLaplacian(4, [0], 1));
+    expect(() => factor.solve(new Float64Array(3))).toThrow(/length 3, expected 15/);
+    expect(() => factor.solve(new Float64Array(15), new Float64Array(2))).toThrow(/out has length 2/);
+  });
+
   it("'auto' keeps the smaller factor of nested dissection and minimum degree on small matrices", () => {
     for (const side of [10, 30]) {
       const A = gridLaplacian(side, [0], side);
