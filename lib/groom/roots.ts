@@ -85,41 +85,61 @@ export function sampleRoots(request: RootRequest): Roots {
     largest = Math.max(largest, radius[i]);
   }
 
+  // Candidates are renumbered in grid-cell order, so that neighbours sit next to each other in
+  // memory: with random order the neighbour visits below are mostly cache misses.
+  const order = cellOrder(cx, cy, cz, 2 * largest);
+  for (const a of [cx, cy, cz, radius]) a.set(Float64Array.from(order, (i) => a[i]));
+  cFace.set(Uint32Array.from(order, (i) => cFace[i]));
   const grid = buildGrid(cx, cy, cz, 2 * largest);
   const shrink = BETA * (1 - Math.pow(count / m, GAMMA));
-  const pairWeight = (i: number, j: number): number => {
-    const r = 0.5 * (radius[i] + radius[j]);
-    const dx = cx[i] - cx[j], dy = cy[i] - cy[j], dz = cz[i] - cz[j];
-    const d = Math.max(Math.sqrt(dx * dx + dy * dy + dz * dz), shrink * r);
-    if (d >= 2 * r) return 0;
-    const q = 1 - d / (2 * r), q2 = q * q, q4 = q2 * q2;
-    return q4 * q4;
-  };
+  // Every pair closer than twice its radius, with its weight, found once (compressed rows).
+  const neighbourStart = new Int32Array(m + 1);
+  let neighbour = new Int32Array(16 * m);
+  let pairWeight = new Float32Array(16 * m);
   const weight = new Float64Array(m);
+  let pairs = 0;
   for (let i = 0; i < m; i++) {
     let w = 0;
     grid.forNeighbour(i, (j) => {
-      w += pairWeight(i, j);
+      const r = 0.5 * (radius[i] + radius[j]);
+      const dx = cx[i] - cx[j], dy = cy[i] - cy[j], dz = cz[i] - cz[j];
+      const d = Math.max(Math.sqrt(dx * dx + dy * dy + dz * dz), shrink * r);
+      if (d >= 2 * r) return;
+      const q = 1 - d / (2 * r), q2 = q * q, q4 = q2 * q2;
+      if (pairs === neighbour.length) {
+        neighbour = grow(neighbour);
+        pairWeight = grow(pairWeight);
+      }
+      neighbour[pairs] = j;
+      pairWeight[pairs++] = q4 * q4;
+      w += q4 * q4;
     });
     weight[i] = w;
+    neighbourStart[i + 1] = pairs;
   }
 
-  const heap = new MaxHeap(weight);
+  // Remove the most crowded candidate until `count` are left. Weights only ever fall, so the heap
+  // keeps stale (too high) keys and re-files an entry when it surfaces with a key above its weight.
+  const heap = new LazyMaxHeap(m);
+  for (let i = 0; i < m; i++) heap.push(i, weight[i]);
   const alive = new Uint8Array(m).fill(1);
-  for (let removed = 0; removed < m - count; removed++) {
+  for (let removed = 0; removed < m - count; ) {
+    const key = heap.topKey();
     const i = heap.pop();
+    if (!alive[i]) continue;
+    if (key !== weight[i]) {
+      heap.push(i, weight[i]);
+      continue;
+    }
     alive[i] = 0;
-    grid.forNeighbour(i, (j) => {
-      if (!alive[j]) return;
-      const w = pairWeight(i, j);
-      if (w > 0) heap.decrease(j, weight[j] - w);
-    });
+    removed++;
+    for (let e = neighbourStart[i]; e < neighbourStart[i + 1]; e++) weight[neighbour[e]] -= pairWeight[e];
   }
 
   const position = new Float64Array(3 * count);
   const face = new Uint32Array(count);
   let k = 0;
-  for (const i of grid.order) {
+  for (let i = 0; i < m; i++) {
     if (!alive[i]) continue;
     position[3 * k] = cx[i]; position[3 * k + 1] = cy[i]; position[3 * k + 2] = cz[i];
     face[k++] = cFace[i];
@@ -127,8 +147,8 @@ export function sampleRoots(request: RootRequest): Roots {
   return { count, position, face };
 }
 
-/** Points bucketed in cubes of side `cell`, for visiting every other point within `cell` of one. */
-function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: number) {
+/** Cell coordinates of a point in cubes of side `cell` from the points' lowest corner. */
+function cellsOf(x: Float64Array, y: Float64Array, z: Float64Array, cell: number) {
   const n = x.length;
   let minX = Infinity, minY = Infinity, minZ = Infinity;
   for (let i = 0; i < n; i++) {
@@ -136,16 +156,49 @@ function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
   }
   const ci = new Int32Array(n), cj = new Int32Array(n), ck = new Int32Array(n);
   const key = new Float64Array(n);
-  // Cell coordinates packed into one number (21 bits each), exact in a double.
-  const pack = (i: number, j: number, k: number) => (i * 2097152 + j) * 2097152 + k;
   for (let i = 0; i < n; i++) {
     ci[i] = Math.floor((x[i] - minX) / cell);
     cj[i] = Math.floor((y[i] - minY) / cell);
     ck[i] = Math.floor((z[i] - minZ) / cell);
     key[i] = pack(ci[i], cj[i], ck[i]);
   }
-  const order = Uint32Array.from({ length: n }, (_, i) => i).sort((a, b) => key[a] - key[b] || a - b);
-  // Open-addressing table from a cell to its run in `order`.
+  return { ci, cj, ck, key };
+}
+
+/** Cell coordinates packed into one number (21 bits each), exact in a double. */
+const pack = (i: number, j: number, k: number) => (i * 2097152 + j) * 2097152 + k;
+
+/**
+ * The points' indices sorted by cell (ties by index): the distinct cells are sorted, then the
+ * points counted into them, which is much faster than sorting the points themselves.
+ */
+function cellOrder(x: Float64Array, y: Float64Array, z: Float64Array, cell: number): Uint32Array {
+  const n = x.length;
+  const { key } = cellsOf(x, y, z, cell);
+  const rank = new Map<number, number>();
+  for (let i = 0; i < n; i++) if (!rank.has(key[i])) rank.set(key[i], 0);
+  const cells = Float64Array.from(rank.keys()).sort();
+  cells.forEach((k, r) => rank.set(k, r));
+  const start = new Int32Array(cells.length + 1);
+  const cellOfPoint = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    cellOfPoint[i] = rank.get(key[i])!;
+    start[cellOfPoint[i] + 1]++;
+  }
+  for (let c = 0; c < cells.length; c++) start[c + 1] += start[c];
+  const order = new Uint32Array(n);
+  for (let i = 0; i < n; i++) order[start[cellOfPoint[i]]++] = i;
+  return order;
+}
+
+/**
+ * Points (already in `cellOrder`) bucketed in cubes of side `cell`, for visiting every other
+ * point within `cell` of one.
+ */
+function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: number) {
+  const n = x.length;
+  const { ci, cj, ck, key } = cellsOf(x, y, z, cell);
+  // Open-addressing table from a cell to its run of points.
   let size = 1;
   while (size < 2 * n) size <<= 1;
   const mask = size - 1;
@@ -158,16 +211,14 @@ function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
     return h;
   };
   for (let r = 0; r < n; r++) {
-    const i = order[r];
-    const h = slotOf(ci[i], cj[i], ck[i], key[i]);
+    const h = slotOf(ci[r], cj[r], ck[r], key[r]);
     if (tableKey[h] === -1) {
-      tableKey[h] = key[i];
+      tableKey[h] = key[r];
       tableStart[h] = r;
     }
     tableEnd[h] = r + 1;
   }
   return {
-    order,
     forNeighbour(i: number, visit: (j: number) => void): void {
       for (let di = -1; di <= 1; di++) {
         const a = ci[i] + di;
@@ -181,7 +232,7 @@ function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
             const packed = pack(a, b, c);
             const h = slotOf(a, b, c, packed);
             if (tableKey[h] !== packed) continue;
-            for (let r = tableStart[h], end = tableEnd[h]; r < end; r++) if (order[r] !== i) visit(order[r]);
+            for (let r = tableStart[h], end = tableEnd[h]; r < end; r++) if (r !== i) visit(r);
           }
         }
       }
@@ -189,50 +240,63 @@ function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
   };
 }
 
-/** A max-heap over item weights held in a shared array, with decrease-key. Ties pop the lower item first. */
-class MaxHeap {
-  private readonly heap: Int32Array;
-  private readonly slot: Int32Array;
-  private size: number;
-  constructor(private readonly weight: Float64Array) {
-    const n = weight.length;
-    this.heap = Int32Array.from({ length: n }, (_, i) => i);
-    this.slot = Int32Array.from({ length: n }, (_, i) => i);
-    this.size = n;
-    for (let i = (n >> 1) - 1; i >= 0; i--) this.down(i);
+function grow<T extends Int32Array | Float32Array>(a: T): T {
+  const bigger = new (a.constructor as new (n: number) => T)(2 * a.length);
+  bigger.set(a);
+  return bigger;
+}
+
+/** A binary max-heap of (item, key) entries; equal keys pop the lower item first, so the order is deterministic. */
+class LazyMaxHeap {
+  private items: Int32Array;
+  private keys: Float64Array;
+  private size = 0;
+  constructor(capacity: number) {
+    this.items = new Int32Array(Math.max(1, capacity));
+    this.keys = new Float64Array(Math.max(1, capacity));
   }
-  private above(a: number, b: number): boolean {
-    const wa = this.weight[a], wb = this.weight[b];
-    return wa > wb || (wa === wb && a < b);
+  private above(ka: number, ia: number, kb: number, ib: number): boolean {
+    return ka > kb || (ka === kb && ia < ib);
   }
-  private place(at: number, item: number): void {
-    this.heap[at] = item;
-    this.slot[item] = at;
-  }
-  private down(at: number): void {
-    const item = this.heap[at];
-    for (;;) {
-      let child = 2 * at + 1;
-      if (child >= this.size) break;
-      if (child + 1 < this.size && this.above(this.heap[child + 1], this.heap[child])) child++;
-      if (!this.above(this.heap[child], item)) break;
-      this.place(at, this.heap[child]);
-      at = child;
+  push(item: number, key: number): void {
+    if (this.size === this.items.length) {
+      this.items = grow(this.items);
+      const keys = new Float64Array(2 * this.keys.length);
+      keys.set(this.keys);
+      this.keys = keys;
     }
-    this.place(at, item);
+    const { items, keys } = this;
+    let at = this.size++;
+    while (at > 0) {
+      const parent = (at - 1) >> 1;
+      if (!this.above(key, item, keys[parent], items[parent])) break;
+      items[at] = items[parent];
+      keys[at] = keys[parent];
+      at = parent;
+    }
+    items[at] = item;
+    keys[at] = key;
+  }
+  topKey(): number {
+    return this.keys[0];
   }
   pop(): number {
-    const top = this.heap[0];
-    this.size--;
-    if (this.size > 0) {
-      this.place(0, this.heap[this.size]);
-      this.down(0);
+    const { items, keys } = this;
+    const top = items[0];
+    const n = --this.size;
+    const item = items[n], key = keys[n];
+    let at = 0;
+    for (;;) {
+      let child = 2 * at + 1;
+      if (child >= n) break;
+      if (child + 1 < n && this.above(keys[child + 1], items[child + 1], keys[child], items[child])) child++;
+      if (!this.above(keys[child], items[child], key, item)) break;
+      items[at] = items[child];
+      keys[at] = keys[child];
+      at = child;
     }
-    this.slot[top] = -1;
+    items[at] = item;
+    keys[at] = key;
     return top;
-  }
-  decrease(item: number, value: number): void {
-    this.weight[item] = value;
-    this.down(this.slot[item]);
   }
 }
