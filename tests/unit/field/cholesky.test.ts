@@ -299,6 +299,44 @@ describe('factorCholesky on other shapes', () => {
     checkAgainstDense('12 grids 5×5', symmetricFromTriplets(copies * piece.n, rows, cols, values), 6);
   });
 
+  it('matches the dense solve with wide supernodes and large update matrices (blocked kernels)', () => {
+    // two dense blocks of 250 joined through a dense separator of 200: in natural order
+    // the first block is one supernode of 250 columns with 200 rows below it, which
+    // takes the sliced, column-blocked path of the update kernel
+    const random = rng(123);
+    const blockSize = 250;
+    const separator = 200;
+    const n = 2 * blockSize + separator;
+    const rows: number[] = [];
+    const cols: number[] = [];
+    const values: number[] = [];
+    const diagonal = new Float64Array(n);
+    const couple = (i: number, j: number) => {
+      const v = random() * 0.2 - 0.1;
+      rows.push(i);
+      cols.push(j);
+      values.push(v);
+      diagonal[i] += Math.abs(v);
+      diagonal[j] += Math.abs(v);
+    };
+    for (const start of [0, blockSize]) {
+      for (let i = 0; i < blockSize; i++) {
+        for (let j = 0; j < i; j++) couple(start + i, start + j);
+        // the block's first vertex sees the whole separator, so every column of the
+        // block shares one pattern and the block is a single supernode
+        if (i === 0) for (let t = 0; t < separator; t++) couple(2 * blockSize + t, start);
+        else couple(2 * blockSize + ((i * 7 + 3) % separator), start + i);
+      }
+    }
+    for (let i = 0; i < separator; i++) for (let j = 0; j < i; j++) couple(2 * blockSize + i, 2 * blockSize + j);
+    for (let i = 0; i < n; i++) {
+      rows.push(i);
+      cols.push(i);
+      values.push(diagonal[i] + 1);
+    }
+    checkAgainstDense('blocks 250+250+200', symmetricFromTriplets(n, rows, cols, values), 8);
+  });
+
   it('factors and solves the empty matrix', () => {
     for (const ordering of ORDERINGS) {
       const factor = factorCholesky(symmetricFromTriplets(0, [], [], []), { ordering });
