@@ -1,5 +1,5 @@
 import type { DirectionField, TriangleMesh } from '../field';
-import { decimalFormatter } from './number-text';
+import { AsciiWriter } from './ascii';
 
 /**
  * The field as PLY, the layout the groom spec's fixed core publishes: the surface's vertices
@@ -33,16 +33,19 @@ export function fieldToPly(mesh: TriangleMesh, field: DirectionField, options: {
   ].join('\n') + '\n';
   const p = mesh.positions, t = mesh.triangles, vd = field.vertexDirection, fd = field.faceDirection;
   if (options.ascii) {
-    const position = decimalFormatter(p);
-    const direction = decimalFormatter([1]);
-    const lines: string[] = [];
+    // Positions keep the model's precision; unit directions that of numbers up to 1.
+    const position = AsciiWriter.decimalsFor(p);
+    const direction = AsciiWriter.decimalsFor([1]);
+    const out = new AsciiWriter().text(header);
     for (let v = 0; v < nV; v++) {
-      lines.push(`${position(p[3 * v])} ${position(p[3 * v + 1])} ${position(p[3 * v + 2])} ${direction(vd[3 * v])} ${direction(vd[3 * v + 1])} ${direction(vd[3 * v + 2])}`);
+      out.precision(position).number(p[3 * v]).text(' ').number(p[3 * v + 1]).text(' ').number(p[3 * v + 2]).text(' ');
+      out.precision(direction).number(vd[3 * v]).text(' ').number(vd[3 * v + 1]).text(' ').number(vd[3 * v + 2]).text('\n');
     }
     for (let f = 0; f < nF; f++) {
-      lines.push(`3 ${t[3 * f]} ${t[3 * f + 1]} ${t[3 * f + 2]} ${direction(fd[3 * f])} ${direction(fd[3 * f + 1])} ${direction(fd[3 * f + 2])}`);
+      out.text('3 ').whole(t[3 * f]).text(' ').whole(t[3 * f + 1]).text(' ').whole(t[3 * f + 2]).text(' ');
+      out.number(fd[3 * f]).text(' ').number(fd[3 * f + 1]).text(' ').number(fd[3 * f + 2]).text('\n');
     }
-    return new TextEncoder().encode(header + lines.join('\n') + '\n');
+    return out.toBytes();
   }
   const head = new TextEncoder().encode(header);
   const out = new Uint8Array(head.length + 24 * nV + 25 * nF);

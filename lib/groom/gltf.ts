@@ -83,8 +83,18 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean }): Uint
     return options.binary ? glb(JSON.stringify(json), new Uint8Array(0)) : new TextEncoder().encode(JSON.stringify(json));
   }
   if (options.binary) return glb(JSON.stringify(json), binary);
-  (json.buffers as { uri?: string }[])[0].uri = `data:application/octet-stream;base64,${base64(binary)}`;
-  return new TextEncoder().encode(JSON.stringify(json));
+  // The buffer is spliced in as bytes: a JSON string of tens of megabytes would cost far more.
+  const marker = 'WHORLWIND_BUFFER';
+  (json.buffers as { uri?: string }[])[0].uri = marker;
+  const [before, after] = JSON.stringify(json).split(marker);
+  const head = new TextEncoder().encode(`${before}data:application/octet-stream;base64,`);
+  const tail = new TextEncoder().encode(after);
+  const encoded = base64(binary);
+  const out = new Uint8Array(head.length + encoded.length + tail.length);
+  out.set(head, 0);
+  out.set(encoded, head.length);
+  out.set(tail, head.length + encoded.length);
+  return out;
 }
 
 /** The GLB container: 12-byte header, a JSON chunk padded with spaces, a BIN chunk padded with zeros. */
@@ -110,23 +120,20 @@ function glb(jsonText: string, binary: Uint8Array): Uint8Array {
   return out;
 }
 
-const BASE64 = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
+const BASE64 = new TextEncoder().encode('ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/');
+const PAD = '='.charCodeAt(0);
 
-/** Standard base64 with padding (RFC 4648 §4), without Node's Buffer so it runs in a worker. */
-function base64(bytes: Uint8Array): string {
-  const chunks: string[] = [];
-  let line = '';
+/** Standard base64 with padding (RFC 4648 §4) as ASCII bytes, without Node's Buffer so it runs in a worker. */
+function base64(bytes: Uint8Array): Uint8Array {
+  const out = new Uint8Array(4 * Math.ceil(bytes.length / 3));
+  let o = 0;
   for (let i = 0; i < bytes.length; i += 3) {
     const a = bytes[i], b = i + 1 < bytes.length ? bytes[i + 1] : 0, c = i + 2 < bytes.length ? bytes[i + 2] : 0;
     const triple = (a << 16) | (b << 8) | c;
-    line += BASE64[(triple >> 18) & 63] + BASE64[(triple >> 12) & 63];
-    line += i + 1 < bytes.length ? BASE64[(triple >> 6) & 63] : '=';
-    line += i + 2 < bytes.length ? BASE64[triple & 63] : '=';
-    if (line.length >= 4096) {
-      chunks.push(line);
-      line = '';
-    }
+    out[o++] = BASE64[(triple >> 18) & 63];
+    out[o++] = BASE64[(triple >> 12) & 63];
+    out[o++] = i + 1 < bytes.length ? BASE64[(triple >> 6) & 63] : PAD;
+    out[o++] = i + 2 < bytes.length ? BASE64[triple & 63] : PAD;
   }
-  chunks.push(line);
-  return chunks.join('');
+  return out;
 }

@@ -1,5 +1,5 @@
+import { AsciiWriter } from './ascii';
 import type { Guides } from './guides';
-import { decimalFormatter } from './number-text';
 
 /**
  * The guides as Wavefront OBJ text: every point a `v` line, every guide one `l` polyline through
@@ -11,16 +11,15 @@ import { decimalFormatter } from './number-text';
 export function guidesToObj(guides: Guides): string {
   const n = guides.pointsPerGuide;
   const p = guides.points;
-  const number = decimalFormatter(p);
-  const lines: string[] = [
-    `# Whorlwind guides: ${guides.count} guides of ${n} points; units ${guides.units}, up axis ${guides.upAxis}; each guide stands for ${guides.hairsPerGuide} hairs`,
-    'o guides',
-  ];
-  for (let i = 0; i < guides.count * n; i++) lines.push(`v ${number(p[3 * i])} ${number(p[3 * i + 1])} ${number(p[3 * i + 2])}`);
-  for (let g = 0; g < guides.count; g++) {
-    const ids: number[] = [];
-    for (let j = 0; j < n; j++) ids.push(g * n + j + 1);
-    lines.push(`l ${ids.join(' ')}`);
+  const out = new AsciiWriter().precisionFor(p);
+  out.text(`# Whorlwind guides: ${guides.count} guides of ${n} points; units ${guides.units}, up axis ${guides.upAxis}; each guide stands for ${guides.hairsPerGuide} hairs\no guides\n`);
+  for (let i = 0; i < guides.count * n; i++) {
+    out.text('v ').number(p[3 * i]).text(' ').number(p[3 * i + 1]).text(' ').number(p[3 * i + 2]).text('\n');
   }
-  return `${lines.join('\n')}\n`;
+  for (let g = 0; g < guides.count; g++) {
+    out.text('l');
+    for (let j = 0; j < n; j++) out.text(' ').whole(g * n + j + 1);
+    out.text('\n');
+  }
+  return out.toString();
 }

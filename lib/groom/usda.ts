@@ -1,20 +1,22 @@
+import { AsciiWriter } from './ascii';
 import type { Guides } from './guides';
-import { decimalFormatter } from './number-text';
 import { CENTIMETRES_PER_UNIT } from './spec';
 
 /** How the curves are interpolated: linear segments, or cubic through pinned end points. */
 export type UsdCurveBasis = 'linear' | 'bspline' | 'catmullRom';
 
 const PER_LINE = 8;
+const INDENT = '            ';
 
-function list<T>(items: ArrayLike<T>, format: (item: T) => string, indent: string): string {
-  const lines: string[] = [];
-  for (let i = 0; i < items.length; i += PER_LINE) {
-    const row: string[] = [];
-    for (let j = i; j < Math.min(items.length, i + PER_LINE); j++) row.push(format(items[j]));
-    lines.push(indent + row.join(', '));
+/** Writes `[` + `count` items (PER_LINE to a line) + `]`. */
+function list(out: AsciiWriter, count: number, item: (i: number) => void): void {
+  out.text('[\n');
+  for (let i = 0; i < count; i++) {
+    if (i % PER_LINE === 0) out.text(INDENT);
+    item(i);
+    if (i + 1 < count) out.text(i % PER_LINE === PER_LINE - 1 ? ',\n' : ', ');
   }
-  return `[\n${lines.join(',\n')}\n${indent.slice(4)}]`;
+  out.text(`\n${INDENT.slice(4)}]`);
 }
 
 /**
@@ -32,21 +34,11 @@ export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear'): s
   const n = guides.pointsPerGuide;
   const total = guides.count * n;
   const p = guides.points;
-  const number = decimalFormatter(p);
-  const points = Array.from({ length: total }, (_, i) => i);
-  const widths = new Float64Array(total);
-  for (let i = 0; i < total; i++) {
-    const t = n > 1 ? (i % n) / (n - 1) : 0;
-    widths[i] = guides.rootWidth + (guides.tipWidth - guides.rootWidth) * t;
-  }
+  const positions = AsciiWriter.decimalsFor(p);
+  const widthDecimals = AsciiWriter.decimalsFor([guides.rootWidth, guides.tipWidth]);
   const extent = curveExtent(guides, basis);
-  const tuple = (i: number) => `(${number(p[3 * i])}, ${number(p[3 * i + 1])}, ${number(p[3 * i + 2])})`;
-  const widthNumber = decimalFormatter(widths);
-  const topology =
-    basis === 'linear'
-      ? `        uniform token type = "linear"\n        uniform token wrap = "nonperiodic"`
-      : `        uniform token type = "cubic"\n        uniform token basis = "${basis}"\n        uniform token wrap = "pinned"`;
-  return `#usda 1.0
+  const out = new AsciiWriter();
+  out.text(`#usda 1.0
 (
     defaultPrim = "Groom"
     metersPerUnit = ${CENTIMETRES_PER_UNIT[guides.units] / 100}
@@ -58,19 +50,28 @@ def Xform "Groom"
 {
     def BasisCurves "Guides"
     {
-${topology}
-        int[] curveVertexCounts = ${list(new Array<number>(guides.count).fill(n), String, '            ')}
-        point3f[] points = ${list(points, tuple, '            ')}
-        float[] widths = ${list(widths, widthNumber, '            ')} (
-            interpolation = "vertex"
-        )
-        float3[] extent = [(${extent.min.map(number).join(', ')}), (${extent.max.map(number).join(', ')})]
-        int primvars:hairsPerGuide = ${guides.hairsPerGuide} (
+`);
+  out.text(
+    basis === 'linear'
+      ? '        uniform token type = "linear"\n        uniform token wrap = "nonperiodic"\n'
+      : `        uniform token type = "cubic"\n        uniform token basis = "${basis}"\n        uniform token wrap = "pinned"\n`,
+  );
+  out.text('        int[] curveVertexCounts = ');
+  list(out, guides.count, () => out.whole(n));
+  out.text('\n        point3f[] points = ').precision(positions);
+  list(out, total, (i) => out.text('(').number(p[3 * i]).text(', ').number(p[3 * i + 1]).text(', ').number(p[3 * i + 2]).text(')'));
+  out.text('\n        float[] widths = ').precision(widthDecimals);
+  list(out, total, (i) => out.number(guides.rootWidth + ((guides.tipWidth - guides.rootWidth) * (i % n)) / Math.max(1, n - 1)));
+  out.text(' (\n            interpolation = "vertex"\n        )\n').precision(positions);
+  out.text('        float3[] extent = [(').number(extent.min[0]).text(', ').number(extent.min[1]).text(', ').number(extent.min[2]);
+  out.text('), (').number(extent.max[0]).text(', ').number(extent.max[1]).text(', ').number(extent.max[2]).text(')]\n');
+  out.text(`        int primvars:hairsPerGuide = ${guides.hairsPerGuide} (
             interpolation = "constant"
         )
     }
 }
-`;
+`);
+  return out.toString();
 }
 
 /** Bounds of the rendered curves, widened by half the largest width. */

@@ -1,5 +1,5 @@
 import type { TriangleMesh } from '../../field';
-import { decimalFormatter } from '../number-text';
+import { AsciiWriter } from '../ascii';
 
 /**
  * A demo surface as OBJ text, with a `g` line wherever the face group changes, so that reading
@@ -9,17 +9,17 @@ import { decimalFormatter } from '../number-text';
 export function surfaceToObj(mesh: TriangleMesh, comment: string): string {
   const p = mesh.positions;
   const t = mesh.triangles;
-  const number = decimalFormatter(p);
-  const lines = [`# ${comment}`];
-  for (let v = 0; v < p.length / 3; v++) lines.push(`v ${number(p[3 * v])} ${number(p[3 * v + 1])} ${number(p[3 * v + 2])}`);
+  const out = new AsciiWriter().precisionFor(p);
+  out.text(`# ${comment.replace(/[^\x20-\x7e]/g, '-')}\n`);
+  for (let v = 0; v < p.length / 3; v++) out.text('v ').number(p[3 * v]).text(' ').number(p[3 * v + 1]).text(' ').number(p[3 * v + 2]).text('\n');
   let group = -1;
   for (let f = 0; f < t.length / 3; f++) {
     const g = mesh.groups ? mesh.groups.groupOfFace[f] : -1;
     if (mesh.groups && g !== group) {
-      lines.push(`g ${mesh.groups.names[g]}`);
+      out.text(`g ${mesh.groups.names[g]}\n`);
       group = g;
     }
-    lines.push(`f ${t[3 * f] + 1} ${t[3 * f + 1] + 1} ${t[3 * f + 2] + 1}`);
+    out.text('f ').whole(t[3 * f] + 1).text(' ').whole(t[3 * f + 1] + 1).text(' ').whole(t[3 * f + 2] + 1).text('\n');
   }
-  return `${lines.join('\n')}\n`;
+  return out.toString();
 }
