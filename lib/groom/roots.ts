@@ -94,8 +94,8 @@ export function sampleRoots(request: RootRequest): Roots {
   const shrink = BETA * (1 - Math.pow(count / m, GAMMA));
   // Every pair closer than twice its radius, with its weight, found once (compressed rows).
   const neighbourStart = new Int32Array(m + 1);
-  let neighbour = new Int32Array(16 * m);
-  let pairWeight = new Float32Array(16 * m);
+  let neighbour = new Int32Array(24 * m);
+  let pairWeight = new Float32Array(24 * m);
   const weight = new Float64Array(m);
   let pairs = 0;
   for (let i = 0; i < m; i++) {
@@ -168,26 +168,54 @@ function cellsOf(x: Float64Array, y: Float64Array, z: Float64Array, cell: number
 /** Cell coordinates packed into one number (21 bits each), exact in a double. */
 const pack = (i: number, j: number, k: number) => (i * 2097152 + j) * 2097152 + k;
 
+/** Open-addressing hash table from packed cell coordinates to a slot. */
+class CellTable {
+  readonly keys: Float64Array;
+  private readonly mask: number;
+  constructor(entries: number) {
+    let size = 1;
+    while (size < 2 * entries) size <<= 1;
+    this.mask = size - 1;
+    this.keys = new Float64Array(size).fill(-1);
+  }
+  /** The slot holding the cell, or the empty slot where it would go. */
+  slot(i: number, j: number, k: number, packed: number): number {
+    let h = (Math.imul(i, 73856093) ^ Math.imul(j, 19349663) ^ Math.imul(k, 83492791)) & this.mask;
+    while (this.keys[h] !== -1 && this.keys[h] !== packed) h = (h + 1) & this.mask;
+    return h;
+  }
+}
+
 /**
  * The points' indices sorted by cell (ties by index): the distinct cells are sorted, then the
  * points counted into them, which is much faster than sorting the points themselves.
  */
 function cellOrder(x: Float64Array, y: Float64Array, z: Float64Array, cell: number): Uint32Array {
   const n = x.length;
-  const { key } = cellsOf(x, y, z, cell);
-  const rank = new Map<number, number>();
-  for (let i = 0; i < n; i++) if (!rank.has(key[i])) rank.set(key[i], 0);
-  const cells = Float64Array.from(rank.keys()).sort();
-  cells.forEach((k, r) => rank.set(k, r));
-  const start = new Int32Array(cells.length + 1);
-  const cellOfPoint = new Int32Array(n);
+  const { ci, cj, ck, key } = cellsOf(x, y, z, cell);
+  const table = new CellTable(n);
+  const slotOfPoint = new Int32Array(n);
+  const distinct: number[] = [];
   for (let i = 0; i < n; i++) {
-    cellOfPoint[i] = rank.get(key[i])!;
-    start[cellOfPoint[i] + 1]++;
+    const h = table.slot(ci[i], cj[i], ck[i], key[i]);
+    if (table.keys[h] === -1) {
+      table.keys[h] = key[i];
+      distinct.push(key[i]);
+    }
+    slotOfPoint[i] = h;
   }
-  for (let c = 0; c < cells.length; c++) start[c + 1] += start[c];
+  const sorted = Float64Array.from(distinct).sort();
+  const rankOfSlot = new Int32Array(table.keys.length);
+  for (let r = 0; r < sorted.length; r++) {
+    const k = sorted[r];
+    const i = Math.floor(k / 4398046511104), j = Math.floor(k / 2097152) % 2097152;
+    rankOfSlot[table.slot(i, j, k % 2097152, k)] = r;
+  }
+  const start = new Int32Array(sorted.length + 1);
+  for (let i = 0; i < n; i++) start[rankOfSlot[slotOfPoint[i]] + 1]++;
+  for (let c = 0; c < sorted.length; c++) start[c + 1] += start[c];
   const order = new Uint32Array(n);
-  for (let i = 0; i < n; i++) order[start[cellOfPoint[i]]++] = i;
+  for (let i = 0; i < n; i++) order[start[rankOfSlot[slotOfPoint[i]]]++] = i;
   return order;
 }
 
@@ -198,22 +226,13 @@ function cellOrder(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
 function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: number) {
   const n = x.length;
   const { ci, cj, ck, key } = cellsOf(x, y, z, cell);
-  // Open-addressing table from a cell to its run of points.
-  let size = 1;
-  while (size < 2 * n) size <<= 1;
-  const mask = size - 1;
-  const tableKey = new Float64Array(size).fill(-1);
-  const tableStart = new Int32Array(size);
-  const tableEnd = new Int32Array(size);
-  const slotOf = (i: number, j: number, k: number, packed: number): number => {
-    let h = (Math.imul(i, 73856093) ^ Math.imul(j, 19349663) ^ Math.imul(k, 83492791)) & mask;
-    while (tableKey[h] !== -1 && tableKey[h] !== packed) h = (h + 1) & mask;
-    return h;
-  };
+  const table = new CellTable(n);
+  const tableStart = new Int32Array(table.keys.length);
+  const tableEnd = new Int32Array(table.keys.length);
   for (let r = 0; r < n; r++) {
-    const h = slotOf(ci[r], cj[r], ck[r], key[r]);
-    if (tableKey[h] === -1) {
-      tableKey[h] = key[r];
+    const h = table.slot(ci[r], cj[r], ck[r], key[r]);
+    if (table.keys[h] === -1) {
+      table.keys[h] = key[r];
       tableStart[h] = r;
     }
     tableEnd[h] = r + 1;
@@ -230,8 +249,8 @@ function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
             const c = ck[i] + dk;
             if (c < 0) continue;
             const packed = pack(a, b, c);
-            const h = slotOf(a, b, c, packed);
-            if (tableKey[h] !== packed) continue;
+            const h = table.slot(a, b, c, packed);
+            if (table.keys[h] !== packed) continue;
             for (let r = tableStart[h], end = tableEnd[h]; r < end; r++) if (r !== i) visit(r);
           }
         }
