@@ -154,43 +154,13 @@ export function subtractGram(
   ldx: number,
   len: number,
 ): void {
-  // Long rows are cut into slices, and the columns into blocks, so that the block of X's
-  // rows that every stripe reads stays in the L2 cache; on the largest fronts this is
-  // 30–40% faster, on smaller ones it changes nothing and is skipped.
-  const sliced = len > GRAM_SLICE;
-  const slice = sliced ? GRAM_SLICE : len;
-  const columnBlock = sliced ? GRAM_COLUMN_BLOCK : r;
-  for (let q0 = 0; q0 < len; q0 += slice) {
-    const depth = Math.min(slice, len - q0);
-    for (let j0 = 0; j0 < r; j0 += columnBlock) {
-      const jEnd = Math.min(r, j0 + columnBlock);
-      for (let i = j0 - (j0 % 3); i < r; i += 3) {
-        const rows = Math.min(3, r - i);
-        // columns up to the stripe's last row, rounded up to whole 4-wide tiles
-        const colsEnd = Math.min(jEnd, ((i + rows + 3) >> 2) << 2);
-        if (colsEnd <= j0) continue;
-        subtractProductNT(
-          C,
-          cAt + i * ldc + j0,
-          ldc,
-          rows,
-          colsEnd - j0,
-          X,
-          xAt + i * ldx + q0,
-          ldx,
-          X,
-          xAt + j0 * ldx + q0,
-          ldx,
-          depth,
-        );
-      }
-    }
+  for (let i = 0; i < r; i += 3) {
+    const rows = Math.min(3, r - i);
+    // columns up to the stripe's last row, rounded up to whole 4-wide tiles
+    const cols = Math.min(r, (((i + rows + 3) >> 2) << 2));
+    subtractProductNT(C, cAt + i * ldc, ldc, rows, cols, X, xAt + i * ldx, ldx, X, xAt, ldx, len);
   }
 }
-
-/** Slice length along X's rows and column-block width of subtractGram (a multiple of 4). */
-const GRAM_SLICE = 192;
-const GRAM_COLUMN_BLOCK = 128;
 
 /** Column-block width of the panel factorization: wide enough that the blocked update
  * dominates, narrow enough that the scalar triangular parts stay a small share. */
