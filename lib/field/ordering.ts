@@ -482,9 +482,9 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
       continue;
     }
 
-    // separator level: the smallest level whose sides both hold at least 35% of the rest
-    // (measured on mesh Laplacians: tighter balance buys larger separators, which cost more)
-    // (relaxed to any split if no level qualifies)
+    // Separator level: the smallest level whose sides both hold at least 35% of the rest,
+    // or any split if none does. Measured on mesh Laplacians, insisting on a tighter
+    // balance buys larger separators, which cost more than the imbalance saves.
     let sepLevel = -1;
     for (let relax = 0; relax < 2 && sepLevel < 0; relax++) {
       const minShare = relax === 0 ? 0.35 : 0;
