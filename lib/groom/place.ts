@@ -1,5 +1,6 @@
 import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '../field/topology';
 import { GroomError } from './errors';
+import { MaxHeap } from './heap';
 import { SKIN_QUERY_SIZE } from './skin';
 import type { PlaceSpec } from './spec';
 import type { GroomSurface } from './surface';
@@ -86,7 +87,8 @@ export function edgePath(surface: GroomSurface, from: number, to: number, path: 
   const n = topology.vertexCount;
   const distance = new Float64Array(n).fill(Infinity);
   const previous = new Int32Array(n).fill(-1);
-  const heap = new MinHeap();
+  // Nearest first: the max-heap is keyed by negated distance.
+  const heap = new MaxHeap(64);
   distance[from] = 0;
   heap.push(from, 0);
   while (heap.size > 0) {
@@ -99,7 +101,7 @@ export function edgePath(surface: GroomSurface, from: number, to: number, path: 
       if (d < distance[w]) {
         distance[w] = d;
         previous[w] = v;
-        heap.push(w, d);
+        heap.push(w, -d);
       }
     });
   }
@@ -107,49 +109,4 @@ export function edgePath(surface: GroomSurface, from: number, to: number, path: 
   const chain = [to];
   while (chain[chain.length - 1] !== from) chain.push(previous[chain[chain.length - 1]]);
   return chain.reverse();
-}
-
-/** A binary min-heap of (item, key). Items are pushed again rather than re-keyed; a stale entry only relaxes its neighbours once more from the vertex's best distance. */
-class MinHeap {
-  private items: number[] = [];
-  private keys: number[] = [];
-  get size(): number {
-    return this.items.length;
-  }
-  push(item: number, key: number): void {
-    const { items, keys } = this;
-    let i = items.length;
-    items.push(item);
-    keys.push(key);
-    while (i > 0) {
-      const parent = (i - 1) >> 1;
-      if (keys[parent] <= key) break;
-      items[i] = items[parent];
-      keys[i] = keys[parent];
-      i = parent;
-    }
-    items[i] = item;
-    keys[i] = key;
-  }
-  pop(): number {
-    const { items, keys } = this;
-    const top = items[0];
-    const item = items.pop()!;
-    const key = keys.pop()!;
-    if (items.length > 0) {
-      let i = 0;
-      for (;;) {
-        let child = 2 * i + 1;
-        if (child >= items.length) break;
-        if (child + 1 < items.length && keys[child + 1] < keys[child]) child++;
-        if (keys[child] >= key) break;
-        items[i] = items[child];
-        keys[i] = keys[child];
-        i = child;
-      }
-      items[i] = item;
-      keys[i] = key;
-    }
-    return top;
-  }
 }

@@ -1,3 +1,4 @@
+import { grow, MaxHeap } from './heap';
 import { randomStream } from './random';
 
 /**
@@ -120,7 +121,7 @@ export function sampleRoots(request: RootRequest): Roots {
 
   // Remove the most crowded candidate until `count` are left. Weights only ever fall, so the heap
   // keeps stale (too high) keys and re-files an entry when it surfaces with a key above its weight.
-  const heap = new LazyMaxHeap(m);
+  const heap = new MaxHeap(m);
   for (let i = 0; i < m; i++) heap.push(i, weight[i]);
   const alive = new Uint8Array(m).fill(1);
   for (let removed = 0; removed < m - count; ) {
@@ -257,65 +258,4 @@ function buildGrid(x: Float64Array, y: Float64Array, z: Float64Array, cell: numb
       }
     },
   };
-}
-
-function grow<T extends Int32Array | Float32Array>(a: T): T {
-  const bigger = new (a.constructor as new (n: number) => T)(2 * a.length);
-  bigger.set(a);
-  return bigger;
-}
-
-/** A binary max-heap of (item, key) entries; equal keys pop the lower item first, so the order is deterministic. */
-class LazyMaxHeap {
-  private items: Int32Array;
-  private keys: Float64Array;
-  private size = 0;
-  constructor(capacity: number) {
-    this.items = new Int32Array(Math.max(1, capacity));
-    this.keys = new Float64Array(Math.max(1, capacity));
-  }
-  private above(ka: number, ia: number, kb: number, ib: number): boolean {
-    return ka > kb || (ka === kb && ia < ib);
-  }
-  push(item: number, key: number): void {
-    if (this.size === this.items.length) {
-      this.items = grow(this.items);
-      const keys = new Float64Array(2 * this.keys.length);
-      keys.set(this.keys);
-      this.keys = keys;
-    }
-    const { items, keys } = this;
-    let at = this.size++;
-    while (at > 0) {
-      const parent = (at - 1) >> 1;
-      if (!this.above(key, item, keys[parent], items[parent])) break;
-      items[at] = items[parent];
-      keys[at] = keys[parent];
-      at = parent;
-    }
-    items[at] = item;
-    keys[at] = key;
-  }
-  topKey(): number {
-    return this.keys[0];
-  }
-  pop(): number {
-    const { items, keys } = this;
-    const top = items[0];
-    const n = --this.size;
-    const item = items[n], key = keys[n];
-    let at = 0;
-    for (;;) {
-      let child = 2 * at + 1;
-      if (child >= n) break;
-      if (child + 1 < n && this.above(keys[child + 1], items[child + 1], keys[child], items[child])) child++;
-      if (!this.above(keys[child], items[child], key, item)) break;
-      items[at] = items[child];
-      keys[at] = keys[child];
-      at = child;
-    }
-    items[at] = item;
-    keys[at] = key;
-    return top;
-  }
 }

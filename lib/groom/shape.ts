@@ -63,6 +63,24 @@ export function shapeGuide(
   bend(out, o, n, step, skinNormal, params);
 }
 
+const axis = new Float64Array(3);
+const side = new Float64Array(3);
+
+/**
+ * The unit vector along a × b into `out`; where a and b are (nearly) parallel, any unit vector
+ * perpendicular to b, so that a bend always has a plane to happen in.
+ */
+function unitCross(ax: number, ay: number, az: number, bx: number, by: number, bz: number, out: Float64Array): void {
+  let x = ay * bz - az * by, y = az * bx - ax * bz, z = ax * by - ay * bx;
+  let l = Math.sqrt(x * x + y * y + z * z);
+  if (l < 1e-9) {
+    const small = Math.abs(bx) < 0.9;
+    x = small ? 0 : -bz; y = small ? -bz : 0; z = small ? by : bx;
+    l = Math.sqrt(x * x + y * y + z * z) || 1;
+  }
+  out[0] = x / l; out[1] = y / l; out[2] = z / l;
+}
+
 /** Turns segments 1 … n−2 toward gravity, more toward the tip, keeping each segment's length. */
 function droop(out: Float64Array, o: number, n: number, params: ShapeParameters): void {
   if (params.droop <= 0 || n < 3) return;
@@ -80,13 +98,8 @@ function droop(out: Float64Array, o: number, n: number, params: ShapeParameters)
       const angle = Math.acos(Math.max(-1, Math.min(1, ux * gx + uy * gy + uz * gz)));
       const turn = params.droop * ((i - 1) / (n - 2)) * angle;
       // Rotation of u toward g in the plane they span (any plane when they are opposite).
-      let ax = uy * gz - uz * gy, ay = uz * gx - ux * gz, az = ux * gy - uy * gx;
-      let al = Math.sqrt(ax * ax + ay * ay + az * az);
-      if (al < 1e-12) {
-        ax = Math.abs(ux) < 0.9 ? 0 : -uz; ay = Math.abs(ux) < 0.9 ? -uz : 0; az = Math.abs(ux) < 0.9 ? uy : ux;
-        al = Math.sqrt(ax * ax + ay * ay + az * az) || 1;
-      }
-      ax /= al; ay /= al; az /= al;
+      unitCross(ux, uy, uz, gx, gy, gz, axis);
+      const ax = axis[0], ay = axis[1], az = axis[2];
       const c = Math.cos(turn), s = Math.sin(turn);
       // Rodrigues' rotation; u is perpendicular to the axis.
       const wx = ay * uz - az * uy, wy = az * ux - ax * uz, wz = ax * uy - ay * ux;
@@ -111,13 +124,8 @@ function bend(out: Float64Array, o: number, n: number, step: number, skinNormal:
     tx /= tl; ty /= tl; tz /= tl;
     const nx = skinNormal[3 * i], ny = skinNormal[3 * i + 1], nz = skinNormal[3 * i + 2];
     // Sideways (skin normal × tangent) and its partner, both across the guide.
-    let bx = ny * tz - nz * ty, by = nz * tx - nx * tz, bz = nx * ty - ny * tx;
-    let bl = Math.sqrt(bx * bx + by * by + bz * bz);
-    if (bl < 1e-9) {
-      bx = Math.abs(tx) < 0.9 ? 0 : -tz; by = Math.abs(tx) < 0.9 ? -tz : 0; bz = Math.abs(tx) < 0.9 ? ty : tx;
-      bl = Math.sqrt(bx * bx + by * by + bz * bz) || 1;
-    }
-    bx /= bl; by /= bl; bz /= bl;
+    unitCross(nx, ny, nz, tx, ty, tz, side);
+    const bx = side[0], by = side[1], bz = side[2];
     const cx = ty * bz - tz * by, cy = tz * bx - tx * bz, cz = tx * by - ty * bx;
     const s = (i - 1) * step;
     let a = 0, b = 0;
