@@ -796,6 +796,13 @@ class SupernodalFactor implements CholeskyFactor {
       const k = firstCol[s + 1] - f;
       const m = rowPtr[s + 1] - rowPtr[s];
       let t = valuePtr[s];
+      if (k === 1) {
+        // a third of all supernodes on large meshes: skip the block machinery
+        const yf = (y[f] /= L[t]);
+        const rp = rowPtr[s];
+        for (let i = 1; i < m; i++) y[rows[rp + i]] -= L[t + i] * yf;
+        continue;
+      }
       for (let i = 0; i < k; i++) {
         let sum = y[f + i];
         for (let q = 0; q < i; q++) sum -= L[t + q] * y[f + q];
@@ -837,6 +844,13 @@ class SupernodalFactor implements CholeskyFactor {
       const k = firstCol[s + 1] - f;
       const m = rowPtr[s + 1] - rowPtr[s];
       const rp = rowPtr[s];
+      if (k === 1) {
+        const t = valuePtr[s];
+        let sum = y[f];
+        for (let i = 1; i < m; i++) sum -= L[t + i] * y[rows[rp + i]];
+        y[f] = sum / L[t];
+        continue;
+      }
       let t = valuePtr[s] + ((k * (k + 1)) >> 1);
       let i = k;
       for (; i + 3 < m; i += 4, t += 4 * k) {
