@@ -335,18 +335,29 @@ function columnCounts(n: number, parent: Int32Array, ptr: Int32Array, idx: Int32
 
 /** nnz(L) for the given ordering, from the column counts alone. */
 function factorNonZeros(A: SymmetricSparse, perm: Int32Array): number {
-  const inverse = inversePermutation(perm);
-  const lower = permutedLower(A, inverse, false);
-  const parent = eliminationTree(A.n, lower.ptr, lower.idx);
-  const post = postorder(parent);
-  const finalPerm = new Int32Array(A.n);
-  for (let k = 0; k < A.n; k++) finalPerm[k] = perm[post[k]];
-  const finalLower = permutedLower(A, inversePermutation(finalPerm), false);
-  const finalParent = relabelTree(parent, post);
-  const counts = columnCounts(A.n, finalParent, finalLower.ptr, finalLower.idx);
+  const { counts } = postorderedStructure(A, perm, false);
   let total = 0;
   for (let j = 0; j < A.n; j++) total += counts[j];
   return total;
+}
+
+/**
+ * The ordering perm0 refined by a postorder of its elimination tree, which changes no
+ * fill but makes every subtree, and so every supernode, a contiguous range of pivots;
+ * with the permuted lower pattern, the tree and the column counts in that final order.
+ */
+function postorderedStructure(A: SymmetricSparse, perm0: Int32Array, withSource: boolean) {
+  const n = A.n;
+  const lower0 = permutedLower(A, inversePermutation(perm0), false);
+  const parent0 = eliminationTree(n, lower0.ptr, lower0.idx);
+  const post = postorder(parent0);
+  const perm = new Int32Array(n);
+  for (let k = 0; k < n; k++) perm[k] = perm0[post[k]];
+  const inverse = inversePermutation(perm);
+  const parent = relabelTree(parent0, post);
+  const lower = permutedLower(A, inverse, withSource);
+  const counts = columnCounts(n, parent, lower.ptr, lower.idx);
+  return { perm, inverse, parent, lower, counts };
 }
 
 function relabelTree(parent: Int32Array, post: Int32Array): Int32Array {
@@ -364,17 +375,7 @@ function analyzeWithPermutation(A: SymmetricSparse, perm0: Int32Array): Cholesky
   // Each step is its own function: V8 optimizes a long one-shot function loop by loop,
   // recompiling all of it each time, which made cold analyses several times slower.
   const n = A.n;
-  // Postordering the elimination tree changes no fill but makes every subtree, and so
-  // every supernode, a contiguous range of pivots.
-  const lower0 = permutedLower(A, inversePermutation(perm0), false);
-  const parent0 = eliminationTree(n, lower0.ptr, lower0.idx);
-  const post = postorder(parent0);
-  const perm = new Int32Array(n);
-  for (let k = 0; k < n; k++) perm[k] = perm0[post[k]];
-  const inverse = inversePermutation(perm);
-  const parent = relabelTree(parent0, post);
-  const lower = permutedLower(A, inverse, true);
-  const counts = columnCounts(n, parent, lower.ptr, lower.idx);
+  const { perm, inverse, parent, lower, counts } = postorderedStructure(A, perm0, true);
   let nonZeros = 0;
   for (let j = 0; j < n; j++) nonZeros += counts[j];
 
