@@ -215,6 +215,11 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
  * to it than `clearance`, out along the skin's pseudo-normal to `clearance` above it; the points
  * after it move with it, so the rest of the guide rests on the skin it met. Returns how many
  * points moved.
+ *
+ * A point needs no look-up when it lies well inside the skin-free ball around the point before
+ * it: if the previous point is outside with no skin within `free`, a point less than
+ * `free − clearance` from it is outside too (the segment between them meets no skin) and keeps
+ * at least `clearance` from the skin.
  */
 function keepAboveSkin(
   surface: GroomSurface,
@@ -229,15 +234,28 @@ function keepAboveSkin(
   query: Float64Array,
 ): number {
   let moved = 0;
+  // Radius of a ball around the previous point known to hold no skin (0 at the root, on the skin).
+  let free = 0;
   for (let i = 1; i < n; i++) {
     const q = 3 * (first + i);
     const x = points[q], y = points[q + 1], z = points[q + 2];
+    const step = Math.sqrt((x - points[q - 3]) ** 2 + (y - points[q - 2]) ** 2 + (z - points[q - 1]) ** 2);
+    if (step + clearance <= free) {
+      free -= step;
+      continue;
+    }
     // The point's skin point (or the end of the skin path) lies on the skin, so no closest skin
     // point is farther than it is (plus rounding); that bound keeps the search small.
     const rx = i <= reached ? skin[3 * i] : end.x, ry = i <= reached ? skin[3 * i + 1] : end.y, rz = i <= reached ? skin[3 * i + 2] : end.z;
     const reach = Math.sqrt((x - rx) ** 2 + (y - ry) ** 2 + (z - rz) ** 2) + 2 * clearance;
-    if (!surface.skin.closest(x, y, z, reach, query, skinFace[i])) continue;
-    if (query[6] >= clearance) continue;
+    if (!surface.skin.closest(x, y, z, reach, query, skinFace[i])) {
+      free = 0;
+      continue;
+    }
+    if (query[6] >= clearance) {
+      free = query[6];
+      continue;
+    }
     const nl = Math.hypot(query[3], query[4], query[5]) || 1;
     const dx = query[0] + (clearance * query[3]) / nl - x;
     const dy = query[1] + (clearance * query[4]) / nl - y;
@@ -246,6 +264,7 @@ function keepAboveSkin(
       const r = 3 * (first + j);
       points[r] += dx; points[r + 1] += dy; points[r + 2] += dz;
     }
+    free = 0;
     moved++;
   }
   return moved;

@@ -1,0 +1,109 @@
+/**
+ * Benchmark of lib/groom on a 100,000-face growth surface (a torus, 400 × 125 quads split in two):
+ * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, each export, and a
+ * 1024² thumbnail (render, then encoding).
+ *
+ *   npx tsx bench/groom.ts            prints a Markdown table
+ *
+ * Each measurement is the best of three runs after one warm-up, so that the table reflects the
+ * code rather than the JIT or a neighbour's burst of work on a shared machine; the step rows of a
+ * guide count are those of its fastest run. The load average is printed with the table.
+ */
+import { torus } from '../lib/field/shapes';
+import { encodeImage } from '../lib/groom/encode-image';
+import {
+  fieldToPly,
+  growGuides,
+  guidesToGltf,
+  guidesToObj,
+  guidesToUsda,
+  parseGroomSpec,
+  prepareGroomSurface,
+  renderThumbnail,
+  solveGroomField,
+  specToJson,
+  type GroomSpecInput,
+} from '../lib/groom';
+
+const RUNS = 3;
+
+/** The fastest of RUNS runs after a warm-up, with that run's result. */
+function best<T>(work: () => T): { ms: number; result: T } {
+  let result = work();
+  let ms = Infinity;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    const r = work();
+    const elapsed = performance.now() - t0;
+    if (elapsed < ms) {
+      ms = elapsed;
+      result = r;
+    }
+  }
+  return { ms, result };
+}
+
+async function bestAsync(work: () => Promise<unknown>): Promise<number> {
+  await work();
+  let ms = Infinity;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    await work();
+    ms = Math.min(ms, performance.now() - t0);
+  }
+  return ms;
+}
+
+const rows: [string, string][] = [];
+const row = (what: string, ms: number) => rows.push([what, ms < 10 ? ms.toFixed(2) : ms.toFixed(0)]);
+
+const mesh = torus(30, 12, 400, 125);
+const faces = mesh.triangles.length / 3;
+const specFor = (count: number): GroomSpecInput => ({
+  specVersion: 2,
+  units: 'cm',
+  upAxis: 'z',
+  field: {
+    singularities: [
+      { point: [0, 42, 0], index: 1, twist: 60 },
+      { point: [0, -18, 0], index: -1 },
+    ],
+  },
+  guides: { count, length: 3, lift: 20, droop: 0.4, curl: { amplitude: 0.1, wavelength: 1 }, jitter: 0.3, pointsPerGuide: 16 },
+});
+
+const t0 = performance.now();
+const surface = prepareGroomSurface(mesh);
+row(`prepare surface (field factorization + skin index), ${faces} faces`, performance.now() - t0);
+const solved = best(() => solveGroomField(parseGroomSpec(specFor(1)), surface));
+row('solve field', solved.ms);
+
+let large: ReturnType<typeof growGuides> | undefined;
+for (const count of [5_000, 50_000]) {
+  const spec = parseGroomSpec(specFor(count));
+  const grown = best(() => growGuides(surface, solved.result, spec));
+  const t = grown.result.timings;
+  row(`${count} guides × 16: roots`, t.rootsMilliseconds);
+  row(`${count} guides × 16: tracing`, t.traceMilliseconds);
+  row(`${count} guides × 16: shaping and skin check`, t.shapeMilliseconds);
+  row(`${count} guides × 16: total`, grown.ms);
+  large = grown.result;
+}
+const guides = large!.guides;
+const spec = parseGroomSpec(specFor(50_000));
+row('export .usda linear (50,000 guides)', best(() => guidesToUsda(guides, 'linear')).ms);
+row('export .usda pinned B-spline (50,000 guides)', best(() => guidesToUsda(guides, 'bspline')).ms);
+row('export .gltf (50,000 guides)', best(() => guidesToGltf(guides, { binary: false })).ms);
+row('export .glb (50,000 guides)', best(() => guidesToGltf(guides, { binary: true })).ms);
+row('export .obj (50,000 guides)', best(() => guidesToObj(guides)).ms);
+row('export spec .json', best(() => specToJson(spec)).ms);
+row(`export field .ply (${faces} faces)`, best(() => fieldToPly(mesh, solved.result.field)).ms);
+const thumbnailGuides = growGuides(surface, solved.result, parseGroomSpec(specFor(5_000))).guides;
+const image = best(() => renderThumbnail(mesh, thumbnailGuides, { size: 1024, view: 'top', upAxis: 'z', colourBy: 'length' }));
+row('thumbnail 1024² render (5,000 guides)', image.ms);
+row('thumbnail 1024² encode .png', await bestAsync(() => encodeImage(image.result, 'png')));
+row('thumbnail 1024² encode .webp', await bestAsync(() => encodeImage(image.result, 'webp')));
+
+const { loadavg, cpus } = await import('node:os');
+process.stdout.write(`${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (1 / 5 / 15 min) at the end, Node ${process.version}\n\n`);
+process.stdout.write(`| step | ms |\n| --- | ---: |\n${rows.map(([a, b]) => `| ${a} | ${b} |`).join('\n')}\n`);
