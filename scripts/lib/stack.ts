@@ -2,7 +2,7 @@
 // SMTP sink and the payments fake. The demo and the test run use separate ports and data
 // directories (.data/demo, .data/test), so both can run at once.
 import { createServer } from 'node:net';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import { rm } from 'node:fs/promises';
 import knex from 'knex';
 import { DEMO_PORTS, LOCAL_DATABASE, LOCAL_S3, LOCAL_STRIPE_SECRET_KEY, TEST_PORTS, localServiceEnv, type LocalPorts } from '../../lib/local-services';
@@ -63,7 +63,8 @@ export function testProfile(): StackProfile {
     name: 'test',
     ports: portsFromEnvironment(TEST_PORTS, 'TEST_'),
     databaseName: LOCAL_DATABASE.testName,
-    dataDir: join(projectRoot, '.data', 'test'),
+    // TEST_DATA_DIR (with other TEST_* ports) lets two test stacks run side by side.
+    dataDir: process.env.TEST_DATA_DIR ? resolve(process.env.TEST_DATA_DIR) : join(projectRoot, '.data', 'test'),
     throwaway: true,
   };
 }
