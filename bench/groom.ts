@@ -9,6 +9,7 @@
  * code rather than the JIT or a neighbour's burst of work on a shared machine; the step rows of a
  * guide count are those of its fastest run. The load average is printed with the table.
  */
+import { cpus, loadavg } from 'node:os';
 import { torus } from '../lib/field/shapes';
 import { encodeImage } from '../lib/groom/encode-image';
 import {
@@ -104,6 +105,5 @@ row('thumbnail 1024² render (5,000 guides)', image.ms);
 row('thumbnail 1024² encode .png', await bestAsync(() => encodeImage(image.result, 'png')));
 row('thumbnail 1024² encode .webp', await bestAsync(() => encodeImage(image.result, 'webp')));
 
-const { loadavg, cpus } = await import('node:os');
 process.stdout.write(`${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (1 / 5 / 15 min) at the end, Node ${process.version}\n\n`);
 process.stdout.write(`| step | ms |\n| --- | ---: |\n${rows.map(([a, b]) => `| ${a} | ${b} |`).join('\n')}\n`);
