@@ -216,6 +216,8 @@ describe('factorCholesky on triangulated-grid Laplacians with Dirichlet vertices
   }
 
   it('has small residuals on larger grids, where a dense reference is too slow', () => {
+    // reference: the residual through multiplySymmetric, itself checked against
+    // ml-matrix Matrix.mmul (npm) in sparse.test.ts
     for (const side of [60, 120]) {
       const A = gridLaplacian(side, [0, side * side - 1], side);
       const b = randomVector(A.n, side);
@@ -396,6 +398,7 @@ describe('refactoring and reuse', () => {
     const perm = computeOrdering(A, 'minimum-degree');
     const b = randomVector(A.n, 9);
     const x1 = factorNumeric(analyzeCholesky(A, { permutation: perm }), A).solve(b);
+    // reference: the natural-order factorization, itself checked against ml-matrix above
     const x2 = factorCholesky(A, { ordering: 'natural' }).solve(b);
     expect(relativeDifference(x1, x2)).toBeLessThan(1e-12);
     expect(() => analyzeCholesky(A, { permutation: new Int32Array(A.n) })).toThrow(/not a permutation/);
