@@ -5,6 +5,9 @@ import { AsciiWriter } from '../ascii';
  * A demo surface as OBJ text, with a `g` line wherever the face group changes, so that reading
  * it back gives the same vertices, faces and groups (the form the demo seed stores and the
  * command line reads).
+ *
+ * Guarantees: vertices and faces in the mesh's order (OBJ numbers from 1); the comment is written
+ * as one line of printable ASCII.
  */
 export function surfaceToObj(mesh: TriangleMesh, comment: string): string {
   const p = mesh.positions;
