@@ -359,8 +359,10 @@ function layOutCurves(surface: FieldSurface, curves: readonly CurveFeature[]): C
   const anchors: number[] = [];
   const owner = new Int32Array(topology.vertexCount).fill(-1);
 
+  // Each kind is numbered on its own, as a groomer counts them: "crest 1" is the first crest.
+  const nameOf = (ci: number) => `${curves[ci].kind} ${curves.slice(0, ci + 1).filter((c) => c.kind === curves[ci].kind).length}`;
   curves.forEach((curve, ci) => {
-    const name = `${curve.kind} ${ci + 1}`;
+    const name = nameOf(ci);
     const vs = curve.vertices;
     const closed = vs.length > 2 && vs[0] === vs[vs.length - 1];
     if (vs.length < 2) throw new FieldError('curve-too-short', `The ${name} needs at least two vertices.`);
@@ -369,7 +371,7 @@ function layOutCurves(surface: FieldSurface, curves: readonly CurveFeature[]): C
       if (!Number.isInteger(v) || v < 0 || v >= topology.vertexCount) throw new FieldError('vertex-out-of-range', `The ${name} passes through vertex ${v}, which the surface does not have.`);
       if (topology.isBoundaryVertex[v]) throw new FieldError('curve-on-boundary', `The ${name} touches the boundary at vertex ${v}; partings and crests must stay inside the surface.`);
       if (owner[v] === ci) throw new FieldError('curve-self-crossing', `The ${name} passes through vertex ${v} twice.`);
-      if (owner[v] >= 0) throw new FieldError('curves-meet', `The ${name} meets ${curves[owner[v]].kind} ${owner[v] + 1} at vertex ${v}; curves must not touch.`);
+      if (owner[v] >= 0) throw new FieldError('curves-meet', `The ${name} meets ${nameOf(owner[v])} at vertex ${v}; curves must not touch.`);
       owner[v] = ci;
       cutVertex[v] = 1;
     }
