@@ -32,6 +32,8 @@ const schema = z
     STRIPE_SECRET_KEY: z.string().startsWith('sk_', 'must be a secret key (sk_…)').default(defaults.STRIPE_SECRET_KEY),
     /** Empty for the real payment API; set for the local fake. */
     STRIPE_API_URL: optionalUrl.default(defaults.STRIPE_API_URL),
+    /** Largest growth surface file the studio accepts, in bytes (default 200 MB). */
+    SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
   })
   .refine(
     (config) => config.NEXTAUTH_SECRET !== LOCAL_NEXTAUTH_SECRET || isLoopback(config.NEXTAUTH_URL),

@@ -12,9 +12,15 @@ export type ApiErrorCode =
   | 'forbidden'
   | 'not-found'
   | 'mail-failed'
-  | 'service-unavailable';
+  | 'service-unavailable'
+  | 'upload-missing'
+  | 'surface-rejected'
+  | 'surface-in-use'
+  | 'invalid-spec'
+  | 'stale-revision';
 
-export type ApiError = { code: ApiErrorCode; message: string; fields?: FieldErrors };
+/** `details` carries what a code needs beyond words, e.g. the problems of a rejected surface. */
+export type ApiError = { code: ApiErrorCode; message: string; fields?: FieldErrors; details?: Record<string, unknown> };
 
 export type ApiSuccess<T> = { data: T };
 export type ApiFailure = { error: ApiError };

@@ -1,0 +1,122 @@
+// The shapes the studio's route handlers answer with (docs/studio-api.md). Types only, so the
+// studio's client code can import them without pulling in anything of the server.
+import type { ComponentFacts } from '../field';
+import type { Problem } from '../field/check';
+import type { GroomSpec } from '../groom';
+
+export const SURFACE_UNITS = ['mm', 'cm', 'm', 'in'] as const;
+export type SurfaceUnits = (typeof SURFACE_UNITS)[number];
+
+export const SURFACE_FORMATS = ['obj', 'ply', 'stl', 'gltf', 'glb'] as const;
+export type SurfaceFileFormat = (typeof SURFACE_FORMATS)[number];
+
+export const EXPORT_FORMATS = ['usda', 'usda-bspline', 'gltf', 'glb', 'obj', 'json', 'ply'] as const;
+export type ExportFormat = (typeof EXPORT_FORMATS)[number];
+
+export type { Problem as SurfaceProblem };
+
+/** Dates travel as ISO 8601 strings. */
+export type IsoDate = string;
+
+export type UploadTicket = {
+  uploadId: string;
+  /** Presigned PUT to object storage; send the file's bytes as the body. */
+  url: string;
+  method: 'PUT';
+  expiresAt: IsoDate;
+  maxBytes: number;
+};
+
+export type SurfaceSummary = {
+  id: string;
+  name: string;
+  fileName: string;
+  format: SurfaceFileFormat;
+  units: SurfaceUnits;
+  vertexCount: number;
+  faceCount: number;
+  componentCount: number;
+  boundaryLoopCount: number;
+  genus: number;
+  eulerCharacteristic: number;
+  areaCm2: number;
+  groups: string[];
+  /** Problems of severity `warning` that did not stop the surface from being accepted. */
+  warnings: Problem[];
+  /** Presigned GET of a front view (WebP), valid 10 minutes; null while none is stored. */
+  thumbnailUrl: string | null;
+  createdAt: IsoDate;
+};
+
+export type SurfaceDetail = SurfaceSummary & {
+  /** Presigned GET of the surface file as uploaded, valid 10 minutes. */
+  fileUrl: string;
+  byteSize: number;
+  /** Per connected piece: faces, vertices, edges, boundary loops, Euler characteristic, genus. */
+  components: ComponentFacts[];
+};
+
+export type Version = {
+  id: string;
+  number: number;
+  name: string;
+  createdAt: IsoDate;
+  /** The version's own thumbnail once the job has rendered it, else null. */
+  thumbnailUrl: string | null;
+};
+
+export type GroomSummary = {
+  id: string;
+  name: string;
+  surfaceId: string;
+  surfaceName: string;
+  revision: number;
+  versionCount: number;
+  latestVersion: { number: number; name: string } | null;
+  /** The groom's last rendered thumbnail, or its surface's until one is rendered; null if neither. */
+  thumbnailUrl: string | null;
+  updatedAt: IsoDate;
+};
+
+export type GroomDetail = GroomSummary & {
+  /** The saved spec, resolved: every default filled in. */
+  spec: GroomSpec;
+  savedAt: IsoDate;
+  surface: SurfaceDetail;
+  /** Newest first. */
+  versions: Version[];
+};
+
+export type ExportStatus = 'queued' | 'running' | 'done' | 'failed';
+
+export type ExportJob = {
+  id: string;
+  groomId: string;
+  format: ExportFormat;
+  status: ExportStatus;
+  /** 0 to 1. */
+  progress: number;
+  /** Plain words for what the job is doing: "waiting in the queue", "solving the field", … */
+  stage: string;
+  /** Why the export failed, in plain words; null unless `status` is `failed`. */
+  error: string | null;
+  fileName: string;
+  /** Presigned GET (10 minutes) that downloads as `fileName`; null until `status` is `done`. */
+  downloadUrl: string | null;
+  /** The spec revision the file is made from. */
+  specRevision: number;
+  createdAt: IsoDate;
+};
+
+export type UploadResponse = UploadTicket;
+export type SurfaceResponse = { surface: SurfaceSummary };
+export type SurfaceListResponse = { surfaces: SurfaceSummary[] };
+export type SurfaceDetailResponse = { surface: SurfaceDetail };
+export type DeletedResponse = { deleted: true };
+export type GroomResponse = { groom: GroomDetail };
+export type GroomListResponse = { grooms: GroomSummary[] };
+export type SpecSavedResponse = { revision: number; savedAt: IsoDate };
+export type VersionResponse = { version: Version };
+export type VersionListResponse = { versions: Version[] };
+export type RestoredResponse = { spec: GroomSpec; revision: number; savedAt: IsoDate };
+export type ExportResponse = { export: ExportJob };

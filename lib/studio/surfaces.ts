@@ -1,0 +1,268 @@
+// Growth surfaces: a presigned upload straight to object storage, then registration — the file is
+// read back, checked by lib/field, measured, and given a thumbnail — or rejected with its problems
+// and removed. A groomer only ever sees their own surfaces.
+import { randomUUID } from 'node:crypto';
+import { checkSurfaceFile, type ComponentFacts, type TriangleMesh } from '../field';
+import type { Problem } from '../field/check';
+import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
+import { encodeImage } from '../groom/encode-image';
+import { db } from '../db';
+import { env } from '../env';
+import { getObjectBytes, putObject } from '../storage';
+import type { SurfaceDetail, SurfaceFileFormat, SurfaceSummary, SurfaceUnits, UploadTicket } from './api-types';
+import { SURFACE_FORMATS } from './api-types';
+import { notFound, StudioError } from './errors';
+import type { Groomer } from './http';
+import { deleteOrphanedObjects, deleteStoredObjects, presignStudioDownload, presignSurfaceUpload, storedObjectSize, STUDIO_URL_SECONDS } from './storage';
+import { rememberSurfaceMesh } from './surface-cache';
+
+/** Edge length of the stored surface thumbnail, in pixels. */
+const SURFACE_THUMBNAIL_SIZE = 512;
+
+export type SurfaceRow = {
+  id: string;
+  owner_id: string;
+  name: string;
+  file_name: string;
+  format: SurfaceFileFormat;
+  units: SurfaceUnits;
+  object_key: string;
+  byte_size: string;
+  vertex_count: number;
+  face_count: number;
+  component_count: number;
+  boundary_loop_count: number;
+  genus: number;
+  euler_characteristic: number;
+  area_cm2: number;
+  groups: string[];
+  components: ComponentFacts[];
+  warnings: Problem[];
+  thumbnail_key: string | null;
+  created_at: Date;
+};
+
+type UploadRow = { id: string; owner_id: string; file_name: string; format: SurfaceFileFormat; byte_size: string; object_key: string };
+
+/** "200 MB", "1.5 kB": sizes for messages. */
+function describeBytes(bytes: number): string {
+  const units = ['bytes', 'kB', 'MB', 'GB'];
+  let value = bytes;
+  let unit = 0;
+  while (value >= 1024 && unit < units.length - 1) {
+    value /= 1024;
+    unit++;
+  }
+  return `${unit === 0 ? value : Number(value.toFixed(1))} ${units[unit]}`;
+}
+
+/** A size and the limit it exceeds, in bytes where rounding would make them read the same. */
+function tooLarge(size: number, limit: number): string {
+  const [sizeWords, limitWords] = describeBytes(size) === describeBytes(limit)
+    ? [`${size.toLocaleString('en-US')} bytes`, `${limit.toLocaleString('en-US')} bytes`]
+    : [describeBytes(size), describeBytes(limit)];
+  return `The file is ${sizeWords}; growth surfaces may be at most ${limitWords}.`;
+}
+
+function formatOf(fileName: string): SurfaceFileFormat | null {
+  const extension = fileName.slice(fileName.lastIndexOf('.') + 1).toLowerCase();
+  return fileName.includes('.') && (SURFACE_FORMATS as readonly string[]).includes(extension) ? (extension as SurfaceFileFormat) : null;
+}
+
+/** A file name safe inside an object key: letters, digits, dot, dash and underscore. */
+function keySafe(fileName: string): string {
+  return fileName.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^[.-]+/, '') || 'surface';
+}
+
+/** Hands out a presigned PUT for one surface file, after checking its name and size. */
+export async function createSurfaceUpload(groomer: Groomer, input: { fileName: string; byteSize: number }): Promise<UploadTicket> {
+  const format = formatOf(input.fileName);
+  if (!format) {
+    throw new StudioError(400, 'invalid-input', 'This kind of file cannot be a growth surface.', {
+      fields: { fileName: `Upload an OBJ, PLY, STL, glTF or GLB file (.${SURFACE_FORMATS.join(', .')}).` },
+    });
+  }
+  const maxBytes = env().SURFACE_MAX_BYTES;
+  if (input.byteSize > maxBytes) {
+    throw new StudioError(400, 'invalid-input', 'The file is too large.', {
+      fields: { byteSize: `${tooLarge(input.byteSize, maxBytes)} Decimate it before uploading.` },
+    });
+  }
+  const uploadId = randomUUID();
+  const objectKey = `surfaces/${groomer.userId}/${uploadId}/${keySafe(input.fileName)}`;
+  const expiresAt = new Date(Date.now() + STUDIO_URL_SECONDS * 1000);
+  await db()('surface_uploads').insert({
+    id: uploadId,
+    owner_id: groomer.userId,
+    file_name: input.fileName,
+    format,
+    byte_size: input.byteSize,
+    object_key: objectKey,
+    expires_at: expiresAt,
+  });
+  const url = await presignSurfaceUpload(objectKey, input.byteSize);
+  return { uploadId, url, method: 'PUT', expiresAt: expiresAt.toISOString(), maxBytes };
+}
+
+/** Removes an upload that will not become a surface: its object first, then its record. */
+async function discardUpload(upload: UploadRow): Promise<void> {
+  await deleteStoredObjects([upload.object_key]);
+  await db()('surface_uploads').where({ id: upload.id }).delete();
+}
+
+function rejection(fileName: string, problems: readonly Problem[]): StudioError {
+  const errors = problems.filter((problem) => problem.severity === 'error');
+  const message = `${fileName} cannot be used as a growth surface: ${errors.map((problem) => problem.message).join(' ')}`;
+  return new StudioError(422, 'surface-rejected', message, { details: { problems } });
+}
+
+async function storeSurfaceThumbnail(mesh: TriangleMesh, folder: string): Promise<string> {
+  const image = renderThumbnail(mesh, null, { size: SURFACE_THUMBNAIL_SIZE, view: 'front', upAxis: 'y' });
+  const key = `${folder}/thumbnail-${randomUUID()}.webp`;
+  await putObject(key, await encodeImage(image, 'webp'), 'image/webp');
+  return key;
+}
+
+/**
+ * Turns an upload into a growth surface. The stored file is checked with lib/field; a file that
+ * fails is deleted along with its upload record and answered with every problem found. A file
+ * that passes gets its facts stored and a thumbnail rendered.
+ */
+export async function registerSurface(groomer: Groomer, input: { uploadId: string; name: string; units: SurfaceUnits }): Promise<SurfaceSummary> {
+  const upload: UploadRow | undefined = await db()('surface_uploads').where({ id: input.uploadId, owner_id: groomer.userId }).first();
+  if (!upload) throw notFound('upload');
+
+  const storedSize = await storedObjectSize(upload.object_key);
+  if (storedSize === null) {
+    throw new StudioError(409, 'upload-missing', `Nothing has been uploaded for ${upload.file_name} yet: send the file to its upload URL first.`);
+  }
+  const maxBytes = env().SURFACE_MAX_BYTES;
+  if (storedSize > maxBytes) {
+    await discardUpload(upload);
+    throw rejection(upload.file_name, [
+      {
+        code: 'file-too-large',
+        severity: 'error',
+        message: tooLarge(storedSize, maxBytes),
+        count: 1,
+        examples: [],
+        where: 'file',
+      },
+    ]);
+  }
+
+  const { read, report } = checkSurfaceFile(await getObjectBytes(upload.object_key), upload.file_name);
+  if (!report.ok || !read || !report.facts?.components) {
+    await discardUpload(upload);
+    throw rejection(upload.file_name, report.problems);
+  }
+
+  const facts = report.facts;
+  const folder = upload.object_key.slice(0, upload.object_key.lastIndexOf('/'));
+  const thumbnailKey = await storeSurfaceThumbnail(read.mesh, folder);
+  const row = {
+    id: randomUUID(),
+    owner_id: groomer.userId,
+    name: input.name,
+    file_name: upload.file_name,
+    format: read.format,
+    units: input.units,
+    object_key: upload.object_key,
+    byte_size: storedSize,
+    vertex_count: facts.vertexCount,
+    face_count: facts.faceCount,
+    component_count: facts.componentCount,
+    boundary_loop_count: facts.boundaryLoopCount ?? 0,
+    genus: facts.genus ?? 0,
+    euler_characteristic: facts.eulerCharacteristic,
+    area_cm2: facts.surfaceArea * CENTIMETRES_PER_UNIT[input.units] ** 2,
+    groups: JSON.stringify(read.mesh.groups?.names ?? []),
+    components: JSON.stringify(facts.components),
+    warnings: JSON.stringify(report.problems),
+    thumbnail_key: thumbnailKey,
+  };
+  let stored: SurfaceRow;
+  try {
+    stored = await db().transaction(async (trx) => {
+      // Deleting the upload first makes a second, concurrent registration of it find nothing.
+      const consumed = await trx('surface_uploads').where({ id: upload.id }).delete();
+      if (consumed === 0) throw notFound('upload');
+      const [inserted] = await trx('growth_surfaces').insert(row).returning('*');
+      return inserted;
+    });
+  } catch (error) {
+    await deleteOrphanedObjects([thumbnailKey]);
+    throw error;
+  }
+  rememberSurfaceMesh({ id: stored.id, objectKey: stored.object_key, fileName: stored.file_name }, read.mesh);
+  return surfaceSummary(stored);
+}
+
+export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
+  return {
+    id: row.id,
+    name: row.name,
+    fileName: row.file_name,
+    format: row.format,
+    units: row.units,
+    vertexCount: row.vertex_count,
+    faceCount: row.face_count,
+    componentCount: row.component_count,
+    boundaryLoopCount: row.boundary_loop_count,
+    genus: row.genus,
+    eulerCharacteristic: row.euler_characteristic,
+    areaCm2: row.area_cm2,
+    groups: row.groups,
+    warnings: row.warnings,
+    thumbnailUrl: row.thumbnail_key ? await presignStudioDownload(row.thumbnail_key) : null,
+    createdAt: row.created_at.toISOString(),
+  };
+}
+
+export async function surfaceDetail(row: SurfaceRow): Promise<SurfaceDetail> {
+  return {
+    ...(await surfaceSummary(row)),
+    fileUrl: await presignStudioDownload(row.object_key, row.file_name),
+    byteSize: Number(row.byte_size),
+    components: row.components,
+  };
+}
+
+/** The groomer's surface row, or a 404. */
+export async function ownSurfaceRow(groomer: Groomer, surfaceId: string): Promise<SurfaceRow> {
+  const row: SurfaceRow | undefined = await db()('growth_surfaces').where({ id: surfaceId, owner_id: groomer.userId }).first();
+  if (!row) throw notFound('surface');
+  return row;
+}
+
+export async function listSurfaces(groomer: Groomer): Promise<SurfaceSummary[]> {
+  const rows: SurfaceRow[] = await db()('growth_surfaces').where({ owner_id: groomer.userId }).orderBy([
+    { column: 'created_at', order: 'desc' },
+    { column: 'id', order: 'desc' },
+  ]);
+  return Promise.all(rows.map(surfaceSummary));
+}
+
+export async function getSurface(groomer: Groomer, surfaceId: string): Promise<SurfaceDetail> {
+  return surfaceDetail(await ownSurfaceRow(groomer, surfaceId));
+}
+
+/** Deletes a surface no groom uses, with its file and thumbnail. */
+export async function deleteSurface(groomer: Groomer, surfaceId: string): Promise<void> {
+  const removed = await db().transaction(async (trx) => {
+    const row: SurfaceRow | undefined = await trx('growth_surfaces').where({ id: surfaceId, owner_id: groomer.userId }).forUpdate().first();
+    if (!row) throw notFound('surface');
+    const grooms: string[] = await trx('grooms').where({ surface_id: surfaceId }).orderBy('name').pluck('name');
+    if (grooms.length > 0) {
+      const names = grooms.slice(0, 3).map((name) => `“${name}”`).join(', ') + (grooms.length > 3 ? ` and ${grooms.length - 3} more` : '');
+      throw new StudioError(
+        409,
+        'surface-in-use',
+        `${grooms.length === 1 ? 'A groom grows' : `${grooms.length} grooms grow`} on this surface (${names}); delete ${grooms.length === 1 ? 'it' : 'them'} first.`,
+      );
+    }
+    await trx('growth_surfaces').where({ id: surfaceId }).delete();
+    return row;
+  });
+  await deleteOrphanedObjects([removed.object_key, removed.thumbnail_key]);
+}

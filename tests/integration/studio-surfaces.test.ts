@@ -1,0 +1,228 @@
+// Growth surfaces through the studio's route handlers, against the real PostgreSQL and the S3
+// stand-in: presigned upload, registration with the check of lib/field, rejection that leaves
+// nothing behind, and who may see what.
+import { callRoute, createSurface, expectJson, signedInAccount, signedInAdmin, uploadAndRegister, uploadFile, type TestAccount } from './studio-helpers';
+import { readFile } from 'node:fs/promises';
+import { ListObjectsV2Command } from '@aws-sdk/client-s3';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, db } from '@/lib/db';
+import { env } from '@/lib/env';
+import { storageClient } from '@/lib/storage';
+import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
+import * as uploadsRoute from '@/app/api/studio/uploads/route';
+import * as surfacesRoute from '@/app/api/studio/surfaces/route';
+import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
+import type { SurfaceDetail, SurfaceSummary } from '@/lib/studio/api-types';
+
+afterAll(closeDb);
+
+const [fox, , ring] = DEMO_GROOMS;
+const objBytes = (mesh: ReturnType<typeof fox.surface>) => new TextEncoder().encode(surfaceToObj(mesh, 'test surface'));
+const fixture = (name: string) => readFile(new URL(`../fixtures/surfaces/${name}`, import.meta.url)).then((buffer) => new Uint8Array(buffer));
+
+async function storedKeys(prefix: string): Promise<string[]> {
+  const listing = await storageClient().send(new ListObjectsV2Command({ Bucket: env().S3_BUCKET, Prefix: prefix }));
+  return (listing.Contents ?? []).map((object) => object.Key!);
+}
+
+let wren: TestAccount;
+let rival: TestAccount;
+let buyer: TestAccount;
+
+beforeAll(async () => {
+  [wren, rival, buyer] = await Promise.all([
+    signedInAccount('groomer', 'surface-owner'),
+    signedInAccount('groomer', 'surface-rival'),
+    signedInAccount('buyer', 'surface-buyer'),
+  ]);
+});
+
+describe('registering an uploaded surface', () => {
+  let ringSurface: SurfaceSummary;
+  const ringBytes = objBytes(ring.surface());
+
+  beforeAll(async () => {
+    ringSurface = await createSurface(wren, 'loop-ring.obj', ringBytes, 'Loop — plush ring', 'mm');
+  });
+
+  it('stores the facts lib/field measured', async () => {
+    const mesh = ring.surface();
+    expect(ringSurface).toMatchObject({
+      name: 'Loop — plush ring',
+      fileName: 'loop-ring.obj',
+      format: 'obj',
+      units: 'mm',
+      vertexCount: mesh.positions.length / 3,
+      faceCount: mesh.triangles.length / 3,
+      componentCount: 1,
+      boundaryLoopCount: 0,
+      genus: 1,
+      eulerCharacteristic: 0,
+      groups: ['top', 'underside'],
+      warnings: [],
+    });
+    // The ring's area is about 31,930 mm², which is 319.3 cm².
+    expect(ringSurface.areaCm2).toBeCloseTo(319.3, 0);
+  });
+
+  it('measures a closed head as a sphere: χ = 2, genus 0', async () => {
+    const surface = await createSurface(wren, 'bramble.obj', objBytes(fox.surface()), 'Bramble head');
+    expect(surface).toMatchObject({ eulerCharacteristic: 2, genus: 0, boundaryLoopCount: 0, groups: ['ears', 'crown', 'muzzle', 'neck'] });
+  });
+
+  it('reads the other formats: a binary PLY cube and a binary STL tetrahedron', async () => {
+    const cube = await createSurface(wren, 'cube-big-endian.ply', await fixture('cube-big-endian.ply'), 'Test cube');
+    expect(cube).toMatchObject({ format: 'ply', vertexCount: 8, faceCount: 12, eulerCharacteristic: 2, genus: 0 });
+    const tetra = await createSurface(wren, 'tetra.STL', await fixture('tetra-solid-header.stl'), 'Test tetrahedron');
+    expect(tetra).toMatchObject({ format: 'stl', vertexCount: 4, faceCount: 4, eulerCharacteristic: 2 });
+  });
+
+  it('reads polygons and groups of an open sheet, area in cm² for the declared units', async () => {
+    const open = await createSurface(wren, 'ngons-and-groups.obj', await fixture('ngons-and-groups.obj'), 'Open sheet', 'in');
+    expect(open).toMatchObject({ boundaryLoopCount: 1, eulerCharacteristic: 1, genus: 0, groups: ['default', 'left part', 'right'] });
+    expect(open.areaCm2).toBeCloseTo(12 * 2.54 ** 2, 9);
+  });
+
+  it('keeps the warnings of a surface that is accepted', async () => {
+    const twoPieces = 'v 0 0 0\nv 1 0 0\nv 0 1 0\nv 5 0 0\nv 6 0 0\nv 5 1 0\nf 1 2 3\nf 4 5 6\n';
+    const surface = await createSurface(wren, 'two-pieces.obj', new TextEncoder().encode(twoPieces), 'Two pieces');
+    expect(surface).toMatchObject({ componentCount: 2, boundaryLoopCount: 2, eulerCharacteristic: 2 });
+    expect(surface.warnings).toEqual([expect.objectContaining({ code: 'several-components', severity: 'warning', count: 2 })]);
+  });
+
+  it('lists the groomer’s surfaces newest first, with thumbnails that are images', async () => {
+    const { data } = await expectJson<{ data: { surfaces: SurfaceSummary[] } }>(await callRoute(surfacesRoute, 'GET', '/api/studio/surfaces', { cookie: wren.cookie }), 200);
+    expect(data.surfaces.map((surface) => surface.name)).toEqual(['Two pieces', 'Open sheet', 'Test tetrahedron', 'Test cube', 'Bramble head', 'Loop — plush ring']);
+    const thumbnail = await fetch(data.surfaces[5].thumbnailUrl!);
+    expect(thumbnail.status).toBe(200);
+    const metadata = await sharp(new Uint8Array(await thumbnail.arrayBuffer())).metadata();
+    expect(metadata).toMatchObject({ format: 'webp', width: 512, height: 512 });
+  });
+
+  it('gives the details with a download of the file as uploaded', async () => {
+    const response = await callRoute(surfaceRoute, 'GET', `/api/studio/surfaces/${ringSurface.id}`, { cookie: wren.cookie, params: { surfaceId: ringSurface.id } });
+    const { surface } = (await expectJson<{ data: { surface: SurfaceDetail } }>(response, 200)).data;
+    expect(surface).toMatchObject({ id: ringSurface.id, byteSize: ringBytes.byteLength, components: [{ eulerCharacteristic: 0, genus: 1, boundaryLoopCount: 0 }] });
+    const file = await fetch(surface.fileUrl);
+    expect(new Uint8Array(await file.arrayBuffer())).toEqual(ringBytes);
+    expect(file.headers.get('content-disposition')).toBe('attachment; filename="loop-ring.obj"');
+  });
+
+  it('deletes a surface with its file and thumbnail', async () => {
+    const surface = await createSurface(wren, 'short-lived.obj', await fixture('uv-split-cube.obj'), 'Short-lived cube');
+    const row = await db()('growth_surfaces').where({ id: surface.id }).first();
+    const folder = row.object_key.slice(0, row.object_key.lastIndexOf('/') + 1);
+    expect(await storedKeys(folder)).toHaveLength(2);
+    const response = await callRoute(surfaceRoute, 'DELETE', `/api/studio/surfaces/${surface.id}`, { cookie: wren.cookie, params: { surfaceId: surface.id } });
+    expect(await expectJson(response, 200)).toEqual({ data: { deleted: true } });
+    expect(await db()('growth_surfaces').where({ id: surface.id })).toHaveLength(0);
+    expect(await storedKeys(folder)).toEqual([]);
+  });
+});
+
+describe('a surface that fails the checks', () => {
+  it('is answered with its problems, and leaves no row and no object', async () => {
+    const groomer = await signedInAccount('groomer', 'bowtie');
+    const response = await uploadAndRegister(groomer, 'bowtie.obj', await fixture('bowtie.obj'), 'Bowtie', 'cm');
+    const { error } = await expectJson(response, 422);
+    expect(error.code).toBe('surface-rejected');
+    expect(error.message).toMatch(/^bowtie\.obj cannot be used as a growth surface: .*touch at a single point/);
+    expect(error.details.problems).toEqual([
+      expect.objectContaining({ code: 'non-manifold-vertex', severity: 'error', count: 1, examples: [2], where: 'vertex' }),
+      expect.objectContaining({ code: 'several-components', severity: 'warning' }),
+    ]);
+    expect(await db()('growth_surfaces').where({ owner_id: groomer.userId })).toHaveLength(0);
+    expect(await db()('surface_uploads').where({ owner_id: groomer.userId })).toHaveLength(0);
+    expect(await storedKeys(`surfaces/${groomer.userId}/`)).toEqual([]);
+  });
+
+  it('names every problem with counts and first examples', async () => {
+    const response = await uploadAndRegister(wren, 'strip.obj', await fixture('misoriented-strip.obj'), 'Strip', 'cm');
+    const { error } = await expectJson(response, 422);
+    expect(error.details.problems).toEqual([
+      expect.objectContaining({ code: 'inconsistent-orientation', count: 2, examples: [2, 3, 3, 4], where: 'edge' }),
+    ]);
+  });
+
+  it('says so when the file cannot be read at all', async () => {
+    const response = await uploadAndRegister(wren, 'truncated.stl', await fixture('truncated-binary.stl'), 'Truncated', 'cm');
+    const { error } = await expectJson(response, 422);
+    expect(error.details.problems).toEqual([expect.objectContaining({ code: 'truncated-file', severity: 'error', where: 'file' })]);
+  });
+});
+
+describe('uploads', () => {
+  it('refuses a file that is not a surface format', async () => {
+    const response = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: wren.cookie, body: { fileName: 'coat.fbx', byteSize: 1000 } });
+    const { error } = await expectJson(response, 400);
+    expect(error).toMatchObject({ code: 'invalid-input', fields: { fileName: expect.stringMatching(/OBJ, PLY, STL, glTF or GLB/) } });
+  });
+
+  it('refuses a declared size over the limit, naming the limit', async () => {
+    const response = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: wren.cookie, body: { fileName: 'huge.obj', byteSize: 300 * 1024 * 1024 } });
+    const { error } = await expectJson(response, 400);
+    expect(error.fields.byteSize).toBe('The file is 300 MB; growth surfaces may be at most 200 MB. Decimate it before uploading.');
+  });
+
+  it('hands out a PUT valid for ten minutes', async () => {
+    const before = Date.now();
+    const ticket = await uploadFile(wren, 'cube.obj', await fixture('uv-split-cube.obj'));
+    expect(ticket).toMatchObject({ method: 'PUT', maxBytes: 200 * 1024 * 1024 });
+    expect(Date.parse(ticket.expiresAt) - before).toBeGreaterThan(9.9 * 60_000);
+    expect(new URL(ticket.url).searchParams.get('X-Amz-Expires')).toBe('600');
+  });
+
+  it('answers registration before the file arrived with upload-missing, and keeps the upload', async () => {
+    const response = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: wren.cookie, body: { fileName: 'later.obj', byteSize: 10 } });
+    const { uploadId } = (await expectJson(response, 201)).data;
+    const register = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: wren.cookie, body: { uploadId, name: 'Later', units: 'cm' } });
+    expect((await expectJson(register, 409)).error.code).toBe('upload-missing');
+    expect(await db()('surface_uploads').where({ id: uploadId })).toHaveLength(1);
+  });
+
+  it('checks the registration fields', async () => {
+    const response = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: wren.cookie, body: { uploadId: 'nope', name: ' ', units: 'furlong' } });
+    expect(Object.keys((await expectJson(response, 400)).error.fields).sort()).toEqual(['name', 'units', 'uploadId']);
+  });
+});
+
+describe('who may see and change surfaces', () => {
+  let surface: SurfaceSummary;
+
+  beforeAll(async () => {
+    surface = await createSurface(wren, 'cube.obj', await fixture('uv-split-cube.obj'), 'Private cube');
+  });
+
+  const one = (account: TestAccount | null, method: 'GET' | 'DELETE', id = surface.id) =>
+    callRoute(surfaceRoute, method, `/api/studio/surfaces/${id}`, { cookie: account?.cookie, params: { surfaceId: id } });
+
+  it('hides one groomer’s surfaces from another: 404, and not in their list', async () => {
+    expect((await expectJson(await one(rival, 'GET'), 404)).error.code).toBe('not-found');
+    expect((await expectJson(await one(rival, 'DELETE'), 404)).error.code).toBe('not-found');
+    expect(await db()('growth_surfaces').where({ id: surface.id })).toHaveLength(1);
+    const list = await expectJson(await callRoute(surfacesRoute, 'GET', '/api/studio/surfaces', { cookie: rival.cookie }), 200);
+    expect(list.data.surfaces).toEqual([]);
+  });
+
+  it('does not let another groomer register someone else’s upload', async () => {
+    const ticket = await uploadFile(wren, 'cube.obj', await fixture('uv-split-cube.obj'));
+    const response = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: rival.cookie, body: { uploadId: ticket.uploadId, name: 'Mine now', units: 'cm' } });
+    expect((await expectJson(response, 404)).error.code).toBe('not-found');
+  });
+
+  it('answers 404 to an id that is no id at all', async () => {
+    expect((await expectJson(await one(wren, 'GET', 'not-a-uuid'), 404)).error.code).toBe('not-found');
+  });
+
+  it('refuses buyers and admins with 403 and visitors with 401', async () => {
+    const admin = await signedInAdmin();
+    for (const account of [buyer, admin]) {
+      expect((await expectJson(await one(account, 'GET'), 403)).error.code).toBe('forbidden');
+      const upload = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: account.cookie, body: { fileName: 'a.obj', byteSize: 10 } });
+      expect(upload.status).toBe(403);
+      expect((await callRoute(surfacesRoute, 'GET', '/api/studio/surfaces', { cookie: account.cookie })).status).toBe(403);
+    }
+    expect((await expectJson(await one(null, 'GET'), 401)).error.code).toBe('not-signed-in');
+  });
+});
