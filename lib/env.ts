@@ -32,6 +32,10 @@ const schema = z
     STRIPE_SECRET_KEY: z.string().startsWith('sk_', 'must be a secret key (sk_…)').default(defaults.STRIPE_SECRET_KEY),
     /** Empty for the real payment API; set for the local fake. */
     STRIPE_API_URL: optionalUrl.default(defaults.STRIPE_API_URL),
+    /** Checks the signature of the payment provider's webhooks (whsec_…). */
+    STRIPE_WEBHOOK_SECRET: z.string().startsWith('whsec_', 'must be a webhook signing secret (whsec_…)').default(defaults.STRIPE_WEBHOOK_SECRET),
+    /** The market's share of each sale, in percent of the price (whole or decimal). */
+    MARKET_PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(100).default(15),
     /** Largest growth surface file the studio accepts, in bytes (default 200 MB). */
     SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
   })

@@ -17,8 +17,15 @@ export const TEST_PORTS: LocalPorts = { app: 3100, postgres: 54330, s3: 54331, s
 export const LOCAL_DATABASE = { user: 'whorlwind', password: 'whorlwind-local', demoName: 'whorlwind', testName: 'whorlwind_test' };
 export const LOCAL_S3 = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', bucket: 'whorlwind', region: 'us-east-1' };
 export const LOCAL_STRIPE_SECRET_KEY = 'sk_test_whorlwind_local';
+/** Signs the payments fake's webhooks; the app checks them with it (lib/market/webhooks.ts). */
+export const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_whorlwind_local_webhooks';
 // Only for local runs; lib/env.ts refuses to use it when NEXTAUTH_URL is not a loopback address.
 export const LOCAL_NEXTAUTH_SECRET = 'whorlwind-local-only-secret-do-not-use-in-production';
+
+/** Where the payments fake delivers its signed webhooks: the app's own route. */
+export function localWebhookUrl(ports: LocalPorts): string {
+  return `http://127.0.0.1:${ports.app}/api/payments/webhook`;
+}
 
 /** The environment the app needs to reach local services on the given ports. */
 export function localServiceEnv(ports: LocalPorts, databaseName: string): Record<string, string> {
@@ -40,5 +47,6 @@ export function localServiceEnv(ports: LocalPorts, databaseName: string): Record
     S3_FORCE_PATH_STYLE: 'true',
     STRIPE_SECRET_KEY: LOCAL_STRIPE_SECRET_KEY,
     STRIPE_API_URL: `http://127.0.0.1:${ports.payments}`,
+    STRIPE_WEBHOOK_SECRET: LOCAL_STRIPE_WEBHOOK_SECRET,
   };
 }

@@ -5,7 +5,17 @@ import { createServer } from 'node:net';
 import { join, resolve } from 'node:path';
 import { rm } from 'node:fs/promises';
 import knex from 'knex';
-import { DEMO_PORTS, LOCAL_DATABASE, LOCAL_S3, LOCAL_STRIPE_SECRET_KEY, TEST_PORTS, localServiceEnv, type LocalPorts } from '../../lib/local-services';
+import {
+  DEMO_PORTS,
+  LOCAL_DATABASE,
+  LOCAL_S3,
+  LOCAL_STRIPE_SECRET_KEY,
+  LOCAL_STRIPE_WEBHOOK_SECRET,
+  TEST_PORTS,
+  localServiceEnv,
+  localWebhookUrl,
+  type LocalPorts,
+} from '../../lib/local-services';
 import { startS3StandIn } from '../../services/s3';
 import { startSmtpSink } from '../../services/smtp-sink';
 import { startPaymentsFake } from '../../services/payments-fake';
@@ -132,7 +142,12 @@ export async function startStack(profile: StackProfile) {
   const sink = await startSmtpSink({ smtpPort: ports.smtp, httpPort: ports.mailSink });
   onShutdown('the SMTP sink', sink.close);
 
-  const paymentsFake = await startPaymentsFake({ port: ports.payments, secretKey: LOCAL_STRIPE_SECRET_KEY });
+  const paymentsFake = await startPaymentsFake({
+    port: ports.payments,
+    secretKey: LOCAL_STRIPE_SECRET_KEY,
+    webhookUrl: localWebhookUrl(ports),
+    webhookSecret: LOCAL_STRIPE_WEBHOOK_SECRET,
+  });
   onShutdown('the payments fake', paymentsFake.close);
 
   log(

@@ -1,0 +1,197 @@
+// What a listing shows and sells, made from its frozen version by a background job: pictures
+// (front, side, top at 256² and 1024², WebP), a guide preview (.glb), the guide count, and the
+// package zip (the promised export files, the licence in full and a README). The package is built
+// once per listing (= once per frozen version); a second run of the job keeps the first.
+import { strToU8, zipSync, type Zippable } from 'fflate';
+import { readSurface } from '../field';
+import {
+  fieldToPly,
+  growGuides,
+  guidesToGltf,
+  guidesToObj,
+  guidesToUsda,
+  parseGroomSpec,
+  prepareGroomSurface,
+  renderThumbnail,
+  solveGroomField,
+  specToJson,
+  THUMBNAIL_VIEWS,
+  type ThumbnailView,
+} from '../groom';
+import { encodeImage } from '../groom/encode-image';
+import { db } from '../db';
+import { getObjectBytes, putObject } from '../storage';
+import { copyObject, listingPrefix } from './storage';
+import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
+
+export type Picture = { view: ThumbnailView; size: number; key: string };
+
+export const PICTURE_SIZES = [256, 1024] as const;
+
+const PACKAGE_FILES: Record<PackageFormat, string> = {
+  usda: 'guides.usda',
+  'usda-bspline': 'guides-bspline.usda',
+  gltf: 'guides.gltf',
+  glb: 'guides.glb',
+  obj: 'guides.obj',
+  json: 'groom-spec.json',
+  ply: 'field.ply',
+};
+
+/** A file name made of the title: lower case letters, digits and dashes. */
+export function slugOf(title: string): string {
+  const slug = title
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 60);
+  return slug || 'preset';
+}
+
+type ListingForAssets = {
+  id: string;
+  title: string;
+  description: string;
+  spec: unknown;
+  surface_key: string;
+  surface_file_name: string;
+  formats: PackageFormat[];
+  groom_name: string;
+  version_number: number | null;
+  version_name: string | null;
+  groom_version_id: string;
+  price_cents: number;
+  currency: string;
+  seller_name: string;
+  licence_title: string;
+  licence_body: string;
+};
+
+function readme(listing: ListingForAssets, guideCount: number, files: string[]): string {
+  const version = listing.version_number ? `version ${listing.version_number}${listing.version_name ? ` (“${listing.version_name}”)` : ''}` : 'a saved version';
+  return `${listing.title}
+${'='.repeat(Math.min(listing.title.length, 72))}
+
+A Whorlwind preset by ${listing.seller_name}, made from ${version} of the groom “${listing.groom_name}”.
+Price when bought: ${formatPrice(listing.price_cents, listing.currency)}.
+
+${listing.description}
+
+What is in this package
+${files.map((file) => `- ${file}`).join('\n')}
+- LICENCE.txt — ${listing.licence_title}, in full: what you may and may not do with these files.
+- README.txt — this file.
+
+${guideCount.toLocaleString('en-GB')} guide curves, grown from the groom spec on the seller's growth surface.
+
+Using it
+- The .usda files hold one BasisCurves prim at /Groom/Guides, with widths; the stage's metersPerUnit and upAxis follow the spec.
+- The .gltf/.glb files hold the guides as line primitives, positions in metres, +Y up.
+- The .obj file holds one polyline per guide, in the spec's units.
+- groom-spec.json is the Whorlwind groom spec: open it in the Whorlwind studio on your own growth surface to grow the same coat there. Its places are points in space, snapped to the nearest vertex of the surface it is used on.
+- field.ply is the direction field on the seller's surface: per-face and per-vertex unit directions (dx dy dz).
+
+${TAX_NOTE}
+`;
+}
+
+/**
+ * A listing made outside a request (the demo seed, which has no object storage at hand) still
+ * names the studio's surface object: copy it under the listing's own prefix first.
+ */
+async function freezeSurface(listing: ListingForAssets) {
+  const prefix = listingPrefix(listing.id);
+  if (listing.surface_key.startsWith(`${prefix}/`)) return;
+  const dot = listing.surface_file_name.lastIndexOf('.');
+  const key = `${prefix}/surface${dot >= 0 ? listing.surface_file_name.slice(dot).toLowerCase() : ''}`;
+  await copyObject(listing.surface_key, key);
+  await db()('listings').where({ id: listing.id }).update({ surface_key: key });
+  listing.surface_key = key;
+}
+
+/** Pictures, guide count, preview and package of a listing; marks it ready, or failed with the reason. */
+export async function buildListingAssets(listingId: string): Promise<void> {
+  const listing: ListingForAssets | undefined = await db()('listings as l')
+    .join('users as u', 'u.id', 'l.seller_id')
+    .join('licences as c', 'c.id', 'l.licence_id')
+    .where('l.id', listingId)
+    .first(
+      'l.id',
+      'l.title',
+      'l.description',
+      'l.spec',
+      'l.surface_key',
+      'l.surface_file_name',
+      'l.formats',
+      'l.groom_name',
+      'l.version_number',
+      'l.version_name',
+      'l.groom_version_id',
+      'l.price_cents',
+      'l.currency',
+      'u.display_name as seller_name',
+      'c.title as licence_title',
+      'c.body as licence_body',
+    );
+  if (!listing) return; // deleted meanwhile: nothing to make
+  try {
+    await freezeSurface(listing);
+    const spec = parseGroomSpec(listing.spec);
+    const read = readSurface(await getObjectBytes(listing.surface_key), listing.surface_file_name);
+    const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
+    const solved = solveGroomField(spec, surface);
+    const { guides } = growGuides(surface, solved, spec);
+    const prefix = listingPrefix(listing.id);
+
+    const pictures: Picture[] = [];
+    for (const view of THUMBNAIL_VIEWS) {
+      for (const size of PICTURE_SIZES) {
+        const image = renderThumbnail(read.mesh, guides, { size, view, upAxis: spec.upAxis, colourBy: 'length' });
+        const key = `${prefix}/pictures/${view}-${size}.webp`;
+        await putObject(key, await encodeImage(image, 'webp'), 'image/webp');
+        pictures.push({ view, size, key });
+      }
+    }
+    await putObject(`${prefix}/preview/guides.glb`, guidesToGltf(guides, { binary: true }), 'model/gltf-binary');
+
+    const existing = await db()('listing_packages').where({ listing_id: listing.id }).first('listing_id');
+    if (!existing) {
+      const folder = slugOf(listing.title);
+      const entries: Zippable = {};
+      const fileNames: string[] = [];
+      for (const format of listing.formats) {
+        const name = PACKAGE_FILES[format];
+        const bytes =
+          format === 'usda' ? guidesToUsda(guides, 'linear')
+          : format === 'usda-bspline' ? guidesToUsda(guides, 'bspline')
+          : format === 'gltf' ? guidesToGltf(guides, { binary: false })
+          : format === 'glb' ? guidesToGltf(guides, { binary: true })
+          : format === 'obj' ? guidesToObj(guides)
+          : format === 'json' ? specToJson(spec)
+          : fieldToPly(read.mesh, solved.field);
+        entries[`${folder}/${name}`] = typeof bytes === 'string' ? strToU8(bytes) : bytes;
+        fileNames.push(`${name} — ${FORMAT_LABELS[format]}`);
+      }
+      entries[`${folder}/LICENCE.txt`] = strToU8(`${listing.licence_body}\n`);
+      entries[`${folder}/README.txt`] = strToU8(readme(listing, guides.count, fileNames));
+      // A fixed time stamp, so the same version always zips to the same bytes.
+      const zip = zipSync(entries, { level: 6, mtime: new Date('2026-01-01T00:00:00Z') });
+      const fileName = `${folder}.zip`;
+      const key = `${prefix}/package/${fileName}`;
+      await putObject(key, zip, 'application/zip');
+      await db()('listing_packages')
+        .insert({ listing_id: listing.id, groom_version_id: listing.groom_version_id, object_key: key, file_name: fileName, byte_size: zip.byteLength })
+        .onConflict('listing_id')
+        .ignore();
+    }
+    await db()('listings')
+      .where({ id: listing.id })
+      .update({ assets_status: 'ready', assets_error: null, guide_count: guides.count, pictures: JSON.stringify(pictures), updated_at: db().fn.now() });
+  } catch (error) {
+    const message = (error as Error).message ?? String(error);
+    await db()('listings').where({ id: listing.id }).update({ assets_status: 'failed', assets_error: message.slice(0, 2000), updated_at: db().fn.now() });
+    console.error(`[market] pictures and package of listing ${listing.id} failed: ${message}`);
+  }
+}

@@ -1,0 +1,71 @@
+// The market's e-mails: listing approved or rejected (to the seller), receipt (to the buyer),
+// sale notice (to the seller), refund notice (to the buyer). Plain text with a simple HTML twin.
+import { env } from '../env';
+import { sendMail, type OutgoingMail } from '../mail';
+import { TAX_NOTE, formatPrice } from './vocabulary';
+
+const escapeHtml = (value: string) =>
+  value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+const link = (path: string) => `${env().NEXTAUTH_URL.replace(/\/$/, '')}${path}`;
+
+function mail(to: string, subject: string, paragraphs: string[]): OutgoingMail {
+  const text = `${paragraphs.join('\n\n')}\n\n— Whorlwind market\n`;
+  const html = `${paragraphs.map((p) => `<p>${escapeHtml(p).replace(/\n/g, '<br>').replace(/(https?:\/\/\S+)/g, '<a href="$1">$1</a>')}</p>`).join('')}<p>— Whorlwind market</p>`;
+  return { to, subject, text, html };
+}
+
+export function listingApprovedMail(to: string, listing: { id: string; title: string; priceCents: number; currency: string }) {
+  return mail(to, `Your preset “${listing.title}” is on the market`, [
+    `Good news: “${listing.title}” was approved and is now published at ${formatPrice(listing.priceCents, listing.currency)}.`,
+    `See it as buyers do: ${link(`/market/${listing.id}`)}`,
+    `Sales, downloads and payouts are under Sales: ${link('/sales')}`,
+  ]);
+}
+
+export function listingRejectedMail(to: string, listing: { id: string; title: string }, reason: string) {
+  return mail(to, `Your preset “${listing.title}” needs changes`, [
+    `“${listing.title}” was not approved for the market yet. The reviewer's reason:`,
+    reason,
+    `Edit the listing and submit it again: ${link(`/market/${listing.id}`)}`,
+  ]);
+}
+
+type SaleFacts = { listingId: string; title: string; amountCents: number; currency: string; feeCents: number; licenceTitle: string; purchaseId: string };
+
+export function receiptMail(to: string, sale: SaleFacts) {
+  return mail(to, `Receipt: ${sale.title}`, [
+    `Thank you for your purchase on the Whorlwind market.`,
+    `Preset: ${sale.title}\nLicence: ${sale.licenceTitle}\nPaid: ${formatPrice(sale.amountCents, sale.currency)}\nPurchase: ${sale.purchaseId}`,
+    `Download the files from your library: ${link('/library')}`,
+    `The licence is in the package as LICENCE.txt and on the preset's page.`,
+    TAX_NOTE,
+  ]);
+}
+
+export function saleNoticeMail(to: string, sale: SaleFacts) {
+  return mail(to, `You sold “${sale.title}”`, [
+    `“${sale.title}” was bought for ${formatPrice(sale.amountCents, sale.currency)}.`,
+    `Market fee: ${formatPrice(sale.feeCents, sale.currency)}. Yours: ${formatPrice(sale.amountCents - sale.feeCents, sale.currency)}.`,
+    `Your figures and payouts: ${link('/sales')}`,
+    TAX_NOTE,
+  ]);
+}
+
+export function refundMail(to: string, sale: { title: string; amountCents: number; currency: string }) {
+  return mail(to, `Refund: ${sale.title}`, [
+    `Your purchase of “${sale.title}” was refunded: ${formatPrice(sale.amountCents, sale.currency)} go back to the card you paid with.`,
+    `The preset's licence ends with the refund, and its files are no longer in your library.`,
+  ]);
+}
+
+/** Sends and reports a failure in the server log instead of throwing (for mail after a commit). */
+export async function sendMailLogged(message: OutgoingMail): Promise<boolean> {
+  try {
+    await sendMail(message);
+    return true;
+  } catch (error) {
+    console.error(`[market] ${(error as Error).message}`);
+    return false;
+  }
+}

@@ -1,0 +1,231 @@
+// A seller's figures: revenue, the market's fee, refunds, net, units and downloads — in total,
+// per period (day, week or month, UTC) and per listing, each per currency; the same as CSV; the
+// balance not yet paid out; payouts through the payment provider's transfers, with history.
+//
+// A sale counts on the day it was paid, a refund on the day it was refunded (so a period's net
+// can be negative). The fee is kept on sales and given back on refunds:
+//   net = revenue − refunds − (fee on sales − fee on refunds).
+import { randomUUID } from 'node:crypto';
+import { db } from '../db';
+import { env } from '../env';
+import { payments } from '../payments';
+import { MarketError, providerFailed } from './errors';
+import type { Actor } from './http';
+import type { Payout, SalesFigures, SalesReport } from './types';
+import type { SalesQuery } from './validation';
+import { TAX_NOTE, type Currency } from './vocabulary';
+
+type Raw = {
+  period: string;
+  listing_id: string;
+  title: string;
+  currency: Currency;
+  units: string;
+  revenue: string;
+  fee: string;
+  refunds: string;
+  refund_cents: string;
+  fee_returned: string;
+  downloads: string;
+};
+
+const zero = (currency: Currency): SalesFigures => ({
+  currency,
+  revenueCents: 0,
+  refundCents: 0,
+  platformFeeCents: 0,
+  netCents: 0,
+  units: 0,
+  refunds: 0,
+  downloads: 0,
+});
+
+function add(into: SalesFigures, row: Raw) {
+  const revenue = Number(row.revenue);
+  const refundCents = Number(row.refund_cents);
+  const fee = Number(row.fee) - Number(row.fee_returned);
+  into.revenueCents += revenue;
+  into.refundCents += refundCents;
+  into.platformFeeCents += fee;
+  into.netCents += revenue - refundCents - fee;
+  into.units += Number(row.units);
+  into.refunds += Number(row.refunds);
+  into.downloads += Number(row.downloads);
+}
+
+const isoDay = (date: Date) => date.toISOString().slice(0, 10);
+
+function range(query: SalesQuery): { from: string; to: string } {
+  const to = query.to ?? isoDay(new Date());
+  const from = query.from ?? isoDay(new Date(Date.parse(`${to}T00:00:00Z`) - 29 * 86_400_000));
+  return { from, to };
+}
+
+/** Sales, refunds and downloads of the period in one pass, grouped by period, listing and currency. */
+async function figureRows(sellerId: string, from: string, to: string, bucket: SalesQuery['bucket']): Promise<Raw[]> {
+  const start = `${from}T00:00:00Z`;
+  const end = new Date(Date.parse(`${to}T00:00:00Z`) + 86_400_000).toISOString();
+  const { rows } = await db().raw<{ rows: Raw[] }>(
+    `SELECT to_char(date_trunc(?, t.at AT TIME ZONE 'UTC'), 'YYYY-MM-DD') AS period, t.listing_id, l.title, t.currency,
+            sum(t.units) AS units, sum(t.revenue) AS revenue, sum(t.fee) AS fee, sum(t.refunds) AS refunds,
+            sum(t.refund_cents) AS refund_cents, sum(t.fee_returned) AS fee_returned, sum(t.downloads) AS downloads
+       FROM (
+         SELECT p.created_at AS at, p.listing_id, p.currency, 1 AS units, p.amount_cents AS revenue, p.platform_fee_cents AS fee,
+                0 AS refunds, 0 AS refund_cents, 0 AS fee_returned, 0 AS downloads
+           FROM purchases p WHERE p.seller_id = ? AND p.created_at >= ? AND p.created_at < ?
+         UNION ALL
+         SELECT p.refunded_at, p.listing_id, p.currency, 0, 0, 0, 1, p.amount_cents, p.platform_fee_cents, 0
+           FROM purchases p WHERE p.seller_id = ? AND p.status = 'refunded' AND p.refunded_at >= ? AND p.refunded_at < ?
+         UNION ALL
+         SELECT d.created_at, d.listing_id, l.currency, 0, 0, 0, 0, 0, 0, 1
+           FROM downloads d JOIN listings l ON l.id = d.listing_id
+          WHERE l.seller_id = ? AND d.created_at >= ? AND d.created_at < ?
+       ) t JOIN listings l ON l.id = t.listing_id
+      GROUP BY 1, 2, 3, 4
+      ORDER BY 1, 3`,
+    [bucket, sellerId, start, end, sellerId, start, end, sellerId, start, end],
+  );
+  return rows;
+}
+
+export async function salesReport(actor: Actor, query: SalesQuery): Promise<SalesReport> {
+  const { from, to } = range(query);
+  const seller = actor.userId;
+  const [rows, listings, balance] = await Promise.all([
+    figureRows(seller, from, to, query.bucket),
+    db()('listings').where({ seller_id: seller }).orderBy('created_at', 'desc').select('id', 'title', 'currency'),
+    balances(seller),
+  ]);
+  const totals = new Map<Currency, SalesFigures>();
+  const series = new Map<string, SalesFigures & { periodStart: string }>();
+  const perListing = new Map<string, SalesFigures & { listingId: string; title: string }>();
+  for (const listing of listings) perListing.set(listing.id, { ...zero(listing.currency), listingId: listing.id, title: listing.title });
+  for (const row of rows) {
+    if (!totals.has(row.currency)) totals.set(row.currency, zero(row.currency));
+    add(totals.get(row.currency)!, row);
+    const key = `${row.period}|${row.currency}`;
+    if (!series.has(key)) series.set(key, { ...zero(row.currency), periodStart: row.period });
+    add(series.get(key)!, row);
+    const listing = perListing.get(row.listing_id);
+    if (listing) add(listing, row);
+  }
+  return {
+    from,
+    to,
+    bucket: query.bucket,
+    feePercent: env().MARKET_PLATFORM_FEE_PERCENT,
+    totals: [...totals.values()],
+    series: [...series.values()].sort((a, b) => a.periodStart.localeCompare(b.periodStart) || a.currency.localeCompare(b.currency)),
+    listings: [...perListing.values()],
+    balance,
+    taxNote: TAX_NOTE,
+  };
+}
+
+const csvCell = (value: string | number) => {
+  const text = String(value);
+  // Quote when needed; a leading = + - @ would be read as a formula by spreadsheets.
+  const safe = /^[=+\-@\t\r]/.test(text) && typeof value === 'string' ? `'${text}` : text;
+  return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+};
+const money = (cents: number) => (cents / 100).toFixed(2);
+
+/** The figures as CSV: one row per period, listing and currency, then a total per currency; amounts in currency units. */
+export async function salesCsv(actor: Actor, query: SalesQuery): Promise<{ fileName: string; text: string }> {
+  const { from, to } = range(query);
+  const rows = await figureRows(actor.userId, from, to, query.bucket);
+  const header = ['period_start', 'listing_id', 'listing_title', 'currency', 'units', 'revenue', 'refunds', 'refunded_amount', 'platform_fee', 'net', 'downloads'];
+  const lines = [header.join(',')];
+  const totals = new Map<Currency, SalesFigures>();
+  const line = (period: string, listingId: string, title: string, f: SalesFigures) =>
+    [period, listingId, title, f.currency.toUpperCase(), f.units, money(f.revenueCents), f.refunds, money(f.refundCents), money(f.platformFeeCents), money(f.netCents), f.downloads]
+      .map(csvCell)
+      .join(',');
+  for (const row of rows) {
+    const figures = zero(row.currency);
+    add(figures, row);
+    if (!totals.has(row.currency)) totals.set(row.currency, zero(row.currency));
+    add(totals.get(row.currency)!, row);
+    lines.push(line(row.period, row.listing_id, row.title, figures));
+  }
+  for (const total of totals.values()) lines.push(line('total', '', '', total));
+  return { fileName: `whorlwind-sales-${from}-to-${to}.csv`, text: `${lines.join('\r\n')}\r\n` };
+}
+
+/** What the market owes the seller per currency: net of kept sales minus payouts made. */
+export async function balances(sellerId: string): Promise<{ currency: Currency; availableCents: number }[]> {
+  const { rows } = await db().raw<{ rows: { currency: Currency; available: string }[] }>(
+    `SELECT currency, sum(amount) AS available FROM (
+       SELECT currency, amount_cents - platform_fee_cents AS amount FROM purchases WHERE seller_id = ? AND status = 'paid'
+       UNION ALL
+       SELECT currency, -amount_cents FROM payouts WHERE seller_id = ?
+     ) t GROUP BY currency ORDER BY currency`,
+    [sellerId, sellerId],
+  );
+  return rows.map((row) => ({ currency: row.currency, availableCents: Number(row.available) }));
+}
+
+function payoutOf(row: { id: string; amount_cents: number; currency: Currency; transfer_id: string; created_at: Date }): Payout {
+  return { id: row.id, amountCents: row.amount_cents, currency: row.currency, transferId: row.transfer_id, createdAt: row.created_at.toISOString() };
+}
+
+export async function listPayouts(actor: Actor): Promise<Payout[]> {
+  const rows = await db()('payouts').where({ seller_id: actor.userId }).orderBy('created_at', 'desc').limit(500);
+  return rows.map(payoutOf);
+}
+
+/**
+ * Pays the seller's whole available balance in one currency to their connected account (made at
+ * the first payout). One payout at a time per seller (an advisory lock), so two clicks cannot pay
+ * the same money twice; the transfer's idempotency key is the payout's id.
+ */
+export async function requestPayout(actor: Actor, currency?: Currency): Promise<Payout> {
+  return db().transaction(async (trx) => {
+    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`payout:${actor.userId}`]);
+    const available = (await balances(actor.userId)).filter((b) => b.availableCents > 0);
+    const chosen = currency ? available.find((b) => b.currency === currency) : available[0];
+    if (!currency && available.length > 1) {
+      throw new MarketError(400, 'choose-currency', `You have money to pay out in ${available.map((b) => b.currency.toUpperCase()).join(' and ')}: choose one.`, {
+        details: { currencies: available.map((b) => b.currency) },
+      });
+    }
+    if (!chosen) {
+      throw new MarketError(409, 'nothing-to-pay-out', currency ? `There is nothing to pay out in ${currency.toUpperCase()}.` : 'There is nothing to pay out yet.');
+    }
+    let account = await trx('seller_accounts').where({ user_id: actor.userId }).first('account_id');
+    if (!account) {
+      const user = await trx('users').where({ id: actor.userId }).first('email');
+      try {
+        const created = await payments().accounts.create(
+          { type: 'express', email: user?.email, metadata: { user_id: actor.userId } },
+          { idempotencyKey: `seller-account-${actor.userId}` },
+        );
+        account = { account_id: created.id };
+      } catch (error) {
+        throw providerFailed('open your payout account', error);
+      }
+      await trx('seller_accounts').insert({ user_id: actor.userId, account_id: account.account_id }).onConflict('user_id').ignore();
+    }
+    const id = randomUUID();
+    let transferId: string;
+    try {
+      const transfer = await payments().transfers.create(
+        {
+          amount: chosen.availableCents,
+          currency: chosen.currency,
+          destination: account.account_id,
+          transfer_group: `payout-${id}`,
+          metadata: { payout_id: id, seller_id: actor.userId },
+        },
+        { idempotencyKey: `payout-${id}` },
+      );
+      transferId = transfer.id;
+    } catch (error) {
+      throw providerFailed('transfer the payout', error);
+    }
+    const [row] = await trx('payouts')
+      .insert({ id, seller_id: actor.userId, amount_cents: chosen.availableCents, currency: chosen.currency, transfer_id: transferId })
+      .returning('*');
+    return payoutOf(row);
+  });
+}

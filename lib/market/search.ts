@@ -1,0 +1,87 @@
+// The market's search: full text (PostgreSQL tsvector with a GIN index, weighted title > tags >
+// description), filters on tags, price, currency, formats and guide count, sorting and pages —
+// one query for the page and one for the count, both on published listings only (partial indexes).
+import type { Knex } from 'knex';
+import { db } from '../db';
+import { cardOf, type ListingRow } from './listings';
+import type { SearchResponse } from './types';
+import type { SearchInput } from './validation';
+
+const CARD_COLUMNS = [
+  'l.id',
+  'l.title',
+  'l.price_cents',
+  'l.currency',
+  'l.animal',
+  'l.coat_length',
+  'l.style',
+  'l.body_region',
+  'l.formats',
+  'l.guide_count',
+  'l.sales_count',
+  'l.rating_average',
+  'l.rating_count',
+  'l.seller_id',
+  'l.published_at',
+  'l.assets_status',
+  'u.display_name as seller_name',
+  'c.slug as licence_slug',
+  'c.title as licence_title',
+];
+
+function applyFilters(query: Knex.QueryBuilder, input: SearchInput, hasText: boolean) {
+  query.where('l.state', 'published');
+  if (hasText) query.whereRaw(`l.search @@ websearch_to_tsquery('english', ?)`, [input.q!]);
+  if (input.animal?.length) query.whereIn('l.animal', input.animal);
+  if (input.coatLength?.length) query.whereIn('l.coat_length', input.coatLength);
+  if (input.style?.length) query.whereIn('l.style', input.style);
+  if (input.bodyRegion?.length) query.whereIn('l.body_region', input.bodyRegion);
+  // Every chosen format must be in the package.
+  if (input.format?.length) query.whereRaw('l.formats @> ?::text[]', [input.format]);
+  if (input.currency) query.where('l.currency', input.currency);
+  if (input.minPrice !== undefined) query.where('l.price_cents', '>=', input.minPrice);
+  if (input.maxPrice !== undefined) query.where('l.price_cents', '<=', input.maxPrice);
+  if (input.minGuides !== undefined) query.where('l.guide_count', '>=', input.minGuides);
+  if (input.maxGuides !== undefined) query.where('l.guide_count', '<=', input.maxGuides);
+  return query;
+}
+
+export async function searchListings(input: SearchInput): Promise<SearchResponse> {
+  const hasText = Boolean(input.q && input.q.trim() !== '');
+  const sort = input.sort ?? (hasText ? 'relevance' : 'newest');
+  const page = applyFilters(
+    db()('listings as l').join('users as u', 'u.id', 'l.seller_id').join('licences as c', 'c.id', 'l.licence_id').select(CARD_COLUMNS),
+    input,
+    hasText,
+  );
+  switch (sort) {
+    case 'relevance':
+      if (hasText) page.orderByRaw(`ts_rank_cd(l.search, websearch_to_tsquery('english', ?)) DESC`, [input.q!]);
+      page.orderBy([{ column: 'l.published_at', order: 'desc' }, { column: 'l.id', order: 'desc' }]);
+      break;
+    case 'newest':
+      page.orderBy([{ column: 'l.published_at', order: 'desc' }, { column: 'l.id', order: 'desc' }]);
+      break;
+    case 'best-selling':
+      page.orderBy([{ column: 'l.sales_count', order: 'desc' }, { column: 'l.published_at', order: 'desc' }, { column: 'l.id', order: 'desc' }]);
+      break;
+    case 'rating':
+      page.orderByRaw('l.rating_average DESC NULLS LAST, l.rating_count DESC, l.id DESC');
+      break;
+    case 'price-asc':
+      page.orderBy([{ column: 'l.price_cents', order: 'asc' }, { column: 'l.id', order: 'asc' }]);
+      break;
+    case 'price-desc':
+      page.orderBy([{ column: 'l.price_cents', order: 'desc' }, { column: 'l.id', order: 'desc' }]);
+      break;
+  }
+  page.limit(input.pageSize).offset((input.page - 1) * input.pageSize);
+  const count = applyFilters(db()('listings as l'), input, hasText).count<{ count: string }[]>('* as count');
+  const [rows, [{ count: total }]] = await Promise.all([page, count]);
+  return {
+    results: (rows as (ListingRow & { seller_name: string; licence_slug: string; licence_title: string })[]).map(cardOf),
+    total: Number(total),
+    page: input.page,
+    pageSize: input.pageSize,
+  };
+}

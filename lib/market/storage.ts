@@ -1,0 +1,39 @@
+// Object storage as the market uses it: each listing's frozen surface, pictures, guide preview and
+// package under market/listings/<id>/; handed out only through short-lived presigned URLs after
+// the market's own checks (the store itself checks nothing locally).
+import { CopyObjectCommand, DeleteObjectsCommand, GetObjectCommand } from '@aws-sdk/client-s3';
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+import { env } from '../env';
+import { storageClient } from '../storage';
+
+/** How long a download link of a purchase stays valid. */
+export const DOWNLOAD_URL_SECONDS = 5 * 60;
+/** How long links to pictures and previews stay valid. */
+export const PICTURE_URL_SECONDS = 10 * 60;
+
+export const listingPrefix = (listingId: string) => `market/listings/${listingId}`;
+
+export function presignMarketObject(key: string, seconds: number, downloadAs?: string): Promise<string> {
+  const disposition = downloadAs ? `attachment; filename="${downloadAs.replace(/["\\\r\n]/g, '_')}"` : undefined;
+  return getSignedUrl(storageClient(), new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key, ResponseContentDisposition: disposition }), {
+    expiresIn: seconds,
+  });
+}
+
+/** Copies an object inside the bucket (the frozen surface of a listing). */
+export async function copyObject(fromKey: string, toKey: string): Promise<void> {
+  const bucket = env().S3_BUCKET;
+  await storageClient().send(new CopyObjectCommand({ Bucket: bucket, Key: toKey, CopySource: `${bucket}/${encodeURI(fromKey)}` }));
+}
+
+/** Deletes objects that no row names any more; a failure is logged, not thrown. */
+export async function deleteMarketObjects(keys: readonly string[]): Promise<void> {
+  if (keys.length === 0) return;
+  try {
+    await storageClient().send(
+      new DeleteObjectsCommand({ Bucket: env().S3_BUCKET, Delete: { Objects: keys.map((Key) => ({ Key })), Quiet: true } }),
+    );
+  } catch (error) {
+    console.error(`[market] objects left in storage: ${(error as Error).message}`);
+  }
+}

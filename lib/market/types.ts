@@ -1,0 +1,115 @@
+// The shapes the market's route handlers answer with, shared with the market's pages.
+// Money: integer cents with the currency beside it; times: ISO 8601 strings.
+import type { ThumbnailView } from '../groom';
+import type { BodyRegion, CoatLength, Animal, Currency, ListingState, PackageFormat, SalesBucket, Style } from './vocabulary';
+
+export type Money = { cents: number; currency: Currency };
+
+export type ListingTagsOut = { animal: Animal; coatLength: CoatLength; style: Style; bodyRegion: BodyRegion };
+
+/** One result of the search. `pictureUrl` is a route of the app that redirects to a short-lived URL. */
+export type ListingCard = {
+  id: string;
+  title: string;
+  priceCents: number;
+  currency: Currency;
+  tags: ListingTagsOut;
+  formats: PackageFormat[];
+  guideCount: number | null;
+  salesCount: number;
+  rating: { average: number | null; count: number };
+  seller: { id: string; displayName: string };
+  licence: { slug: string; title: string };
+  pictureUrl: string | null;
+  publishedAt: string | null;
+};
+
+export type SearchResponse = { results: ListingCard[]; total: number; page: number; pageSize: number };
+
+export type Review = { id: string; rating: number; body: string; buyer: { displayName: string }; createdAt: string; updatedAt: string; mine: boolean };
+
+export type ListingDetail = ListingCard & {
+  description: string;
+  state: ListingState;
+  rejectionReason: string | null;
+  groom: { id: string; name: string; versionId: string; versionNumber: number | null; versionName: string | null };
+  gallery: { view: ThumbnailView; size: number; url: string }[];
+  guidePreviewUrl: string | null;
+  assets: { status: 'pending' | 'ready' | 'failed'; error: string | null };
+  licence: { slug: string; title: string; summary: string; body: string };
+  reviews: Review[];
+  /** What the caller may do: set for the signed-in caller, all false for visitors. */
+  viewer: { isSeller: boolean; owns: boolean; purchaseId: string | null; mayBuy: boolean; mayReview: boolean };
+  taxNote: string;
+  createdAt: string;
+  submittedAt: string | null;
+};
+
+/** A seller's own listing or one in the admin's queue. */
+export type ListingSummary = {
+  id: string;
+  title: string;
+  state: ListingState;
+  rejectionReason: string | null;
+  priceCents: number;
+  currency: Currency;
+  groomName: string;
+  versionNumber: number | null;
+  seller: { id: string; displayName: string; email: string };
+  assets: { status: 'pending' | 'ready' | 'failed'; error: string | null };
+  pictureUrl: string | null;
+  createdAt: string;
+  submittedAt: string | null;
+  publishedAt: string | null;
+};
+
+export type LibraryItem = {
+  purchaseId: string;
+  listing: { id: string; title: string; pictureUrl: string | null; formats: PackageFormat[]; seller: { displayName: string } };
+  licence: { slug: string; title: string };
+  amountCents: number;
+  currency: Currency;
+  status: 'paid' | 'refunded';
+  refundPending: boolean;
+  packageReady: boolean;
+  downloads: number;
+  purchasedAt: string;
+  refundedAt: string | null;
+};
+
+export type SalesFigures = {
+  currency: Currency;
+  revenueCents: number;
+  refundCents: number;
+  platformFeeCents: number;
+  netCents: number;
+  units: number;
+  refunds: number;
+  downloads: number;
+};
+
+export type SalesReport = {
+  from: string;
+  to: string;
+  bucket: SalesBucket;
+  feePercent: number;
+  totals: SalesFigures[];
+  series: (SalesFigures & { periodStart: string })[];
+  listings: (SalesFigures & { listingId: string; title: string })[];
+  balance: { currency: Currency; availableCents: number }[];
+  taxNote: string;
+};
+
+export type Payout = { id: string; amountCents: number; currency: Currency; transferId: string; createdAt: string };
+
+export type AdminPurchase = {
+  id: string;
+  listing: { id: string; title: string };
+  buyer: { id: string; email: string; displayName: string };
+  amountCents: number;
+  currency: Currency;
+  status: 'paid' | 'refunded';
+  refundPending: boolean;
+  createdAt: string;
+  refundedAt: string | null;
+};

@@ -1,0 +1,129 @@
+// zod schemas of the market's inputs, shared by the route handlers and the market's forms.
+import { z } from 'zod';
+import {
+  ANIMALS,
+  BODY_REGIONS,
+  COAT_LENGTHS,
+  CURRENCIES,
+  MAX_PRICE_CENTS,
+  MIN_PRICE_CENTS,
+  PACKAGE_FORMATS,
+  SALES_BUCKETS,
+  SEARCH_SORTS,
+  STYLES,
+} from './vocabulary';
+
+const oneOf = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
+  z.enum(values, { error: `Choose ${what}: ${values.join(', ')}.` });
+
+export const tagsSchema = z.object({
+  animal: oneOf(ANIMALS, 'the animal'),
+  coatLength: oneOf(COAT_LENGTHS, 'the coat length'),
+  style: oneOf(STYLES, 'the style'),
+  bodyRegion: oneOf(BODY_REGIONS, 'the body region'),
+});
+
+const title = z.string().trim().min(3, 'Give the preset a title of at least 3 characters.').max(120, 'Keep the title under 120 characters.');
+const description = z
+  .string()
+  .trim()
+  .min(20, 'Describe the preset in at least 20 characters: the coat, what it suits, what is in it.')
+  .max(5000, 'Keep the description under 5000 characters.');
+const priceCents = z
+  .number({ error: 'Give the price in cents as a whole number.' })
+  .int('Give the price in cents as a whole number.')
+  .min(MIN_PRICE_CENTS, `The price must be at least ${MIN_PRICE_CENTS / 100}.00.`)
+  .max(MAX_PRICE_CENTS, `The price must be at most ${(MAX_PRICE_CENTS / 100).toLocaleString('en-GB')}.00.`);
+const currency = z
+  .string()
+  .transform((value) => value.toLowerCase())
+  .pipe(oneOf(CURRENCIES, 'the currency'));
+const licenceSlug = z.string().min(1, 'Choose a licence.').max(60);
+const formats = z
+  .array(oneOf(PACKAGE_FORMATS, 'file formats among'), { error: 'Choose the files the preset includes.' })
+  .min(1, 'Include at least one file format.')
+  .transform((values) => [...new Set(values)]);
+
+export const listingDraftSchema = z.object({
+  groomId: z.uuid('Choose one of your grooms.'),
+  versionId: z.uuid('Choose a saved version of the groom.'),
+  title,
+  description,
+  tags: tagsSchema,
+  priceCents,
+  currency,
+  licenceSlug,
+  formats,
+});
+export type ListingDraftInput = z.infer<typeof listingDraftSchema>;
+
+/** PATCH: any of the draft's fields except the version it freezes. */
+export const listingPatchSchema = z
+  .object({ title, description, tags: tagsSchema, priceCents, currency, licenceSlug, formats })
+  .partial()
+  .strict();
+export type ListingPatchInput = z.infer<typeof listingPatchSchema>;
+
+export const decisionSchema = z
+  .object({
+    approve: z.boolean({ error: 'Say whether the listing is approved.' }),
+    reason: z.string().trim().max(2000, 'Keep the reason under 2000 characters.').optional(),
+  })
+  .refine((value) => value.approve || (value.reason?.length ?? 0) >= 5, {
+    path: ['reason'],
+    message: 'Tell the seller why, in at least 5 characters.',
+  });
+
+export const refundSchema = z.object({ reason: z.string().trim().max(500, 'Keep the reason under 500 characters.').optional() });
+
+export const reviewSchema = z.object({
+  rating: z.number({ error: 'Rate it from 1 to 5.' }).int('Rate it from 1 to 5.').min(1, 'Rate it from 1 to 5.').max(5, 'Rate it from 1 to 5.'),
+  body: z.string().trim().max(4000, 'Keep the review under 4000 characters.').default(''),
+});
+
+const intFromQuery = (name: string, min: number, max: number) =>
+  z.coerce.number({ error: `${name} must be a whole number.` }).int(`${name} must be a whole number.`).min(min).max(max);
+const listFromQuery = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
+  z
+    .union([z.string(), z.array(z.string())])
+    .transform((value) => (Array.isArray(value) ? value : value.split(',')).map((v) => v.trim()).filter(Boolean))
+    .pipe(z.array(oneOf(values, what)));
+
+export const searchSchema = z
+  .object({
+    q: z.string().trim().max(200, 'Keep the search under 200 characters.').optional(),
+    animal: listFromQuery(ANIMALS, 'the animal').optional(),
+    coatLength: listFromQuery(COAT_LENGTHS, 'the coat length').optional(),
+    style: listFromQuery(STYLES, 'the style').optional(),
+    bodyRegion: listFromQuery(BODY_REGIONS, 'the body region').optional(),
+    format: listFromQuery(PACKAGE_FORMATS, 'file formats among').optional(),
+    currency: currency.optional(),
+    minPrice: intFromQuery('minPrice', 0, MAX_PRICE_CENTS).optional(),
+    maxPrice: intFromQuery('maxPrice', 0, MAX_PRICE_CENTS).optional(),
+    minGuides: intFromQuery('minGuides', 0, 10_000_000).optional(),
+    maxGuides: intFromQuery('maxGuides', 0, 10_000_000).optional(),
+    sort: oneOf(SEARCH_SORTS, 'the order').optional(),
+    page: intFromQuery('page', 1, 10_000).default(1),
+    pageSize: intFromQuery('pageSize', 1, 60).default(24),
+  })
+  .refine((v) => v.minPrice === undefined || v.maxPrice === undefined || v.minPrice <= v.maxPrice, {
+    path: ['maxPrice'],
+    message: 'The highest price must not be below the lowest.',
+  })
+  .refine((v) => v.minGuides === undefined || v.maxGuides === undefined || v.minGuides <= v.maxGuides, {
+    path: ['maxGuides'],
+    message: 'The most guides must not be below the fewest.',
+  });
+export type SearchInput = z.infer<typeof searchSchema>;
+
+const day = z.iso.date('Give dates as YYYY-MM-DD.');
+export const salesQuerySchema = z
+  .object({
+    from: day.optional(),
+    to: day.optional(),
+    bucket: oneOf(SALES_BUCKETS, 'the period').default('day'),
+  })
+  .refine((v) => !v.from || !v.to || v.from <= v.to, { path: ['to'], message: 'The end must not be before the start.' });
+export type SalesQuery = z.infer<typeof salesQuerySchema>;
+
+export const payoutSchema = z.object({ currency: currency.optional() });

@@ -1,0 +1,187 @@
+// Shared steps of the market's integration tests: people, listings made from the demo grooms of
+// lib/groom, paying on the payments fake's hosted page, and delivering its signed events to the
+// webhook route. Everything goes through the real modules, PostgreSQL, storage and the fake.
+import { randomUUID } from 'node:crypto';
+import { createServer, type Server } from 'node:http';
+import type Stripe from 'stripe';
+import { db } from '@/lib/db';
+import { env } from '@/lib/env';
+import { payments } from '@/lib/payments';
+import { putObject } from '@/lib/storage';
+import { DEMO_GROOMS, parseGroomSpec, surfaceToObj } from '@/lib/groom';
+import type { Actor } from '@/lib/market/http';
+import type { Role } from '@/lib/roles';
+import { POST as webhookPost } from '@/app/api/payments/webhook/route';
+import { uniqueEmail } from './helpers';
+
+export async function makePerson(label: string, roles: Role[]): Promise<Actor> {
+  const email = uniqueEmail(label);
+  const [user] = await db()('users')
+    .insert({ email, display_name: `${label} ${email.slice(-18, -14)}`, password_hash: 'not-used-in-these-tests', email_verified_at: db().fn.now() })
+    .returning('id');
+  await db()('user_roles').insert(roles.map((role) => ({ user_id: user.id, role })));
+  return { userId: user.id, roles, email };
+}
+
+const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
+let ringObj: Uint8Array | undefined;
+
+/** The demo ring's surface in storage (once per test file), as the studio would have it. */
+export async function ringSurfaceKey(): Promise<string> {
+  const key = `tests/market/${randomUUID()}/loop.obj`;
+  ringObj ??= new TextEncoder().encode(surfaceToObj(ring.surface(), 'Loop, a plush ring'));
+  await putObject(key, ringObj, 'text/plain');
+  return key;
+}
+
+export type ListingOptions = Partial<{
+  title: string;
+  description: string;
+  animal: string;
+  coatLength: string;
+  style: string;
+  bodyRegion: string;
+  priceCents: number;
+  currency: string;
+  formats: string[];
+  guideCount: number | null;
+  state: string;
+  publishedAt: Date;
+  salesCount: number;
+  ratingAverage: number | null;
+  ratingCount: number;
+  assetsStatus: string;
+  licence: string;
+}>;
+
+/**
+ * A listing row as the market keeps it, straight in the database (for set-ups that need many, or
+ * a given state). Its surface is the demo ring's, copied into storage under the listing's prefix
+ * by the asset job (see lib/market/assets.ts) when that runs.
+ */
+export async function insertListing(seller: Actor, options: ListingOptions = {}, surfaceKey?: string): Promise<string> {
+  const licence = await db()('licences').where({ slug: options.licence ?? 'personal' }).first('id');
+  const [row] = await db()('listings')
+    .insert({
+      seller_id: seller.userId,
+      groom_id: randomUUID(),
+      groom_version_id: randomUUID(),
+      groom_name: 'Loop',
+      version_number: 1,
+      version_name: 'plush',
+      spec: JSON.stringify(parseGroomSpec(ring.spec)),
+      surface_key: surfaceKey ?? 'tests/market/none.obj',
+      surface_file_name: 'loop.obj',
+      title: options.title ?? 'Plush ring coat',
+      description: options.description ?? 'Short plush pile for a ring-shaped toy, one whorl and one saddle.',
+      animal: options.animal ?? 'toy',
+      coat_length: options.coatLength ?? 'short',
+      style: options.style ?? 'plush',
+      body_region: options.bodyRegion ?? 'full-body',
+      price_cents: options.priceCents ?? 1200,
+      currency: options.currency ?? 'eur',
+      licence_id: licence.id,
+      formats: options.formats ?? ['usda', 'obj', 'json'],
+      guide_count: options.guideCount === undefined ? 1277 : options.guideCount,
+      state: options.state ?? 'published',
+      published_at: options.state && options.state !== 'published' ? null : (options.publishedAt ?? new Date()),
+      sales_count: options.salesCount ?? 0,
+      rating_average: options.ratingAverage ?? null,
+      rating_count: options.ratingCount ?? 0,
+      assets_status: options.assetsStatus ?? 'ready',
+    })
+    .returning('id');
+  return row.id;
+}
+
+/** Pays an open checkout on the fake's hosted page with a test card; the answer of the form post. */
+export async function payOnHostedPage(url: string, card: string): Promise<{ status: number; location: string | null; page: string }> {
+  const page = await fetch(url);
+  if (page.status !== 200) throw new Error(`the checkout page answered ${page.status}`);
+  const form = (await page.text()).match(/<form method="post" action="([^"]+)"/);
+  if (!form) throw new Error('the checkout page has no payment form');
+  const response = await fetch(new URL(form[1], url), {
+    method: 'POST',
+    headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    body: new URLSearchParams({ card, expiry: '12/34', cvc: '123' }),
+    redirect: 'manual',
+  });
+  return { status: response.status, location: response.headers.get('location'), page: await response.text() };
+}
+
+/** The fake's events about a session or its payment, oldest first. */
+export async function eventsAbout(session: { id: string; paymentIntent?: string | null }, types?: string[]): Promise<Stripe.Event[]> {
+  const found: Stripe.Event[] = [];
+  for await (const event of payments().events.list({ limit: 100 })) {
+    const object = event.data.object as { id?: string; payment_intent?: string | null };
+    const matches = object.id === session.id || (session.paymentIntent && (object.payment_intent === session.paymentIntent || object.id === session.paymentIntent));
+    if (matches && (!types || types.includes(event.type))) found.push(event);
+  }
+  return found.reverse();
+}
+
+export function signedRequest(payload: string, options: { signature?: string | null; timestamp?: number; secret?: string } = {}) {
+  const headers = new Headers({ 'content-type': 'application/json' });
+  const signature =
+    options.signature !== undefined
+      ? options.signature
+      : payments().webhooks.generateTestHeaderString({ payload, secret: options.secret ?? env().STRIPE_WEBHOOK_SECRET, timestamp: options.timestamp });
+  if (signature !== null) headers.set('stripe-signature', signature);
+  return new Request('http://127.0.0.1/api/payments/webhook', { method: 'POST', headers, body: payload });
+}
+
+/** Delivers one event to the webhook route, signed as the provider would; the route's response. */
+export function deliver(event: Stripe.Event | object, options: Parameters<typeof signedRequest>[1] = {}) {
+  return webhookPost(signedRequest(JSON.stringify(event), options));
+}
+
+/**
+ * Serves the webhook route on the app's own port for the duration of a test, so the fake's own
+ * deliveries (signed by the fake, retried by it) reach the real route handler over HTTP.
+ */
+export async function serveWebhookRoute(): Promise<{ close: () => Promise<void>; delivered: () => number }> {
+  const port = Number(new URL(env().NEXTAUTH_URL).port);
+  let count = 0;
+  const server: Server = createServer(async (request, response) => {
+    const chunks: Buffer[] = [];
+    for await (const chunk of request) chunks.push(chunk as Buffer);
+    const headers = new Headers();
+    for (const [key, value] of Object.entries(request.headers)) if (typeof value === 'string') headers.set(key, value);
+    const answer = await webhookPost(new Request(`http://127.0.0.1:${port}${request.url}`, { method: 'POST', headers, body: Buffer.concat(chunks) }));
+    if (answer.ok) count += 1;
+    response.writeHead(answer.status, { 'content-type': 'application/json' });
+    response.end(await answer.text());
+  });
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, '127.0.0.1', () => resolve());
+  });
+  return {
+    delivered: () => count,
+    close: async () => {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+    },
+  };
+}
+
+export async function waitFor<T>(what: string, probe: () => Promise<T | undefined | null | false>, timeoutMs = 20_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await probe();
+    if (value) return value;
+    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+}
+
+export function shuffle<T>(items: T[], seed = 7): T[] {
+  const out = [...items];
+  let state = seed;
+  for (let i = out.length - 1; i > 0; i--) {
+    state = (state * 1103515245 + 12345) & 0x7fffffff;
+    const j = state % (i + 1);
+    [out[i], out[j]] = [out[j], out[i]];
+  }
+  return out;
+}
