@@ -66,6 +66,8 @@ export async function enqueueListingAssets(listingId: string): Promise<void> {
 
 /** Stops the queue of this process (scripts and tests that end). */
 export async function stopMarketJobs(): Promise<void> {
+  // Let a start under way finish first, so its workers are stopped too.
+  await holder.whorlwindMarketWorkers?.catch(() => undefined);
   const boss = holder.whorlwindMarketBoss;
   holder.whorlwindMarketBoss = undefined;
   holder.whorlwindMarketWorkers = undefined;

@@ -240,6 +240,10 @@ export async function unlistListing(actor: Actor, id: string): Promise<ListingSu
 
 /** The admin's approval or rejection of a submitted listing; the seller is told by e-mail. */
 export async function decideListing(actor: Actor, id: string, decision: { approve: boolean; reason?: string }): Promise<ListingSummary> {
+  const reason = decision.reason?.trim() ?? '';
+  if (!decision.approve && reason === '') {
+    throw new MarketError(400, 'invalid-input', 'Some fields need another look.', { fields: { reason: 'Tell the seller why.' } });
+  }
   let requeue = false;
   try {
     await db().transaction(async (trx) => {
@@ -263,7 +267,6 @@ export async function decideListing(actor: Actor, id: string, decision: { approv
           .update({ state: 'published', rejection_reason: null, decided_at: trx.fn.now(), published_at: trx.raw('coalesce(published_at, now())'), updated_at: trx.fn.now() });
         await sendMail(listingApprovedMail(seller.email, { id, title: row.title, priceCents: row.price_cents, currency: row.currency }));
       } else {
-        const reason = decision.reason ?? '';
         await trx('listings').where({ id }).update({ state: 'rejected', rejection_reason: reason, decided_at: trx.fn.now(), updated_at: trx.fn.now() });
         await sendMail(listingRejectedMail(seller.email, { id, title: row.title }, reason));
       }

@@ -1,0 +1,182 @@
+// After the payment: the package made by the job, downloads, refunds that end access, the
+// seller's figures and payouts, reviews, and moderation with its mails.
+import { unzipSync, strFromU8 } from 'fflate';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, db } from '@/lib/db';
+import { payments } from '@/lib/payments';
+import { buildListingAssets } from '@/lib/market/assets';
+import { startCheckout } from '@/lib/market/checkout';
+import { MarketError } from '@/lib/market/errors';
+import type { Actor } from '@/lib/market/http';
+import { enqueueListingAssets, stopMarketJobs } from '@/lib/market/jobs';
+import { listLibrary, requestDownload } from '@/lib/market/library';
+import { decideListing, getListingDetail, submitListing, updateListing } from '@/lib/market/listings';
+import { refundPurchase } from '@/lib/market/refunds';
+import { saveReview } from '@/lib/market/reviews';
+import { listPayouts, requestPayout, salesCsv, salesReport } from '@/lib/market/sales';
+import { mailTo } from './helpers';
+import { deliver, eventsAbout, insertListing, makePerson, payOnHostedPage, ringSurfaceKey, waitFor } from './market-helpers';
+
+afterAll(async () => {
+  await stopMarketJobs();
+  await closeDb();
+});
+
+async function failure(promise: Promise<unknown>): Promise<MarketError & { fields?: Record<string, string> }> {
+  const error = await promise.then(
+    () => null,
+    (caught: unknown) => caught,
+  );
+  expect(error).toBeInstanceOf(MarketError);
+  return Object.assign(error as MarketError, { fields: (error as MarketError).extra.fields });
+}
+
+/** Buys a listing end to end and delivers the fake's events; the purchase id. */
+async function buy(buyer: Actor, listingId: string): Promise<string> {
+  const checkout = await startCheckout(buyer, listingId);
+  expect((await payOnHostedPage(checkout.url, '4242424242424242')).status).toBe(303);
+  const [completed] = await eventsAbout({ id: checkout.sessionId }, ['checkout.session.completed']);
+  expect((await deliver(completed)).status).toBe(200);
+  return (await db()('purchases').where({ checkout_session_id: checkout.sessionId }).first('id')).id;
+}
+
+let seller: Actor;
+let admin: Actor;
+let listingId: string;
+
+beforeAll(async () => {
+  seller = await makePerson('library-seller', ['groomer']);
+  admin = await makePerson('library-admin', ['admin']);
+  // A draft made from the demo ring, its pictures and package made by the job's worker.
+  listingId = await insertListing(
+    seller,
+    { title: 'Loop plush nap', state: 'draft', assetsStatus: 'pending', guideCount: null, formats: ['usda', 'usda-bspline', 'glb', 'obj', 'json', 'ply'], priceCents: 2000, licence: 'studio' },
+    await ringSurfaceKey(),
+  );
+  await enqueueListingAssets(listingId);
+  await waitFor('the listing’s pictures and package', async () => (await db()('listings').where({ id: listingId }).first('assets_status')).assets_status === 'ready', 60_000);
+});
+
+describe('moderation', () => {
+  it('rejects with a reason by mail, then approves the resubmitted listing by mail', async () => {
+    await submitListing(seller, listingId);
+    expect((await failure(decideListing(admin, listingId, { approve: false, reason: ' ' }))).fields).toEqual({ reason: 'Tell the seller why.' });
+    const rejected = await decideListing(admin, listingId, { approve: false, reason: 'Show the nap from the side too.' });
+    expect(rejected).toMatchObject({ state: 'rejected', rejectionReason: 'Show the nap from the side too.' });
+    const rejection = await waitFor('the rejection mail', async () => (await mailTo(seller.email!)).find((mail) => mail.subject.includes('needs changes')));
+    expect(rejection.text).toMatch(/Show the nap from the side too\./);
+
+    await updateListing(seller, listingId, { description: 'Short plush pile for a ring toy, one whorl and one saddle, seen from every side.' });
+    // The changed draft gets a new package; wait for it again.
+    await waitFor('the new package', async () => (await db()('listings').where({ id: listingId }).first('assets_status')).assets_status === 'ready', 60_000);
+    await submitListing(seller, listingId);
+    const published = await decideListing(admin, listingId, { approve: true });
+    expect(published.state).toBe('published');
+    const approval = await waitFor('the approval mail', async () => (await mailTo(seller.email!)).find((mail) => mail.subject.includes('is on the market')));
+    expect(approval.text).toMatch(/20\.00 EUR/);
+    // Only submitted listings are decided on.
+    expect((await failure(decideListing(admin, listingId, { approve: true }))).code).toBe('wrong-state');
+  });
+
+  it('shows the published listing with pictures, guide count, licence in full and the tax note', async () => {
+    const detail = await getListingDetail(null, listingId);
+    expect(detail.guideCount).toBeGreaterThan(100);
+    expect(detail.gallery.map((picture) => `${picture.view}-${picture.size}`).sort()).toEqual(['front-1024', 'front-256', 'side-1024', 'side-256', 'top-1024', 'top-256']);
+    const picture = await fetch(detail.gallery[0].url);
+    expect(picture.headers.get('content-type')).toBe('image/webp');
+    expect(detail.licence.body).toMatch(/not legal advice/);
+    expect(detail.licence.body).toMatch(/law of the place where the buyer lives or works governs/);
+    expect(detail.taxNote).toMatch(/Taxes and invoicing follow the local rules/);
+    expect(detail.viewer).toMatchObject({ isSeller: false, owns: false, mayBuy: false });
+  });
+});
+
+describe('library and downloads', () => {
+  let buyer: Actor;
+  let purchaseId: string;
+
+  beforeAll(async () => {
+    buyer = await makePerson('library-buyer', ['buyer']);
+    purchaseId = await buy(buyer, listingId);
+  });
+
+  it('lists the purchase and downloads the package: the promised files, the licence and a README', async () => {
+    const [item] = await listLibrary(buyer);
+    expect(item).toMatchObject({ purchaseId, amountCents: 2000, currency: 'eur', status: 'paid', packageReady: true, downloads: 0, licence: { slug: 'studio' } });
+    const link = await requestDownload(buyer, purchaseId);
+    expect(link.expiresInSeconds).toBe(300);
+    const response = await fetch(link.url);
+    expect(response.status).toBe(200);
+    expect(response.headers.get('content-disposition')).toMatch(/attachment; filename="loop-plush-nap\.zip"/);
+    const files = unzipSync(new Uint8Array(await response.arrayBuffer()));
+    expect(Object.keys(files).sort()).toEqual(
+      ['LICENCE.txt', 'README.txt', 'field.ply', 'groom-spec.json', 'guides-bspline.usda', 'guides.glb', 'guides.obj', 'guides.usda'].map((name) => `loop-plush-nap/${name}`),
+    );
+    expect(strFromU8(files['loop-plush-nap/LICENCE.txt'])).toMatch(/^Studio licence/);
+    expect(strFromU8(files['loop-plush-nap/README.txt'])).toMatch(/20\.00 EUR/);
+    expect(strFromU8(files['loop-plush-nap/guides.usda'])).toMatch(/BasisCurves/);
+    expect(JSON.parse(strFromU8(files['loop-plush-nap/groom-spec.json'])).specVersion).toBe(2);
+    await requestDownload(buyer, purchaseId);
+    expect((await listLibrary(buyer))[0].downloads).toBe(2);
+    expect(await db()('downloads').where({ purchase_id: purchaseId })).toHaveLength(2);
+  });
+
+  it('refuses a download to anyone but the buyer', async () => {
+    const stranger = await makePerson('stranger', ['buyer']);
+    expect((await failure(requestDownload(stranger, purchaseId))).status).toBe(404);
+  });
+
+  it('lets the buyer review once and edit it, and keeps the listing’s rating', async () => {
+    const first = await saveReview(buyer, listingId, { rating: 4, body: 'Even nap, the saddle sits well.' });
+    const edited = await saveReview(buyer, listingId, { rating: 5, body: 'Even nap, and the spec reused nicely on our own ring.' });
+    expect(edited.id).toBe(first.id);
+    expect(await db()('reviews').where({ listing_id: listingId })).toHaveLength(1);
+    expect((await getListingDetail(buyer, listingId)).rating).toEqual({ average: 5, count: 1 });
+    const outsider = await makePerson('outsider', ['buyer']);
+    expect((await failure(saveReview(outsider, listingId, { rating: 1, body: '' }))).code).toBe('not-owned');
+  });
+
+  it('shows the seller revenue, fee, net, units and downloads, as JSON and CSV, and pays out the net', async () => {
+    const report = await salesReport(seller, { bucket: 'day' });
+    expect(report.totals).toEqual([{ currency: 'eur', revenueCents: 2000, refundCents: 0, platformFeeCents: 300, netCents: 1700, units: 1, refunds: 0, downloads: 2 }]);
+    expect(report.listings.find((row) => row.listingId === listingId)).toMatchObject({ units: 1, netCents: 1700, downloads: 2 });
+    expect(report.series).toHaveLength(1);
+    expect(report.balance).toEqual([{ currency: 'eur', availableCents: 1700 }]);
+    const csv = await salesCsv(seller, { bucket: 'month' });
+    expect(csv.text.split('\r\n')[0]).toBe('period_start,listing_id,listing_title,currency,units,revenue,refunds,refunded_amount,platform_fee,net,downloads');
+    expect(csv.text).toMatch(new RegExp(`,${listingId},Loop plush nap,EUR,1,20\\.00,0,0\\.00,3\\.00,17\\.00,2\\r\\n`));
+    expect(csv.text).toMatch(/\r\ntotal,,,EUR,1,20\.00,0,0\.00,3\.00,17\.00,2\r\n$/);
+
+    const payout = await requestPayout(seller);
+    expect(payout).toMatchObject({ amountCents: 1700, currency: 'eur' });
+    const transfer = await payments().transfers.retrieve(payout.transferId);
+    expect(transfer).toMatchObject({ amount: 1700, currency: 'eur' });
+    expect(transfer.destination).toBe((await db()('seller_accounts').where({ user_id: seller.userId }).first('account_id')).account_id);
+    expect((await failure(requestPayout(seller))).code).toBe('nothing-to-pay-out');
+    expect((await listPayouts(seller)).map((p) => p.id)).toEqual([payout.id]);
+  });
+
+  it('refunds through the payment API; the refund webhook ends access and the figures follow', async () => {
+    const refunded = await refundPurchase(admin, purchaseId, 'Bought for the wrong project.');
+    expect(refunded).toMatchObject({ status: 'paid', refundPending: true });
+    // From the request on, nothing downloads.
+    expect((await failure(requestDownload(buyer, purchaseId))).code).toBe('refunded');
+    const purchase = await db()('purchases').where({ id: purchaseId }).first('payment_intent_id');
+    const [refundEvent] = await eventsAbout({ id: '', paymentIntent: purchase.payment_intent_id }, ['charge.refunded']);
+    expect((await deliver(refundEvent)).status).toBe(200);
+    expect(await db()('purchases').where({ id: purchaseId }).first('status', 'refunded_at')).toMatchObject({ status: 'refunded', refunded_at: expect.any(Date) });
+    const denied = await failure(requestDownload(buyer, purchaseId));
+    expect(denied).toMatchObject({ status: 403, code: 'refunded' });
+    expect((await failure(refundPurchase(admin, purchaseId))).code).toBe('refunded');
+    const refundMail = await waitFor('the refund mail', async () => (await mailTo(buyer.email!)).find((mail) => mail.subject.startsWith('Refund')));
+    expect(refundMail.text).toMatch(/20\.00 EUR/);
+
+    const report = await salesReport(seller, { bucket: 'week' });
+    expect(report.totals).toEqual([{ currency: 'eur', revenueCents: 2000, refundCents: 2000, platformFeeCents: 0, netCents: 0, units: 1, refunds: 1, downloads: 2 }]);
+    // Already paid out 17.00 before the refund: the seller owes it back from later sales.
+    expect(report.balance).toEqual([{ currency: 'eur', availableCents: -1700 }]);
+    expect((await getListingDetail(null, listingId)).salesCount).toBe(0);
+    // The former owner may buy again.
+    expect((await startCheckout(buyer, listingId)).url).toMatch(/\/pay\//);
+  });
+});
