@@ -1,0 +1,117 @@
+// Listings made from a groom version the studio saved: the version is frozen (spec and surface
+// copied), states move only as allowed, and other groomers' grooms are not found.
+import { randomUUID } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, db } from '@/lib/db';
+import { getObjectBytes } from '@/lib/storage';
+import { DEMO_GROOMS, parseGroomSpec } from '@/lib/groom';
+import { buildListingAssets } from '@/lib/market/assets';
+import { MarketError } from '@/lib/market/errors';
+import type { Actor } from '@/lib/market/http';
+import { stopMarketJobs } from '@/lib/market/jobs';
+import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
+import type { ListingDraftInput } from '@/lib/market/validation';
+import { makePerson, ringSurfaceKey } from './market-helpers';
+
+afterAll(async () => {
+  await stopMarketJobs();
+  await closeDb();
+});
+
+const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
+
+/** A surface, a groom and a saved version, as the studio keeps them. */
+async function studioVersion(owner: Actor) {
+  const objectKey = await ringSurfaceKey();
+  const [surface] = await db()('growth_surfaces')
+    .insert({
+      owner_id: owner.userId,
+      name: 'Loop',
+      file_name: 'loop.obj',
+      format: 'obj',
+      units: 'cm',
+      object_key: objectKey,
+      byte_size: (await getObjectBytes(objectKey)).byteLength,
+      vertex_count: 1,
+      face_count: 1,
+      component_count: 1,
+      boundary_loop_count: 0,
+      genus: 1,
+      euler_characteristic: 0,
+      area_cm2: 1,
+      components: JSON.stringify([]),
+    })
+    .returning('id');
+  const spec = parseGroomSpec(ring.spec);
+  const [groom] = await db()('grooms').insert({ owner_id: owner.userId, surface_id: surface.id, name: 'Loop the plush ring', spec: JSON.stringify(spec) }).returning('id');
+  const [version] = await db()('groom_versions').insert({ groom_id: groom.id, number: 1, name: 'First nap', spec: JSON.stringify(spec), source_revision: 1 }).returning('id');
+  return { surfaceId: surface.id as string, groomId: groom.id as string, versionId: version.id as string, objectKey };
+}
+
+const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput => ({
+  ...ids,
+  title: 'Loop plush nap',
+  description: 'Short plush pile for a ring-shaped toy, one whorl and one saddle.',
+  tags: { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body' },
+  priceCents: 900,
+  currency: 'eur',
+  licenceSlug: 'personal',
+  formats: ['usda', 'json'],
+});
+
+async function failure(promise: Promise<unknown>): Promise<MarketError> {
+  const error = await promise.then(
+    () => null,
+    (caught: unknown) => caught,
+  );
+  expect(error).toBeInstanceOf(MarketError);
+  return error as MarketError;
+}
+
+let seller: Actor;
+beforeAll(async () => {
+  seller = await makePerson('listing-seller', ['groomer']);
+});
+
+describe('a listing from a saved version', () => {
+  it('freezes the version: its spec and a copy of the surface outlive the groom', async () => {
+    const ids = await studioVersion(seller);
+    const listing = await createListing(seller, draft(ids));
+    expect(listing).toMatchObject({ state: 'draft', groomName: 'Loop the plush ring', versionNumber: 1, priceCents: 900, currency: 'eur' });
+    const row = await db()('listings').where({ id: listing.id }).first('surface_key', 'spec', 'groom_version_id');
+    expect(row.surface_key).toBe(`market/listings/${listing.id}/surface.obj`);
+    expect(row.groom_version_id).toBe(ids.versionId);
+    // The studio's groom goes away (and its version with it); the listing still makes its files.
+    await db()('grooms').where({ id: ids.groomId }).delete();
+    await buildListingAssets(listing.id);
+    const after = await db()('listings').where({ id: listing.id }).first('assets_status', 'assets_error', 'guide_count');
+    expect(after).toMatchObject({ assets_status: 'ready', assets_error: null });
+    expect(after.guide_count).toBeGreaterThan(100);
+    expect((await getListingDetail(seller, listing.id)).groom.versionName).toBe('First nap');
+  });
+
+  it('does not find another groomer’s groom or version, or an unknown licence', async () => {
+    const ids = await studioVersion(seller);
+    const other = await makePerson('other-groomer', ['groomer']);
+    expect(await failure(createListing(other, draft(ids)))).toMatchObject({ status: 404, code: 'not-found' });
+    expect(await failure(createListing(seller, draft({ ...ids, versionId: randomUUID() })))).toMatchObject({ status: 404, message: 'There is no such version.' });
+    const unknown = await failure(createListing(seller, { ...draft(ids), licenceSlug: 'forever-free' }));
+    expect(unknown.extra.fields).toEqual({ licenceSlug: 'Choose one of the market’s licences.' });
+  });
+
+  it('moves draft → submitted → unlisted → draft, and refuses edits out of turn', async () => {
+    const listing = await createListing(seller, draft(await studioVersion(seller)));
+    const other = await makePerson('other-groomer', ['groomer']);
+    expect((await failure(submitListing(other, listing.id))).status).toBe(404);
+    expect((await submitListing(seller, listing.id)).state).toBe('submitted');
+    expect((await failure(updateListing(seller, listing.id, { title: 'Changed while waiting' }))).code).toBe('wrong-state');
+    expect((await failure(submitListing(seller, listing.id))).code).toBe('wrong-state');
+    expect((await unlistListing(seller, listing.id)).state).toBe('unlisted');
+    const edited = await updateListing(seller, listing.id, { priceCents: 1100, tags: { animal: 'toy', coatLength: 'medium', style: 'plush', bodyRegion: 'full-body' } });
+    expect(edited).toMatchObject({ state: 'draft', priceCents: 1100, assets: { status: 'pending' } });
+    expect((await listOwnListings(seller)).map((own) => own.id)).toContain(listing.id);
+    // Not published: only the seller sees it.
+    expect((await failure(getListingDetail(other, listing.id))).status).toBe(404);
+    expect((await failure(getListingDetail(null, listing.id))).status).toBe(404);
+  });
+});
