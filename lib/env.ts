@@ -37,7 +37,7 @@ const schema = z
     /** The market's share of each sale, in percent of the price (whole or decimal). */
     MARKET_PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(100).default(15),
     /** Largest growth surface file the studio accepts, in bytes (default 200 MB). */
-    SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
+    SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200_000_000),
   })
   .refine(
     (config) => config.NEXTAUTH_SECRET !== LOCAL_NEXTAUTH_SECRET || isLoopback(config.NEXTAUTH_URL),

@@ -44,13 +44,13 @@ export type SurfaceRow = {
 
 type UploadRow = { id: string; owner_id: string; file_name: string; format: SurfaceFileFormat; byte_size: string; object_key: string };
 
-/** "200 MB", "1.5 kB": sizes for messages. */
+/** "200 MB", "1.5 kB" (decimal units, as file managers and the studio's pages show sizes). */
 function describeBytes(bytes: number): string {
   const units = ['bytes', 'kB', 'MB', 'GB'];
   let value = bytes;
   let unit = 0;
-  while (value >= 1024 && unit < units.length - 1) {
-    value /= 1024;
+  while (value >= 1000 && unit < units.length - 1) {
+    value /= 1000;
     unit++;
   }
   return `${unit === 0 ? value : Number(value.toFixed(1))} ${units[unit]}`;

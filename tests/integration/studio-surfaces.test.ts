@@ -160,7 +160,7 @@ describe('uploads', () => {
   });
 
   it('refuses a declared size over the limit, naming the limit', async () => {
-    const response = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: wren.cookie, body: { fileName: 'huge.obj', byteSize: 300 * 1024 * 1024 } });
+    const response = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: wren.cookie, body: { fileName: 'huge.obj', byteSize: 300_000_000 } });
     const { error } = await expectJson(response, 400);
     expect(error.fields.byteSize).toBe('The file is 300 MB; growth surfaces may be at most 200 MB. Decimate it before uploading.');
   });
@@ -168,7 +168,7 @@ describe('uploads', () => {
   it('hands out a PUT valid for ten minutes', async () => {
     const before = Date.now();
     const ticket = await uploadFile(wren, 'cube.obj', await fixture('uv-split-cube.obj'));
-    expect(ticket).toMatchObject({ method: 'PUT', maxBytes: 200 * 1024 * 1024 });
+    expect(ticket).toMatchObject({ method: 'PUT', maxBytes: 200_000_000 });
     expect(Date.parse(ticket.expiresAt) - before).toBeGreaterThan(9.9 * 60_000);
     expect(new URL(ticket.url).searchParams.get('X-Amz-Expires')).toBe('600');
   });

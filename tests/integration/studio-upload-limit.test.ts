@@ -10,7 +10,7 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 
-const LIMIT = 4096;
+const LIMIT = 4000;
 
 let groomer: TestAccount;
 
@@ -28,7 +28,7 @@ describe('the size limit', () => {
   it('refuses to hand out an upload for a declared size over it', async () => {
     const response = await callRoute(uploadsRoute, 'POST', '/api/studio/uploads', { cookie: groomer.cookie, body: { fileName: 'big.obj', byteSize: LIMIT + 1 } });
     const { error } = await expectJson(response, 400);
-    expect(error.fields.byteSize).toBe('The file is 4,097 bytes; growth surfaces may be at most 4,096 bytes. Decimate it before uploading.');
+    expect(error.fields.byteSize).toBe('The file is 4,001 bytes; growth surfaces may be at most 4,000 bytes. Decimate it before uploading.');
     expect(await db()('surface_uploads').where({ owner_id: groomer.userId })).toHaveLength(0);
   });
 

@@ -1,14 +1,9 @@
 // A presigned upload of one growth surface file, straight to object storage.
-import { z } from 'zod';
 import { jsonData, readJson } from '@/lib/api/server';
 import type { UploadResponse } from '@/lib/studio/api-types';
 import { studioHandler } from '@/lib/studio/http';
 import { createSurfaceUpload } from '@/lib/studio/surfaces';
-
-const uploadSchema = z.object({
-  fileName: z.string().trim().min(1, 'Give the file name.').max(255, 'Use a file name of at most 255 characters.'),
-  byteSize: z.int('Give the file size in whole bytes.').positive('The file is empty.'),
-});
+import { uploadSchema } from '@/lib/studio/validation';
 
 export async function POST(request: Request) {
   return studioHandler(async (groomer) => {

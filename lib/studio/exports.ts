@@ -1,0 +1,159 @@
+// Exports: each format of lib/groom made by a background job from the spec as it was saved when
+// the export was asked for, stored in object storage and downloaded through a short-lived
+// presigned URL. The job reports its stage and progress on the export's row.
+import { FieldError } from '../field';
+import { fieldToPly, GroomError, guidesToGltf, guidesToObj, guidesToUsda, parseGroomSpec, specToJson } from '../groom';
+import { db } from '../db';
+import { putObject } from '../storage';
+import type { ExportFormat, ExportJob, ExportStatus } from './api-types';
+import { notFound, StudioError } from './errors';
+import type { Groomer } from './http';
+import { enqueueExport, type ExportJobData } from './jobs';
+import { growStoredSpec, solveStoredSpec, type StageReport } from './grow';
+import { deleteOrphanedObjects, presignStudioDownload } from './storage';
+import type { StoredSurfaceFile } from './surface-cache';
+
+type ExportRow = {
+  id: string;
+  groom_id: string;
+  format: ExportFormat;
+  status: ExportStatus;
+  progress: number;
+  stage: string;
+  error: string | null;
+  spec: unknown;
+  spec_revision: number;
+  file_name: string;
+  object_key: string | null;
+  created_at: Date;
+};
+
+/** What each format is called in file names and served as. */
+const FORMAT_FILES: Record<ExportFormat, { suffix: string; contentType: string }> = {
+  usda: { suffix: '.usda', contentType: 'text/plain; charset=utf-8' },
+  'usda-bspline': { suffix: '-bspline.usda', contentType: 'text/plain; charset=utf-8' },
+  gltf: { suffix: '.gltf', contentType: 'model/gltf+json' },
+  glb: { suffix: '.glb', contentType: 'model/gltf-binary' },
+  obj: { suffix: '-guides.obj', contentType: 'text/plain; charset=utf-8' },
+  json: { suffix: '.json', contentType: 'application/json' },
+  ply: { suffix: '-field.ply', contentType: 'application/octet-stream' },
+};
+
+const QUEUED = { stage: 'waiting in the queue', progress: 0 };
+const WRITING = { stage: 'writing', progress: 0.85 };
+const STORING = { stage: 'storing the file', progress: 0.95 };
+const SERVER_FAILURE = 'The export could not be made because of a problem on the server. Try again; if it keeps failing, tell us.';
+
+/** "Bramble — autumn coat", revision 12 → "bramble-autumn-coat-r12": a file name any system accepts. */
+function fileBaseName(groomName: string, revision: number): string {
+  const slug = groomName
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 80)
+    .replace(/-+$/, '');
+  return `${slug || 'groom'}-r${revision}`;
+}
+
+async function exportJob(row: ExportRow): Promise<ExportJob> {
+  return {
+    id: row.id,
+    groomId: row.groom_id,
+    format: row.format,
+    status: row.status,
+    progress: row.progress,
+    stage: row.stage,
+    error: row.error,
+    fileName: row.file_name,
+    downloadUrl: row.status === 'done' && row.object_key ? await presignStudioDownload(row.object_key, row.file_name) : null,
+    specRevision: row.spec_revision,
+    createdAt: row.created_at.toISOString(),
+  };
+}
+
+/** Queues an export of the groom's saved spec; the copy taken now is what the file is made from. */
+export async function requestExport(groomer: Groomer, groomId: string, format: ExportFormat): Promise<ExportJob> {
+  const groom = await db()('grooms').where({ id: groomId, owner_id: groomer.userId }).first('name', 'spec', 'revision');
+  if (!groom) throw notFound('groom');
+  const [row]: ExportRow[] = await db()('groom_exports')
+    .insert({
+      groom_id: groomId,
+      format,
+      status: 'queued',
+      progress: QUEUED.progress,
+      stage: QUEUED.stage,
+      spec: JSON.stringify(groom.spec),
+      spec_revision: groom.revision,
+      file_name: fileBaseName(groom.name, groom.revision) + FORMAT_FILES[format].suffix,
+    })
+    .returning('*');
+  try {
+    await enqueueExport({ exportId: row.id });
+  } catch (error) {
+    console.error(`[studio] export ${row.id} not queued: ${(error as Error).message}`);
+    await db()('groom_exports').where({ id: row.id }).delete();
+    throw new StudioError(503, 'service-unavailable', 'The export could not be queued: the job queue is not reachable. Try again in a moment.');
+  }
+  return exportJob(row);
+}
+
+export async function getExport(groomer: Groomer, exportId: string): Promise<ExportJob> {
+  const row: ExportRow | undefined = await db()('groom_exports as e')
+    .join('grooms as g', 'g.id', 'e.groom_id')
+    .where({ 'e.id': exportId, 'g.owner_id': groomer.userId })
+    .first('e.*');
+  if (!row) throw notFound('export');
+  return exportJob(row);
+}
+
+/** The bytes of one format, from the spec saved on the export (solving and tracing only as far as the format needs). */
+async function exportFile(format: ExportFormat, storedSpec: unknown, surface: StoredSurfaceFile, report: StageReport): Promise<Uint8Array | string> {
+  if (format === 'json') {
+    await report(WRITING);
+    return specToJson(parseGroomSpec(storedSpec));
+  }
+  if (format === 'ply') {
+    const { surface: prepared, solved } = await solveStoredSpec(storedSpec, surface, report);
+    await report(WRITING);
+    return fieldToPly(prepared.mesh, solved.field);
+  }
+  const { guides } = await growStoredSpec(storedSpec, surface, report);
+  await report(WRITING);
+  if (format === 'usda' || format === 'usda-bspline') return guidesToUsda(guides, format === 'usda' ? 'linear' : 'bspline');
+  if (format === 'obj') return guidesToObj(guides);
+  return guidesToGltf(guides, { binary: format === 'glb' });
+}
+
+/**
+ * The export job. Makes the file, stores it and marks the export done; a spec that cannot be
+ * solved marks it failed with lib/field's or lib/groom's words. An export whose groom was deleted
+ * meanwhile is dropped, file and all.
+ */
+export async function runExport({ exportId }: ExportJobData): Promise<void> {
+  const row = await db()('groom_exports as e')
+    .join('grooms as g', 'g.id', 'e.groom_id')
+    .join('growth_surfaces as s', 's.id', 'g.surface_id')
+    .where('e.id', exportId)
+    .first('e.id', 'e.groom_id', 'e.format', 'e.status', 'e.spec', 'e.file_name', 's.id as surface_id', 's.object_key', 's.file_name as surface_file_name');
+  if (!row || row.status === 'done') return;
+  const update = (values: Record<string, unknown>) => db()('groom_exports').where({ id: exportId }).update({ ...values, updated_at: db().fn.now() });
+  const report: StageReport = async ({ stage, progress }) => {
+    await update({ status: 'running', stage, progress, error: null });
+  };
+  await report({ stage: 'starting', progress: 0.01 });
+  try {
+    const surface = { id: row.surface_id, objectKey: row.object_key, fileName: row.surface_file_name };
+    const bytes = await exportFile(row.format, row.spec, surface, report);
+    await report(STORING);
+    const key = `exports/${row.groom_id}/${exportId}/${row.file_name}`;
+    await putObject(key, bytes, FORMAT_FILES[row.format as ExportFormat].contentType);
+    const stored = await update({ status: 'done', stage: 'done', progress: 1, object_key: key });
+    if (stored === 0) await deleteOrphanedObjects([key]);
+  } catch (error) {
+    const known = error instanceof FieldError || error instanceof GroomError;
+    if (!known) console.error(`[studio] export ${exportId} failed:`, error);
+    await update({ status: 'failed', stage: 'failed', error: known ? (error as Error).message : SERVER_FAILURE });
+  }
+}

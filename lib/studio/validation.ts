@@ -1,0 +1,39 @@
+// The zod schemas of the studio's request bodies, shared by the route handlers and the studio's
+// forms (plain zod, safe to import from client code).
+import { z } from 'zod';
+import { EXPORT_FORMATS, SURFACE_UNITS } from './api-types';
+
+const name = (what: string) =>
+  z.string().trim().min(1, `Give the ${what} a name.`).max(200, 'Use a name of at most 200 characters.');
+
+export const uploadSchema = z.object({
+  fileName: z.string().trim().min(1, 'Give the file name.').max(255, 'Use a file name of at most 255 characters.'),
+  byteSize: z.int('Give the file size in whole bytes.').positive('The file is empty.'),
+});
+
+export const registerSurfaceSchema = z.object({
+  uploadId: z.uuid('Give the uploadId that POST /api/studio/uploads answered.'),
+  name: name('surface'),
+  units: z.enum(SURFACE_UNITS, 'Say which units the file is in: mm, cm, m or in.'),
+});
+
+export const createGroomSchema = z.object({
+  surfaceId: z.uuid('Choose one of your growth surfaces.'),
+  name: name('groom'),
+});
+
+export const renameGroomSchema = z.object({ name: name('groom') });
+
+export const duplicateGroomSchema = z.object({ name: name('copy').optional() });
+
+export const saveSpecSchema = z.object({
+  // Checked in full by lib/groom's spec schema, which names each problem by its path in the spec.
+  spec: z.custom<unknown>((value) => value !== undefined, 'Send the groom spec.'),
+  baseRevision: z.int('Send the revision the spec was loaded at.').positive('Send the revision the spec was loaded at.'),
+});
+
+export const createVersionSchema = z.object({ name: name('version') });
+
+export const createExportSchema = z.object({
+  format: z.enum(EXPORT_FORMATS, `Choose one of ${EXPORT_FORMATS.join(', ')}.`),
+});
