@@ -1,0 +1,221 @@
+// Exports made by the job worker (started in this process) from the saved spec, stored in the S3
+// stand-in and downloaded through presigned URLs; each file is read back by an independent reader.
+import { callRoute, createSurface, expectJson, signedInAccount, type TestAccount } from './studio-helpers';
+import { validateBytes } from 'gltf-validator';
+import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
+import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
+import type { LineSegments } from 'three';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, db } from '@/lib/db';
+import { readSurface } from '@/lib/field';
+import { DEMO_GROOMS, parseGroomSpec, parseGroomSpecJson, surfaceToObj } from '@/lib/groom';
+import { startJobsWorker, type JobsWorker } from '@/services/jobs-worker';
+import * as groomsRoute from '@/app/api/studio/grooms/route';
+import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
+import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
+import * as exportsRoute from '@/app/api/studio/grooms/[groomId]/exports/route';
+import * as exportRoute from '@/app/api/studio/exports/[exportId]/route';
+import { EXPORT_FORMATS, type ExportFormat, type ExportJob, type GroomDetail } from '@/lib/studio/api-types';
+
+const cat = DEMO_GROOMS[1];
+const catMesh = cat.surface();
+const catObj = new TextEncoder().encode(surfaceToObj(catMesh, 'long cat'));
+
+let worker: JobsWorker;
+let wren: TestAccount;
+let rival: TestAccount;
+let buyer: TestAccount;
+let groom: GroomDetail;
+
+beforeAll(async () => {
+  worker = await startJobsWorker();
+  [wren, rival, buyer] = await Promise.all([
+    signedInAccount('groomer', 'export-owner'),
+    signedInAccount('groomer', 'export-rival'),
+    signedInAccount('buyer', 'export-buyer'),
+  ]);
+  const surface = await createSurface(wren, 'ottoline.obj', catObj, 'Ottoline body');
+  const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId: surface.id, name: 'Ottoline — short velvet' } });
+  const { id } = (await expectJson(created, 201)).data.groom;
+  await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${id}/spec`, { cookie: wren.cookie, body: { spec: cat.spec, baseRevision: 1 }, params: { groomId: id } }), 200);
+  groom = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${id}`, { cookie: wren.cookie, params: { groomId: id } }), 200)).data.groom;
+});
+
+afterAll(async () => {
+  await worker.stop();
+  await closeDb();
+});
+
+function requestExport(account: TestAccount | null, groomId: string, format: string) {
+  return callRoute(exportsRoute, 'POST', `/api/studio/grooms/${groomId}/exports`, { cookie: account?.cookie, body: { format }, params: { groomId } });
+}
+
+function readExport(account: TestAccount | null, exportId: string) {
+  return callRoute(exportRoute, 'GET', `/api/studio/exports/${exportId}`, { cookie: account?.cookie, params: { exportId } });
+}
+
+/** Polls the export until its job has finished; every state seen on the way is kept. */
+async function finished(exportId: string, seen: ExportJob[] = []): Promise<ExportJob> {
+  const deadline = Date.now() + 60_000;
+  for (;;) {
+    const job: ExportJob = (await expectJson(await readExport(wren, exportId), 200)).data.export;
+    seen.push(job);
+    if (job.status === 'done' || job.status === 'failed') return job;
+    if (Date.now() > deadline) throw new Error(`export ${exportId} still ${job.status} (${job.stage}) after 60 s`);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+}
+
+async function download(job: ExportJob): Promise<{ bytes: Uint8Array; disposition: string | null }> {
+  const response = await fetch(job.downloadUrl!);
+  expect(response.status).toBe(200);
+  return { bytes: new Uint8Array(await response.arrayBuffer()), disposition: response.headers.get('content-disposition') };
+}
+
+const text = (bytes: Uint8Array) => new TextDecoder().decode(bytes);
+
+/** Counts the polylines in a set of line segments: a segment that does not start where the last one ended starts a new one. */
+function polylines(position: ArrayLike<number>): number {
+  let count = 0;
+  for (let s = 0; s < position.length; s += 6) {
+    const continues = s > 0 && [0, 1, 2].every((k) => position[s + k] === position[s - 3 + k]);
+    if (!continues) count++;
+  }
+  return count;
+}
+
+describe('each format', () => {
+  const jobs = new Map<ExportFormat, ExportJob>();
+  const stagesSeen: ExportJob[] = [];
+
+  beforeAll(async () => {
+    for (const format of EXPORT_FORMATS) {
+      const response = await requestExport(wren, groom.id, format);
+      const queued: ExportJob = (await expectJson(response, 202)).data.export;
+      expect(queued).toMatchObject({ groomId: groom.id, format, status: 'queued', progress: 0, stage: 'waiting in the queue', downloadUrl: null, specRevision: 2 });
+      jobs.set(format, queued);
+    }
+    for (const format of EXPORT_FORMATS) jobs.set(format, await finished(jobs.get(format)!.id, stagesSeen));
+  });
+
+  it('is made by the job, with the file named after the groom and its revision', () => {
+    for (const [format, job] of jobs) {
+      expect(job, format).toMatchObject({ status: 'done', progress: 1, stage: 'done', error: null });
+      expect(job.fileName).toMatch(/^ottoline-short-velvet-r2(-bspline|-guides|-field)?\.(usda|gltf|glb|obj|json|ply)$/);
+    }
+    // Progress only ever moves forward while a job runs.
+    for (const format of EXPORT_FORMATS) {
+      const progress = stagesSeen.filter((job) => job.format === format).map((job) => job.progress);
+      expect(progress).toEqual([...progress].sort((a, b) => a - b));
+    }
+  });
+
+  it('downloads through a presigned URL that names the file', async () => {
+    const job = jobs.get('usda')!;
+    expect(new URL(job.downloadUrl!).searchParams.get('X-Amz-Expires')).toBe('600');
+    const { disposition } = await download(job);
+    expect(disposition).toBe(`attachment; filename="${job.fileName}"`);
+  });
+
+  it('json: the saved spec, exactly', async () => {
+    const { bytes } = await download(jobs.get('json')!);
+    expect(parseGroomSpecJson(text(bytes))).toEqual(groom.spec);
+    expect(JSON.parse(text(bytes))).toEqual(parseGroomSpec(cat.spec));
+  });
+
+  it('usda and usda-bspline: BasisCurves that three.js’s USDA parser reads', async () => {
+    for (const [format, type] of [['usda', 'linear'], ['usda-bspline', 'cubic']] as const) {
+      const { bytes } = await download(jobs.get(format)!);
+      const { specsByPath } = new USDAParser().parseData(text(bytes)) as { specsByPath: Record<string, { fields: Record<string, unknown> }> };
+      expect(specsByPath['/Groom/Guides'].fields.typeName).toBe('BasisCurves');
+      expect(specsByPath['/Groom/Guides.type'].fields.default).toBe(type);
+      const counts = specsByPath['/Groom/Guides.curveVertexCounts'].fields.default as number[];
+      expect(counts.length).toBeGreaterThan(100);
+      expect(counts.every((n) => n === cat.spec.guides!.pointsPerGuide)).toBe(true);
+    }
+  });
+
+  it('gltf and glb: no errors from the Khronos validator', async () => {
+    for (const format of ['gltf', 'glb'] as const) {
+      const { bytes } = await download(jobs.get(format)!);
+      const report = await validateBytes(bytes, { format, maxIssues: 0 });
+      expect(report.issues.numErrors, format).toBe(0);
+    }
+  });
+
+  it('obj: one polyline per guide, as three.js’s OBJ loader reads it', async () => {
+    const { bytes } = await download(jobs.get('obj')!);
+    const usda = text((await download(jobs.get('usda')!)).bytes);
+    const guides = (new USDAParser().parseData(usda) as { specsByPath: Record<string, { fields: Record<string, unknown> }> }).specsByPath['/Groom/Guides.curveVertexCounts'].fields.default as number[];
+    const group = new OBJLoader().parse(text(bytes));
+    const lines = group.children.filter((child) => (child as LineSegments).isLineSegments) as LineSegments[];
+    expect(polylines(lines[0].geometry.getAttribute('position').array)).toBe(guides.length);
+  });
+
+  it('ply: the field on the surface, read back by lib/field', async () => {
+    const { bytes } = await download(jobs.get('ply')!);
+    const { mesh } = readSurface(bytes, jobs.get('ply')!.fileName);
+    expect(mesh.triangles.length).toBe(catMesh.triangles.length);
+    const header = text(bytes.subarray(0, 400));
+    expect(header).toMatch(/element face \d+[\s\S]*property float dx/);
+  });
+});
+
+describe('what the file is made from', () => {
+  it('is the spec saved when the export was asked for, even if it changes before the job runs', async () => {
+    await worker.stop();
+    const queued: ExportJob = (await expectJson(await requestExport(wren, groom.id, 'json'), 202)).data.export;
+    const current = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${groom.id}`, { cookie: wren.cookie, params: { groomId: groom.id } }), 200)).data.groom;
+    const later = { ...current.spec, guides: { ...current.spec.guides, length: 9 } };
+    await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${groom.id}/spec`, { cookie: wren.cookie, body: { spec: later, baseRevision: current.revision }, params: { groomId: groom.id } }), 200);
+    worker = await startJobsWorker();
+    const job = await finished(queued.id);
+    expect(job.specRevision).toBe(current.revision);
+    const { bytes } = await download(job);
+    expect(parseGroomSpecJson(text(bytes)).guides.length).toBe(current.spec.guides.length);
+  });
+
+  it('fails with lib/field’s words when the saved spec cannot be solved', async () => {
+    const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId: groom.surfaceId, name: 'Unbalanced' } });
+    const unbalanced: GroomDetail = (await expectJson(created, 201)).data.groom;
+    const oneWhorl = { ...unbalanced.spec, field: { ...unbalanced.spec.field, singularities: unbalanced.spec.field.singularities.slice(0, 1) } };
+    await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${unbalanced.id}/spec`, { cookie: wren.cookie, body: { spec: oneWhorl, baseRevision: 1 }, params: { groomId: unbalanced.id } }), 200);
+    const queued: ExportJob = (await expectJson(await requestExport(wren, unbalanced.id, 'glb'), 202)).data.export;
+    const job = await finished(queued.id);
+    expect(job).toMatchObject({ status: 'failed', stage: 'failed', downloadUrl: null });
+    expect(job.error).toMatch(/index|Euler|sum/i);
+    expect((await db()('groom_exports').where({ id: job.id }).first()).object_key).toBeNull();
+  });
+
+  it('refuses a format lib/groom does not write', async () => {
+    const { error } = await expectJson(await requestExport(wren, groom.id, 'fbx'), 400);
+    expect(error.fields.format).toBe(`Choose one of ${EXPORT_FORMATS.join(', ')}.`);
+  });
+});
+
+describe('who may export and download', () => {
+  let done: ExportJob;
+
+  beforeAll(async () => {
+    done = await finished((await expectJson(await requestExport(wren, groom.id, 'json'), 202)).data.export.id);
+  });
+
+  it('answers 404 to another groomer, for the groom’s exports and for an export', async () => {
+    expect((await expectJson(await requestExport(rival, groom.id, 'json'), 404)).error.message).toBe('There is no such groom in your studio.');
+    expect((await expectJson(await readExport(rival, done.id), 404)).error.message).toBe('There is no such export in your studio.');
+  });
+
+  it('answers 403 to a buyer and 401 to a visitor', async () => {
+    expect((await expectJson(await requestExport(buyer, groom.id, 'json'), 403)).error.code).toBe('forbidden');
+    expect((await expectJson(await readExport(buyer, done.id), 403)).error.code).toBe('forbidden');
+    expect((await expectJson(await readExport(null, done.id), 401)).error.code).toBe('not-signed-in');
+  });
+
+  it('takes the exports with the groom when it is deleted', async () => {
+    const key = (await db()('groom_exports').where({ id: done.id }).first()).object_key;
+    expect(key).toBeTruthy();
+    await expectJson(await callRoute(groomRoute, 'DELETE', `/api/studio/grooms/${groom.id}`, { cookie: wren.cookie, params: { groomId: groom.id } }), 200);
+    expect((await expectJson(await readExport(wren, done.id), 404)).error.code).toBe('not-found');
+    expect((await fetch(done.downloadUrl!)).status).toBe(404);
+  });
+});
