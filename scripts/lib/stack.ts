@@ -20,7 +20,7 @@ import { startS3StandIn } from '../../services/s3';
 import { startSmtpSink } from '../../services/smtp-sink';
 import { startPaymentsFake } from '../../services/payments-fake';
 import { migrationConfig } from '../../knexfile';
-import { CommandFailed, log, onShutdown } from './processes';
+import { CommandFailed, log, onShutdown, runCommand } from './processes';
 import { preparePostgres } from './postgres';
 
 export const projectRoot = join(import.meta.dirname, '..', '..');
@@ -163,9 +163,13 @@ export async function migrateAndSeed(profile: StackProfile) {
   try {
     const [, applied] = await connection.migrate.latest();
     log(applied.length > 0 ? `applied migrations: ${applied.join(', ')}` : 'database schema is up to date');
-    await connection.seed.run();
-    log('demo scenario seeded');
   } finally {
     await connection.destroy();
   }
+  // Seeds run in a process of their own with this stack's environment: the studio's seed uploads
+  // the demo surfaces through lib/storage, whose configuration (lib/env.ts) this process has
+  // already read with the demo's defaults.
+  const knexCli = join(projectRoot, 'node_modules', 'knex', 'bin', 'cli.js');
+  await runCommand(process.execPath, ['--import', 'tsx', knexCli, 'seed:run'], { cwd: projectRoot, env: environment });
+  log('demo scenario seeded');
 }

@@ -1,0 +1,58 @@
+// The demo groomer's studio: the three characters of lib/groom's demo (Bramble, Ottoline, Loop)
+// as growth surfaces — uploaded to object storage through a presigned PUT and registered exactly
+// as the studio does it — and a groom on each with its spec and a first named version (which the
+// market's seed lists). Runs after the accounts seed and before the market's (names sort so).
+// Idempotent: a surface or groom of that name that Wren already has is left as it is. Thumbnails
+// of the grooms are queued; the app's job workers render them when it starts.
+import type { Knex } from 'knex';
+import { DEMO_ACCOUNTS } from '../demo-scenario';
+import { closeDb } from '../../lib/db';
+import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom';
+import type { SurfaceUnits } from '../../lib/studio/api-types';
+import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
+import type { Groomer } from '../../lib/studio/http';
+import { stopStudioJobs } from '../../lib/studio/jobs';
+import { createSurfaceUpload, registerSurface } from '../../lib/studio/surfaces';
+
+const FIRST_VERSION = 'First pass';
+
+function surfaceName(demo: DemoGroom): string {
+  return `${demo.character} — ${demo.id.split('-').slice(1).join(' ')}`;
+}
+
+/** The demo surface's id, uploading and registering it first when Wren does not have it yet. */
+async function demoSurface(knex: Knex, groomer: Groomer, demo: DemoGroom): Promise<string> {
+  const name = surfaceName(demo);
+  const existing = await knex('growth_surfaces').where({ owner_id: groomer.userId, name }).first('id');
+  if (existing) return existing.id;
+  const bytes = new TextEncoder().encode(surfaceToObj(demo.surface(), `${demo.character}, ${demo.description}`));
+  const ticket = await createSurfaceUpload(groomer, { fileName: `${demo.id}.obj`, byteSize: bytes.byteLength });
+  const upload = await fetch(ticket.url, { method: ticket.method, body: new Blob([bytes]) });
+  if (!upload.ok) throw new Error(`object storage refused the demo surface ${demo.id}: ${upload.status} ${await upload.text()}`);
+  const surface = await registerSurface(groomer, { uploadId: ticket.uploadId, name, units: demo.spec.units as SurfaceUnits });
+  return surface.id;
+}
+
+export async function seed(knex: Knex) {
+  const account = DEMO_ACCOUNTS.find((candidate) => candidate.roles.includes('groomer'));
+  const user = account && (await knex('users').where({ email: account.email }).first('id'));
+  if (!user) throw new Error('the demo groomer is missing: the accounts seed must run first');
+  const groomer: Groomer = { userId: user.id };
+  try {
+    let created = 0;
+    for (const demo of DEMO_GROOMS) {
+      const surfaceId = await demoSurface(knex, groomer, demo);
+      const groomName = demo.spec.name ?? demo.character;
+      if (await knex('grooms').where({ owner_id: groomer.userId, name: groomName }).first('id')) continue;
+      const groom = await createGroom(groomer, { surfaceId, name: groomName });
+      await saveSpec(groomer, groom.id, { spec: demo.spec, baseRevision: groom.revision });
+      await createVersion(groomer, groom.id, FIRST_VERSION);
+      created++;
+    }
+    console.log(`[studio seed] ${created} demo groom(s) created for ${account!.email} (${DEMO_GROOMS.length - created} already there).`);
+  } finally {
+    // The studio's modules hold a pool and a job queue of their own; the seed's process must end.
+    await stopStudioJobs();
+    await closeDb();
+  }
+}
