@@ -1,0 +1,192 @@
+'use client';
+// What the editor draws on its stage: the surface, the field (strokes or streamlines), the guides,
+// and the features — markers for singularities and pins, lines for partings, crests and flow
+// strokes, and the path of a curve being drawn.
+import type { ThreeEvent } from '@react-three/fiber';
+import { useMemo, type RefObject } from 'react';
+import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
+import type { GroomSpec } from '@/lib/groom/spec';
+import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
+import type { GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio-client/protocol';
+import { guideSegments } from '@/lib/studio-client/surface-geometry';
+import { FatLine } from '../scene/FatLine';
+import { LineLayer } from '../scene/LineLayer';
+import { SurfaceMesh, type SurfacePointerHandler } from '../scene/SurfaceMesh';
+
+export const COLOURS = {
+  strokeTail: '#a39a88',
+  strokeHead: '#231d18',
+  guideRoot: '#21474c',
+  guideTip: '#c9d9ad',
+  parting: '#b3552c',
+  crest: '#21474c',
+  flow: '#c28a12',
+  whorl: '#e9bb4d',
+  saddle: '#a3b883',
+  other: '#f6f2e9',
+  pin: '#8e3f1d',
+  selected: '#b3552c',
+  wrong: '#a3301c',
+  border: '#e9bb4d',
+  draft: '#8e3f1d',
+};
+
+export interface MarkerHandlers {
+  onMarkerDown(feature: FeatureRef, event: ThreeEvent<PointerEvent>): void;
+}
+
+const UP = new Vector3(0, 1, 0);
+
+function orientation(normal: Vec3): Quaternion {
+  const n = new Vector3(...normal);
+  if (n.lengthSq() === 0) n.set(0, 1, 0);
+  return new Quaternion().setFromUnitVectors(UP, n.normalize());
+}
+
+function vertexPoint(surface: OpenedSurface, vertex: number): Vec3 {
+  const p = surface.positions;
+  return [p[3 * vertex], p[3 * vertex + 1], p[3 * vertex + 2]];
+}
+
+function vertexNormal(surface: OpenedSurface, vertex: number): Vec3 {
+  const n = surface.vertexNormals;
+  return [n[3 * vertex], n[3 * vertex + 1], n[3 * vertex + 2]];
+}
+
+/** Where a feature's marker stands: the vertex the last solve snapped it to, or its own point. */
+export function placeOnSurface(surface: OpenedSurface, vertex: number | undefined, point: readonly number[] | undefined): { point: Vec3; normal: Vec3 } | null {
+  if (vertex !== undefined && vertex >= 0 && vertex < surface.vertexCount) return { point: vertexPoint(surface, vertex), normal: vertexNormal(surface, vertex) };
+  if (!point) return null;
+  const d: Vec3 = [point[0] - surface.center[0], point[1] - surface.center[1], point[2] - surface.center[2]];
+  return { point: [point[0], point[1], point[2]], normal: d };
+}
+
+function SingularityMarker({
+  index,
+  at,
+  size,
+  selected,
+  wrong,
+  feature,
+  handlers,
+}: {
+  index: number;
+  at: { point: Vec3; normal: Vec3 };
+  size: number;
+  selected: boolean;
+  wrong: boolean;
+  feature: FeatureRef;
+  handlers: MarkerHandlers;
+}) {
+  const kind = singularityKind(index);
+  const rotation = useMemo(() => orientation(at.normal), [at.normal]);
+  const colour = wrong ? COLOURS.wrong : kind === 'whorl' ? COLOURS.whorl : kind === 'saddle' ? COLOURS.saddle : COLOURS.other;
+  return (
+    <group position={at.point} quaternion={rotation}>
+      <mesh onPointerDown={(event) => handlers.onMarkerDown(feature, event)} position={[0, size * 0.6, 0]}>
+        {kind === 'whorl' ? <sphereGeometry args={[size * 0.55, 20, 14]} /> : kind === 'saddle' ? <octahedronGeometry args={[size * 0.65]} /> : <dodecahedronGeometry args={[size * 0.6]} />}
+        <meshStandardMaterial color={colour} roughness={0.5} />
+      </mesh>
+      <mesh rotation={[Math.PI / 2, 0, 0]} raycast={() => undefined}>
+        <torusGeometry args={[size * (selected ? 1.25 : 0.9), size * (selected ? 0.16 : 0.09), 8, 40]} />
+        <meshStandardMaterial color={selected ? COLOURS.selected : colour} side={DoubleSide} />
+      </mesh>
+    </group>
+  );
+}
+
+function PinMarker({ at, size, selected, feature, handlers }: { at: { point: Vec3; normal: Vec3 }; size: number; selected: boolean; feature: FeatureRef; handlers: MarkerHandlers }) {
+  const rotation = useMemo(() => orientation(at.normal), [at.normal]);
+  return (
+    <group position={at.point} quaternion={rotation}>
+      <mesh position={[0, size * 0.9, 0]} rotation={[Math.PI, 0, 0]} onPointerDown={(event) => handlers.onMarkerDown(feature, event)}>
+        <coneGeometry args={[size * 0.4, size * 1.6, 4]} />
+        <meshStandardMaterial color={selected ? COLOURS.selected : COLOURS.pin} roughness={0.6} />
+      </mesh>
+    </group>
+  );
+}
+
+export function EditorScene({
+  surface,
+  spec,
+  solve,
+  fieldLines,
+  fieldShade,
+  fieldFaded,
+  guides,
+  guidesFaded,
+  showGuides,
+  selection,
+  draft,
+  draftPath,
+  meshRef,
+  handlers,
+  pointer,
+  onFieldDrawn,
+}: {
+  surface: OpenedSurface;
+  spec: GroomSpec;
+  solve: SolveReport | null;
+  fieldLines: Float32Array | null;
+  fieldShade: Float32Array | null;
+  fieldFaded: boolean;
+  guides: GrownGuides | null;
+  guidesFaded: boolean;
+  showGuides: boolean;
+  selection: FeatureRef | null;
+  draft: Vec3[];
+  draftPath: Float32Array | null;
+  meshRef: RefObject<Mesh | null>;
+  handlers: MarkerHandlers;
+  pointer: { down: SurfacePointerHandler; move: SurfacePointerHandler; up: SurfacePointerHandler };
+  onFieldDrawn: () => void;
+}) {
+  const size = surface.diagonal * 0.014;
+  const guideLines = useMemo(() => (guides ? guideSegments(guides) : null), [guides]);
+  const reportFits = (list: readonly unknown[] | undefined, length: number) => !!list && list.length === length;
+  const singularVertices = reportFits(solve?.singularities, spec.field.singularities.length) ? solve!.singularities : null;
+  const pinVertices = reportFits(solve?.pinVertices, spec.pins.length) ? solve!.pinVertices : null;
+  const curves = solve && solve.curves.length === spec.field.partings.length + spec.field.crests.length ? solve.curves : null;
+
+  return (
+    <>
+      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} />
+      {surface.boundaryLines.length > 0 && <LineLayer lines={surface.boundaryLines} tail={COLOURS.border} head={COLOURS.border} name="border" />}
+      {fieldLines && (
+        <LineLayer lines={fieldLines} shade={fieldShade} tail={COLOURS.strokeTail} head={COLOURS.strokeHead} opacity={fieldFaded ? 0.3 : 1} onDrawn={onFieldDrawn} name="field" />
+      )}
+      {showGuides && guideLines && <LineLayer lines={guideLines.lines} shade={guideLines.shade} tail={COLOURS.guideRoot} head={COLOURS.guideTip} opacity={guidesFaded ? 0.35 : 1} name="guides" />}
+      {spec.field.singularities.map((s, index) => {
+        const at = placeOnSurface(surface, singularVertices?.[index].vertex, s.point);
+        if (!at) return null;
+        const check = singularVertices?.[index];
+        const wrong = !!check && check.measured !== null && Math.abs(check.measured - check.requested) > 1e-6;
+        const feature: FeatureRef = { kind: 'singularity', index };
+        return <SingularityMarker key={`s${index}`} index={s.index} at={at} size={size} selected={sameFeature(selection, feature)} wrong={wrong} feature={feature} handlers={handlers} />;
+      })}
+      {spec.pins.map((pin, index) => {
+        const at = placeOnSurface(surface, pinVertices?.[index], pin.point);
+        if (!at) return null;
+        const feature: FeatureRef = { kind: 'pin', index };
+        return <PinMarker key={`p${index}`} at={at} size={size} selected={sameFeature(selection, feature)} feature={feature} handlers={handlers} />;
+      })}
+      {curves?.map((curve, i) => {
+        const feature: FeatureRef = i < spec.field.partings.length ? { kind: 'parting', index: i } : { kind: 'crest', index: i - spec.field.partings.length };
+        const selected = sameFeature(selection, feature);
+        return <FatLine key={`c${i}`} points={curve.points} colour={selected ? COLOURS.selected : curve.kind === 'parting' ? COLOURS.parting : COLOURS.crest} width={selected ? 6 : 4} />;
+      })}
+      {spec.field.strokes.map((stroke, index) => {
+        const selected = sameFeature(selection, { kind: 'stroke', index });
+        return <FatLine key={`k${index}`} points={stroke.points.flat()} colour={selected ? COLOURS.selected : COLOURS.flow} width={selected ? 5 : 3} dashed />;
+      })}
+      {draftPath && <FatLine points={draftPath} colour={COLOURS.draft} width={4} dashed />}
+      {draft.map((point, i) => (
+        <mesh key={`d${i}`} position={point} raycast={() => undefined}>
+          <sphereGeometry args={[size * 0.3, 10, 8]} />
+          <meshStandardMaterial color={COLOURS.draft} />
+        </mesh>
+      ))}
+    </>
+  );
+}

@@ -1,0 +1,141 @@
+'use client';
+// Guide settings, applied as they are changed: the field worker grows the guides again with
+// lib/groom's growGuides — the same guides an export writes — and the stage shows them.
+import type { GroomSpec, GuideSettings } from '@/lib/groom/spec';
+import type { GrownGuides } from '@/lib/studio-client/protocol';
+import { NumberField } from '../ui/NumberField';
+import type { EditorActions } from './Workspace';
+
+function Slider({ label, value, min, max, step, unit, onPreview, onFinish }: { label: string; value: number; min: number; max: number; step: number; unit?: string; onPreview: (value: number) => void; onFinish: () => void }) {
+  return (
+    <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
+      <span className="flex justify-between">
+        {label}
+        <span className="tabular-nums text-loam">
+          {value}
+          {unit ?? ''}
+        </span>
+      </span>
+      <input
+        type="range"
+        min={min}
+        max={max}
+        step={step}
+        value={value}
+        onChange={(event) => onPreview(Number(event.target.value))}
+        onPointerUp={onFinish}
+        onKeyUp={onFinish}
+        onBlur={onFinish}
+        className="accent-bracken"
+      />
+    </label>
+  );
+}
+
+export function GuidePanel({
+  spec,
+  groups,
+  actions,
+  guides,
+  current,
+  error,
+  show,
+  onShow,
+}: {
+  spec: GroomSpec;
+  groups: readonly string[];
+  actions: EditorActions;
+  guides: GrownGuides | null;
+  current: boolean;
+  error: string | null;
+  show: boolean;
+  onShow: (show: boolean) => void;
+}) {
+  const g = spec.guides;
+  const units = spec.units;
+  const set = (changes: Partial<GuideSettings>) => actions.edit({ type: 'set-guides', guides: { ...g, ...changes } as GuideSettings });
+  const preview = (changes: Partial<GuideSettings>) => actions.preview({ type: 'set-guides', guides: { ...g, ...changes } as GuideSettings });
+  const byCount = g.count !== undefined;
+  const { density: _density, count: _count, ...rest } = g;
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-col gap-1.5 rounded-xl bg-chalk p-3">
+        <label className="flex items-center gap-2 text-sm font-semibold text-loam">
+          <input type="checkbox" checked={show} onChange={(event) => onShow(event.target.checked)} />
+          Show the guides on the surface
+        </label>
+        <p className="text-xs text-loam-soft" aria-live="polite" data-testid="guide-status">
+          {error
+            ? `Guides wait for a field that solves: ${error}`
+            : guides
+              ? `${guides.count.toLocaleString('en-GB')} guides over ${guides.areaSquareCm.toLocaleString('en-GB', { maximumFractionDigits: 0 })} cm², grown in ${(guides.milliseconds / 1000).toFixed(1)} s${current ? '' : ' — growing again for the latest change…'}`
+              : show
+                ? 'Growing the guides…'
+                : 'Guides are hidden.'}
+        </p>
+      </div>
+
+      <fieldset className="flex flex-col gap-2">
+        <legend className="pb-1 text-xs font-bold uppercase tracking-[0.12em] text-bracken">How many</legend>
+        <div className="flex gap-4 text-sm text-loam">
+          <label className="flex items-center gap-1.5">
+            <input type="radio" name="amount" checked={!byCount} onChange={() => actions.edit({ type: 'set-guides', guides: { ...rest, density: g.density ?? 1 } as GuideSettings })} />
+            By density
+          </label>
+          <label className="flex items-center gap-1.5">
+            <input type="radio" name="amount" checked={byCount} onChange={() => actions.edit({ type: 'set-guides', guides: { ...rest, count: guides?.count || 1000 } as GuideSettings })} />
+            By count
+          </label>
+        </div>
+        {byCount ? (
+          <NumberField label="Guides" value={g.count} min={1} max={5_000_000} integer onCommit={(count) => actions.edit({ type: 'set-guides', guides: { ...rest, count } as GuideSettings })} />
+        ) : (
+          <NumberField label="Guides per cm²" value={g.density} min={0.0001} max={10_000} onCommit={(density) => actions.edit({ type: 'set-guides', guides: { ...rest, density } as GuideSettings })} />
+        )}
+        {groups.length > 0 && (
+          <div className="flex flex-col gap-1">
+            <span className="text-xs font-semibold text-loam-soft">Grow on (none ticked: the whole surface)</span>
+            <div className="flex flex-wrap gap-x-4 gap-y-1">
+              {groups.map((name) => (
+                <label key={name} className="flex items-center gap-1.5 text-sm text-loam">
+                  <input
+                    type="checkbox"
+                    checked={g.regions.includes(name)}
+                    onChange={(event) => set({ regions: event.target.checked ? [...g.regions, name] : g.regions.filter((r) => r !== name) })}
+                  />
+                  {name}
+                </label>
+              ))}
+            </div>
+          </div>
+        )}
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-3">
+        <legend className="pb-1 text-xs font-bold uppercase tracking-[0.12em] text-bracken">Shape</legend>
+        <div className="grid grid-cols-2 gap-2">
+          <NumberField label="Length" unit={units} value={g.length} min={1e-6} max={1e6} onCommit={(length) => set({ length })} />
+          <NumberField label="Root width" unit={units} value={g.width} min={1e-6} max={1e6} onCommit={(width) => set({ width })} />
+        </div>
+        <Slider label="Lift off the skin" unit="°" value={g.lift} min={0} max={90} step={1} onPreview={(lift) => preview({ lift })} onFinish={actions.finish} />
+        <Slider label="Droop" value={g.droop} min={0} max={1} step={0.01} onPreview={(droop) => preview({ droop })} onFinish={actions.finish} />
+        <Slider label="Jitter" value={g.jitter} min={0} max={1} step={0.01} onPreview={(jitter) => preview({ jitter })} onFinish={actions.finish} />
+        <div className="grid grid-cols-2 gap-2">
+          <NumberField label="Curl radius" unit={units} value={g.curl.amplitude} min={0} max={1e6} onCommit={(amplitude) => set({ curl: { ...g.curl, amplitude } })} />
+          <NumberField label="Curl length" unit={units} value={g.curl.wavelength} min={1e-6} max={1e6} onCommit={(wavelength) => set({ curl: { ...g.curl, wavelength } })} />
+          <NumberField label="Points per guide" value={g.pointsPerGuide} min={2} max={64} integer onCommit={(pointsPerGuide) => set({ pointsPerGuide })} />
+          <NumberField label="Hairs per guide" value={g.hairsPerGuide} min={1} max={100_000} integer onCommit={(hairsPerGuide) => set({ hairsPerGuide })} />
+        </div>
+        <div className="flex items-end gap-2">
+          <div className="flex-1">
+            <NumberField label="Seed" value={g.seed} min={0} max={2 ** 32 - 1} integer onCommit={(seed) => set({ seed })} />
+          </div>
+          <button type="button" onClick={() => set({ seed: (g.seed * 2654435761 + 12345) % 2 ** 32 })} className="mb-0.5 rounded-full border-2 border-tarn/25 px-3 py-1 text-xs font-semibold text-tarn hover:border-tarn">
+            Another seed
+          </button>
+        </div>
+      </fieldset>
+      <p className="text-xs text-loam-soft">Pins (Features → Add pin) vary length, lift, droop, curl, jitter or density over the surface.</p>
+    </div>
+  );
+}

@@ -1,0 +1,82 @@
+'use client';
+// Many thin line segments in one draw call — the field's strokes or streamlines, guides, the
+// surface border — shaded from one colour at each line's tail to another at its head, so the
+// direction of the flow reads at a glance. Updates reuse the buffers when the size allows.
+import { useThree } from '@react-three/fiber';
+import { useEffect, useLayoutEffect, useMemo, useRef } from 'react';
+import { BufferAttribute, BufferGeometry, Color, DynamicDrawUsage, type LineSegments } from 'three';
+
+export function LineLayer({
+  lines,
+  shade,
+  tail,
+  head,
+  opacity = 1,
+  depthTest = true,
+  onDrawn,
+  name,
+}: {
+  /** Segment end points: x, y, z of the tail, then of the head, for each segment. */
+  lines: Float32Array;
+  /** Per end point, 0 (tail colour) to 1 (head colour); without it, tails and heads alternate. */
+  shade?: Float32Array | null;
+  tail: string;
+  head: string;
+  opacity?: number;
+  depthTest?: boolean;
+  /** Called after the frame that first shows these lines has been drawn. */
+  onDrawn?: () => void;
+  name?: string;
+}) {
+  const invalidate = useThree((state) => state.invalidate);
+  const geometry = useMemo(() => new BufferGeometry(), []);
+  const object = useRef<LineSegments>(null);
+  const pendingDrawn = useRef(false);
+
+  useLayoutEffect(() => {
+    const count = lines.length / 3;
+    let position = geometry.getAttribute('position') as BufferAttribute | undefined;
+    let colour = geometry.getAttribute('color') as BufferAttribute | undefined;
+    if (!position || position.array.length < lines.length) {
+      const capacity = Math.ceil(lines.length * 1.25);
+      position = new BufferAttribute(new Float32Array(capacity), 3).setUsage(DynamicDrawUsage);
+      colour = new BufferAttribute(new Float32Array(capacity), 3).setUsage(DynamicDrawUsage);
+      geometry.setAttribute('position', position);
+      geometry.setAttribute('color', colour);
+    }
+    (position.array as Float32Array).set(lines);
+    position.needsUpdate = true;
+    const a = new Color(tail), b = new Color(head);
+    const c = colour!.array as Float32Array;
+    for (let i = 0; i < count; i++) {
+      const t = shade ? shade[i] : i % 2;
+      c[3 * i] = a.r + (b.r - a.r) * t;
+      c[3 * i + 1] = a.g + (b.g - a.g) * t;
+      c[3 * i + 2] = a.b + (b.b - a.b) * t;
+    }
+    colour!.needsUpdate = true;
+    geometry.setDrawRange(0, count);
+    geometry.computeBoundingSphere();
+    pendingDrawn.current = true;
+    invalidate();
+  }, [geometry, head, invalidate, lines, shade, tail]);
+
+  useEffect(() => () => geometry.dispose(), [geometry]);
+
+  return (
+    <lineSegments
+      ref={object}
+      name={name}
+      geometry={geometry}
+      frustumCulled={false}
+      raycast={() => undefined}
+      onAfterRender={() => {
+        if (!pendingDrawn.current) return;
+        pendingDrawn.current = false;
+        onDrawn?.();
+      }}
+    >
+      <lineBasicMaterial vertexColors transparent={opacity < 1} opacity={opacity} depthTest={depthTest} />
+    </lineSegments>
+  );
+}

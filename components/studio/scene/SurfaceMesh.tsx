@@ -1,0 +1,78 @@
+'use client';
+// The growth surface, shaded, with fast picking (a bounding volume hierarchy that keeps the face
+// order, so a hit names the same face the field engine numbers) and optional faces to highlight.
+import { useEffect, useMemo, type RefObject } from 'react';
+import type { ThreeEvent } from '@react-three/fiber';
+import { BufferAttribute, BufferGeometry, DoubleSide, type Mesh } from 'three';
+import { MeshBVH, acceleratedRaycast } from 'three-mesh-bvh';
+
+export const SURFACE_COLOUR = '#e4dac3';
+
+export function surfaceGeometry(positions: ArrayLike<number>, triangles: Uint32Array, faces?: ArrayLike<number>): BufferGeometry {
+  const geometry = new BufferGeometry();
+  geometry.setAttribute('position', new BufferAttribute(Float32Array.from(positions), 3));
+  if (faces) {
+    const index = new Uint32Array(3 * faces.length);
+    for (let i = 0; i < faces.length; i++) for (let k = 0; k < 3; k++) index[3 * i + k] = triangles[3 * faces[i] + k];
+    geometry.setIndex(new BufferAttribute(index, 1));
+  } else {
+    geometry.setIndex(new BufferAttribute(triangles, 1));
+  }
+  geometry.computeVertexNormals();
+  geometry.computeBoundingSphere();
+  return geometry;
+}
+
+export type SurfacePointerHandler = (event: ThreeEvent<PointerEvent>) => void;
+
+export function SurfaceMesh({
+  positions,
+  triangles,
+  meshRef,
+  colour = SURFACE_COLOUR,
+  opacity = 1,
+  onPointerDown,
+  onPointerMove,
+  onPointerUp,
+  onPointerLeave,
+}: {
+  positions: ArrayLike<number>;
+  triangles: Uint32Array;
+  meshRef?: RefObject<Mesh | null>;
+  colour?: string;
+  opacity?: number;
+  onPointerDown?: SurfacePointerHandler;
+  onPointerMove?: SurfacePointerHandler;
+  onPointerUp?: SurfacePointerHandler;
+  onPointerLeave?: SurfacePointerHandler;
+}) {
+  const geometry = useMemo(() => {
+    const g = surfaceGeometry(positions, triangles);
+    g.boundsTree = new MeshBVH(g, { indirect: true });
+    return g;
+  }, [positions, triangles]);
+  useEffect(() => () => geometry.dispose(), [geometry]);
+  return (
+    <mesh
+      ref={meshRef}
+      geometry={geometry}
+      raycast={acceleratedRaycast}
+      onPointerDown={onPointerDown}
+      onPointerMove={onPointerMove}
+      onPointerUp={onPointerUp}
+      onPointerLeave={onPointerLeave}
+    >
+      <meshStandardMaterial
+        color={colour}
+        roughness={0.82}
+        metalness={0}
+        side={DoubleSide}
+        transparent={opacity < 1}
+        opacity={opacity}
+        polygonOffset
+        polygonOffsetFactor={1}
+        polygonOffsetUnits={1}
+      />
+    </mesh>
+  );
+}

@@ -1,0 +1,166 @@
+// The page's side of the field worker: requests with promises and progress, and "lanes" in which
+// only the newest request counts. While a whorl is dragged the page asks for a solve at every
+// pointer move; a lane sends one, keeps only the newest of those that arrive meanwhile, and sends
+// that one when the worker answers — so the worker always works on the latest position and the
+// screen updates as fast as the worker solves. Lanes of lower priority (guide growth) wait until
+// the lanes above them are idle, so a long growth never starts in the middle of a drag.
+import type { ProgressReport, ResultOf, WorkerError, WorkerReply, WorkerRequest, WorkerRequestBody } from './protocol';
+
+export interface WorkerLike {
+  postMessage(message: WorkerRequest, transfer?: Transferable[]): void;
+  onmessage: ((event: MessageEvent<WorkerReply>) => void) | null;
+  onerror: ((event: ErrorEvent) => void) | null;
+  terminate(): void;
+}
+
+/** A request the worker could not carry out, with its reason in plain words. */
+export class WorkerFailure extends Error {
+  constructor(readonly error: WorkerError) {
+    super(error.message);
+    this.name = 'WorkerFailure';
+  }
+}
+
+/** What a lane request resolves to when a newer request of the same lane replaced it before it was sent. */
+export const SUPERSEDED = Symbol('superseded');
+export type Superseded = typeof SUPERSEDED;
+
+type Kind = keyof ResultOf;
+type BodyOf<K extends Kind> = Extract<WorkerRequestBody, { type: K }>;
+type Listener = (progress: ProgressReport) => void;
+
+interface Pending {
+  resolve(value: unknown): void;
+  reject(error: unknown): void;
+  onProgress?: Listener;
+}
+
+interface Queued {
+  body: WorkerRequestBody;
+  pending: Pending;
+}
+
+interface Lane {
+  readonly priority: number;
+  busy: boolean;
+  queued: Queued | null;
+}
+
+export class FieldClient {
+  private nextId = 1;
+  private readonly pending = new Map<number, Pending>();
+  private readonly lanes = new Map<string, Lane>();
+  private broken: WorkerError | null = null;
+
+  constructor(private readonly worker: WorkerLike) {
+    worker.onmessage = (event) => this.receive(event.data);
+    worker.onerror = (event) => {
+      event.preventDefault?.();
+      this.fail({ code: 'worker-crashed', message: `The field worker stopped (${event.message || 'no reason given'}). Reload the page to start it again; your saved work is safe.` });
+    };
+  }
+
+  /** Sends a request now; resolves with the worker's result. */
+  request<K extends Kind>(body: BodyOf<K>, onProgress?: Listener): Promise<ResultOf[K]> {
+    return new Promise<ResultOf[K]>((resolve, reject) => {
+      this.send(body, { resolve: resolve as (value: unknown) => void, reject, onProgress });
+    });
+  }
+
+  /**
+   * Sends a request in a lane: at once when the lane (and every lane of higher priority) is idle,
+   * otherwise it waits, replacing — and resolving with SUPERSEDED — any request already waiting there.
+   * Lower `priority` numbers go first.
+   */
+  latest<K extends Kind>(lane: string, priority: number, body: BodyOf<K>, onProgress?: Listener): Promise<ResultOf[K] | Superseded> {
+    const state = this.lanes.get(lane) ?? { priority, busy: false, queued: null };
+    this.lanes.set(lane, state);
+    return new Promise((resolve, reject) => {
+      const pending: Pending = { resolve: resolve as (value: unknown) => void, reject, onProgress };
+      state.queued?.pending.resolve(SUPERSEDED);
+      state.queued = { body, pending };
+      this.pump();
+    });
+  }
+
+  /** True while a lane has a request at the worker or waiting. */
+  isBusy(lane: string): boolean {
+    const state = this.lanes.get(lane);
+    return !!state && (state.busy || state.queued !== null);
+  }
+
+  terminate(): void {
+    this.fail({ code: 'closed', message: 'The editor was closed.' });
+    this.worker.terminate();
+  }
+
+  private pump(): void {
+    const ordered = [...this.lanes.values()].sort((a, b) => a.priority - b.priority);
+    for (const lane of ordered) {
+      if (lane.queued && !lane.busy) {
+        const higherActive = ordered.some((other) => other.priority < lane.priority && (other.busy || other.queued));
+        if (higherActive) continue;
+        const { body, pending } = lane.queued;
+        lane.queued = null;
+        lane.busy = true;
+        const done = () => {
+          lane.busy = false;
+          this.pump();
+        };
+        this.send(body, {
+          onProgress: pending.onProgress,
+          resolve: (value) => {
+            pending.resolve(value);
+            done();
+          },
+          reject: (error) => {
+            pending.reject(error);
+            done();
+          },
+        });
+      }
+    }
+  }
+
+  private send(body: WorkerRequestBody, pending: Pending): void {
+    if (this.broken) {
+      pending.reject(new WorkerFailure(this.broken));
+      return;
+    }
+    const id = this.nextId++;
+    this.pending.set(id, pending);
+    const message = { ...body, id } as WorkerRequest;
+    const transfer = message.type === 'open' && message.source.kind === 'bytes' ? [message.source.bytes] : [];
+    this.worker.postMessage(message, transfer);
+  }
+
+  private receive(reply: WorkerReply): void {
+    const pending = this.pending.get(reply.id);
+    if (!pending) return;
+    if (reply.type === 'progress') {
+      pending.onProgress?.(reply.progress);
+      return;
+    }
+    this.pending.delete(reply.id);
+    if (reply.type === 'done') pending.resolve(reply.result);
+    else pending.reject(new WorkerFailure(reply.error));
+  }
+
+  private fail(error: WorkerError): void {
+    this.broken = error;
+    const all = [...this.pending.values()];
+    this.pending.clear();
+    for (const lane of this.lanes.values()) {
+      if (lane.queued) all.push(lane.queued.pending);
+      lane.queued = null;
+      lane.busy = false;
+    }
+    for (const pending of all) pending.reject(new WorkerFailure(error));
+  }
+}
+
+/** The worker of the studio, bundled by Next.js from field-worker.ts. */
+export function startFieldWorker(): FieldClient {
+  const worker = new Worker(new URL('./field-worker.ts', import.meta.url), { type: 'module', name: 'whorlwind-field' });
+  return new FieldClient(worker as unknown as WorkerLike);
+}

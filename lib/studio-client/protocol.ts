@@ -1,0 +1,160 @@
+// The messages between the studio page and its field worker (field-worker.ts). The worker holds
+// the prepared growth surface and runs every solve, trace and guide growth with lib/field and
+// lib/groom — the same code the server runs for exports — so the page never waits on them.
+import type { GroomSpec } from '@/lib/groom/spec';
+import type { BoundaryMode } from '@/lib/field/connection';
+
+export type Vec3 = [number, number, number];
+
+/** Where the worker gets the surface's bytes. */
+export type SurfaceSource =
+  | { readonly kind: 'url'; readonly url: string; readonly fileName: string }
+  | { readonly kind: 'bytes'; readonly bytes: ArrayBuffer; readonly fileName: string }
+  /** One of lib/groom's demo characters (DEMO_GROOMS[i].id), built in the worker. */
+  | { readonly kind: 'demo'; readonly demoId: string };
+
+export type FieldDrawing = 'strokes' | 'streamlines';
+
+export interface DisplayOptions {
+  readonly drawing: FieldDrawing;
+  /** About how many strokes (or streamline seeds ×4) to spread over the surface. */
+  readonly density: number;
+}
+
+export interface WorkerError {
+  readonly code: string;
+  readonly message: string;
+  /** Dotted spec path when the problem is in the spec (`field.singularities[1].point`). */
+  readonly path?: string;
+}
+
+export type WorkerRequest =
+  | { readonly id: number; readonly type: 'open'; readonly source: SurfaceSource; readonly boundary: BoundaryMode }
+  | { readonly id: number; readonly type: 'inspect'; readonly source: SurfaceSource }
+  | { readonly id: number; readonly type: 'solve'; readonly spec: GroomSpec; readonly display: DisplayOptions; readonly quick: boolean }
+  | { readonly id: number; readonly type: 'grow'; readonly spec: GroomSpec }
+  | { readonly id: number; readonly type: 'curve-path'; readonly points: readonly Vec3[]; readonly closed: boolean };
+
+export type WorkerRequestBody = WorkerRequest extends infer R ? (R extends { id: number } ? Omit<R, 'id'> : never) : never;
+
+export interface ProgressReport {
+  /** What is happening, in plain words ("factoring the surface"). */
+  readonly stage: string;
+  /** 0–1 when known. */
+  readonly fraction: number | null;
+  /** For steps that report no progress of their own: how long the step is expected to take. */
+  readonly expectedMilliseconds?: number;
+}
+
+export type WorkerReply =
+  | { readonly id: number; readonly type: 'progress'; readonly progress: ProgressReport }
+  | { readonly id: number; readonly type: 'done'; readonly result: unknown }
+  | { readonly id: number; readonly type: 'failed'; readonly error: WorkerError };
+
+export interface ComponentSummary {
+  readonly faceCount: number;
+  readonly eulerCharacteristic: number;
+  readonly boundaryLoopCount: number;
+  readonly genus: number;
+}
+
+/** The prepared surface as the page draws it. */
+export interface OpenedSurface {
+  readonly vertexCount: number;
+  readonly faceCount: number;
+  /** Vertices as numbered in the surface file (before welding). */
+  readonly fileVertexCount: number;
+  readonly positions: Float64Array;
+  readonly triangles: Uint32Array;
+  readonly vertexNormals: Float32Array;
+  readonly componentOfVertex: Int32Array;
+  readonly components: readonly ComponentSummary[];
+  /** Boundary edges as segment end points (x, y, z pairs), for drawing the border. */
+  readonly boundaryLines: Float32Array;
+  readonly groups: readonly string[];
+  readonly center: Vec3;
+  readonly radius: number;
+  readonly diagonal: number;
+  readonly meanEdge: number;
+  readonly boundary: BoundaryMode;
+  readonly timings: { readonly readMilliseconds: number; readonly prepareMilliseconds: number };
+}
+
+/** A surface read for inspection only (it may be broken): enough to draw it and point at faces. */
+export interface InspectedSurface {
+  readonly positions: Float64Array;
+  readonly triangles: Uint32Array;
+}
+
+export interface ComponentBudget {
+  readonly component: number;
+  readonly demanded: number | null;
+  readonly placed: number;
+  readonly remainder: number | null;
+}
+
+export interface SingularityCheck {
+  /** The welded vertex the singularity sits on. */
+  readonly vertex: number;
+  readonly requested: number;
+  /** Measured from the solved field alone; null in a quick solve (measured once the drag ends). */
+  readonly measured: number | null;
+}
+
+export interface IndexProof {
+  /** Vertices where the index was measured (interior ones, and the boundary when it is held). */
+  readonly measuredVertices: number;
+  /** Every vertex whose measured index is not zero (at most `NONZERO_LIMIT`). */
+  readonly nonZero: readonly { readonly vertex: number; readonly index: number }[];
+  readonly nonZeroCount: number;
+  /** Measured singularities where none was placed. */
+  readonly strays: number;
+  /** Placed singularities whose measured index differs. */
+  readonly mismatches: number;
+  /** Sum of the measured indices. */
+  readonly measuredSum: number;
+}
+
+export const NONZERO_LIMIT = 64;
+
+export interface SolveReport {
+  /** Echo of the request: quick solves skip the independent index measurement. */
+  readonly quick: boolean;
+  /** Field drawing as segment end points (x, y, z pairs), or null when the solve failed. */
+  readonly lines: Float32Array | null;
+  /** Where along each drawn line a point lies (0 at the tail, 1 at the head), for shading. */
+  readonly lineShade: Float32Array | null;
+  readonly error: WorkerError | null;
+  /** Null when the spec's places could not be resolved on the surface. */
+  readonly budget: { readonly components: readonly ComponentBudget[]; readonly balanced: boolean } | null;
+  /** Per singularity of the spec, in its order. */
+  readonly singularities: readonly SingularityCheck[];
+  /** Per pin of the spec, its vertex. */
+  readonly pinVertices: readonly number[];
+  /** Partings then crests, as the spec orders them: the vertex chain each runs along, as points. */
+  readonly curves: readonly { readonly kind: 'parting' | 'crest'; readonly points: Float32Array }[];
+  readonly proof: IndexProof | null;
+  readonly milliseconds: number;
+}
+
+export interface GrownGuides {
+  readonly count: number;
+  readonly pointsPerGuide: number;
+  /** Guide after guide, point after point, x y z. */
+  readonly points: Float32Array;
+  readonly areaSquareCm: number;
+  readonly milliseconds: number;
+}
+
+export interface CurvePath {
+  /** The chain of vertices joining the points along mesh edges, as points. */
+  readonly points: Float32Array;
+}
+
+export interface ResultOf {
+  open: OpenedSurface;
+  inspect: InspectedSurface;
+  solve: SolveReport;
+  grow: GrownGuides;
+  'curve-path': CurvePath;
+}

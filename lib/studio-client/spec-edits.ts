@@ -1,0 +1,135 @@
+// Every change the studio makes to a groom spec, as plain data: applied by one pure function,
+// named in words for the undo history, checked with the groom library's own schema before it
+// is accepted. The spec is never changed in place.
+import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec';
+import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureRef } from './features';
+
+export type CurveKind = 'parting' | 'crest';
+export type FieldSettings = Pick<GroomSpec['field'], 'order' | 'boundary' | 'rotation' | 'referenceDirection'>;
+
+export type SpecEdit =
+  | { readonly type: 'add-singularity'; readonly singularity: SingularitySpec }
+  | { readonly type: 'update-singularity'; readonly index: number; readonly singularity: SingularitySpec; readonly moved?: boolean }
+  | { readonly type: 'add-curve'; readonly kind: CurveKind; readonly curve: CurveSpec }
+  | { readonly type: 'update-curve'; readonly kind: CurveKind; readonly index: number; readonly curve: CurveSpec }
+  | { readonly type: 'add-stroke'; readonly stroke: StrokeSpec }
+  | { readonly type: 'update-stroke'; readonly index: number; readonly stroke: StrokeSpec }
+  | { readonly type: 'add-pin'; readonly pin: PinSpec }
+  | { readonly type: 'update-pin'; readonly index: number; readonly pin: PinSpec; readonly moved?: boolean }
+  | { readonly type: 'remove'; readonly feature: FeatureRef }
+  | { readonly type: 'set-guides'; readonly guides: GuideSettings }
+  | { readonly type: 'set-field'; readonly settings: Partial<FieldSettings> }
+  | { readonly type: 'replace'; readonly spec: GroomSpec; readonly label: string };
+
+function replaced<T>(list: readonly T[], index: number, item: T): T[] {
+  if (index < 0 || index >= list.length) throw new RangeError(`no item ${index} in a list of ${list.length}`);
+  return list.map((old, i) => (i === index ? item : old));
+}
+
+function curveList(kind: CurveKind): 'partings' | 'crests' {
+  return kind === 'parting' ? 'partings' : 'crests';
+}
+
+/** The spec after an edit. Throws RangeError for an edit that names a feature the spec lacks. */
+export function applySpecEdit(spec: GroomSpec, edit: SpecEdit): GroomSpec {
+  const field = spec.field;
+  switch (edit.type) {
+    case 'add-singularity':
+      return { ...spec, field: { ...field, singularities: [...field.singularities, edit.singularity] } };
+    case 'update-singularity':
+      return { ...spec, field: { ...field, singularities: replaced(field.singularities, edit.index, edit.singularity) } };
+    case 'add-curve': {
+      const list = curveList(edit.kind);
+      return { ...spec, field: { ...field, [list]: [...field[list], edit.curve] } };
+    }
+    case 'update-curve': {
+      const list = curveList(edit.kind);
+      return { ...spec, field: { ...field, [list]: replaced(field[list], edit.index, edit.curve) } };
+    }
+    case 'add-stroke':
+      return { ...spec, field: { ...field, strokes: [...field.strokes, edit.stroke] } };
+    case 'update-stroke':
+      return { ...spec, field: { ...field, strokes: replaced(field.strokes, edit.index, edit.stroke) } };
+    case 'add-pin':
+      return { ...spec, pins: [...spec.pins, edit.pin] };
+    case 'update-pin':
+      return { ...spec, pins: replaced(spec.pins, edit.index, edit.pin) };
+    case 'remove':
+      return removeFeature(spec, edit.feature);
+    case 'set-guides':
+      return { ...spec, guides: edit.guides };
+    case 'set-field':
+      return { ...spec, field: { ...field, ...edit.settings } };
+    case 'replace':
+      return edit.spec;
+  }
+}
+
+function without<T>(list: readonly T[], index: number): T[] {
+  if (index < 0 || index >= list.length) throw new RangeError(`no item ${index} in a list of ${list.length}`);
+  return list.filter((_, i) => i !== index);
+}
+
+function removeFeature(spec: GroomSpec, ref: FeatureRef): GroomSpec {
+  const field = spec.field;
+  switch (ref.kind) {
+    case 'singularity':
+      return { ...spec, field: { ...field, singularities: without(field.singularities, ref.index) } };
+    case 'parting':
+      return { ...spec, field: { ...field, partings: without(field.partings, ref.index) } };
+    case 'crest':
+      return { ...spec, field: { ...field, crests: without(field.crests, ref.index) } };
+    case 'stroke':
+      return { ...spec, field: { ...field, strokes: without(field.strokes, ref.index) } };
+    case 'pin':
+      return { ...spec, pins: without(spec.pins, ref.index) };
+  }
+}
+
+/** The words the undo history shows for an edit ("Move whorl 2", "Add parting 1"). */
+export function describeSpecEdit(before: GroomSpec, edit: SpecEdit): string {
+  const lower = (text: string) => text.charAt(0).toLowerCase() + text.slice(1);
+  switch (edit.type) {
+    case 'add-singularity':
+      return `Add ${lower(SINGULARITY_NAMES[singularityKind(edit.singularity.index)])}`;
+    case 'update-singularity':
+      return `${edit.moved ? 'Move' : 'Change'} ${lower(featureLabel(before, { kind: 'singularity', index: edit.index }))}`;
+    case 'add-curve':
+      return `Draw ${lower(CURVE_NAMES[edit.kind])}`;
+    case 'update-curve':
+      return `Change ${lower(featureLabel(before, { kind: edit.kind, index: edit.index }))}`;
+    case 'add-stroke':
+      return 'Draw flow stroke';
+    case 'update-stroke':
+      return `Change flow stroke ${edit.index + 1}`;
+    case 'add-pin':
+      return `Add ${edit.pin.attribute} pin`;
+    case 'update-pin':
+      return `${edit.moved ? 'Move' : 'Change'} ${lower(featureLabel(before, { kind: 'pin', index: edit.index }))}`;
+    case 'remove':
+      return `Delete ${lower(featureLabel(before, edit.feature))}`;
+    case 'set-guides':
+      return 'Change guide settings';
+    case 'set-field':
+      return 'Change field settings';
+    case 'replace':
+      return edit.label;
+  }
+}
+
+export type CheckedEdit = { ok: true; spec: GroomSpec } | { ok: false; problems: SpecProblem[] };
+
+/**
+ * Applies an edit and checks the result with the groom library's schema, so that nothing the
+ * server would refuse enters the editor. The accepted spec is the resolved one (defaults filled).
+ */
+export function checkedSpecEdit(spec: GroomSpec, edit: SpecEdit): CheckedEdit {
+  let next: GroomSpec;
+  try {
+    next = applySpecEdit(spec, edit);
+  } catch (error) {
+    return { ok: false, problems: [{ path: '(the whole spec)', message: (error as Error).message }] };
+  }
+  const result = validateGroomSpec(next);
+  return result.spec ? { ok: true, spec: result.spec } : { ok: false, problems: result.problems };
+}

@@ -1,0 +1,93 @@
+// Small geometry the page needs on top of what the worker sends: the vertex a click lands on,
+// guides as line segments, and the faces, edges and vertices a surface check points at.
+import type { SurfaceProblem } from './api';
+import type { GrownGuides } from './protocol';
+
+/** The corner of a face nearest a point on it: where a click on the surface puts a singularity. */
+export function nearestCorner(positions: ArrayLike<number>, triangles: ArrayLike<number>, face: number, point: readonly number[]): number {
+  let best = triangles[3 * face];
+  let bestDistance = Infinity;
+  for (let k = 0; k < 3; k++) {
+    const v = triangles[3 * face + k];
+    const d = (positions[3 * v] - point[0]) ** 2 + (positions[3 * v + 1] - point[1]) ** 2 + (positions[3 * v + 2] - point[2]) ** 2;
+    if (d < bestDistance) {
+      bestDistance = d;
+      best = v;
+    }
+  }
+  return best;
+}
+
+/** Another vertex of a face that uses `vertex` (a neighbour), or `vertex` itself when none does. */
+export function neighbourOf(triangles: ArrayLike<number>, vertex: number): number {
+  for (let h = 0; h < triangles.length; h++) {
+    if (triangles[h] === vertex) {
+      const face = h - (h % 3);
+      return triangles[face + ((h % 3) + 1) % 3];
+    }
+  }
+  return vertex;
+}
+
+/** Guides (polylines of equal length) as line segments, shaded from root (0) to tip (1). */
+export function guideSegments(guides: Pick<GrownGuides, 'count' | 'pointsPerGuide' | 'points'>): { lines: Float32Array; shade: Float32Array } {
+  const n = guides.pointsPerGuide;
+  const segments = guides.count * (n - 1);
+  const lines = new Float32Array(6 * segments);
+  const shade = new Float32Array(2 * segments);
+  let s = 0;
+  for (let g = 0; g < guides.count; g++) {
+    for (let i = 0; i + 1 < n; i++, s++) {
+      const a = 3 * (g * n + i);
+      lines.set(guides.points.subarray(a, a + 6), 6 * s);
+      shade[2 * s] = i / (n - 1);
+      shade[2 * s + 1] = (i + 1) / (n - 1);
+    }
+  }
+  return { lines, shade };
+}
+
+/** What to mark on a surface for its problems: faces to fill, edges to draw, vertices to dot. */
+export interface ProblemMarks {
+  readonly faces: number[];
+  /** Segment end points, x y z pairs. */
+  readonly edges: number[];
+  readonly vertices: number[];
+  /** Problems whose examples could be marked, by code. */
+  readonly marked: string[];
+}
+
+/**
+ * Turns the `examples` of a surface check's problems into marks on the mesh the browser read from
+ * the same file (same reader, same numbering). Examples outside the mesh are skipped, as are
+ * problems that name file faces (`collapsed-faces`) or the whole file.
+ */
+export function problemMarks(problems: readonly SurfaceProblem[], positions: ArrayLike<number>, triangles: ArrayLike<number>): ProblemMarks {
+  const vertexCount = positions.length / 3;
+  const faceCount = triangles.length / 3;
+  const faces = new Set<number>();
+  const edges: number[] = [];
+  const vertices = new Set<number>();
+  const marked: string[] = [];
+  const point = (v: number) => [positions[3 * v], positions[3 * v + 1], positions[3 * v + 2]];
+  for (const problem of problems) {
+    if (problem.code === 'collapsed-faces') continue;
+    let any = false;
+    if (problem.where === 'face') {
+      for (const f of problem.examples) if (Number.isInteger(f) && f >= 0 && f < faceCount) (faces.add(f), (any = true));
+    } else if (problem.where === 'vertex') {
+      for (const v of problem.examples) if (Number.isInteger(v) && v >= 0 && v < vertexCount) (vertices.add(v), (any = true));
+    } else if (problem.where === 'edge') {
+      for (let i = 0; i + 1 < problem.examples.length; i += 2) {
+        const a = problem.examples[i], b = problem.examples[i + 1];
+        if (a < 0 || b < 0 || a >= vertexCount || b >= vertexCount) continue;
+        edges.push(...point(a), ...point(b));
+        vertices.add(a);
+        vertices.add(b);
+        any = true;
+      }
+    }
+    if (any) marked.push(problem.code);
+  }
+  return { faces: [...faces], edges, vertices: [...vertices], marked };
+}

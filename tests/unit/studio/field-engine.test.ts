@@ -1,0 +1,112 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
+import { surfaceToObj } from '@/lib/groom/demo/obj';
+import { fieldRequestFromSpec } from '@/lib/groom/request';
+import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec';
+import { FieldEngine } from '@/lib/studio-client/field-engine';
+import type { OpenedSurface, ProgressReport } from '@/lib/studio-client/protocol';
+
+const display = { drawing: 'strokes', density: 2000 } as const;
+
+describe('the field engine on Bramble the fox', () => {
+  const progress: ProgressReport[] = [];
+  const engine = new FieldEngine((report) => progress.push(report));
+  const demo = DEMO_GROOMS[0];
+  const spec: GroomSpec = parseGroomSpec(demo.spec);
+  let opened: OpenedSurface;
+
+  beforeAll(async () => {
+    const bytes = new TextEncoder().encode(surfaceToObj(demo.surface(), 'Bramble')).buffer as ArrayBuffer;
+    opened = await engine.open({ kind: 'bytes', bytes, fileName: 'bramble.obj' }, 'free');
+  });
+
+  it('reads and prepares the surface, saying what it is doing', () => {
+    expect(opened.faceCount).toBe(demo.surface().triangles.length / 3);
+    expect(opened.components).toEqual([expect.objectContaining({ eulerCharacteristic: 2, genus: 0, boundaryLoopCount: 0 })]);
+    expect(opened.groups).toEqual(expect.arrayContaining(['muzzle', 'ears', 'crown', 'neck']));
+    expect(progress.map((p) => p.stage)).toEqual(expect.arrayContaining(['reading the surface file', expect.stringMatching(/^preparing the field solver/)]));
+  });
+
+  it('assembles the same field request as the groom library, feature by feature', () => {
+    const surface = engine.prepared!;
+    const withCurve: GroomSpec = parseGroomSpec({
+      ...demo.spec,
+      field: { ...demo.spec.field, crests: [{ points: [spec.field.singularities[0].point!, spec.field.singularities[3].point!] }], singularities: demo.spec.field.singularities!.slice(1) },
+    });
+    for (const s of [spec, withCurve]) {
+      expect(JSON.parse(JSON.stringify(engine.requestFor(s)))).toEqual(JSON.parse(JSON.stringify(fieldRequestFromSpec(s, surface))));
+    }
+  });
+
+  it('a full solve proves the field has exactly the placed singularities', () => {
+    const report = engine.solve(spec, display, false);
+    expect(report.error).toBeNull();
+    expect(report.budget).toEqual({ balanced: true, components: [{ component: 0, demanded: 2, placed: 2, remainder: 0 }] });
+    expect(report.singularities.map((s) => [s.requested, s.measured])).toEqual([[1, expect.closeTo(1, 6)], [1, expect.closeTo(1, 6)], [1, expect.closeTo(1, 6)], [-1, expect.closeTo(-1, 6)]]);
+    expect(report.proof).toMatchObject({ strays: 0, mismatches: 0, nonZeroCount: 4, measuredSum: 2 });
+    expect(report.pinVertices).toHaveLength(3);
+    // Strokes: two end points per stroke, each a finite point.
+    expect(report.lines!.length % 6).toBe(0);
+    expect(report.lines!.length / 6).toBeGreaterThan(500);
+    expect(report.lines!.every(Number.isFinite)).toBe(true);
+  });
+
+  it('a quick solve while dragging skips the measurement; a moved whorl moves the field', () => {
+    const before = engine.solve(spec, display, true).lines!;
+    const s0 = spec.field.singularities[3];
+    const target = Array.from(opened.positions.subarray(3 * 100, 3 * 100 + 3)) as [number, number, number];
+    const moved: GroomSpec = { ...spec, field: { ...spec.field, singularities: spec.field.singularities.map((s, i) => (i === 3 ? { ...s0, point: target } : s)) } };
+    const quick = engine.solve(moved, display, true);
+    expect(quick.error).toBeNull();
+    expect(quick.proof).toBeNull();
+    expect(quick.singularities[3]).toMatchObject({ vertex: 100, requested: -1, measured: null });
+    expect(quick.lines).not.toEqual(before);
+    const full = engine.solve(moved, display, false);
+    expect(full.singularities[3].measured).toBeCloseTo(-1, 6);
+    expect(full.proof?.strays).toBe(0);
+  });
+
+  it('an unbalanced spec comes back with the budget and the reason, not a thrown error', () => {
+    const unbalanced: GroomSpec = { ...spec, field: { ...spec.field, singularities: spec.field.singularities.slice(0, 3) } };
+    const report = engine.solve(unbalanced, display, false);
+    expect(report.lines).toBeNull();
+    expect(report.error?.code).toBe('index-budget');
+    expect(report.budget?.components[0]).toMatchObject({ demanded: 2, placed: 3, remainder: -1 });
+  });
+
+  it('a place off the surface is named by its path in the whole spec', () => {
+    const off: GroomSpec = { ...spec, field: { ...spec.field, singularities: spec.field.singularities.map((s, i) => (i === 2 ? { ...s, point: [50, 50, 50] as [number, number, number] } : s)) } };
+    const report = engine.solve(off, display, false);
+    expect(report.error).toMatchObject({ code: 'point-off-surface', path: 'field.singularities[2].point' });
+    expect(report.error?.message).toMatch(/^field\.singularities\[2\]\.point/);
+  });
+
+  it('draws streamlines and grows the same guides as the groom library', () => {
+    const stream = engine.solve(spec, { drawing: 'streamlines', density: 3000 }, false);
+    expect(stream.lines!.length).toBeGreaterThan(0);
+    expect(stream.lineShade!.length * 3).toBe(stream.lines!.length);
+    const grown = engine.grow(spec);
+    expect(grown.count).toBe(Math.round(spec.guides.density! * grown.areaSquareCm));
+    expect(grown.points.length).toBe(3 * grown.count * grown.pointsPerGuide);
+    expect(progress.some((p) => /^growing about/.test(p.stage) && (p.expectedMilliseconds ?? 0) > 0)).toBe(true);
+  });
+
+  it('joins the points of a curve being drawn along mesh edges', () => {
+    const a = spec.field.singularities[0].point!, b = spec.field.singularities[1].point!;
+    const path = engine.curvePath([a, b], false);
+    expect(path.length / 3).toBeGreaterThan(3);
+  });
+});
+
+describe('the field engine on a demo character built in the worker', () => {
+  it('opens Loop the plush ring (genus 1) and solves its spec', async () => {
+    const engine = new FieldEngine();
+    const demo = DEMO_GROOMS.find((d) => d.id.includes('loop') || d.character === 'Loop')!;
+    const opened = await engine.open({ kind: 'demo', demoId: demo.id }, 'free');
+    expect(opened.components[0].genus).toBe(1);
+    const report = engine.solve(parseGroomSpec(demo.spec), display, false);
+    expect(report.error).toBeNull();
+    expect(report.proof?.strays).toBe(0);
+    await expect(engine.open({ kind: 'demo', demoId: 'nobody' }, 'free')).rejects.toThrow(/no demo character/);
+  });
+});
