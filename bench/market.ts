@@ -13,7 +13,9 @@
  *   2. fixed rate (--rate, default 200 req/s): the latency distribution, p50/p95/p99, against the
  *      target p95 ≤ 50 ms.
  * Everything it started is stopped at the end (Ctrl-C too) and its data is deleted.
- * Ports: BENCH_APP_PORT (3300), BENCH_PG_PORT (54350) … BENCH_PAYMENTS_PORT (54354).
+ * Ports: BENCH_APP_PORT (3900), BENCH_PG_PORT (54390), BENCH_S3_PORT, BENCH_SMTP_SINK_PORT,
+ * BENCH_MAIL_SINK_PORT, BENCH_PAYMENTS_PORT (54391 … 54394). Run it on a quiet machine: the
+ * numbers mean little while a build or another test run shares the two cores.
  */
 import { createRequire } from 'node:module';
 import { cpus, loadavg } from 'node:os';
@@ -47,7 +49,7 @@ const DIST_DIR = '.next-bench';
 const TARGET_P95_MS = 50;
 
 // The bench stack reuses the test profile's machinery on ports and a folder of its own.
-const benchPorts: Record<string, string> = { APP: '3300', PG: '54350', S3: '54351', SMTP_SINK: '54352', MAIL_SINK: '54353', PAYMENTS: '54354' };
+const benchPorts: Record<string, string> = { APP: '3900', PG: '54390', S3: '54391', SMTP_SINK: '54392', MAIL_SINK: '54393', PAYMENTS: '54394' };
 for (const [name, port] of Object.entries(benchPorts)) process.env[`TEST_${name}_PORT`] = process.env[`BENCH_${name}_PORT`] ?? port;
 process.env.TEST_DATA_DIR = join(projectRoot, '.data', 'bench');
 
