@@ -262,16 +262,24 @@ function buildRingSolver(
     rows.push(v);
   }
   const n = rows.length;
-  const ti: number[] = [], tj: number[] = [], tv: number[] = [];
+  // Typed triplet arrays: plain arrays of millions of pushed numbers cost seconds on big surfaces.
+  const capacity = 3 * topology.edgeCount;
+  const ti = new Int32Array(capacity), tj = new Int32Array(capacity), tv = new Float64Array(capacity);
+  let count = 0;
+  const add = (i: number, j: number, v: number) => {
+    ti[count] = i;
+    tj[count] = j;
+    tv[count++] = v;
+  };
   for (let e = 0; e < topology.edgeCount; e++) {
     const h = topology.edgeHalfedge[e];
     if (topology.twin[h] === -1) continue;
     const a = rowOfVertex[tri[h]], b = rowOfVertex[tri[nextHalfedge(h)]];
-    if (a >= 0) { ti.push(a); tj.push(a); tv.push(1); }
-    if (b >= 0) { ti.push(b); tj.push(b); tv.push(1); }
-    if (a >= 0 && b >= 0) { ti.push(a); tj.push(b); tv.push(-1); }
+    if (a >= 0) add(a, a, 1);
+    if (b >= 0) add(b, b, 1);
+    if (a >= 0 && b >= 0) add(a, b, -1);
   }
-  const matrix = symmetricFromTriplets(n, ti, tj, tv);
+  const matrix = symmetricFromTriplets(n, ti.subarray(0, count), tj.subarray(0, count), tv.subarray(0, count));
   const factor = factorCholesky(matrix);
   return {
     rowOfVertex,

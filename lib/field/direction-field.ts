@@ -84,16 +84,19 @@ export function buildDirectionField(surface: FieldSurface, connection: Connectio
   };
 }
 
-/**
- * Blends face directions into each vertex's tangent plane, weighted by face area. An n-direction
- * field is blended through its n-th power (angles times n), so directions that differ by 2π/n
- * agree instead of cancelling.
- */
-function blendAtVertices(surface: FieldSurface, faceDirection: Float64Array, order: number): Float64Array {
-  const { mesh, topology } = surface;
-  const nV = topology.vertexCount;
-  const normals = vertexNormals(mesh);
-  const areas = faceAreas(mesh);
+/** Per-vertex tangent bases and face areas, the same for every field on a surface. */
+interface VertexFrames {
+  readonly basisU: Float64Array;
+  readonly basisW: Float64Array;
+  readonly areas: Float64Array;
+}
+const vertexFramesOf = new WeakMap<FieldSurface, VertexFrames>();
+
+function vertexFrames(surface: FieldSurface): VertexFrames {
+  const cached = vertexFramesOf.get(surface);
+  if (cached) return cached;
+  const nV = surface.topology.vertexCount;
+  const normals = vertexNormals(surface.mesh);
   const basisU = new Float64Array(3 * nV);
   const basisW = new Float64Array(3 * nV);
   for (let v = 0; v < nV; v++) {
@@ -106,6 +109,20 @@ function blendAtVertices(surface: FieldSurface, faceDirection: Float64Array, ord
     basisU[3 * v] = ux; basisU[3 * v + 1] = uy; basisU[3 * v + 2] = uz;
     basisW[3 * v] = ny * uz - nz * uy; basisW[3 * v + 1] = nz * ux - nx * uz; basisW[3 * v + 2] = nx * uy - ny * ux;
   }
+  const frames = { basisU, basisW, areas: faceAreas(surface.mesh) };
+  vertexFramesOf.set(surface, frames);
+  return frames;
+}
+
+/**
+ * Blends face directions into each vertex's tangent plane, weighted by face area. An n-direction
+ * field is blended through its n-th power (angles times n), so directions that differ by 2π/n
+ * agree instead of cancelling.
+ */
+function blendAtVertices(surface: FieldSurface, faceDirection: Float64Array, order: number): Float64Array {
+  const { topology } = surface;
+  const nV = topology.vertexCount;
+  const { basisU, basisW, areas } = vertexFrames(surface);
   const sumC = new Float64Array(nV);
   const sumS = new Float64Array(nV);
   const fallback = new Float64Array(nV).fill(NaN);
