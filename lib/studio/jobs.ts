@@ -1,4 +1,5 @@
-// The studio's background work on pg-boss, in the same PostgreSQL: exports and thumbnails.
+// The studio's background work on pg-boss, in the same PostgreSQL: exports, thumbnails, and the
+// hourly sweep of abandoned uploads.
 // Any process may queue; workers (lib/studio/workers.ts) run inside the Next.js server
 // (instrumentation.ts) or in a worker process of their own (services/jobs-worker.ts), and any
 // number of them share the queues.
@@ -7,6 +8,9 @@ import { env } from '../env';
 
 export const EXPORT_QUEUE = 'studio-export';
 export const THUMBNAIL_QUEUE = 'studio-thumbnail';
+export const UPLOAD_SWEEP_QUEUE = 'studio-upload-sweep';
+/** When abandoned uploads are swept: hourly. */
+export const UPLOAD_SWEEP_CRON = '23 * * * *';
 
 export type ExportJobData = { exportId: string };
 /** Without `versionId`, the groom's saved spec is rendered; with it, that version's spec. */
@@ -23,6 +27,7 @@ async function startBoss(): Promise<PgBoss> {
   // every failure they meet on the export itself and end the job.
   await boss.createQueue(EXPORT_QUEUE, { name: EXPORT_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: 30 * 60 });
   await boss.createQueue(THUMBNAIL_QUEUE, { name: THUMBNAIL_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: 10 * 60 });
+  await boss.createQueue(UPLOAD_SWEEP_QUEUE, { name: UPLOAD_SWEEP_QUEUE, retryLimit: 0, expireInSeconds: 10 * 60 });
   return boss;
 }
 

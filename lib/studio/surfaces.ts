@@ -104,6 +104,23 @@ export async function createSurfaceUpload(groomer: Groomer, input: { fileName: s
   return { uploadId, url, method: 'PUT', expiresAt: expiresAt.toISOString(), maxBytes };
 }
 
+/** How long after its URL expired an upload may still be registered before it is swept away. */
+const ABANDONED_UPLOAD_GRACE_HOURS = 24;
+
+/**
+ * Removes uploads nobody registered (the page was closed mid-way): their objects, then their
+ * records. Run periodically by the job queue. Returns how many were removed.
+ */
+export async function sweepAbandonedUploads(): Promise<number> {
+  const abandoned: UploadRow[] = await db()('surface_uploads').where(
+    'expires_at',
+    '<',
+    db().raw(`now() - make_interval(hours => ?)`, [ABANDONED_UPLOAD_GRACE_HOURS]),
+  );
+  for (const upload of abandoned) await discardUpload(upload);
+  return abandoned.length;
+}
+
 /** Removes an upload that will not become a surface: its object first, then its record. */
 async function discardUpload(upload: UploadRow): Promise<void> {
   await deleteStoredObjects([upload.object_key]);

@@ -1,6 +1,6 @@
 // Exports made by the job worker (started in this process) from the saved spec, stored in the S3
 // stand-in and downloaded through presigned URLs; each file is read back by an independent reader.
-import { callRoute, createSurface, expectJson, signedInAccount, type TestAccount } from './studio-helpers';
+import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
 import { validateBytes } from 'gltf-validator';
 import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
@@ -29,11 +29,7 @@ let groom: GroomDetail;
 
 beforeAll(async () => {
   worker = await startJobsWorker();
-  [wren, rival, buyer] = await Promise.all([
-    signedInAccount('groomer', 'export-owner'),
-    signedInAccount('groomer', 'export-rival'),
-    signedInAccount('buyer', 'export-buyer'),
-  ]);
+  ({ owner: wren, rival, buyer } = await studioCast('export'));
   const surface = await createSurface(wren, 'ottoline.obj', catObj, 'Ottoline body');
   const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId: surface.id, name: 'Ottoline — short velvet' } });
   const { id } = (await expectJson(created, 201)).data.groom;

@@ -1,6 +1,6 @@
 // Grooms, autosave and versions through the studio's route handlers, with the job worker running
 // in this process for the thumbnails.
-import { callRoute, createSurface, expectJson, signedInAccount, type TestAccount } from './studio-helpers';
+import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
 import { readFile } from 'node:fs/promises';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/db';
@@ -28,11 +28,7 @@ let foxSurface: SurfaceSummary;
 
 beforeAll(async () => {
   worker = await startJobsWorker();
-  [wren, rival, buyer] = await Promise.all([
-    signedInAccount('groomer', 'groom-owner'),
-    signedInAccount('groomer', 'groom-rival'),
-    signedInAccount('buyer', 'groom-buyer'),
-  ]);
+  ({ owner: wren, rival, buyer } = await studioCast('groom'));
   foxSurface = await createSurface(wren, 'bramble.obj', foxObj, 'Bramble head');
 });
 

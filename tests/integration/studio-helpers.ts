@@ -106,6 +106,18 @@ export async function signedInAccount(role: Extract<Role, 'groomer' | 'buyer'>, 
   return { userId: created.userId, email, cookie: await signIn(email, password) };
 }
 
+/** Who the ownership tests need: a groomer who owns things, a second groomer, and a buyer. */
+export type StudioCast = { owner: TestAccount; rival: TestAccount; buyer: TestAccount };
+
+export async function studioCast(label: string): Promise<StudioCast> {
+  const [owner, rival, buyer] = await Promise.all([
+    signedInAccount('groomer', `${label}-owner`),
+    signedInAccount('groomer', `${label}-rival`),
+    signedInAccount('buyer', `${label}-buyer`),
+  ]);
+  return { owner, rival, buyer };
+}
+
 /** An admin (a role no one can sign up for), to check that the studio wants the groomer role. */
 export async function signedInAdmin(): Promise<TestAccount> {
   const account = await signedInAccount('buyer', 'admin');

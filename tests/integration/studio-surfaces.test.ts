@@ -1,7 +1,7 @@
 // Growth surfaces through the studio's route handlers, against the real PostgreSQL and the S3
 // stand-in: presigned upload, registration with the check of lib/field, rejection that leaves
 // nothing behind, and who may see what.
-import { callRoute, createSurface, expectJson, signedInAccount, signedInAdmin, uploadAndRegister, uploadFile, type TestAccount } from './studio-helpers';
+import { callRoute, createSurface, expectJson, signedInAccount, signedInAdmin, studioCast, uploadAndRegister, uploadFile, type TestAccount } from './studio-helpers';
 import { readFile } from 'node:fs/promises';
 import { ListObjectsV2Command } from '@aws-sdk/client-s3';
 import sharp from 'sharp';
@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/db';
 import { env } from '@/lib/env';
 import { storageClient } from '@/lib/storage';
+import { sweepAbandonedUploads } from '@/lib/studio/surfaces';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
@@ -31,11 +32,7 @@ let rival: TestAccount;
 let buyer: TestAccount;
 
 beforeAll(async () => {
-  [wren, rival, buyer] = await Promise.all([
-    signedInAccount('groomer', 'surface-owner'),
-    signedInAccount('groomer', 'surface-rival'),
-    signedInAccount('buyer', 'surface-buyer'),
-  ]);
+  ({ owner: wren, rival, buyer } = await studioCast('surface'));
 });
 
 describe('registering an uploaded surface', () => {
@@ -179,6 +176,16 @@ describe('uploads', () => {
     const register = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: wren.cookie, body: { uploadId, name: 'Later', units: 'cm' } });
     expect((await expectJson(register, 409)).error.code).toBe('upload-missing');
     expect(await db()('surface_uploads').where({ id: uploadId })).toHaveLength(1);
+  });
+
+  it('sweeps away uploads that were never registered, a day after their URL expired', async () => {
+    const abandoned = await uploadFile(wren, 'abandoned.obj', await fixture('uv-split-cube.obj'));
+    const recent = await uploadFile(wren, 'recent.obj', await fixture('uv-split-cube.obj'));
+    await db()('surface_uploads').where({ id: abandoned.uploadId }).update({ expires_at: new Date(Date.now() - 25 * 3600_000) });
+    const key = (await db()('surface_uploads').where({ id: abandoned.uploadId }).first()).object_key;
+    expect(await sweepAbandonedUploads()).toBe(1);
+    expect(await db()('surface_uploads').whereIn('id', [abandoned.uploadId, recent.uploadId]).pluck('id')).toEqual([recent.uploadId]);
+    expect(await storedKeys(key)).toEqual([]);
   });
 
   it('checks the registration fields', async () => {
