@@ -1,24 +1,40 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { AreaIntro } from '@/components/areas/AreaIntro';
+import { ModerationQueue } from '@/components/admin/ModerationQueue';
+import { PurchaseList } from '@/components/admin/PurchaseList';
 import { requireArea } from '@/lib/auth';
+import { listListingsForAdmin } from '@/lib/market/listings';
+import { listPurchasesForAdmin } from '@/lib/market/refunds';
 
 export const metadata: Metadata = { title: 'Admin' };
 
 export default async function AdminPage() {
   await requireArea('admin');
+  const [queue, purchases] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin()]);
   return (
-    <AreaIntro
-      areaId="admin"
-      upcoming={['Approve listings before they reach the market.', 'Refunds and reports of abuse.', 'Grant and withdraw roles.']}
-    >
-      <Link
-        href="/admin/mail"
-        className="flex max-w-md flex-col gap-1 rounded-3xl bg-vellum p-6 no-underline hover:bg-lichen-pale"
-      >
-        <span className="text-lg font-bold text-loam">Outgoing mail</span>
-        <span className="text-loam-soft">Every e-mail Whorlwind sent, as the local mail sink received it.</span>
-      </Link>
-    </AreaIntro>
+    <div className="flex flex-col gap-12">
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div className="flex flex-col gap-3">
+          <h1 className="text-4xl font-extrabold tracking-tight">Admin</h1>
+          <p className="max-w-2xl text-lg text-loam-soft">Keep the market clean: look at presets before they go on sale, and put right what went wrong with a payment.</p>
+        </div>
+        <Link href="/admin/mail" className="flex flex-col rounded-3xl bg-vellum px-5 py-3 no-underline hover:bg-lichen-pale">
+          <span className="font-bold text-loam">Outgoing mail</span>
+          <span className="text-sm text-loam-soft">Every e-mail Whorlwind sent</span>
+        </Link>
+      </div>
+      <section aria-labelledby="queue-heading" className="flex flex-col gap-4">
+        <h2 id="queue-heading" className="text-2xl font-bold">
+          Waiting for review
+        </h2>
+        <ModerationQueue initial={{ listings: queue }} />
+      </section>
+      <section aria-labelledby="purchases-heading" className="flex flex-col gap-4">
+        <h2 id="purchases-heading" className="text-2xl font-bold">
+          Purchases
+        </h2>
+        <PurchaseList initial={{ purchases }} />
+      </section>
+    </div>
   );
 }

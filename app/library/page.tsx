@@ -1,15 +1,26 @@
 import type { Metadata } from 'next';
-import { AreaIntro } from '@/components/areas/AreaIntro';
+import { LibraryList } from '@/components/market/LibraryList';
+import { actorOf } from '@/components/market/session-actor';
 import { requireArea } from '@/lib/auth';
+import { listLibrary } from '@/lib/market/library';
 
 export const metadata: Metadata = { title: 'Library' };
 
-export default async function LibraryPage() {
-  await requireArea('library');
+type Props = { searchParams: Promise<Record<string, string | string[] | undefined>> };
+
+export default async function LibraryPage({ searchParams }: Props) {
+  const session = await requireArea('library');
+  const purchases = session ? await listLibrary(actorOf(session)) : [];
+  const justPaid = (await searchParams).checkout === 'success';
   return (
-    <AreaIntro
-      areaId="library"
-      upcoming={['Every preset you bought, with its files to download.', 'Apply a preset’s flow to your own growth surface.']}
-    />
+    <div className="flex flex-col gap-8">
+      <div className="flex flex-col gap-3">
+        <h1 className="text-4xl font-extrabold tracking-tight">Library</h1>
+        <p className="max-w-2xl text-lg text-loam-soft">
+          The presets you bought: download their guides, fields and specs, and tell other groomers how they worked for you.
+        </p>
+      </div>
+      <LibraryList initial={{ purchases }} justPaid={justPaid} />
+    </div>
   );
 }

@@ -1,0 +1,56 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { ListingForm } from '@/components/market/ListingForm';
+import { actorOf } from '@/components/market/session-actor';
+import { StateBadge } from '@/components/market/StateBadge';
+import { Notice } from '@/components/ui/Notice';
+import { requireArea } from '@/lib/auth';
+import { MarketError } from '@/lib/market/errors';
+import { listLicences } from '@/lib/market/licences';
+import { getListingDetail } from '@/lib/market/listings';
+
+export const metadata: Metadata = { title: 'Edit a listing' };
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+export default async function EditListingPage({ params }: { params: Promise<{ id: string }> }) {
+  const session = await requireArea('sales');
+  const { id } = await params;
+  if (!session || !UUID.test(id)) notFound();
+  let listing;
+  try {
+    listing = await getListingDetail(actorOf(session), id.toLowerCase());
+  } catch (error) {
+    if (error instanceof MarketError && error.status === 404) notFound();
+    throw error;
+  }
+  // Admins may see any listing; only its seller edits it.
+  if (!listing.viewer.isSeller) notFound();
+  const editable = ['draft', 'rejected', 'unlisted'].includes(listing.state);
+  const licences = await listLicences();
+  return (
+    <div className="flex max-w-4xl flex-col gap-8">
+      <nav aria-label="Breadcrumb" className="text-sm">
+        <Link href="/sales#listings" className="font-semibold text-tarn">
+          ← Your listings
+        </Link>
+      </nav>
+      <div className="flex flex-col gap-3">
+        <h1 className="text-4xl font-extrabold tracking-tight">Edit “{listing.title}”</h1>
+        <p className="flex items-center gap-2 text-loam-soft">
+          <StateBadge state={listing.state} />
+          {listing.state === 'rejected' && listing.rejectionReason && <span>Sent back: {listing.rejectionReason}</span>}
+        </p>
+      </div>
+      {editable ? (
+        <ListingForm licences={licences} listing={listing} />
+      ) : (
+        <Notice tone="info">
+          A listing that is waiting for review or on the market cannot be changed. Take it off the market from your sales page first;
+          once buyers have it, its files, price and licence stay as sold.
+        </Notice>
+      )}
+    </div>
+  );
+}

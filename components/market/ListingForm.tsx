@@ -1,0 +1,349 @@
+'use client';
+// "List it": a saved groom version becomes a preset — title, description, tags, price with its
+// currency, one of the market's licences (shown in full), the files the package holds — saved as
+// a draft or sent straight to the admins for review. The same form edits a draft, or a listing
+// that was sent back or taken off the market.
+import Link from 'next/link';
+import { useRouter } from 'next/navigation';
+import { useState, type SelectHTMLAttributes } from 'react';
+import useSWR from 'swr';
+import { z } from 'zod';
+import { Button } from '@/components/ui/Button';
+import { Notice } from '@/components/ui/Notice';
+import { TextField } from '@/components/ui/TextField';
+import { useValidatedForm } from '@/components/ui/use-validated-form';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/client/api';
+import type { FieldErrors } from '@/lib/validation/fields';
+import type { CreateListingResponse } from '@/app/api/market/listings/route';
+import type { UpdateListingResponse } from '@/app/api/market/listings/[id]/route';
+import type { Licence } from '@/lib/market/licences';
+import type { ListingDetail } from '@/lib/market/types';
+import { listingDraftSchema, tagsSchema } from '@/lib/market/validation';
+import { CURRENCIES, FORMAT_LABELS, MAX_PRICE_CENTS, MIN_PRICE_CENTS, PACKAGE_FORMATS, type PackageFormat } from '@/lib/market/vocabulary';
+import type { GroomListResponse, VersionListResponse } from '@/lib/studio/api-types';
+import { centsToText, TAG_KEYS, TAG_LABELS, TAG_VALUES, tagLabel } from './search-params';
+import { sendJson } from './send-json';
+import { controlBorder, describedBy, FieldFrame } from './FieldFrame';
+import { TextAreaField, textAreaField } from './TextAreaField';
+
+const draft = listingDraftSchema.shape;
+
+// The form's fields are flat text; the rules are the route's own (lib/market/validation.ts).
+const listingFormSchema = z.object({
+  groomId: draft.groomId,
+  versionId: draft.versionId,
+  title: draft.title,
+  description: draft.description,
+  animal: tagsSchema.shape.animal,
+  coatLength: tagsSchema.shape.coatLength,
+  style: tagsSchema.shape.style,
+  bodyRegion: tagsSchema.shape.bodyRegion,
+  price: z
+    .string()
+    .trim()
+    .regex(/^\d{1,6}([.,]\d{1,2})?$/, 'Enter the price such as 24 or 24.50.')
+    .transform((value) => Math.round(Number(value.replace(',', '.')) * 100))
+    .pipe(draft.priceCents),
+  currency: draft.currency,
+  licenceSlug: draft.licenceSlug,
+  formats: z
+    .string()
+    .transform((value) => value.split(',').filter(Boolean))
+    .pipe(draft.formats),
+});
+type ListingFormValues = z.output<typeof listingFormSchema>;
+
+/** The server names nested and renamed fields differently from the form. */
+function formFields(fields: FieldErrors | undefined): FieldErrors | undefined {
+  if (!fields) return undefined;
+  const { tags, priceCents, ...rest } = fields;
+  return { ...rest, ...(tags && { animal: tags }), ...(priceCents && { price: priceCents }) };
+}
+
+function SelectField({
+  name,
+  label,
+  error,
+  children,
+  ...select
+}: { name: string; label: string; error?: string } & SelectHTMLAttributes<HTMLSelectElement>) {
+  const id = `field-${name}`;
+  return (
+    <FieldFrame id={id} name={name} label={label} error={error}>
+      <select
+        id={id}
+        name={name}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(id, undefined, error)}
+        className={`rounded-xl border-2 bg-white px-3 py-2.5 text-base text-loam ${controlBorder(error)}`}
+        {...select}
+      >
+        {children}
+      </select>
+    </FieldFrame>
+  );
+}
+
+export type ListingFormProps = {
+  licences: Licence[];
+  /** Editing: the listing as it is. Creating: null. */
+  listing: ListingDetail | null;
+  /** A groom and version to start from (from a link in the studio). */
+  preselect?: { groomId?: string; versionId?: string };
+};
+
+export function ListingForm({ licences, listing, preselect }: ListingFormProps) {
+  const router = useRouter();
+  const form = useValidatedForm(listingFormSchema);
+  const [groomId, setGroomId] = useState(listing?.groom.id ?? preselect?.groomId ?? '');
+  const [formats, setFormats] = useState<PackageFormat[]>(listing?.formats ?? ['usda', 'glb', 'json']);
+  const [licenceSlug, setLicenceSlug] = useState(listing?.licence.slug ?? licences[0]?.slug ?? '');
+  const [submitAfterSave, setSubmitAfterSave] = useState(true);
+  const editing = listing !== null;
+
+  const grooms = useSWR<GroomListResponse, ApiRequestError>(editing ? null : '/api/studio/grooms', fetchData);
+  const versions = useSWR<VersionListResponse, ApiRequestError>(
+    !editing && groomId ? `/api/studio/grooms/${groomId}/versions` : null,
+    fetchData,
+  );
+  const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0) ?? [];
+  const chosenLicence = licences.find((licence) => licence.slug === licenceSlug);
+
+  async function save(input: ListingFormValues) {
+    const fields = {
+      title: input.title,
+      description: input.description,
+      tags: { animal: input.animal, coatLength: input.coatLength, style: input.style, bodyRegion: input.bodyRegion },
+      priceCents: input.price,
+      currency: input.currency,
+      licenceSlug: input.licenceSlug,
+      formats: input.formats,
+    };
+    const saved = editing
+      ? await sendJson<UpdateListingResponse>('PATCH', `/api/market/listings/${listing.id}`, fields)
+      : await postJson<CreateListingResponse>('/api/market/listings', { groomId: input.groomId, versionId: input.versionId, ...fields });
+    if (!saved.ok) return { message: saved.error.message, fields: formFields(saved.error.fields) };
+    if (submitAfterSave) {
+      const submitted = await postJson<CreateListingResponse>(`/api/market/listings/${saved.data.listing.id}/submit`, {});
+      if (!submitted.ok) return { message: `The listing is saved as a draft, but could not be sent for review: ${submitted.error.message}` };
+    }
+    router.push(`/sales?listed=${saved.data.listing.id}#listings`);
+    router.refresh();
+  }
+
+  if (!editing && grooms.error) return <Notice tone="error">{grooms.error.message}</Notice>;
+  if (!editing && !grooms.data) return <p className="text-loam-soft">Loading your grooms…</p>;
+  if (!editing && listable.length === 0) {
+    return (
+      <Notice tone="info">
+        A preset is made from a saved version of a groom. Save a version in the{' '}
+        <Link href="/studio" className="font-semibold">
+          studio
+        </Link>{' '}
+        first, then come back to list it.
+      </Notice>
+    );
+  }
+
+  return (
+    <form noValidate className="flex flex-col gap-8" onSubmit={form.onSubmit(save)} aria-label={editing ? 'Edit the listing' : 'List a preset'}>
+      {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
+
+      <fieldset className="flex flex-col gap-4">
+        <legend className="pb-2 text-lg font-bold">What you are selling</legend>
+        {editing ? (
+          <>
+            <input type="hidden" name="groomId" value={listing.groom.id} />
+            <input type="hidden" name="versionId" value={listing.groom.versionId} />
+            <p className="text-loam-soft">
+              {listing.groom.name}, version {listing.groom.versionNumber ?? '—'}
+              {listing.groom.versionName ? ` “${listing.groom.versionName}”` : ''} — the version stays as it was listed.
+            </p>
+          </>
+        ) : (
+          <div className="grid gap-4 sm:grid-cols-2">
+            <SelectField
+              name="groomId"
+              label="Groom"
+              error={form.errors.groomId}
+              value={groomId}
+              onChange={(event) => {
+                setGroomId(event.target.value);
+                form.clearError('groomId');
+              }}
+            >
+              <option value="">Choose a groom…</option>
+              {listable.map((groom) => (
+                <option key={groom.id} value={groom.id}>
+                  {groom.name} ({groom.surfaceName})
+                </option>
+              ))}
+            </SelectField>
+            <SelectField
+              key={`${groomId}:${versions.data ? 'ready' : 'loading'}`}
+              name="versionId"
+              label="Saved version"
+              error={form.errors.versionId}
+              defaultValue={preselect?.groomId === groomId ? (preselect?.versionId ?? '') : ''}
+              onChange={() => form.clearError('versionId')}
+              disabled={!groomId || !versions.data}
+            >
+              {!groomId ? (
+                <option value="">Choose a groom first</option>
+              ) : !versions.data ? (
+                <option value="">Loading its versions…</option>
+              ) : (
+                [...versions.data.versions]
+                  .sort((a, b) => b.number - a.number)
+                  .map((version) => (
+                    <option key={version.id} value={version.id}>
+                      Version {version.number}: {version.name}
+                    </option>
+                  ))
+              )}
+            </SelectField>
+          </div>
+        )}
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-4">
+        <legend className="pb-2 text-lg font-bold">How buyers find it</legend>
+        <TextField label="Title" defaultValue={listing?.title ?? ''} placeholder="Autumn fox head, crown whorl" {...form.field('title')} />
+        <TextAreaField
+          label="Description"
+          rows={6}
+          hint="The coat, the flow features it has, what characters it suits, what is in the files."
+          defaultValue={listing?.description ?? ''}
+          {...textAreaField(form.field('description'))}
+        />
+        <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
+          {TAG_KEYS.map((key) => (
+            <SelectField
+              key={key}
+              name={key}
+              label={TAG_LABELS[key]}
+              error={form.errors[key]}
+              defaultValue={listing?.tags[key] ?? ''}
+              onChange={() => form.clearError(key)}
+            >
+              <option value="">Choose…</option>
+              {TAG_VALUES[key].map((value) => (
+                <option key={value} value={value}>
+                  {tagLabel(value)}
+                </option>
+              ))}
+            </SelectField>
+          ))}
+        </div>
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-4">
+        <legend className="pb-2 text-lg font-bold">Price</legend>
+        <div className="grid max-w-md grid-cols-[1fr_auto] items-start gap-3">
+          <TextField
+            label="Price"
+            inputMode="decimal"
+            hint={`From ${centsToText(MIN_PRICE_CENTS)} to ${(MAX_PRICE_CENTS / 100).toLocaleString('en-GB')}.`}
+            defaultValue={listing ? centsToText(listing.priceCents) : ''}
+            {...form.field('price')}
+          />
+          <SelectField name="currency" label="Currency" error={form.errors.currency} defaultValue={listing?.currency ?? 'eur'}>
+            {CURRENCIES.map((currency) => (
+              <option key={currency} value={currency}>
+                {currency.toUpperCase()}
+              </option>
+            ))}
+          </SelectField>
+        </div>
+        <p className="max-w-2xl text-sm text-loam-soft">
+          Buyers pay this amount in this currency. The market keeps a fee on each sale; taxes and invoicing follow your own and the
+          buyer’s local rules. This is not legal advice.
+        </p>
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-3" aria-describedby={form.errors.licenceSlug ? 'licence-error' : undefined}>
+        <legend className="pb-2 text-lg font-bold">Licence</legend>
+        <div className="grid gap-2 sm:grid-cols-3">
+          {licences.map((licence) => (
+            <label
+              key={licence.slug}
+              className="flex cursor-pointer flex-col gap-1 rounded-2xl border-2 border-vellum bg-white p-3 has-[:checked]:border-bracken"
+            >
+              <span className="flex items-center gap-2 font-semibold">
+                <input
+                  type="radio"
+                  name="licenceSlug"
+                  value={licence.slug}
+                  checked={licenceSlug === licence.slug}
+                  onChange={() => {
+                    setLicenceSlug(licence.slug);
+                    form.clearError('licenceSlug');
+                  }}
+                  className="accent-bracken"
+                />
+                {licence.title}
+              </span>
+              <span className="text-sm text-loam-soft">{licence.summary}</span>
+            </label>
+          ))}
+        </div>
+        {form.errors.licenceSlug && (
+          <p id="licence-error" className="text-sm font-medium text-hawthorn" data-field-error="licenceSlug">
+            {form.errors.licenceSlug}
+          </p>
+        )}
+        {chosenLicence && (
+          <div
+            className="max-h-80 overflow-y-auto rounded-2xl bg-white p-5 text-sm leading-relaxed whitespace-pre-wrap ring-2 ring-vellum"
+            data-testid="licence-text"
+            aria-label={`${chosenLicence.title} in full`}
+            tabIndex={0}
+          >
+            {chosenLicence.body}
+          </div>
+        )}
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-3" aria-describedby={form.errors.formats ? 'formats-error' : undefined}>
+        <legend className="pb-2 text-lg font-bold">Files in the package</legend>
+        <input type="hidden" name="formats" value={formats.join(',')} />
+        <div className="grid gap-2 sm:grid-cols-2">
+          {PACKAGE_FORMATS.map((format) => (
+            <label key={format} className="flex items-center gap-2 text-sm">
+              <input
+                type="checkbox"
+                checked={formats.includes(format)}
+                onChange={(event) => {
+                  form.clearError('formats');
+                  setFormats((current) =>
+                    event.target.checked ? PACKAGE_FORMATS.filter((f) => f === format || current.includes(f)) : current.filter((f) => f !== format),
+                  );
+                }}
+                className="accent-bracken"
+              />
+              {FORMAT_LABELS[format]}
+            </label>
+          ))}
+        </div>
+        {form.errors.formats && (
+          <p id="formats-error" className="text-sm font-medium text-hawthorn" data-field-error="formats">
+            {form.errors.formats}
+          </p>
+        )}
+        <p className="text-sm text-loam-soft">Every package also holds the licence text and a README.</p>
+      </fieldset>
+
+      <div className="flex flex-col gap-3 border-t-2 border-vellum pt-6">
+        <label className="flex items-center gap-2 text-sm">
+          <input type="checkbox" checked={submitAfterSave} onChange={(event) => setSubmitAfterSave(event.target.checked)} className="accent-bracken" />
+          Send it to the market’s admins for review now (they check every preset before it goes on sale)
+        </label>
+        <div>
+          <Button type="submit" disabled={!form.ready || form.busy}>
+            {form.busy ? 'Saving…' : submitAfterSave ? 'Save and submit for review' : 'Save as draft'}
+          </Button>
+        </div>
+      </div>
+    </form>
+  );
+}

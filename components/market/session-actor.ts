@@ -1,0 +1,7 @@
+// The person a page acts for when it reads through lib/market (server components only).
+import type { SignedInSession } from '@/lib/auth';
+import type { Actor } from '@/lib/market/http';
+
+export function actorOf(session: SignedInSession): Actor {
+  return { userId: session.user.id, roles: session.user.roles, email: session.user.email ?? null };
+}
