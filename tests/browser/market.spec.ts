@@ -1,0 +1,194 @@
+// The market end to end, as its people use it: a groomer lists a saved groom version, an admin
+// approves it, a buyer finds it by search, pays on the payments fake's hosted page with the test
+// card, downloads the package and reviews it; the seller sees the sale in the chart and the CSV;
+// an admin refunds it and the buyer's download is refused.
+import { randomBytes } from 'node:crypto';
+import { readFile } from 'node:fs/promises';
+import { expect, test, type Browser, type Page } from '@playwright/test';
+import { unzipSync, strFromU8 } from 'fflate';
+import { closeDb } from '../../lib/db';
+import { DEMO_GROOMS, surfaceToObj } from '../../lib/groom';
+import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
+import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
+
+test.afterAll(closeDb);
+
+async function personPage(browser: Browser, email: string, password: string, displayName: string): Promise<Page> {
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await signInThroughForm(page, email, password);
+  await expectSignedInAs(page, displayName);
+  return page;
+}
+
+async function apiJson<T>(response: { status(): number; text(): Promise<string> }, status: number): Promise<T> {
+  const text = await response.text();
+  expect(response.status(), text).toBe(status);
+  return (JSON.parse(text) as { data: T }).data;
+}
+
+/** A growth surface, a groom on it and a saved version, through the studio's routes. */
+async function groomWithSavedVersion(page: Page, name: string) {
+  const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
+  const obj = new TextEncoder().encode(surfaceToObj(ring.surface(), 'Loop, a plush ring'));
+  const ticket = await apiJson<{ uploadId: string; url: string }>(
+    await page.request.post('/api/studio/uploads', { data: { fileName: 'loop.obj', byteSize: obj.byteLength } }),
+    201,
+  );
+  const put = await page.request.put(ticket.url, { data: Buffer.from(obj) });
+  expect(put.ok()).toBe(true);
+  const { surface } = await apiJson<{ surface: { id: string } }>(
+    await page.request.post('/api/studio/surfaces', { data: { uploadId: ticket.uploadId, name: 'Loop ring', units: 'cm' } }),
+    201,
+  );
+  const { groom } = await apiJson<{ groom: { id: string } }>(
+    await page.request.post('/api/studio/grooms', { data: { surfaceId: surface.id, name } }),
+    201,
+  );
+  await apiJson(await page.request.post(`/api/studio/grooms/${groom.id}/versions`, { data: { name: 'first pass' } }), 201);
+  return groom.id;
+}
+
+test('a preset is listed, approved, found, bought, downloaded, reviewed, counted and refunded', async ({ browser }) => {
+  test.setTimeout(300_000);
+  const token = `zq${randomBytes(4).toString('hex')}`;
+  const title = `Badger ruff ${token}`;
+  const password = 'sett-and-stripe-42';
+
+  // The seller lists a saved groom version and sends it for review.
+  const sellerAccount = await confirmedAccount('seller', 'groomer', password);
+  const seller = await personPage(browser, sellerAccount.email, password, sellerAccount.displayName);
+  const groomName = `Ruff ${token}`;
+  await groomWithSavedVersion(seller, groomName);
+
+  await seller.goto('/sales');
+  await seller.getByRole('link', { name: 'List a preset' }).click();
+  await expect(seller.getByRole('heading', { name: 'List a preset', level: 1 })).toBeVisible();
+  // Field messages come before anything is sent.
+  await seller.getByRole('button', { name: 'Save and submit for review' }).click();
+  await expect(seller.locator('[data-field-error="title"]')).toBeVisible();
+  await expect(seller.locator('[data-field-error="groomId"]')).toBeVisible();
+
+  await seller.getByLabel('Groom', { exact: true }).selectOption({ label: `${groomName} (Loop ring)` });
+  await expect(seller.getByLabel('Saved version')).toHaveValue(/.+/);
+  await seller.getByLabel('Title').fill(title);
+  await seller
+    .getByLabel('Description')
+    .fill('A badger ruff for a stocky creature: a crown whorl, a parting down the back and short, dense guides all round.');
+  await seller.getByLabel('Animal').selectOption('creature');
+  await seller.getByLabel('Coat length').selectOption('short');
+  await seller.getByLabel('Style').selectOption('wild');
+  await seller.getByLabel('Body region').selectOption('full-body');
+  await seller.getByLabel('Price', { exact: true }).fill('19.50');
+  await seller.getByLabel('Currency').selectOption('eur');
+  await seller.getByLabel('Studio licence').check();
+  await expect(seller.getByTestId('licence-text')).toContainText('Studio licence');
+  await seller.getByLabel(/OpenUSD BasisCurves, linear/).check();
+  await seller.getByLabel(/glTF 2\.0 binary/).check();
+  await seller.getByLabel(/Whorlwind groom spec/).check();
+  await seller.getByRole('button', { name: 'Save and submit for review' }).click();
+
+  await expect(seller).toHaveURL(/\/sales\?listed=/);
+  const myListing = seller.getByTestId('seller-listing').filter({ hasText: title });
+  await expect(myListing.getByTestId('listing-state')).toHaveAttribute('data-state', 'submitted');
+
+  // An admin approves it once its pictures and package are made.
+  const adminAccount = DEMO_ACCOUNTS.find((account) => account.roles.includes('admin'))!;
+  const admin = await personPage(browser, adminAccount.email, adminAccount.password, adminAccount.displayName);
+  await admin.goto('/admin');
+  const queued = admin.getByTestId('queue-item').filter({ hasText: title });
+  await expect(async () => {
+    await admin.reload();
+    await expect(queued.getByRole('button', { name: 'Approve' })).toBeEnabled({ timeout: 2_000 });
+  }).toPass({ timeout: 120_000, intervals: [2_000] });
+  await queued.getByRole('button', { name: 'Approve' }).click();
+  await expect(admin.getByText(`“${title}” is on the market`)).toBeVisible();
+  await expect(queued).toHaveCount(0);
+
+  // A buyer finds it by search and reads the listing before paying.
+  const buyerAccount = await confirmedAccount('buyer', 'buyer', password);
+  const buyer = await personPage(browser, buyerAccount.email, password, buyerAccount.displayName);
+  await buyer.goto('/market');
+  await buyer.getByLabel('Search presets').fill(token);
+  await buyer.getByRole('button', { name: 'Search' }).click();
+  await expect(buyer).toHaveURL(new RegExp(`/market\\?q=${token}`));
+  await expect(buyer.getByTestId('listing-tile')).toHaveCount(1);
+  await expect(buyer.getByTestId('listing-tile')).toContainText('19.50 EUR');
+  await buyer.getByRole('link', { name: title }).click();
+
+  await expect(buyer.getByRole('heading', { name: title, level: 1 })).toBeVisible();
+  await expect(buyer.getByTestId('licence-text')).toContainText('Studio licence');
+  await expect(buyer.getByRole('complementary', { name: 'Before you buy' })).toContainText('not legal advice');
+  await expect(buyer.getByTestId('package-formats')).toContainText('OpenUSD BasisCurves, linear');
+  await expect(buyer.getByTestId('gallery').getByRole('img').first()).toBeVisible();
+  const preview = buyer.getByTestId('guide-preview');
+  await expect(preview).toBeVisible();
+
+  // Pays with the test card on the payment provider's hosted page, and comes back to the library.
+  await buyer.getByRole('button', { name: 'Buy for 19.50 EUR' }).click();
+  await expect(buyer.getByLabel('Card number')).toBeVisible();
+  await buyer.getByLabel('Card number').fill('4242 4242 4242 4242');
+  await buyer.getByRole('button', { name: /^Pay/ }).click();
+  await expect(buyer).toHaveURL(/\/library\?checkout=success/);
+  await expect(buyer.getByTestId('purchase-arrived')).toContainText(title, { timeout: 30_000 });
+
+  // Downloads the package: the zip opens and holds the promised files.
+  const owned = buyer.getByTestId('library-item').filter({ hasText: title });
+  const downloading = buyer.waitForEvent('download');
+  await owned.getByRole('button', { name: /Download/ }).click();
+  const download = await downloading;
+  const files = unzipSync(new Uint8Array(await readFile((await download.path())!)));
+  const names = Object.keys(files).map((path) => path.split('/').pop());
+  expect(names.sort()).toEqual(['LICENCE.txt', 'README.txt', 'groom-spec.json', 'guides.glb', 'guides.usda']);
+  const usda = Object.entries(files).find(([path]) => path.endsWith('guides.usda'))![1];
+  expect(strFromU8(usda)).toContain('BasisCurves');
+  const glb = Object.entries(files).find(([path]) => path.endsWith('guides.glb'))![1];
+  expect(strFromU8(glb.slice(0, 4))).toBe('glTF');
+  const spec = JSON.parse(strFromU8(Object.entries(files).find(([path]) => path.endsWith('groom-spec.json'))![1]));
+  expect(spec.specVersion).toBeGreaterThanOrEqual(1);
+  expect(strFromU8(Object.entries(files).find(([path]) => path.endsWith('LICENCE.txt'))![1])).toContain('Studio licence');
+
+  // Leaves a review, which the listing shows.
+  await owned.getByRole('button', { name: 'Rate and review' }).click();
+  await owned.getByRole('button', { name: 'Publish my review' }).click();
+  await expect(owned.locator('[data-field-error="rating"]')).toBeVisible();
+  await owned.getByLabel(/5 out of 5/).check();
+  await owned.getByLabel('What you thought').fill('The crown whorl sat exactly where our badger needed it.');
+  await owned.getByRole('button', { name: 'Publish my review' }).click();
+  await expect(owned.getByText('Your review is saved')).toBeVisible();
+  await buyer.getByRole('link', { name: title }).click();
+  await expect(buyer.getByTestId('review')).toContainText('The crown whorl sat exactly where');
+
+  // The seller sees the sale in the chart, the table and the CSV.
+  await seller.goto('/sales');
+  await expect(seller.getByTestId('total-units')).toHaveText('1');
+  await seller.getByRole('group', { name: 'Figure shown' }).getByRole('button', { name: 'Units sold' }).click();
+  await expect(seller.getByTestId('sales-chart')).toHaveAttribute('data-total', '1');
+  await expect(seller.getByTestId('chart-bar').and(seller.locator('[data-value="1"]'))).toHaveCount(1);
+  const row = seller.getByTestId('sales-row').filter({ hasText: title });
+  await expect(row).toContainText('19.50 EUR');
+  const csvHref = await seller.getByTestId('sales-csv').getAttribute('href');
+  const csv = await seller.request.get(csvHref!);
+  expect(csv.status()).toBe(200);
+  expect(csv.headers()['content-type']).toContain('text/csv');
+  const csvLine = (await csv.text()).split(/\r?\n/).find((line) => line.includes(title));
+  expect(csvLine).toBeDefined();
+  expect(csvLine).toContain('EUR,1,19.50');
+
+  // An admin refunds it; the buyer's download is refused.
+  await admin.goto('/admin');
+  const purchase = admin.getByTestId('admin-purchase').filter({ hasText: buyerAccount.email });
+  await purchase.getByRole('button', { name: 'Refund…' }).click();
+  await purchase.getByLabel(/Reason/).fill('Bought by mistake');
+  await purchase.getByRole('button', { name: 'Refund 19.50 EUR' }).click();
+  await expect(purchase).toHaveAttribute('data-status', 'refunded', { timeout: 30_000 });
+
+  await buyer.goto('/library');
+  const refunded = buyer.getByTestId('library-item').filter({ hasText: title });
+  await expect(refunded.getByTestId('refunded-mark')).toBeVisible();
+  await expect(refunded.getByRole('button', { name: /Download/ })).toHaveCount(0);
+  const purchaseId = (await refunded.getAttribute('id'))!.replace('purchase-', '');
+  const refused = await buyer.request.post(`/api/library/${purchaseId}/download`);
+  expect(refused.status()).toBe(403);
+  expect((await refused.json()).error.code).toBe('refunded');
+});
