@@ -4,6 +4,23 @@
 import S3rver from 's3rver';
 import { mkdir } from 'node:fs/promises';
 
+// The studio's pages upload surface files straight to the store with presigned PUTs and read
+// them back with presigned GETs from the browser, on another origin than the app: the bucket
+// answers cross-origin requests from the app on loopback (a hosted bucket needs the same rule).
+const BROWSER_CORS = `<CORSConfiguration>
+  <CORSRule>
+    <AllowedOrigin>http://127.0.0.1:*</AllowedOrigin>
+    <AllowedOrigin>http://localhost:*</AllowedOrigin>
+    <AllowedMethod>GET</AllowedMethod>
+    <AllowedMethod>HEAD</AllowedMethod>
+    <AllowedMethod>PUT</AllowedMethod>
+    <AllowedHeader>*</AllowedHeader>
+    <ExposeHeader>ETag</ExposeHeader>
+    <ExposeHeader>Content-Length</ExposeHeader>
+    <MaxAgeSeconds>600</MaxAgeSeconds>
+  </CORSRule>
+</CORSConfiguration>`;
+
 export type S3StandInOptions = { port: number; directory: string; bucket: string };
 
 export async function startS3StandIn({ port, directory, bucket }: S3StandInOptions) {
@@ -14,7 +31,7 @@ export async function startS3StandIn({ port, directory, bucket }: S3StandInOptio
     directory,
     silent: true,
     vhostBuckets: false,
-    configureBuckets: [{ name: bucket }],
+    configureBuckets: [{ name: bucket, configs: [BROWSER_CORS] }],
   });
   await server.run();
   return {

@@ -1,31 +1,33 @@
 import type { Metadata } from 'next';
-import { AreaIntro } from '@/components/areas/AreaIntro';
+import { StudioHome } from '@/components/studio/home/StudioHome';
 import { accountSummary } from '@/lib/accounts';
 import { requireArea } from '@/lib/auth';
+import { env } from '@/lib/env';
+import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
+import { area } from '@/lib/roles';
+import { listGrooms } from '@/lib/studio/grooms';
+import { listSurfaces } from '@/lib/studio/surfaces';
 
 export const metadata: Metadata = { title: 'Studio' };
 
 export default async function StudioPage() {
   const session = await requireArea('studio');
-  const account = session && (await accountSummary(session.user.id));
+  const groomer = { userId: session!.user.id };
+  const [account, grooms, surfaces] = await Promise.all([accountSummary(groomer.userId), listGrooms(groomer), listSurfaces(groomer)]);
   return (
-    <AreaIntro
-      areaId="studio"
-      upcoming={[
-        'Upload a growth surface (OBJ, PLY, STL, glTF) and see what needs fixing before the field can be solved.',
-        'Place whorls, saddles, partings, crests and flow strokes, with the index budget in view.',
-        'Trace, shape and preview guides in 3D; export USD curves, glTF, OBJ and the groom spec.',
-      ]}
-    >
-      <p className="rounded-2xl bg-lichen-pale px-5 py-4">
-        {account?.studioName ? (
-          <>
-            Grooming for <strong>{account.studioName}</strong>.
-          </>
-        ) : (
-          'Grooming on your own account.'
-        )}
-      </p>
-    </AreaIntro>
+    <div className="flex flex-col gap-10">
+      <div className="flex flex-col gap-3">
+        <h1 className="text-4xl font-extrabold tracking-tight">Studio</h1>
+        <p className="max-w-2xl text-lg text-loam-soft">
+          {area('studio').summary} {account?.studioName ? `Grooming for ${account.studioName}.` : ''}
+        </p>
+      </div>
+      <StudioHome
+        maxBytes={env().SURFACE_MAX_BYTES}
+        initialGrooms={{ grooms }}
+        initialSurfaces={{ surfaces }}
+        practice={DEMO_GROOMS.map(({ id, character, description }) => ({ id, character, description }))}
+      />
+    </div>
   );
 }

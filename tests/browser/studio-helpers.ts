@@ -1,0 +1,49 @@
+// Steps the studio's browser tests (and the studio benchmark) share.
+import { expect, type Locator, type Page } from '@playwright/test';
+import sharp from 'sharp';
+
+/** Types a number into a field of the side list and applies it (Enter), as a groomer would. */
+export async function typeNumber(field: Locator, value: number) {
+  await field.fill(String(value));
+  await field.press('Enter');
+}
+
+export async function typePoint(group: Locator, point: readonly number[], prefix = '') {
+  const label = (axis: string) => (prefix ? `${prefix} ${axis}` : axis);
+  for (const [k, axis] of ['x', 'y', 'z'].entries()) await typeNumber(group.getByLabel(label(axis), { exact: true }), point[k]);
+}
+
+export async function openPanel(page: Page, name: 'Features' | 'Guides' | 'Field & view' | 'Versions' | 'Export') {
+  await page.getByRole('tab', { name }).click();
+  await expect(page.getByRole('tab', { name })).toHaveAttribute('aria-selected', 'true');
+}
+
+/** Waits until the editor has opened its surface and drawn a field. */
+export async function waitForField(page: Page, timeout = 90_000) {
+  await expect(page.getByTestId('opening-progress')).toHaveCount(0, { timeout });
+  await page.waitForFunction(() => performance.getEntriesByName('whorlwind:first-field').length > 0, undefined, { timeout });
+}
+
+export async function waitForSaved(page: Page) {
+  await expect(page.getByTestId('save-status')).toHaveAttribute('data-state', 'saved', { timeout: 30_000 });
+}
+
+/**
+ * What a screenshot of an element holds: the share of pixels that differ clearly from `background`,
+ * and how many different colours (rounded to 4 bits per channel) appear.
+ */
+export async function pixelStats(png: Buffer, background: [number, number, number]) {
+  const { data, info } = await sharp(png).removeAlpha().raw().toBuffer({ resolveWithObject: true });
+  let differing = 0;
+  const colours = new Set<number>();
+  const pixels = info.width * info.height;
+  for (let i = 0; i < pixels; i++) {
+    const r = data[3 * i], g = data[3 * i + 1], b = data[3 * i + 2];
+    if (Math.abs(r - background[0]) + Math.abs(g - background[1]) + Math.abs(b - background[2]) > 40) differing++;
+    colours.add(((r >> 4) << 8) | ((g >> 4) << 4) | (b >> 4));
+  }
+  return { differingShare: differing / pixels, colours: colours.size };
+}
+
+/** The stage's background (#173236), from components/studio/scene/Stage.tsx. */
+export const STAGE_BACKGROUND: [number, number, number] = [0x17, 0x32, 0x36];
