@@ -33,7 +33,7 @@ export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; j
     if (justPaid) setArrival({ state: 'waiting', checkout: pendingCheckout(), since: Date.now() });
   }, [justPaid]);
   const waiting = arrival?.state === 'waiting';
-  const { data, error } = useSWR<LibraryResponse, ApiRequestError>('/api/library', fetchData, {
+  const { data, error, mutate } = useSWR<LibraryResponse, ApiRequestError>('/api/library', fetchData, {
     fallbackData: initial,
     refreshInterval: waiting ? 1_500 : 0,
   });
@@ -84,7 +84,7 @@ export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; j
       ) : (
         <ul className="flex flex-col gap-5" aria-label="Your presets">
           {purchases.map((item) => (
-            <PurchaseCard key={item.purchaseId} item={item} />
+            <PurchaseCard key={item.purchaseId} item={item} onDownloaded={() => mutate()} />
           ))}
         </ul>
       )}
@@ -92,7 +92,7 @@ export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; j
   );
 }
 
-function PurchaseCard({ item }: { item: LibraryItem }) {
+function PurchaseCard({ item, onDownloaded }: { item: LibraryItem; onDownloaded: () => void }) {
   const refunded = item.status === 'refunded' || item.refundPending;
   const [reviewing, setReviewing] = useState(false);
   return (
@@ -141,7 +141,7 @@ function PurchaseCard({ item }: { item: LibraryItem }) {
         ) : (
           <div className="flex flex-col gap-3 pt-1">
             <div className="flex flex-wrap items-center gap-3">
-              <DownloadButton item={item} />
+              <DownloadButton item={item} onDownloaded={onDownloaded} />
               <Button look="quiet" onClick={() => setReviewing((open) => !open)} aria-expanded={reviewing}>
                 {reviewing ? 'Close the review' : 'Rate and review'}
               </Button>
@@ -158,7 +158,7 @@ function PurchaseCard({ item }: { item: LibraryItem }) {
   );
 }
 
-function DownloadButton({ item }: { item: LibraryItem }) {
+function DownloadButton({ item, onDownloaded }: { item: LibraryItem; onDownloaded: () => void }) {
   const [busy, setBusy] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
   async function download() {
@@ -177,6 +177,8 @@ function DownloadButton({ item }: { item: LibraryItem }) {
     document.body.append(link);
     link.click();
     link.remove();
+    // The download is counted: show the new count.
+    onDownloaded();
   }
   return (
     <div className="flex flex-col gap-2">

@@ -170,6 +170,7 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
               onChange={(event) => {
                 setGroomId(event.target.value);
                 form.clearError('groomId');
+                form.clearError('versionId');
               }}
             >
               <option value="">Choose a groom…</option>

@@ -7,10 +7,13 @@ const WIDTH = 720;
 const HEIGHT = 260;
 const MARGIN = { top: 16, right: 12, bottom: 34, left: 72 };
 
-/** Round steps (1, 2 or 5 × 10ⁿ) that cover 0…max in about four intervals. */
-export function niceTicks(max: number, intervals = 4): number[] {
-  if (!(max > 0)) return [0, 1];
-  const raw = max / intervals;
+/**
+ * Round steps (1, 2 or 5 × 10ⁿ) that cover 0…max in about four intervals; `minStep` keeps
+ * counts of whole things (units, downloads) on whole numbers.
+ */
+export function niceTicks(max: number, intervals = 4, minStep = 0): number[] {
+  if (!(max > 0)) return [0, Math.max(1, minStep)];
+  const raw = Math.max(max / intervals, minStep);
   const magnitude = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 5, 10].map((f) => f * magnitude).find((candidate) => candidate >= raw) ?? 10 * magnitude;
   const ticks: number[] = [];
@@ -23,16 +26,19 @@ export function BarChart({
   title,
   bars,
   format,
+  minStep = 0,
   emptyText = 'Nothing in this period.',
 }: {
   title: string;
   bars: ChartBar[];
   format: (value: number) => string;
+  /** The smallest step of the value axis (1 for counts; for money, one cent as 1). */
+  minStep?: number;
   emptyText?: string;
 }) {
   const plotWidth = WIDTH - MARGIN.left - MARGIN.right;
   const plotHeight = HEIGHT - MARGIN.top - MARGIN.bottom;
-  const ticks = niceTicks(Math.max(0, ...bars.map((bar) => bar.value)));
+  const ticks = niceTicks(Math.max(0, ...bars.map((bar) => bar.value)), 4, minStep);
   const top = ticks[ticks.length - 1] || 1;
   const y = (value: number) => MARGIN.top + plotHeight - (Math.max(0, value) / top) * plotHeight;
   const slot = bars.length > 0 ? plotWidth / bars.length : plotWidth;

@@ -197,7 +197,7 @@ function Chart({ report, currency, metric }: { report: SalesResponse; currency: 
     value: byPeriod.get(start)?.[metric] ?? 0,
   }));
   const format = choice.money ? (value: number) => formatPrice(value, currency) : (value: number) => value.toLocaleString('en-GB');
-  return <BarChart title={`${choice.label}, ${BUCKET_LABELS[report.bucket].toLowerCase()}`} bars={bars} format={format} />;
+  return <BarChart title={`${choice.label}, ${BUCKET_LABELS[report.bucket].toLowerCase()}`} bars={bars} format={format} minStep={1} />;
 }
 
 type Row = SalesResponse['listings'][number];

@@ -122,7 +122,9 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await expect(buyer.getByTestId('package-formats')).toContainText('OpenUSD BasisCurves, linear');
   await expect(buyer.getByTestId('gallery').getByRole('img').first()).toBeVisible();
   const preview = buyer.getByTestId('guide-preview');
-  await expect(preview).toBeVisible();
+  await expect(preview).toHaveAttribute('data-preview-state', 'ready', { timeout: 30_000 });
+  await expect(preview.locator('canvas')).toBeVisible();
+  await expect(preview).toContainText(/\d+ guides shown/);
 
   // Pays with the test card on the payment provider's hosted page, and comes back to the library.
   await buyer.getByRole('button', { name: 'Buy for 19.50 EUR' }).click();
@@ -147,6 +149,7 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   const spec = JSON.parse(strFromU8(Object.entries(files).find(([path]) => path.endsWith('groom-spec.json'))![1]));
   expect(spec.specVersion).toBeGreaterThanOrEqual(1);
   expect(strFromU8(Object.entries(files).find(([path]) => path.endsWith('LICENCE.txt'))![1])).toContain('Studio licence');
+  await expect(owned).toContainText('downloaded 1 time');
 
   // Leaves a review, which the listing shows.
   await owned.getByRole('button', { name: 'Rate and review' }).click();
