@@ -159,8 +159,23 @@ export class FieldClient {
   }
 }
 
+let prewarmed: Worker | null = null;
+
+function newWorker(): Worker {
+  return new Worker(new URL('./field-worker.ts', import.meta.url), { type: 'module', name: 'whorlwind-field' });
+}
+
+/**
+ * Starts loading a field worker ahead of need (while the page still fetches the groom), so that
+ * its code is ready when the surface arrives. The next `startFieldWorker` takes it.
+ */
+export function prewarmFieldWorker(): void {
+  prewarmed ??= newWorker();
+}
+
 /** The worker of the studio, bundled by Next.js from field-worker.ts. */
 export function startFieldWorker(): FieldClient {
-  const worker = new Worker(new URL('./field-worker.ts', import.meta.url), { type: 'module', name: 'whorlwind-field' });
+  const worker = prewarmed ?? newWorker();
+  prewarmed = null;
   return new FieldClient(worker as unknown as WorkerLike);
 }

@@ -149,6 +149,7 @@ export class FieldEngine {
 
   /** Reads and prepares a surface: the one expensive step (the factorization), with progress. */
   async open(source: SurfaceSource, boundary: BoundaryMode): Promise<OpenedSurface> {
+    const started = now();
     const loaded = await loadSurfaceBytes(source, this.progress);
     const t0 = now();
     let mesh: TriangleMesh;
@@ -165,7 +166,7 @@ export class FieldEngine {
     const t1 = now();
     this.prepare(mesh, boundary);
     const t2 = now();
-    return this.describe(fileVertexCount, { readMilliseconds: t1 - t0, prepareMilliseconds: t2 - t1 });
+    return this.describe(fileVertexCount, { downloadMilliseconds: t0 - started, readMilliseconds: t1 - t0, prepareMilliseconds: t2 - t1 });
   }
 
   /** Reads a file that may be broken, only to draw it: no checks beyond what reading needs. */

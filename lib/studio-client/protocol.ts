@@ -77,7 +77,7 @@ export interface OpenedSurface {
   readonly diagonal: number;
   readonly meanEdge: number;
   readonly boundary: BoundaryMode;
-  readonly timings: { readonly readMilliseconds: number; readonly prepareMilliseconds: number };
+  readonly timings: { readonly downloadMilliseconds: number; readonly readMilliseconds: number; readonly prepareMilliseconds: number };
 }
 
 /** A surface read for inspection only (it may be broken): enough to draw it and point at faces. */

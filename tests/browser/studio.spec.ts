@@ -142,13 +142,13 @@ test('the editor: features through the side list, measured indices equal the pla
   while ((await rows.count()) > 0) await rows.first().getByRole('button', { name: /^Delete / }).click();
 
   await page.getByRole('button', { name: 'Add whorl' }).click();
-  await typePoint(page.getByRole('group', { name: 'Whorl 1' }), NOSE);
+  await typePoint(page.getByRole('group', { name: 'Whorl 1', exact: true }), NOSE);
   await page.getByRole('button', { name: 'Add whorl' }).click();
-  await typePoint(page.getByRole('group', { name: 'Whorl 2' }), NAPE);
+  await typePoint(page.getByRole('group', { name: 'Whorl 2', exact: true }), NAPE);
   await page.getByRole('button', { name: 'Add saddle' }).click();
-  await typePoint(page.getByRole('group', { name: 'Saddle 1' }), BROW);
+  await typePoint(page.getByRole('group', { name: 'Saddle 1', exact: true }), BROW);
   await page.getByRole('button', { name: 'Add parting' }).click();
-  const parting = page.getByRole('group', { name: 'Parting 1' });
+  const parting = page.getByRole('group', { name: 'Parting 1', exact: true });
   await typePoint(parting, PARTING[0], 'Point 1');
   await typePoint(parting, PARTING[1], 'Point 2');
 
@@ -161,7 +161,7 @@ test('the editor: features through the side list, measured indices equal the pla
   await expect(rows.filter({ hasText: 'Whorl 1' })).toContainText('index +1 · measured +1');
   await expect(rows.filter({ hasText: 'Whorl 2' })).toContainText('index +1 · measured +1');
   await expect(rows.filter({ hasText: 'Saddle 1' })).toContainText('index −1 · measured −1');
-  await page.getByRole('group', { name: 'Saddle 1' }).getByRole('button', { name: 'Saddle 1', exact: false }).first().click();
+  await page.getByRole('group', { name: 'Saddle 1', exact: true }).getByRole('button', { name: 'Saddle 1', exact: false }).first().click();
   await expect(page.getByTestId('singularity-check')).toContainText(/Asked −1 at vertex \d+ · measured −1 ✓/);
 
   // Undo and redo: an extra whorl unbalances the budget; undo takes it back, redo brings it again.
@@ -265,8 +265,8 @@ test('placing with the pointer: a click with the whorl tool, a drag that moves i
   // Drag the new whorl (selected, at the middle of the view) somewhat to the side.
   await page.getByRole('button', { name: 'Turn & pick' }).click();
   const label = `Whorl ${before + 1}`;
-  await page.getByRole('group', { name: label }).getByRole('button', { name: 'Look at' }).click();
-  const group = page.getByRole('group', { name: label });
+  await page.getByRole('group', { name: label, exact: true }).getByRole('button', { name: 'Look at' }).click();
+  const group = page.getByRole('group', { name: label, exact: true });
   const x0 = await group.getByLabel('x', { exact: true }).inputValue();
   const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
   await page.mouse.move(cx, cy - 4);
@@ -277,5 +277,12 @@ test('placing with the pointer: a click with the whorl tool, a drag that moves i
   await expect(page.getByRole('button', { name: 'Undo' })).toHaveAttribute('title', `Undo: Move ${label.toLowerCase()} (Ctrl+Z)`);
   await page.getByRole('button', { name: 'Undo' }).click();
   await expect(group.getByLabel('x', { exact: true })).toHaveValue(x0);
+
+  // Twist and turn, changed on the card beside the marker, show in the side list too.
+  const card = page.getByRole('group', { name: `${label} on the surface` });
+  await card.getByLabel('Twist chosen by the solve').uncheck();
+  await card.getByRole('button', { name: 'clockwise', exact: true }).click();
+  await expect(group.getByLabel('Twist', { exact: true })).toHaveValue('0');
+  await expect(group.getByLabel('Turn (seen from outside)')).toHaveValue('clockwise');
   await expect(page.getByTestId('save-status')).toHaveText('Practice groom — nothing is saved');
 });

@@ -3,7 +3,7 @@
 // and the features — markers for singularities and pins, lines for partings, crests and flow
 // strokes, and the path of a curve being drawn.
 import type { ThreeEvent } from '@react-three/fiber';
-import { useMemo, type RefObject } from 'react';
+import { memo, useMemo, type RefObject } from 'react';
 import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
 import type { GroomSpec } from '@/lib/groom/spec';
 import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
@@ -61,7 +61,7 @@ export function placeOnSurface(surface: OpenedSurface, vertex: number | undefine
   return { point: [point[0], point[1], point[2]], normal: d };
 }
 
-function SingularityMarker({
+const SingularityMarker = memo(function SingularityMarker({
   index,
   at,
   size,
@@ -93,9 +93,9 @@ function SingularityMarker({
       </mesh>
     </group>
   );
-}
+}, sameMarker);
 
-function PinMarker({ at, size, selected, feature, handlers }: { at: { point: Vec3; normal: Vec3 }; size: number; selected: boolean; feature: FeatureRef; handlers: MarkerHandlers }) {
+const PinMarker = memo(function PinMarker({ at, size, selected, feature, handlers }: { at: { point: Vec3; normal: Vec3 }; size: number; selected: boolean; feature: FeatureRef; handlers: MarkerHandlers }) {
   const rotation = useMemo(() => orientation(at.normal), [at.normal]);
   return (
     <group position={at.point} quaternion={rotation}>
@@ -105,7 +105,22 @@ function PinMarker({ at, size, selected, feature, handlers }: { at: { point: Vec
       </mesh>
     </group>
   );
+}, sameMarker);
+
+/** Markers are drawn again only when something about them changed (not on every render of the page). */
+function sameMarker<P extends { at: { point: Vec3; normal: Vec3 }; feature: FeatureRef }>(a: P, b: P): boolean {
+  for (const key of Object.keys(a) as (keyof P)[]) {
+    if (key === 'at' || key === 'feature') continue;
+    if (a[key] !== b[key]) return false;
+  }
+  return a.at.point.every((x, i) => x === b.at.point[i]) && a.at.normal.every((x, i) => x === b.at.normal[i]) && a.feature.kind === b.feature.kind && a.feature.index === b.feature.index;
 }
+
+/** A flow stroke's polyline; its geometry is rebuilt only when the stroke itself changes. */
+const StrokeLine = memo(function StrokeLine({ points, selected }: { points: readonly (readonly number[])[]; selected: boolean }) {
+  const flat = useMemo(() => Float32Array.from(points.flat()), [points]);
+  return <FatLine points={flat} colour={selected ? COLOURS.selected : COLOURS.flow} width={selected ? 5 : 3} dashed />;
+});
 
 export function EditorScene({
   surface,
@@ -151,7 +166,7 @@ export function EditorScene({
 
   return (
     <>
-      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} />
+      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} />
       {surface.boundaryLines.length > 0 && <LineLayer lines={surface.boundaryLines} tail={COLOURS.border} head={COLOURS.border} name="border" />}
       {fieldLines && (
         <LineLayer lines={fieldLines} shade={fieldShade} tail={COLOURS.strokeTail} head={COLOURS.strokeHead} opacity={fieldFaded ? 0.3 : 1} onDrawn={onFieldDrawn} name="field" />
@@ -176,10 +191,9 @@ export function EditorScene({
         const selected = sameFeature(selection, feature);
         return <FatLine key={`c${i}`} points={curve.points} colour={selected ? COLOURS.selected : curve.kind === 'parting' ? COLOURS.parting : COLOURS.crest} width={selected ? 6 : 4} />;
       })}
-      {spec.field.strokes.map((stroke, index) => {
-        const selected = sameFeature(selection, { kind: 'stroke', index });
-        return <FatLine key={`k${index}`} points={stroke.points.flat()} colour={selected ? COLOURS.selected : COLOURS.flow} width={selected ? 5 : 3} dashed />;
-      })}
+      {spec.field.strokes.map((stroke, index) => (
+        <StrokeLine key={`k${index}`} points={stroke.points} selected={sameFeature(selection, { kind: 'stroke', index })} />
+      ))}
       {draftPath && <FatLine points={draftPath} colour={COLOURS.draft} width={4} dashed />}
       {draft.map((point, i) => (
         <mesh key={`d${i}`} position={point} raycast={() => undefined}>

@@ -2,6 +2,7 @@
 // The side list: every feature of the coat as numbers that can be typed — where it is, its index,
 // twist and turn, a curve's points, a pin's value — with the measured index beside the requested
 // one. Reachable by keyboard from top to bottom; the picked feature opens its fields.
+import { memo } from 'react';
 import { PIN_ATTRIBUTES, type CurveSpec, type GroomSpec, type PinAttribute, type PinSpec, type SingularitySpec } from '@/lib/groom/spec';
 import { featureLabel, formatIndex, listFeatures, roundPoint, sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
 import type { SolveReport } from '@/lib/studio-client/protocol';
@@ -20,7 +21,7 @@ const ADDERS = [
   ['pin', 'Add pin'],
 ] as const;
 
-export function FeatureList({
+export const FeatureList = memo(function FeatureList({
   spec,
   selection,
   solve,
@@ -61,7 +62,7 @@ export function FeatureList({
       )}
     </div>
   );
-}
+});
 
 function summary(spec: GroomSpec, ref: FeatureRef, solve: SolveReport | null): string {
   const order = spec.field.order;

@@ -7,6 +7,7 @@ import { Notice } from '@/components/ui/Notice';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { parseGroomSpec } from '@/lib/groom/spec';
 import { studioApi, type GroomDetail, type StudioError } from '@/lib/studio-client/api';
+import { prewarmFieldWorker } from '@/lib/studio-client/field-client';
 import type { SurfaceSource } from '@/lib/studio-client/protocol';
 import { Workspace } from './Workspace';
 
@@ -15,6 +16,7 @@ export function GroomEditor({ groomId }: { groomId: string }) {
   const [error, setError] = useState<StudioError | null>(null);
   useEffect(() => {
     let live = true;
+    prewarmFieldWorker();
     studioApi.getGroom(groomId).then((outcome) => {
       if (!live) return;
       if (outcome.ok) setGroom(outcome.data.groom);

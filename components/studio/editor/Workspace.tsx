@@ -35,10 +35,11 @@ import { EditorScene, placeOnSurface } from './EditorScene';
 import { ExportPanel } from './ExportPanel';
 import { FeatureList } from './FeatureList';
 import { FieldPanel } from './FieldPanel';
+import { MarkerCard, ScreenAnchor } from './MarkerCard';
 import { GuidePanel } from './GuidePanel';
 import { SaveStatusLine } from './SaveStatusLine';
 import { ToolRail } from './ToolRail';
-import { PLACING_TOOLS, type Tool, type ToolOptions } from './tools';
+import { TOOLS, type Tool, type ToolOptions } from './tools';
 import { VersionPanel } from './VersionPanel';
 
 export interface Persistence {
@@ -118,10 +119,42 @@ export function Workspace({
   const [draftPath, setDraftPath] = useState<Float32Array | null>(null);
   const [tab, setTab] = useState<Tab>('features');
   const [notice, setNotice] = useState<string | null>(null);
+  /** A marker is being dragged: the guides, grown for where it was, are hidden until it is let go. */
+  const [dragging, setDragging] = useState(false);
   const [saveStatus, setSaveStatus] = useState<SaveStatus | null>(null);
   const saverRef = useRef<Autosaver | null>(null);
   const specRef = useRef(spec);
   specRef.current = spec;
+
+  const firstSolve = useRef(false);
+  const displayRef = useRef(display);
+  displayRef.current = display;
+  // While a marker is dragged the side list keeps showing where it was (and its measured index)
+  // until it is let go, so the page does not re-lay out its numbers at every step of the drag.
+  const frozenSolve = useRef<SolveReport | null>(null);
+  // ── solve on every change of the spec (quick while a drag runs) ─────────────────────────
+  const sent = useRef<{ spec: GroomSpec; display: DisplayOptions; quick: boolean } | null>(null);
+  const requestSolve = useCallback((client: FieldClient, next: GroomSpec, shown: DisplayOptions, quick: boolean) => {
+    const last = sent.current;
+    if (last && last.spec === next && last.display === shown && last.quick === quick) return;
+    sent.current = { spec: next, display: shown, quick };
+    client
+      .latest('field', 0, { type: 'solve', spec: next, display: shown, quick })
+      .then((report) => {
+        if (report === SUPERSEDED) return;
+        performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick } });
+        if (!firstSolve.current) {
+          firstSolve.current = true;
+          performance.mark('whorlwind:first-solve', { detail: { milliseconds: report.milliseconds } });
+        }
+        setSolve(report);
+        if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade });
+      })
+      .catch((error: unknown) => {
+        if (error instanceof WorkerFailure && (error.error.code === 'closed' || error.error.code === 'no-surface')) return;
+        setNotice(error instanceof Error ? error.message : 'The field could not be solved.');
+      });
+  }, []);
 
   // ── the worker: open the surface once ────────────────────────────────────────────────
   const taskStarted = useRef<{ stage: string; at: number } | null>(null);
@@ -135,9 +168,14 @@ export function Workspace({
     performance.mark('whorlwind:editor-mounted');
     const client = startFieldWorker();
     clientRef.current = client;
-    client
-      .request({ type: 'open', source, boundary: initialSpec.field.boundary }, track(setTask))
+    const opening = client.request({ type: 'open', source, boundary: initialSpec.field.boundary }, track(setTask));
+    // The first solve waits in the worker right behind the opening, so it runs while this page
+    // builds its own copy of the surface for drawing.
+    sent.current = null;
+    requestSolve(client, initialSpec, displayRef.current, false);
+    opening
       .then((opened) => {
+        performance.mark('whorlwind:surface-opened', { detail: opened.timings });
         setSurface(opened);
         setTask(null);
       })
@@ -150,24 +188,13 @@ export function Workspace({
       client.terminate();
       clientRef.current = null;
     };
-  }, [initialSpec.field.boundary, source, track]);
+  }, [initialSpec, requestSolve, source, track]);
 
-  // ── solve on every change of the spec (quick while a drag runs) ─────────────────────────
   useEffect(() => {
     const client = clientRef.current;
     if (!surface || !client) return;
-    client
-      .latest('field', 0, { type: 'solve', spec, display, quick: gesture })
-      .then((report) => {
-        if (report === SUPERSEDED) return;
-        setSolve(report);
-        if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade });
-      })
-      .catch((error: unknown) => {
-        if (error instanceof WorkerFailure && error.error.code === 'closed') return;
-        setNotice(error instanceof Error ? error.message : 'The field could not be solved.');
-      });
-  }, [display, gesture, spec, surface]);
+    requestSolve(client, spec, display, gesture);
+  }, [display, gesture, requestSolve, spec, surface]);
 
   const drawnCount = useRef(0);
   const onFieldDrawn = useCallback(() => {
@@ -179,7 +206,7 @@ export function Workspace({
   const guideKey = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.pins, spec.units, spec.upAxis]), [spec]);
   useEffect(() => {
     const client = clientRef.current;
-    if (!surface || !client || !showGuides || gesture || guides?.key === guideKey) return;
+    if (!surface || !client || !showGuides || dragging || guides?.key === guideKey) return;
     const timer = setTimeout(() => {
       client
         .latest('guides', 1, { type: 'grow', spec: specRef.current }, track(setGuideTask))
@@ -196,7 +223,7 @@ export function Workspace({
         });
     }, 300);
     return () => clearTimeout(timer);
-  }, [gesture, guideKey, guides?.key, showGuides, surface, track]);
+  }, [dragging, guideKey, guides?.key, showGuides, surface, track]);
 
   // ── autosave ────────────────────────────────────────────────────────────────────────────
   useEffect(() => {
@@ -413,7 +440,10 @@ export function Workspace({
       press.current = null;
       if (!current) return;
       stageApi.current?.setNavigation(true);
-      if (current.feature) setEditor(endGesture(editorRef.current));
+      if (current.feature) {
+        setEditor(endGesture(editorRef.current));
+        setDragging(false);
+      }
       if (current.stroke) {
         const points = current.stroke;
         setDraft([]);
@@ -441,6 +471,8 @@ export function Workspace({
         setEditor(select(editorRef.current, feature));
         press.current = { x: event.nativeEvent.clientX, y: event.nativeEvent.clientY, feature };
         stageApi.current?.setNavigation(false);
+        frozenSolve.current = solveRef.current;
+        setDragging(true);
       },
     }),
     [setEditor],
@@ -497,11 +529,21 @@ export function Workspace({
         if (featureExists(editorRef.current.present.spec, selection)) actions.edit({ type: 'remove', feature: selection });
       } else if (event.key === 'Home') {
         stageApi.current?.frameAll();
+      } else {
+        const shortcut = TOOLS.find((t) => t.key.toLowerCase() === event.key.toLowerCase());
+        if (shortcut) chooseTool(shortcut.id);
       }
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
-  }, [actions, doRedo, doUndo, finishDraft]);
+  }, [actions, chooseTool, doRedo, doUndo, finishDraft]);
+
+  const cardRef = useRef<HTMLDivElement | null>(null);
+  const selectedPoint = useMemo(() => {
+    const selection = editor.selection;
+    if (!surface || !selection || (selection.kind !== 'singularity' && selection.kind !== 'pin')) return null;
+    return markerPlace(surface, spec, solve, selection)?.point ?? null;
+  }, [editor.selection, solve, spec, surface]);
 
   // ── what the panels show ────────────────────────────────────────────────────────────────
   const errorFeature = solve?.error?.path ? featureOfPath(solve.error.path) : null;
@@ -556,7 +598,7 @@ export function Workspace({
                 fieldFaded={!solve?.lines}
                 guides={guides?.grown ?? null}
                 guidesFaded={!guidesCurrent}
-                showGuides={showGuides}
+                showGuides={showGuides && !dragging}
                 selection={editor.selection}
                 draft={draft}
                 draftPath={draftPath}
@@ -565,8 +607,10 @@ export function Workspace({
                 pointer={pointer}
                 onFieldDrawn={onFieldDrawn}
               />
+              <ScreenAnchor point={selectedPoint} element={cardRef} />
             </Stage>
           ) : null}
+          {surface && !dragging && <MarkerCard spec={spec} feature={editor.selection} actions={actions} element={cardRef} />}
           {surface && <ToolRail tool={tool} onTool={chooseTool} options={toolOptions} onOptions={setToolOptions} order={spec.field.order} draftLength={draft.length} onFinish={finishDraft} onCancel={() => (setDraft([]), setDraftPath(null))} onFrameAll={() => stageApi.current?.frameAll()} />}
           {(task || (!surface && !openError)) && (
             <div className="absolute inset-0 flex items-center justify-center p-8">
@@ -643,7 +687,7 @@ export function Workspace({
             ))}
           </div>
           <div role="tabpanel" id={`panel-${tab}`} aria-labelledby={`tab-${tab}`} className="min-h-0 flex-1 overflow-y-auto rounded-2xl bg-vellum/60 p-3">
-            {tab === 'features' && <FeatureList spec={spec} selection={editor.selection} solve={solve} errorFeature={errorFeature} errorMessage={fieldError?.message ?? null} actions={actions} />}
+            {tab === 'features' && <FeatureList spec={dragging && editor.gestureBase ? editor.gestureBase.spec : spec} selection={editor.selection} solve={dragging ? frozenSolve.current : solve} errorFeature={errorFeature} errorMessage={fieldError?.message ?? null} actions={actions} />}
             {tab === 'guides' && (
               <GuidePanel
                 spec={spec}

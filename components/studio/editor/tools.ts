@@ -22,4 +22,3 @@ export const TOOLS: readonly { id: Exclude<Tool, 'remainder'>; label: string; ke
   { id: 'pin', label: 'Pin', key: 'N', hint: 'Click the surface to pin the value chosen below.' },
 ];
 
-export const PLACING_TOOLS: readonly Tool[] = ['whorl', 'saddle', 'singularity', 'pin', 'remainder'];

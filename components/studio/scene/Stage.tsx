@@ -115,9 +115,12 @@ export function Stage({ children, label, className = '', ...rig }: StageProps) {
     <div className={`relative h-full w-full ${className}`} role="img" aria-label={label}>
       <Canvas
         frameloop="demand"
-        dpr={[1, 2]}
+        dpr={1}
         camera={{ fov: 35, position: [0, 0, 10] }}
-        gl={{ antialias: true, preserveDrawingBuffer: true }}
+        // Every frame matters while a feature is dragged: no multisampling, no kept buffer, and the
+        // page's own colour handling (no tone mapping pass) — software renderers pay for each.
+        gl={{ antialias: false, preserveDrawingBuffer: false, powerPreference: 'high-performance' }}
+        flat
         onContextMenu={(event) => event.preventDefault()}
         style={{ background: STAGE_BACKGROUND, touchAction: 'none' }}
       >

@@ -3,7 +3,7 @@
 // order, so a hit names the same face the field engine numbers) and optional faces to highlight.
 import { useEffect, useMemo, type RefObject } from 'react';
 import type { ThreeEvent } from '@react-three/fiber';
-import { BufferAttribute, BufferGeometry, DoubleSide, type Mesh } from 'three';
+import { BufferAttribute, BufferGeometry, DoubleSide, FrontSide, type Mesh } from 'three';
 import { MeshBVH, acceleratedRaycast } from 'three-mesh-bvh';
 
 export const SURFACE_COLOUR = '#e4dac3';
@@ -31,6 +31,7 @@ export function SurfaceMesh({
   meshRef,
   colour = SURFACE_COLOUR,
   opacity = 1,
+  closed = false,
   onPointerDown,
   onPointerMove,
   onPointerUp,
@@ -41,6 +42,8 @@ export function SurfaceMesh({
   meshRef?: RefObject<Mesh | null>;
   colour?: string;
   opacity?: number;
+  /** A closed surface is only ever seen from outside: its back faces need not be drawn. */
+  closed?: boolean;
   onPointerDown?: SurfacePointerHandler;
   onPointerMove?: SurfacePointerHandler;
   onPointerUp?: SurfacePointerHandler;
@@ -62,11 +65,9 @@ export function SurfaceMesh({
       onPointerUp={onPointerUp}
       onPointerLeave={onPointerLeave}
     >
-      <meshStandardMaterial
+      <meshLambertMaterial
         color={colour}
-        roughness={0.82}
-        metalness={0}
-        side={DoubleSide}
+        side={closed ? FrontSide : DoubleSide}
         transparent={opacity < 1}
         opacity={opacity}
         polygonOffset
