@@ -2,7 +2,7 @@
  * Benchmark of the market's search (GET /api/market/search) against the built app on loopback,
  * with 10,000 published listings.
  *
- *   node --import tsx bench/market.ts [--listings 10000] [--rate 200] [--seconds 20] [--connections 20] [--no-build]
+ *   npm run bench:market -- [--listings 10000] [--rate 200] [--seconds 20] [--connections 20] [--no-build]
  *
  * It starts a throwaway stack of its own (PostgreSQL, S3 stand-in, SMTP sink, payments fake) on
  * the BENCH ports below, migrates and seeds it, inserts the listings (varied titles, descriptions,
@@ -11,7 +11,8 @@
  * twice over a mix of searches (text, filters, every sort, deep pages):
  *   1. saturation: as many requests as the connections can make, for the highest req/s;
  *   2. fixed rate (--rate, default 200 req/s): the latency distribution, p50/p95/p99, against the
- *      target p95 ≤ 50 ms.
+ *      target p95 ≤ 50 ms;
+ * and, before both, each search alone (one request at a time) to show which searches cost what.
  * Everything it started is stopped at the end (Ctrl-C too) and its data is deleted.
  * Ports: BENCH_APP_PORT (3900), BENCH_PG_PORT (54390), BENCH_S3_PORT, BENCH_SMTP_SINK_PORT,
  * BENCH_MAIL_SINK_PORT, BENCH_PAYMENTS_PORT (54391 … 54394). Run it on a quiet machine: the
@@ -147,6 +148,26 @@ function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
 }
 
+/** Each search on its own, one request at a time: which searches cost what before any load. */
+async function latencyAlone(url: string, repeats = 15) {
+  const rows: { path: string; median: number; worst: number; total: number }[] = [];
+  for (const path of searchPaths()) {
+    const times: number[] = [];
+    let total = 0;
+    for (let i = 0; i < repeats; i++) {
+      const started = performance.now();
+      const response = await fetch(url + path);
+      const body = (await response.json()) as { data?: { total: number } };
+      times.push(performance.now() - started);
+      if (!response.ok || !body.data) throw new CommandFailed(`${path} answered ${response.status}`);
+      total = body.data.total;
+    }
+    times.sort((a, b) => a - b);
+    rows.push({ path: path.replace('/api/market/search', '') || '(no filters)', median: percentile(times, 50), worst: times[times.length - 1], total });
+  }
+  return rows;
+}
+
 async function run(url: string, rate: number | null) {
   const latencies: number[] = [];
   const statuses = new Map<number, number>();
@@ -200,6 +221,7 @@ try {
   await waitForHttp(`${url}/api/health`, server, 'next start');
   // Warm-up: every search once, a few times.
   for (let i = 0; i < 3; i++) for (const path of searchPaths()) await (await fetch(url + path)).arrayBuffer();
+  const alone = await latencyAlone(url);
 
   log(`saturation: ${CONNECTIONS} connections for ${SECONDS} s`);
   const max = await run(url, null);
@@ -216,7 +238,13 @@ machine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, load average ${loadav
 | saturation | ${max.total} | ${max.reqPerSec.toFixed(0)} | ${max.p50} | ${max.p95} | ${max.p99} | ${max.non2xx} | ${max.errors} |
 | ${RATE} req/s | ${fixed.total} | ${fixed.reqPerSec.toFixed(0)} | ${fixed.p50} | ${fixed.p95} | ${fixed.p99} | ${fixed.non2xx} | ${fixed.errors} |
 
-target: p95 ≤ ${TARGET_P95_MS} ms at ${RATE} req/s — ${verdict ? 'met' : 'NOT met'}`);
+target: p95 ≤ ${TARGET_P95_MS} ms at ${RATE} req/s — ${verdict ? 'met' : 'NOT met'}
+
+Each search alone (one request at a time, before the runs above):
+
+| search | found | median ms | worst ms |
+| --- | ---: | ---: | ---: |
+${alone.map((r) => `| \`${r.path}\` | ${r.total} | ${r.median.toFixed(1)} | ${r.worst.toFixed(1)} |`).join('\n')}`);
   if (!verdict) exitCode = 1;
 } catch (failure) {
   console.error(`bench/market: ${(failure as Error).message}`);

@@ -166,10 +166,11 @@ function newWorker(): Worker {
 }
 
 /**
- * Starts loading a field worker ahead of need (while the page still fetches the groom), so that
- * its code is ready when the surface arrives. The next `startFieldWorker` takes it.
+ * Starts a field worker ahead of need, so that its code loads while the page is still being
+ * hydrated; the next `startFieldWorker` takes it. Does nothing outside a browser.
  */
 export function prewarmFieldWorker(): void {
+  if (typeof window === 'undefined' || typeof Worker === 'undefined') return;
   prewarmed ??= newWorker();
 }
 

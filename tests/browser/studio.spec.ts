@@ -90,6 +90,16 @@ test('grooms: start one on a surface, rename, duplicate and delete it with a con
   await expect(page).toHaveURL(/\/studio\/grooms\/[0-9a-f-]+$/);
   await expect(page.getByRole('heading', { name: 'Winter coat', level: 1 })).toBeVisible();
 
+  const groomUrl = page.url();
+
+  // Someone else's groom, or no groom at all, is not found.
+  const other = await page.context().browser()!.newContext();
+  const stranger = await other.newPage();
+  await groomerSignedIn(stranger, 'stranger');
+  expect((await stranger.goto(groomUrl))?.status()).toBe(404);
+  expect((await stranger.goto('/studio/grooms/not-a-groom'))?.status()).toBe(404);
+  await other.close();
+
   await page.goto('/studio');
   const cards = page.getByTestId('groom-card');
   await expect(cards).toHaveCount(1);
@@ -285,4 +295,59 @@ test('placing with the pointer: a click with the whorl tool, a drag that moves i
   await expect(group.getByLabel('Twist', { exact: true })).toHaveValue('0');
   await expect(group.getByLabel('Turn (seen from outside)')).toHaveValue('clockwise');
   await expect(page.getByTestId('save-status')).toHaveText('Practice groom — nothing is saved');
+});
+
+test('drawing with the pointer: a parting from clicked points, a flow stroke by dragging, a pin by a click', async ({ page }) => {
+  test.setTimeout(180_000);
+  await page.goto('/studio/practice/bramble-fox-head');
+  if (new URL(page.url()).pathname === '/signin') {
+    await groomerSignedIn(page, 'drawing');
+    await page.goto('/studio/practice/bramble-fox-head');
+  }
+  await waitForField(page);
+  const stage = page.getByRole('img', { name: /The growth surface with the field/ });
+  const box = (await stage.boundingBox())!;
+  const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
+  const rows = page.getByTestId('feature-row');
+  const count = (kind: RegExp) => rows.filter({ hasText: kind }).count();
+
+  // A parting: three clicked points, joined along the mesh, finished with Enter. (The view looks
+  // at the back of the head: the clicks also check that markers behind the surface stay unpicked.)
+  const partings = await count(/^Parting/);
+  await page.getByRole('button', { name: 'Parting', exact: true }).click();
+  const options = page.getByRole('group', { name: 'Tool options' });
+  for (const [dx, dy] of [[-50, 60], [0, 70], [50, 60]]) await page.mouse.click(cx + dx, cy + dy);
+  await expect(options).toContainText('3 points so far.');
+  await page.locator('body').press('Enter');
+  await expect(rows.filter({ hasText: /^Parting/ })).toHaveCount(partings + 1);
+  const parting = page.getByRole('group', { name: `Parting ${partings + 1}`, exact: true });
+  // The side list holds the clicked points, editable as numbers.
+  await expect(parting.getByLabel('Point 3 x', { exact: true })).toBeVisible();
+  // An open parting flips the field across it, so its two ends count +½ each: the budget shows −1
+  // left over, and one action puts it where the groomer clicks (low on the side of the head).
+  await expect(page.getByTestId('budget-remainder')).toHaveText('−1');
+  await page.getByRole('button', { name: 'Put −1 where I click' }).click();
+  await page.mouse.click(cx - 60, cy + 120);
+  await expect(page.getByTestId('budget-remainder')).toHaveText('0');
+
+  // A flow stroke: one drag across the surface.
+  const strokes = await count(/^Flow stroke/);
+  await page.getByRole('button', { name: 'Flow stroke', exact: true }).click();
+  await page.mouse.move(cx - 70, cy - 50);
+  await page.mouse.down();
+  for (let i = 1; i <= 14; i++) await page.mouse.move(cx - 70 + i * 10, cy - 50);
+  await page.mouse.up();
+  await expect(rows.filter({ hasText: /^Flow stroke/ })).toHaveCount(strokes + 1);
+
+  // A pin: a click with the pin tool pins the chosen attribute at the chosen factor.
+  const pins = await count(/^Length pin/);
+  await page.getByRole('button', { name: 'Pin', exact: true }).click();
+  await typeNumber(options.getByLabel('Factor on the global value'), 2.5);
+  await page.mouse.click(cx + 20, cy - 20);
+  await expect(rows.filter({ hasText: /^Length pin/ })).toHaveCount(pins + 1);
+  await expect(page.getByRole('group', { name: `Length pin ${pins + 1}`, exact: true }).getByLabel('Factor', { exact: false }).first()).toHaveValue('2.5');
+
+  // The proof holds with the new curve, stroke and pin: singularities where placed, none elsewhere.
+  await expect(page.getByTestId('index-proof')).toContainText('each exactly where one was placed; none elsewhere', { timeout: 30_000 });
+  await expect(page.getByTestId('field-error')).toHaveCount(0);
 });

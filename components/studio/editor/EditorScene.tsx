@@ -166,7 +166,7 @@ export function EditorScene({
 
   return (
     <>
-      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} />
+      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} />
       {surface.boundaryLines.length > 0 && <LineLayer lines={surface.boundaryLines} tail={COLOURS.border} head={COLOURS.border} name="border" />}
       {fieldLines && (
         <LineLayer lines={fieldLines} shade={fieldShade} tail={COLOURS.strokeTail} head={COLOURS.strokeHead} opacity={fieldFaded ? 0.3 : 1} onDrawn={onFieldDrawn} name="field" />

@@ -168,7 +168,15 @@ export function Workspace({
     performance.mark('whorlwind:editor-mounted');
     const client = startFieldWorker();
     clientRef.current = client;
-    const opening = client.request({ type: 'open', source, boundary: initialSpec.field.boundary }, track(setTask));
+    performance.mark('whorlwind:worker-starting');
+    const report = track(setTask);
+    let heard = false;
+    const opening = client.request({ type: 'open', source, boundary: initialSpec.field.boundary }, (progress) => {
+      // The worker's first word: its code is loaded and it has started on the surface.
+      if (!heard) performance.mark('whorlwind:worker-working');
+      heard = true;
+      report(progress);
+    });
     // The first solve waits in the worker right behind the opening, so it runs while this page
     // builds its own copy of the surface for drawing.
     sent.current = null;

@@ -8,7 +8,7 @@ import { MeshBVH, acceleratedRaycast } from 'three-mesh-bvh';
 
 export const SURFACE_COLOUR = '#e4dac3';
 
-export function surfaceGeometry(positions: ArrayLike<number>, triangles: Uint32Array, faces?: ArrayLike<number>): BufferGeometry {
+export function surfaceGeometry(positions: ArrayLike<number>, triangles: Uint32Array, faces?: ArrayLike<number>, normals?: Float32Array): BufferGeometry {
   const geometry = new BufferGeometry();
   geometry.setAttribute('position', new BufferAttribute(Float32Array.from(positions), 3));
   if (faces) {
@@ -18,12 +18,24 @@ export function surfaceGeometry(positions: ArrayLike<number>, triangles: Uint32A
   } else {
     geometry.setIndex(new BufferAttribute(triangles, 1));
   }
-  geometry.computeVertexNormals();
+  if (normals && normals.length === positions.length) geometry.setAttribute('normal', new BufferAttribute(normals, 3));
+  else geometry.computeVertexNormals();
   geometry.computeBoundingSphere();
   return geometry;
 }
 
 export type SurfacePointerHandler = (event: ThreeEvent<PointerEvent>) => void;
+
+/**
+ * The surface is opaque: a press on it must not also reach a marker behind it (the pointer's ray
+ * goes on through the mesh, and three delivers the event to every object it meets).
+ */
+function hiding(handler: SurfacePointerHandler): SurfacePointerHandler {
+  return (event) => {
+    event.stopPropagation();
+    handler(event);
+  };
+}
 
 export function SurfaceMesh({
   positions,
@@ -32,6 +44,7 @@ export function SurfaceMesh({
   colour = SURFACE_COLOUR,
   opacity = 1,
   closed = false,
+  normals,
   onPointerDown,
   onPointerMove,
   onPointerUp,
@@ -42,6 +55,8 @@ export function SurfaceMesh({
   meshRef?: RefObject<Mesh | null>;
   colour?: string;
   opacity?: number;
+  /** Vertex normals to shade with (computed from the mesh when absent). */
+  normals?: Float32Array;
   /** A closed surface is only ever seen from outside: its back faces need not be drawn. */
   closed?: boolean;
   onPointerDown?: SurfacePointerHandler;
@@ -49,20 +64,27 @@ export function SurfaceMesh({
   onPointerUp?: SurfacePointerHandler;
   onPointerLeave?: SurfacePointerHandler;
 }) {
-  const geometry = useMemo(() => {
-    const g = surfaceGeometry(positions, triangles);
-    g.boundsTree = new MeshBVH(g, { indirect: true });
-    return g;
-  }, [positions, triangles]);
-  useEffect(() => () => geometry.dispose(), [geometry]);
+  const geometry = useMemo(() => surfaceGeometry(positions, triangles, undefined, normals), [normals, positions, triangles]);
+  useEffect(() => {
+    // The picking hierarchy is built once the page is idle, so it does not hold up the first
+    // field; until then a pick tests every face.
+    const build = () => {
+      geometry.boundsTree ??= new MeshBVH(geometry, { indirect: true });
+    };
+    const idle = typeof requestIdleCallback === 'function' ? requestIdleCallback(build, { timeout: 1500 }) : setTimeout(build, 200);
+    return () => {
+      if (typeof cancelIdleCallback === 'function' && typeof idle === 'number') cancelIdleCallback(idle);
+      geometry.dispose();
+    };
+  }, [geometry]);
   return (
     <mesh
       ref={meshRef}
       geometry={geometry}
       raycast={acceleratedRaycast}
-      onPointerDown={onPointerDown}
-      onPointerMove={onPointerMove}
-      onPointerUp={onPointerUp}
+      onPointerDown={onPointerDown && hiding(onPointerDown)}
+      onPointerMove={onPointerMove && hiding(onPointerMove)}
+      onPointerUp={onPointerUp && hiding(onPointerUp)}
       onPointerLeave={onPointerLeave}
     >
       <meshLambertMaterial

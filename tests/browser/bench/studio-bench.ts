@@ -72,6 +72,8 @@ test('studio editor on a 50k-face surface: time to first field, update rate whil
         const solved = at('whorlwind:first-solve');
         return {
           editorMounted: Math.round(at('whorlwind:editor-mounted')?.startTime ?? NaN),
+          workerStarting: Math.round(at('whorlwind:worker-starting')?.startTime ?? NaN),
+          workerWorking: Math.round(at('whorlwind:worker-working')?.startTime ?? NaN),
           surfaceOpened: Math.round(opened?.startTime ?? NaN),
           downloadMilliseconds: Math.round(opened?.detail?.downloadMilliseconds ?? NaN),
           readMilliseconds: Math.round(opened?.detail?.readMilliseconds ?? NaN),

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { PracticeEditor } from '@/components/studio/editor/GroomEditor';
+import { PracticeEditor } from '@/components/studio/editor/PracticeEditor';
 import { requireArea } from '@/lib/auth';
 
 export const metadata: Metadata = { title: 'Practice groom' };

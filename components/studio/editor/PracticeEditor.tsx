@@ -1,0 +1,25 @@
+'use client';
+// The editor on one of lib/groom's demo characters, built in the browser's field worker: for
+// trying things out; nothing is saved.
+import { useMemo } from 'react';
+import { Notice } from '@/components/ui/Notice';
+import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
+import { parseGroomSpec } from '@/lib/groom/spec';
+import type { SurfaceSource } from '@/lib/studio-client/protocol';
+import { prewarmFieldWorker } from '@/lib/studio-client/field-client';
+import { Workspace } from './Workspace';
+
+// The field worker's code starts loading as soon as the editor's code runs, before the page is
+// hydrated: it is the longest wait before the surface can be opened.
+prewarmFieldWorker();
+
+/** The editor on one of the demo characters, built in the browser: for trying things out, nothing saved. */
+export function PracticeEditor({ demoId }: { demoId: string }) {
+  const demo = DEMO_GROOMS.find((d) => d.id === demoId);
+  const source = useMemo<SurfaceSource>(() => ({ kind: 'demo', demoId }), [demoId]);
+  const spec = useMemo(() => (demo ? parseGroomSpec(demo.spec) : null), [demo]);
+  if (!demo || !spec) {
+    return <Notice tone="error">There is no practice character called “{demoId}”.</Notice>;
+  }
+  return <Workspace title={`Practice: ${demo.character}`} subtitle={demo.description} source={source} initialSpec={spec} persistence={null} />;
+}
