@@ -1,7 +1,10 @@
 // The market's search: full text (PostgreSQL tsvector with a GIN index, weighted title > tags >
 // description), filters on tags, price, currency, formats and guide count, sorting and pages —
 // one query for the page and one for the count, both on published listings only (partial indexes).
+// Answers are kept in memory under the market's search generation (see its migration), which
+// grows with every change a result could show: a kept answer is reused only while nothing changed.
 import type { Knex } from 'knex';
+import { LRUCache } from 'lru-cache';
 import { db } from '../db';
 import { cardOf, type ListingRow } from './listings';
 import type { SearchResponse } from './types';
@@ -46,7 +49,35 @@ function applyFilters(query: Knex.QueryBuilder, input: SearchInput, hasText: boo
   return query;
 }
 
+/** How many different searches a server process keeps (common practice, no source: a few MB). */
+const KEPT_SEARCHES = 1000;
+
+const kept = new LRUCache<string, SearchResponse, SearchInput>({
+  max: KEPT_SEARCHES,
+  // Identical searches arriving together share one read of the database.
+  fetchMethod: (_key, _stale, { context }) => readSearch(context),
+});
+
+/** The same search written two ways (filter lists in another order) gets the same key. */
+function searchKey(generation: string, input: SearchInput): string {
+  const entries = Object.entries(input)
+    .filter(([, value]) => value !== undefined && value !== '')
+    .map(([name, value]) => [name, Array.isArray(value) ? [...value].sort() : value] as const)
+    .sort(([a], [b]) => (a < b ? -1 : 1));
+  return `${generation}:${JSON.stringify(entries)}`;
+}
+
+/**
+ * One page of published listings matching the search, with the total count. Never older than the
+ * last committed change to a listing, seller name or licence when the call started.
+ */
 export async function searchListings(input: SearchInput): Promise<SearchResponse> {
+  const { rows } = await db().raw<{ rows: { value: string }[] }>('SELECT value FROM market_search_generation');
+  const answer = await kept.fetch(searchKey(rows[0].value, input), { context: input });
+  return answer!;
+}
+
+async function readSearch(input: SearchInput): Promise<SearchResponse> {
   const hasText = Boolean(input.q && input.q.trim() !== '');
   const sort = input.sort ?? (hasText ? 'relevance' : 'newest');
   const page = applyFilters(

@@ -1,7 +1,7 @@
 // The market's search through its route handler: text, filters, sorts, pages and bad input.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb } from '@/lib/db';
+import { closeDb, db } from '@/lib/db';
 import { stopMarketJobs } from '@/lib/market/jobs';
 import type { ListingCard, SearchResponse } from '@/lib/market/types';
 import { GET as searchGet } from '@/app/api/market/search/route';
@@ -110,6 +110,30 @@ describe('GET /api/market/search', () => {
       pictureUrl: `/api/market/listings/${card.id}/pictures/front-256`,
     });
     expect(card.seller.displayName).toMatch(/search-seller/);
+  });
+
+  it('shows every committed change at once, though answers are kept between searches', async () => {
+    const seller = await makePerson('search-changes', ['groomer']);
+    const word = `${token}changes`;
+    const id = await insertListing(seller, { title: `Brindle hound coat ${word}`, animal: 'dog', priceCents: 2000 });
+    const find = async () => (await search({ q: word })).body.data!;
+    expect((await find()).results.map((card) => card.priceCents)).toEqual([2000]);
+    expect(await find()).toEqual(await find());
+
+    await db()('listings').where({ id }).update({ price_cents: 2600, sales_count: 4 });
+    expect((await find()).results).toMatchObject([{ priceCents: 2600, salesCount: 4 }]);
+    await db()('users').where({ id: seller.userId }).update({ display_name: 'Hound Hall' });
+    expect((await find()).results[0].seller.displayName).toBe('Hound Hall');
+    // A change rolled back changes nothing.
+    await db()
+      .transaction(async (trx) => {
+        await trx('listings').where({ id }).update({ state: 'unlisted' });
+        throw new Error('rolled back');
+      })
+      .catch(() => undefined);
+    expect((await find()).total).toBe(1);
+    await db()('listings').where({ id }).update({ state: 'unlisted' });
+    expect(await find()).toMatchObject({ total: 0, results: [] });
   });
 
   it('answers 400 with a message per field for bad filters', async () => {
