@@ -25,6 +25,10 @@ export async function up(knex: Knex) {
   await knex.raw(`
     CREATE CONSTRAINT TRIGGER listings_search_generation AFTER INSERT OR UPDATE OR DELETE ON listings
     DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION bump_market_search_generation()`);
+  // Constraint triggers are per row; emptying the table is caught by a plain statement trigger.
+  await knex.raw(`
+    CREATE TRIGGER listings_truncate_search_generation AFTER TRUNCATE ON listings
+    FOR EACH STATEMENT EXECUTE FUNCTION bump_market_search_generation()`);
   await knex.raw(`
     CREATE CONSTRAINT TRIGGER users_search_generation AFTER UPDATE OF display_name ON users
     DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION bump_market_search_generation()`);
@@ -39,6 +43,7 @@ export async function down(knex: Knex) {
   await knex.raw(`DROP INDEX listings_published_currency_price`);
   await knex.raw(`DROP TRIGGER licences_search_generation ON licences`);
   await knex.raw(`DROP TRIGGER users_search_generation ON users`);
+  await knex.raw(`DROP TRIGGER listings_truncate_search_generation ON listings`);
   await knex.raw(`DROP TRIGGER listings_search_generation ON listings`);
   await knex.raw(`DROP FUNCTION bump_market_search_generation()`);
   await knex.raw(`DROP TABLE market_search_generation`);
