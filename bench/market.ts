@@ -73,19 +73,23 @@ function pick<T>(items: readonly T[], n: number): T {
   return items[n % items.length];
 }
 
+/** xorshift32 from a seed, 31 bits a draw: every bit of it is usable (a plain LCG's low bits repeat with a short period). */
+function xorshift(seed: number): () => number {
+  let state = seed;
+  return () => {
+    state ^= state << 13;
+    state ^= state >>> 17;
+    state ^= state << 5;
+    return (state >>> 0) & 0x7fffffff;
+  };
+}
+
 async function seedListings(connection: Knex, count: number) {
   const seller = await connection('users').where({ email: 'wren@thistledown.example' }).first('id');
   const licences: string[] = await connection('licences').orderBy('position').pluck('id');
   if (!seller || licences.length === 0) throw new CommandFailed('the demo seed did not create the groomer or the licences');
   const spec = JSON.stringify({ specVersion: 2, units: 'cm', field: { singularities: [] } });
-  // xorshift32: every bit of it is usable (a plain LCG's low bits repeat with a short period).
-  let rng = 12345;
-  const next = () => {
-    rng ^= rng << 13;
-    rng ^= rng >>> 17;
-    rng ^= rng << 5;
-    return (rng >>> 0) & 0x7fffffff;
-  };
+  const next = xorshift(12345);
   const rows = [];
   for (let i = 0; i < count; i++) {
     const animal = pick(ANIMALS, next());
@@ -127,26 +131,24 @@ async function seedListings(connection: Knex, count: number) {
 }
 
 /** The searches most visitors make: the market's front page, each sort, the common filters. */
-function popularSearches(): string[] {
-  return [
-    '/api/market/search',
-    '/api/market/search?sort=best-selling',
-    '/api/market/search?sort=rating',
-    '/api/market/search?sort=price-asc&page=40',
-    '/api/market/search?sort=price-desc&currency=eur',
-    '/api/market/search?q=fox',
-    '/api/market/search?q=spiral%20cowlick',
-    '/api/market/search?q=silver%20mane&sort=newest',
-    '/api/market/search?q=parting%20spine&animal=cat,dog',
-    '/api/market/search?animal=fox&coatLength=long',
-    '/api/market/search?style=plush&bodyRegion=full-body&sort=price-asc',
-    '/api/market/search?minPrice=1000&maxPrice=5000&sort=best-selling',
-    '/api/market/search?format=usda,glb&minGuides=1000&maxGuides=20000',
-    '/api/market/search?q=coat&page=20&pageSize=24',
-    '/api/market/search?animal=wolf,bear&sort=rating&page=3',
-    '/api/market/search?q=tawny&format=obj',
-  ];
-}
+const POPULAR_SEARCHES = [
+  '/api/market/search',
+  '/api/market/search?sort=best-selling',
+  '/api/market/search?sort=rating',
+  '/api/market/search?sort=price-asc&page=40',
+  '/api/market/search?sort=price-desc&currency=eur',
+  '/api/market/search?q=fox',
+  '/api/market/search?q=spiral%20cowlick',
+  '/api/market/search?q=silver%20mane&sort=newest',
+  '/api/market/search?q=parting%20spine&animal=cat,dog',
+  '/api/market/search?animal=fox&coatLength=long',
+  '/api/market/search?style=plush&bodyRegion=full-body&sort=price-asc',
+  '/api/market/search?minPrice=1000&maxPrice=5000&sort=best-selling',
+  '/api/market/search?format=usda,glb&minGuides=1000&maxGuides=20000',
+  '/api/market/search?q=coat&page=20&pageSize=24',
+  '/api/market/search?animal=wolf,bear&sort=rating&page=3',
+  '/api/market/search?q=tawny&format=obj',
+];
 
 const SORTS = ['newest', 'best-selling', 'rating', 'price-asc', 'price-desc'];
 
@@ -154,20 +156,20 @@ const SORTS = ['newest', 'best-selling', 'rating', 'price-asc', 'price-desc'];
  * A search few others make: a word or two, a filter or two, a sort and a page drawn at random
  * (about 10^7 combinations), so that it is almost never answered from what the server kept.
  */
-function rareSearch(random: () => number): string {
-  const pick = <T,>(items: readonly T[]) => items[Math.floor(random() * items.length)];
+function rareSearch(next: () => number): string {
+  const random = () => next() / 2 ** 31;
   const params = new URLSearchParams();
-  if (random() < 0.6) params.set('q', random() < 0.5 ? pick(WORDS.adjective) : `${pick(WORDS.adjective)} ${pick(WORDS.noun)}`);
-  if (random() < 0.5) params.set('animal', pick(ANIMALS));
-  if (random() < 0.3) params.set('coatLength', pick(COAT_LENGTHS));
-  if (random() < 0.3) params.set('style', pick(STYLES));
+  if (random() < 0.6) params.set('q', random() < 0.5 ? pick(WORDS.adjective, next()) : `${pick(WORDS.adjective, next())} ${pick(WORDS.noun, next())}`);
+  if (random() < 0.5) params.set('animal', pick(ANIMALS, next()));
+  if (random() < 0.3) params.set('coatLength', pick(COAT_LENGTHS, next()));
+  if (random() < 0.3) params.set('style', pick(STYLES, next()));
   if (random() < 0.3) {
     const low = Math.floor(random() * 150) * 100;
     params.set('minPrice', String(low));
     params.set('maxPrice', String(low + 500 + Math.floor(random() * 50) * 100));
   }
-  if (random() < 0.2) params.set('format', pick(PACKAGE_FORMATS));
-  params.set('sort', pick(SORTS));
+  if (random() < 0.2) params.set('format', pick(PACKAGE_FORMATS, next()));
+  params.set('sort', pick(SORTS, next()));
   params.set('page', String(1 + Math.floor(random() * (random() < 0.8 ? 3 : 30))));
   return `/api/market/search?${params}`;
 }
@@ -177,14 +179,9 @@ const RARE_SHARE = option('rare', 0.25, true);
 
 /** Each call the next request's path: popular searches in turn, a rare one a quarter of the time. */
 function searchMix(): () => string {
-  let seed = 2024;
-  const random = () => {
-    seed = (seed * 1_103_515_245 + 12_345) >>> 0;
-    return seed / 2 ** 32;
-  };
-  const popular = popularSearches();
+  const next = xorshift(2024);
   let turn = 0;
-  return () => (random() < RARE_SHARE ? rareSearch(random) : popular[turn++ % popular.length]);
+  return () => (next() / 2 ** 31 < RARE_SHARE ? rareSearch(next) : POPULAR_SEARCHES[turn++ % POPULAR_SEARCHES.length]);
 }
 
 function percentile(sorted: number[], p: number): number {
@@ -205,7 +202,7 @@ async function latencyAlone(url: string, connection: Knex, repeats = 15) {
     if (!response.ok || !body.data) throw new CommandFailed(`${path} answered ${response.status}`);
     return { ms: performance.now() - started, total: body.data.total };
   };
-  for (const path of popularSearches()) {
+  for (const path of POPULAR_SEARCHES) {
     const fresh: number[] = [];
     const kept: number[] = [];
     let total = 0;
@@ -305,7 +302,7 @@ try {
   const server = startProcess(process.execPath, [nextCli, 'start', '--hostname', '127.0.0.1', '--port', String(profile.ports.app)], { cwd: projectRoot, env: environment });
   await waitForHttp(`${url}/api/health`, server, 'next start');
   // Warm-up: every search once, a few times.
-  for (let i = 0; i < 3; i++) for (const path of popularSearches()) await (await fetch(url + path)).arrayBuffer();
+  for (let i = 0; i < 3; i++) for (const path of POPULAR_SEARCHES) await (await fetch(url + path)).arrayBuffer();
   const alone = await latencyAlone(url, connection);
   await connection.destroy();
 
@@ -316,7 +313,7 @@ try {
 
   const verdict = steadyRun.p95 <= TARGET_P95_MS && steadyRun.non2xx === 0 && steadyRun.errors === 0;
   console.log(`
-Market search bench — ${LISTINGS.toLocaleString('en-GB')} listings, ${popularSearches().length} popular searches and ${RARE_SHARE * 100} % rare ones, ${CONNECTIONS} connections, loopback
+Market search bench — ${LISTINGS.toLocaleString('en-GB')} listings, ${POPULAR_SEARCHES.length} popular searches and ${RARE_SHARE * 100} % rare ones, ${CONNECTIONS} connections, loopback
 machine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, load average ${loadavg().map((l) => l.toFixed(2)).join(' ')}
 
 | run | requests | req/s | p50 ms | p95 ms | p99 ms | non-2xx | errors |

@@ -4,13 +4,14 @@
 // The integration tests start the same workers in their own process with startJobsWorker().
 import { pathToFileURL } from 'node:url';
 import { closeDb } from '../lib/db';
-import { startStudioWorkers, stopStudioWorkers } from '../lib/studio/workers';
+import { stopJobs } from '../lib/jobs';
+import { startStudioWorkers } from '../lib/studio/workers';
 
 export type JobsWorker = { stop: () => Promise<void> };
 
 export async function startJobsWorker(): Promise<JobsWorker> {
   await startStudioWorkers();
-  return { stop: stopStudioWorkers };
+  return { stop: stopJobs };
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {

@@ -23,7 +23,7 @@ import { CURRENCIES, FORMAT_LABELS, MAX_PRICE_CENTS, MIN_PRICE_CENTS, PACKAGE_FO
 import type { GroomListResponse, VersionListResponse } from '@/lib/studio/api-types';
 import { centsToText, TAG_KEYS, TAG_LABELS, TAG_VALUES, tagLabel } from './search-params';
 import { sendJson } from './send-json';
-import { controlBorder, describedBy, FieldFrame } from './FieldFrame';
+import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
 import { TextAreaField, textAreaField } from './TextAreaField';
 
 const draft = listingDraftSchema.shape;

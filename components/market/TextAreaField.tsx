@@ -1,7 +1,7 @@
 // A labelled text area with its own error line, like TextField (components/ui) for longer text.
 import type React from 'react';
 import type { TextareaHTMLAttributes } from 'react';
-import { controlBorder, describedBy, FieldFrame } from './FieldFrame';
+import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
 
 type TextAreaFieldProps = {
   label: string;

@@ -11,7 +11,7 @@ import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom';
 import type { SurfaceUnits } from '../../lib/studio/api-types';
 import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
 import type { Groomer } from '../../lib/studio/http';
-import { stopStudioJobs } from '../../lib/studio/jobs';
+import { stopJobs } from '../../lib/jobs';
 import { createSurfaceUpload, registerSurface } from '../../lib/studio/surfaces';
 
 const FIRST_VERSION = 'First pass';
@@ -51,8 +51,8 @@ export async function seed(knex: Knex) {
     }
     console.log(`[studio seed] ${created} demo groom(s) created for ${account!.email} (${DEMO_GROOMS.length - created} already there).`);
   } finally {
-    // The studio's modules hold a pool and a job queue of their own; the seed's process must end.
-    await stopStudioJobs();
+    // The studio's modules hold a pool and the job queue; the seed's process must end.
+    await stopJobs();
     await closeDb();
   }
 }

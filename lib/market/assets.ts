@@ -20,6 +20,7 @@ import {
 } from '../groom';
 import { encodeImage } from '../groom/encode-image';
 import { db } from '../db';
+import { fileSlug } from '../file-names';
 import { getObjectBytes, putObject } from '../storage';
 import { copyObject, listingPrefix } from './storage';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
@@ -38,17 +39,6 @@ const PACKAGE_FILES: Record<PackageFormat, string> = {
   ply: 'field.ply',
 };
 
-/** A file name made of the title: lower case letters, digits and dashes. */
-export function slugOf(title: string): string {
-  const slug = title
-    .normalize('NFKD')
-    .replace(/[\u0300-\u036f]/g, '')
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 60);
-  return slug || 'preset';
-}
 
 type ListingForAssets = {
   id: string;
@@ -158,7 +148,7 @@ export async function buildListingAssets(listingId: string): Promise<void> {
 
     const existing = await db()('listing_packages').where({ listing_id: listing.id }).first('listing_id');
     if (!existing) {
-      const folder = slugOf(listing.title);
+      const folder = fileSlug(listing.title, 60, 'preset');
       const entries: Zippable = {};
       const fileNames: string[] = [];
       for (const format of listing.formats) {

@@ -1,9 +1,9 @@
-// The market's background work on pg-boss (same PostgreSQL): pictures and packages of listings,
+// The market's background work on the process's job queue (lib/jobs.ts): pictures and packages of listings,
 // and the periodic reconciliation of payments. Workers run inside the server process and start
 // on first use of the market (startMarketWorkers), so any number of app servers share the queue.
-import PgBoss from 'pg-boss';
+import type PgBoss from 'pg-boss';
 import { db } from '../db';
-import { env } from '../env';
+import { jobQueue, startWorkers } from '../jobs';
 import { buildListingAssets } from './assets';
 import { reconcilePayments } from './reconcile';
 
@@ -12,31 +12,16 @@ export const RECONCILE_QUEUE = 'market-reconcile';
 /** How often payments are reconciled with the provider. */
 export const RECONCILE_CRON = '*/10 * * * *';
 
-type Holder = typeof globalThis & { whorlwindMarketBoss?: Promise<PgBoss>; whorlwindMarketWorkers?: Promise<void> };
-const holder = globalThis as Holder;
+const MARKET_QUEUES: PgBoss.Queue[] = [LISTING_ASSETS_QUEUE, RECONCILE_QUEUE].map((name) => ({ name, retryLimit: 3, retryDelay: 30, retryBackoff: true }));
 
-async function startBoss(): Promise<PgBoss> {
-  const boss = new PgBoss({ connectionString: env().DATABASE_URL, schema: 'pgboss', max: 4 });
-  boss.on('error', (error) => console.error(`[market] job queue: ${error.message}`));
-  await boss.start();
-  for (const name of [LISTING_ASSETS_QUEUE, RECONCILE_QUEUE]) {
-    if (!(await boss.getQueue(name))) await boss.createQueue(name, { name, retryLimit: 3, retryDelay: 30, retryBackoff: true });
-  }
-  return boss;
-}
-
-/** The queue of this process (started once). */
+/** The job queue of this process, with the market's queues made. */
 export function marketBoss(): Promise<PgBoss> {
-  holder.whorlwindMarketBoss ??= startBoss().catch((error) => {
-    holder.whorlwindMarketBoss = undefined;
-    throw error;
-  });
-  return holder.whorlwindMarketBoss;
+  return jobQueue('market', MARKET_QUEUES);
 }
 
 /** Starts this process's workers for the market's queues and the reconciliation schedule (once). */
 export function startMarketWorkers(): Promise<void> {
-  holder.whorlwindMarketWorkers ??= (async () => {
+  return startWorkers('market', async () => {
     const boss = await marketBoss();
     await boss.work<{ listingId: string }>(LISTING_ASSETS_QUEUE, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
       await buildListingAssets(job.data.listingId);
@@ -49,11 +34,7 @@ export function startMarketWorkers(): Promise<void> {
     // Listings whose pictures were never queued (made by the seed, or a queue that was down).
     const pending = await db()('listings').where({ assets_status: 'pending' }).orderBy('created_at').limit(500).pluck('id');
     for (const listingId of pending) await boss.send(LISTING_ASSETS_QUEUE, { listingId }, { singletonKey: listingId });
-  })().catch((error) => {
-    holder.whorlwindMarketWorkers = undefined;
-    throw error;
   });
-  return holder.whorlwindMarketWorkers;
 }
 
 /** Queues the pictures and package of a listing; one queued job per listing at a time. */
@@ -62,14 +43,4 @@ export async function enqueueListingAssets(listingId: string): Promise<void> {
   await boss.send(LISTING_ASSETS_QUEUE, { listingId }, { singletonKey: listingId });
   // Make sure some worker picks it up, also in a server that has not started them yet.
   startMarketWorkers().catch((error) => console.error(`[market] workers did not start: ${(error as Error).message}`));
-}
-
-/** Stops the queue of this process (scripts and tests that end). */
-export async function stopMarketJobs(): Promise<void> {
-  // Let a start under way finish first, so its workers are stopped too.
-  await holder.whorlwindMarketWorkers?.catch(() => undefined);
-  const boss = holder.whorlwindMarketBoss;
-  holder.whorlwindMarketBoss = undefined;
-  holder.whorlwindMarketWorkers = undefined;
-  if (boss) await (await boss).stop({ graceful: true, wait: true, timeout: 10_000 });
 }

@@ -83,7 +83,6 @@ export const studioApi = {
   getSurface: (id: string) => call<{ surface: SurfaceDetail }>('GET', `/api/studio/surfaces/${encodeURIComponent(id)}`),
 
   createGroom: (input: { surfaceId: string; name: string }) => call<{ groom: GroomSummary }>('POST', '/api/studio/grooms', input),
-  getGroom: (id: string) => call<{ groom: GroomDetail }>('GET', studioApi.groomUrl(id)),
   renameGroom: (id: string, name: string) => call<{ groom: GroomSummary }>('PATCH', studioApi.groomUrl(id), { name }),
   duplicateGroom: (id: string, name?: string) => call<{ groom: GroomSummary }>('POST', `${studioApi.groomUrl(id)}/duplicate`, name ? { name } : {}),
   deleteGroom: (id: string) => call<{ deleted: true }>('DELETE', studioApi.groomUrl(id)),

@@ -4,6 +4,7 @@
 import { FieldError } from '../field';
 import { fieldToPly, GroomError, guidesToGltf, guidesToObj, guidesToUsda, parseGroomSpec, specToJson } from '../groom';
 import { db } from '../db';
+import { fileSlug } from '../file-names';
 import { putObject } from '../storage';
 import type { ExportFormat, ExportJob, ExportStatus } from './api-types';
 import { notFound, StudioError } from './errors';
@@ -46,15 +47,7 @@ const SERVER_FAILURE = 'The export could not be made because of a problem on the
 
 /** "Bramble — autumn coat", revision 12 → "bramble-autumn-coat-r12": a file name any system accepts. */
 function fileBaseName(groomName: string, revision: number): string {
-  const slug = groomName
-    .normalize('NFKD')
-    .replace(/[\u0300-\u036f]/g, '')
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 80)
-    .replace(/-+$/, '');
-  return `${slug || 'groom'}-r${revision}`;
+  return `${fileSlug(groomName, 80, 'groom')}-r${revision}`;
 }
 
 async function exportJob(row: ExportRow): Promise<ExportJob> {

@@ -2,7 +2,8 @@
 // job at a time per queue and process (exports and thumbnails are CPU-bound), and the schedule
 // of the upload sweep.
 import type { ExportJobData, ThumbnailJobData } from './jobs';
-import { EXPORT_QUEUE, stopStudioJobs, studioBoss, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
+import { startWorkers } from '../jobs';
+import { EXPORT_QUEUE, studioBoss, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
 import { runExport } from './exports';
 import { sweepAbandonedUploads } from './surfaces';
 import { renderGroomThumbnail } from './thumbnails';
@@ -10,12 +11,9 @@ import { renderGroomThumbnail } from './thumbnails';
 /** Seconds between looks at an empty queue. */
 const POLLING_SECONDS = 1;
 
-type Holder = typeof globalThis & { whorlwindStudioWorkers?: Promise<void> };
-const holder = globalThis as Holder;
-
 /** Starts this process's workers (once; later calls wait for the first). */
 export function startStudioWorkers(): Promise<void> {
-  holder.whorlwindStudioWorkers ??= (async () => {
+  return startWorkers('studio', async () => {
     const boss = await studioBoss();
     await boss.work<ExportJobData>(EXPORT_QUEUE, { batchSize: 1, pollingIntervalSeconds: POLLING_SECONDS }, async ([job]) => {
       await runExport(job.data);
@@ -29,15 +27,5 @@ export function startStudioWorkers(): Promise<void> {
     });
     // One schedule for all processes: pg-boss keeps it by queue name and sends each slot once.
     await boss.schedule(UPLOAD_SWEEP_QUEUE, UPLOAD_SWEEP_CRON);
-  })().catch((error) => {
-    holder.whorlwindStudioWorkers = undefined;
-    throw error;
   });
-  return holder.whorlwindStudioWorkers;
-}
-
-/** Stops the workers and the queue of this process, letting running jobs finish. */
-export async function stopStudioWorkers(): Promise<void> {
-  holder.whorlwindStudioWorkers = undefined;
-  await stopStudioJobs();
 }

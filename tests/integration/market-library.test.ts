@@ -8,7 +8,8 @@ import { buildListingAssets } from '@/lib/market/assets';
 import { startCheckout } from '@/lib/market/checkout';
 import { MarketError } from '@/lib/market/errors';
 import type { Actor } from '@/lib/market/http';
-import { enqueueListingAssets, stopMarketJobs } from '@/lib/market/jobs';
+import { stopJobs } from '@/lib/jobs';
+import { enqueueListingAssets } from '@/lib/market/jobs';
 import { listLibrary, requestDownload } from '@/lib/market/library';
 import { decideListing, getListingDetail, submitListing, updateListing } from '@/lib/market/listings';
 import { refundPurchase } from '@/lib/market/refunds';
@@ -18,7 +19,7 @@ import { mailTo } from './helpers';
 import { deliver, eventsAbout, insertListing, makePerson, payOnHostedPage, ringSurfaceKey, waitFor } from './market-helpers';
 
 afterAll(async () => {
-  await stopMarketJobs();
+  await stopJobs();
   await closeDb();
 });
 

@@ -8,13 +8,13 @@ import { DEMO_GROOMS, parseGroomSpec } from '@/lib/groom';
 import { buildListingAssets } from '@/lib/market/assets';
 import { MarketError } from '@/lib/market/errors';
 import type { Actor } from '@/lib/market/http';
-import { stopMarketJobs } from '@/lib/market/jobs';
+import { stopJobs } from '@/lib/jobs';
 import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
 import type { ListingDraftInput } from '@/lib/market/validation';
 import { makePerson, ringSurfaceKey } from './market-helpers';
 
 afterAll(async () => {
-  await stopMarketJobs();
+  await stopJobs();
   await closeDb();
 });
 

@@ -5,7 +5,7 @@ import { closeDb, db } from '@/lib/db';
 import { payments } from '@/lib/payments';
 import { startCheckout } from '@/lib/market/checkout';
 import { reconcilePayments } from '@/lib/market/reconcile';
-import { stopMarketJobs } from '@/lib/market/jobs';
+import { stopJobs } from '@/lib/jobs';
 import { MarketError } from '@/lib/market/errors';
 import type { Actor } from '@/lib/market/http';
 import { mailTo } from './helpers';
@@ -13,7 +13,7 @@ import { deliver, eventsAbout, insertListing, makePerson, payOnHostedPage, serve
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 
 afterAll(async () => {
-  await stopMarketJobs();
+  await stopJobs();
   await closeDb();
 });
 

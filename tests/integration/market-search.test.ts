@@ -2,13 +2,13 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/db';
-import { stopMarketJobs } from '@/lib/market/jobs';
+import { stopJobs } from '@/lib/jobs';
 import type { ListingCard, SearchResponse } from '@/lib/market/types';
 import { GET as searchGet } from '@/app/api/market/search/route';
 import { insertListing, makePerson } from './market-helpers';
 
 afterAll(async () => {
-  await stopMarketJobs();
+  await stopJobs();
   await closeDb();
 });
 

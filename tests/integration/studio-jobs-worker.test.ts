@@ -6,11 +6,11 @@ import { readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/db';
-import { stopStudioJobs } from '@/lib/studio/jobs';
+import { stopJobs } from '@/lib/jobs';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 
 afterAll(async () => {
-  await stopStudioJobs();
+  await stopJobs();
   await closeDb();
 });
 

@@ -3,10 +3,11 @@
 // twist and turn, a curve's points, a pin's value — with the measured index beside the requested
 // one. Reachable by keyboard from top to bottom; the picked feature opens its fields.
 import { memo } from 'react';
-import { PIN_ATTRIBUTES, type CurveSpec, type GroomSpec, type PinAttribute, type PinSpec, type SingularitySpec } from '@/lib/groom/spec';
+import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec } from '@/lib/groom/spec';
 import { featureLabel, formatIndex, listFeatures, roundPoint, sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
 import type { SolveReport } from '@/lib/studio-client/protocol';
 import { NumberField } from '../ui/NumberField';
+import { PinAttributeSelect } from './PinAttributeSelect';
 import type { EditorActions } from './Workspace';
 
 type Place = { point?: readonly [number, number, number]; vertex?: number };
@@ -317,16 +318,7 @@ function PinFields({ spec, index, actions }: { spec: GroomSpec; index: number; a
   return (
     <>
       <div className="grid grid-cols-2 gap-2">
-        <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
-          Attribute
-          <select value={pin.attribute} onChange={(event) => update({ ...pin, attribute: event.target.value as PinAttribute })} className="rounded-lg border-2 border-vellum bg-white px-2 py-1 text-sm text-loam">
-            {PIN_ATTRIBUTES.map((a) => (
-              <option key={a} value={a}>
-                {a}
-              </option>
-            ))}
-          </select>
-        </label>
+        <PinAttributeSelect value={pin.attribute} onChange={(attribute) => update({ ...pin, attribute })} />
         <NumberField label="Factor" value={pin.value} min={0} max={10} onCommit={(value) => update({ ...pin, value })} />
       </div>
       <p className="text-xs text-loam-soft">The guide setting is multiplied by this factor here, blended smoothly toward the other pins of the same attribute.</p>

@@ -4,12 +4,7 @@
 import { useMemo } from 'react';
 import type { GroomDetail } from '@/lib/studio-client/api';
 import type { SurfaceSource } from '@/lib/studio-client/protocol';
-import { prewarmFieldWorker } from '@/lib/studio-client/field-client';
 import { Workspace } from './Workspace';
-
-// The field worker's code starts loading as soon as the editor's code runs, before the page is
-// hydrated: it is the longest wait before the surface can be opened.
-prewarmFieldWorker();
 
 export function GroomEditor({ groom }: { groom: GroomDetail }) {
   const source = useMemo<SurfaceSource>(() => ({ kind: 'url', url: groom.surface.fileUrl, fileName: groom.surface.fileName }), [groom]);

@@ -6,12 +6,7 @@ import { Notice } from '@/components/ui/Notice';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { parseGroomSpec } from '@/lib/groom/spec';
 import type { SurfaceSource } from '@/lib/studio-client/protocol';
-import { prewarmFieldWorker } from '@/lib/studio-client/field-client';
 import { Workspace } from './Workspace';
-
-// The field worker's code starts loading as soon as the editor's code runs, before the page is
-// hydrated: it is the longest wait before the surface can be opened.
-prewarmFieldWorker();
 
 /** The editor on one of the demo characters, built in the browser: for trying things out, nothing saved. */
 export function PracticeEditor({ demoId }: { demoId: string }) {

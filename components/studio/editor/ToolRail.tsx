@@ -1,8 +1,8 @@
 'use client';
 // The tools over the stage, with the options the active one needs and a line saying what it does.
-import { PIN_ATTRIBUTES, type PinAttribute } from '@/lib/groom/spec';
 import { NumberField } from '../ui/NumberField';
 import { COLOURS } from './EditorScene';
+import { PinAttributeSelect } from './PinAttributeSelect';
 import { TOOLS, type Tool, type ToolOptions } from './tools';
 
 const SWATCH: Partial<Record<Tool, string>> = {
@@ -76,16 +76,7 @@ export function ToolRail({
           )}
           {tool === 'pin' && (
             <>
-              <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
-                Attribute
-                <select value={options.attribute} onChange={(event) => onOptions({ ...options, attribute: event.target.value as PinAttribute })} className="rounded-lg border-2 border-vellum bg-white px-2 py-1 text-sm text-loam">
-                  {PIN_ATTRIBUTES.map((a) => (
-                    <option key={a} value={a}>
-                      {a}
-                    </option>
-                  ))}
-                </select>
-              </label>
+              <PinAttributeSelect value={options.attribute} onChange={(attribute) => onOptions({ ...options, attribute })} />
               <NumberField label="Factor on the global value" value={options.value} min={0} max={10} onCommit={(value) => onOptions({ ...options, value })} />
             </>
           )}

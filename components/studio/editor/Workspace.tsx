@@ -24,7 +24,7 @@ import {
   type EditorState,
 } from '@/lib/studio-client/editor-state';
 import { featureExists, featureLabel, featureOfPath, roundPoint, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
-import { SUPERSEDED, WorkerFailure, startFieldWorker, type FieldClient } from '@/lib/studio-client/field-client';
+import { SUPERSEDED, WorkerFailure, prewarmFieldWorker, startFieldWorker, type FieldClient } from '@/lib/studio-client/field-client';
 import type { DisplayOptions, GrownGuides, OpenedSurface, ProgressReport, SolveReport, SurfaceSource } from '@/lib/studio-client/protocol';
 import { applySpecEdit, checkedSpecEdit, type SpecEdit } from '@/lib/studio-client/spec-edits';
 import { nearestCorner, neighbourOf } from '@/lib/studio-client/surface-geometry';
@@ -41,6 +41,10 @@ import { SaveStatusLine } from './SaveStatusLine';
 import { ToolRail } from './ToolRail';
 import { TOOLS, type Tool, type ToolOptions } from './tools';
 import { VersionPanel } from './VersionPanel';
+
+// The field worker's code starts loading as soon as the editor's code runs, before the page is
+// hydrated: it is the longest wait before the surface can be opened.
+prewarmFieldWorker();
 
 export interface Persistence {
   readonly groomId: string;

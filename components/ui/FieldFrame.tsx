@@ -1,5 +1,5 @@
-// The label, hint and error line around a form control (text area, select), tied together for
-// screen readers the way components/ui/TextField does for inputs.
+// The label, hint and error line around a form control (input, text area, select), tied together
+// for screen readers: the control names the hint or the error line it stands with.
 import type { ReactNode } from 'react';
 
 export function describedBy(id: string, hint?: string, error?: string): string | undefined {
