@@ -2,8 +2,8 @@
 //   node --import tsx node_modules/knex/bin/cli.js migrate:latest   (npm run db:migrate)
 import type { Knex } from 'knex';
 import { fileURLToPath } from 'node:url';
-import { env } from './lib/env';
-import { knexConfig } from './lib/db';
+import { env } from './lib/platform/env';
+import { knexConfig } from './lib/platform/db';
 
 const dbFolder = fileURLToPath(new URL('./db/', import.meta.url));
 

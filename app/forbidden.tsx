@@ -1,7 +1,7 @@
 // Shown with status 403 when a signed-in person opens a page their roles do not allow.
 import Link from 'next/link';
-import { currentSession } from '@/lib/auth';
-import { ROLE_LABELS, visibleAreas } from '@/lib/roles';
+import { currentSession } from '@/lib/accounts/session';
+import { ROLE_LABELS, visibleAreas } from '@/lib/accounts/roles';
 
 export default async function Forbidden() {
   const session = await currentSession();

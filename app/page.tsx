@@ -1,7 +1,7 @@
 import Link from 'next/link';
 import { FlowFieldArt } from '@/components/landing/FlowFieldArt';
-import { currentSession } from '@/lib/auth';
-import { visibleAreas } from '@/lib/roles';
+import { currentSession } from '@/lib/accounts/session';
+import { visibleAreas } from '@/lib/accounts/roles';
 
 const STEPS = [
   {

@@ -1,6 +1,6 @@
 // The invented people of the demo. The seed creates them, `npm run demo` prints them, and the
 // README lists them; everything here is made up.
-import type { Role } from '../lib/roles';
+import type { Role } from '../lib/accounts/roles';
 
 export const DEMO_STUDIOS = [
   { slug: 'thistledown', name: 'Thistledown Creature Works' },

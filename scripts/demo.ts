@@ -2,7 +2,7 @@
 // builds the app and serves it on http://127.0.0.1:3000 (APP_PORT) until Ctrl-C, which stops
 // everything this run started. The demo's data stays in .data/demo between runs.
 import { DEMO_ACCOUNTS } from '../db/demo-scenario';
-import { ROLE_LABELS } from '../lib/roles';
+import { ROLE_LABELS } from '../lib/accounts/roles';
 import { demoProfile, migrateAndSeed, startStack } from './lib/stack';
 import { buildApp, startApp } from './lib/next-app';
 import { log } from './lib/processes';

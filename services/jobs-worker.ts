@@ -3,8 +3,8 @@
 //   node --import tsx services/jobs-worker.ts        (DATABASE_URL and S3_* as for the app)
 // The integration tests start the same workers in their own process with startJobsWorker().
 import { pathToFileURL } from 'node:url';
-import { closeDb } from '../lib/db';
-import { stopJobs } from '../lib/jobs';
+import { closeDb } from '../lib/platform/db';
+import { stopJobs } from '../lib/platform/jobs';
 import { startStudioWorkers } from '../lib/studio/workers';
 
 export type JobsWorker = { stop: () => Promise<void> };

@@ -1,5 +1,5 @@
 // Local stand-in for the payment provider's API, answered in the shapes the `stripe` SDK
-// expects (lib/payments.ts points the SDK at it with the host/port/protocol options).
+// expects (lib/platform/payments.ts points the SDK at it with the host/port/protocol options).
 //
 // What it knows: Checkout Sessions (create, retrieve, list, expire) with its own hosted payment
 // page and test cards; payment intents and charges behind them; refunds; connected accounts and

@@ -1,5 +1,5 @@
 // Local stand-in for the hosted object store: s3rver, an S3-compatible server that keeps
-// objects in a directory. The app reaches it only through @aws-sdk/client-s3 (lib/storage.ts).
+// objects in a directory. The app reaches it only through @aws-sdk/client-s3 (lib/platform/storage.ts).
 // s3rver does not check request signatures, so access control lives in the app.
 import S3rver from 's3rver';
 import { mkdir } from 'node:fs/promises';

@@ -1,11 +1,11 @@
 // Local stand-in for the outgoing mail service: an SMTP server that accepts every message,
 // keeps it in memory and shows it over a small HTTP JSON endpoint, which the admin mail page
-// and the tests read through lib/mail-sink.ts (where the shape of a message is defined).
+// and the tests read through lib/platform/mail-sink.ts (where the shape of a message is defined).
 // The app sends to it with nodemailer over SMTP.
 import { SMTPServer } from 'smtp-server';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { randomUUID } from 'node:crypto';
-import type { CaughtMail } from '../lib/mail-sink';
+import type { CaughtMail } from '../lib/platform/mail-sink';
 import { serveJson } from './json-http';
 
 export type SmtpSinkOptions = { smtpPort: number; httpPort: number };

@@ -1,6 +1,6 @@
-// The user id and roles that lib/auth.ts puts into the token and the session.
+// The user id and roles that lib/accounts/session.ts puts into the token and the session.
 import type { DefaultSession } from 'next-auth';
-import type { Role } from '@/lib/roles';
+import type { Role } from '@/lib/accounts/roles';
 
 declare module 'next-auth' {
   interface User {

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { ModerationQueue } from '@/components/admin/ModerationQueue';
 import { PurchaseList } from '@/components/admin/PurchaseList';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { listListingsForAdmin } from '@/lib/market/listings';
 import { listPurchasesForAdmin } from '@/lib/market/refunds';
 

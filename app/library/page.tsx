@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { LibraryList } from '@/components/market/LibraryList';
 import { actorOf } from '@/components/market/session-actor';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { listLibrary } from '@/lib/market/library';
 
 export const metadata: Metadata = { title: 'Library' };

@@ -5,7 +5,7 @@ import { ListingTile } from '@/components/market/ListingTile';
 import { Pagination } from '@/components/market/Pagination';
 import { marketHref, PAGE_SIZE, readMarketQuery, searchInputOf } from '@/components/market/search-params';
 import { Notice } from '@/components/ui/Notice';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { searchListings } from '@/lib/market/search';
 
 export const metadata: Metadata = { title: 'Market' };

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { AccountPanel } from '@/components/account/AccountPanel';
 import { ResetPasswordForm } from '@/components/account/ResetPasswordForm';
 import { Notice } from '@/components/ui/Notice';
-import { tokenField } from '@/lib/validation/account';
+import { tokenField } from '@/lib/accounts/schemas';
 
 export const metadata: Metadata = { title: 'Choose a new password' };
 

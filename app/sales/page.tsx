@@ -5,7 +5,7 @@ import { Payouts } from '@/components/sales/Payouts';
 import { SalesDashboard } from '@/components/sales/SalesDashboard';
 import { SellerListings } from '@/components/sales/SellerListings';
 import { Notice } from '@/components/ui/Notice';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { listOwnListings } from '@/lib/market/listings';
 import { listPayouts, salesReport } from '@/lib/market/sales';
 

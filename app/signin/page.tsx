@@ -2,8 +2,8 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { AccountPanel } from '@/components/account/AccountPanel';
 import { SignInForm } from '@/components/account/SignInForm';
-import { currentSession } from '@/lib/auth';
-import { safeCallbackPath } from '@/lib/safe-callback';
+import { currentSession } from '@/lib/accounts/session';
+import { safeCallbackPath } from '@/lib/accounts/safe-callback';
 
 export const metadata: Metadata = { title: 'Sign in' };
 

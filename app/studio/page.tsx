@@ -1,10 +1,10 @@
 import type { Metadata } from 'next';
 import { StudioHome } from '@/components/studio/home/StudioHome';
-import { accountSummary } from '@/lib/accounts';
-import { requireArea } from '@/lib/auth';
-import { env } from '@/lib/env';
+import { accountSummary } from '@/lib/accounts/users';
+import { requireArea } from '@/lib/accounts/session';
+import { env } from '@/lib/platform/env';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
-import { area } from '@/lib/roles';
+import { area } from '@/lib/accounts/roles';
 import { listGrooms } from '@/lib/studio/grooms';
 import { listSurfaces } from '@/lib/studio/surfaces';
 

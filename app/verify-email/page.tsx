@@ -4,8 +4,8 @@ import Link from 'next/link';
 import { AccountPanel } from '@/components/account/AccountPanel';
 import { ResendVerificationForm } from '@/components/account/ResendVerificationForm';
 import { Notice } from '@/components/ui/Notice';
-import { TOKEN_PROBLEM_MESSAGES, verifyEmail, type VerifyEmailResult } from '@/lib/accounts';
-import { tokenField } from '@/lib/validation/account';
+import { TOKEN_PROBLEM_MESSAGES, verifyEmail, type VerifyEmailResult } from '@/lib/accounts/users';
+import { tokenField } from '@/lib/accounts/schemas';
 
 export const metadata: Metadata = { title: 'Confirm your e-mail address' };
 

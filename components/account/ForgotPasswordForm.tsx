@@ -4,8 +4,8 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { postJson } from '@/lib/client/api';
-import { emailOnlySchema } from '@/lib/validation/account';
+import { postJson } from '@/lib/http/client';
+import { emailOnlySchema } from '@/lib/accounts/schemas';
 import type { PasswordResetRequestResponse } from '@/app/api/account/password-reset/route';
 
 export function ForgotPasswordForm() {

@@ -5,9 +5,9 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { postJson } from '@/lib/client/api';
-import { PASSWORD_MIN_LENGTH, resetPasswordSchema } from '@/lib/validation/account';
-import type { ApiErrorCode } from '@/lib/api/types';
+import { postJson } from '@/lib/http/client';
+import { PASSWORD_MIN_LENGTH, resetPasswordSchema } from '@/lib/accounts/schemas';
+import type { ApiErrorCode } from '@/lib/http/types';
 import type { PasswordResetConfirmResponse } from '@/app/api/account/password-reset/confirm/route';
 
 const TOKEN_PROBLEMS: ApiErrorCode[] = ['invalid-token', 'expired-token', 'used-token'];

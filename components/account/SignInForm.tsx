@@ -6,8 +6,8 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { isSignInProblem, SIGN_IN_PROBLEM_MESSAGES } from '@/lib/sign-in-problems';
-import { signInSchema } from '@/lib/validation/account';
+import { isSignInProblem, SIGN_IN_PROBLEM_MESSAGES } from '@/lib/accounts/sign-in-problems';
+import { signInSchema } from '@/lib/accounts/schemas';
 import { ResendVerificationForm } from './ResendVerificationForm';
 
 export function SignInForm({ callbackUrl }: { callbackUrl: string }) {

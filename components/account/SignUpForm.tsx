@@ -5,8 +5,8 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { postJson } from '@/lib/client/api';
-import { PASSWORD_MIN_LENGTH, signUpSchema } from '@/lib/validation/account';
+import { postJson } from '@/lib/http/client';
+import { PASSWORD_MIN_LENGTH, signUpSchema } from '@/lib/accounts/schemas';
 import type { SignUpResponse } from '@/app/api/account/sign-up/route';
 
 const ROLE_CHOICES = [

@@ -1,7 +1,7 @@
 'use client';
 import useSWR from 'swr';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, type ApiRequestError } from '@/lib/http/client';
 import type { CaughtMailResponse } from '@/app/api/admin/mail/route';
 
 const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium' });

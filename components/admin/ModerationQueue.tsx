@@ -8,7 +8,7 @@ import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
 import type { AdminListingsResponse } from '@/app/api/admin/listings/route';
 import type { ListingSummary } from '@/lib/market/types';
 import { decisionSchema } from '@/lib/market/validation';

@@ -6,7 +6,7 @@ import { useState, type FormEvent } from 'react';
 import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
 import type { AdminPurchasesResponse } from '@/app/api/admin/purchases/route';
 import type { RefundResponse } from '@/app/api/admin/purchases/[id]/refund/route';
 import type { ReconcileResponse } from '@/app/api/admin/reconcile/route';

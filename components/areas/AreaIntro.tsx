@@ -1,7 +1,7 @@
 // The top of an area's page: its name, what it is for, and — while the area is being built —
 // what it will hold, so nobody mistakes an empty page for a broken one.
 import type { ReactNode } from 'react';
-import { area, type AreaId } from '@/lib/roles';
+import { area, type AreaId } from '@/lib/accounts/roles';
 
 export function AreaIntro({ areaId, upcoming, children }: { areaId: AreaId; upcoming: string[]; children?: ReactNode }) {
   const { label, summary } = area(areaId);

@@ -7,8 +7,8 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { postJson } from '@/lib/client/api';
-import type { ApiError } from '@/lib/api/types';
+import { postJson } from '@/lib/http/client';
+import type { ApiError } from '@/lib/http/types';
 import { rememberCheckout } from './pending-checkout';
 
 export function BuyButton({ listingId, title, priceLabel }: { listingId: string; title: string; priceLabel: string }) {

@@ -7,7 +7,7 @@ import { useEffect, useState } from 'react';
 import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
 import type { LibraryResponse } from '@/app/api/library/route';
 import type { DownloadResponse } from '@/app/api/library/[purchaseId]/download/route';
 import type { LibraryItem } from '@/lib/market/types';

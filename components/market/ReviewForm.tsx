@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, type ApiRequestError } from '@/lib/http/client';
 import type { ListingResponse } from '@/app/api/market/listings/[id]/route';
 import type { ReviewResponse } from '@/app/api/market/listings/[id]/review/route';
 import { reviewSchema } from '@/lib/market/validation';

@@ -1,7 +1,7 @@
-// PUT and PATCH for the market's forms, answering like postJson (lib/client/api.ts): a result,
+// PUT and PATCH for the market's forms, answering like postJson (lib/http/client.ts): a result,
 // never a throw. (The platform's helper only posts.)
-import type { ApiError } from '@/lib/api/types';
-import type { ApiOutcome } from '@/lib/client/api';
+import type { ApiError } from '@/lib/http/types';
+import type { ApiOutcome } from '@/lib/http/client';
 
 export async function sendJson<T>(method: 'PUT' | 'PATCH', url: string, body: unknown): Promise<ApiOutcome<T>> {
   let response: Response;

@@ -1,5 +1,5 @@
 // The person a page acts for when it reads through lib/market (server components only).
-import type { SignedInSession } from '@/lib/auth';
+import type { SignedInSession } from '@/lib/accounts/session';
 import type { Actor } from '@/lib/market/http';
 
 export function actorOf(session: SignedInSession): Actor {

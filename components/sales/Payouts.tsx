@@ -6,7 +6,7 @@ import { useState } from 'react';
 import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
 import type { PayoutResponse, PayoutsResponse } from '@/app/api/sales/payouts/route';
 import type { SalesResponse } from '@/app/api/sales/route';
 import { formatPrice, type Currency } from '@/lib/market/vocabulary';

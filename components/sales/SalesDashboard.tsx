@@ -9,7 +9,7 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, type ApiRequestError } from '@/lib/http/client';
 import type { SalesResponse } from '@/app/api/sales/route';
 import type { SalesFigures } from '@/lib/market/types';
 import { salesQuerySchema } from '@/lib/market/validation';

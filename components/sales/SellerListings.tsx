@@ -6,7 +6,7 @@ import { useState } from 'react';
 import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/client/api';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
 import type { OwnListingsResponse } from '@/app/api/market/listings/route';
 import type { ListingSummary } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';

@@ -1,8 +1,8 @@
 // The band across the top of every page: the mark, the areas this person may enter, and who is
 // signed in (or the way to sign in).
 import Link from 'next/link';
-import { currentSession } from '@/lib/auth';
-import { ROLE_LABELS, visibleAreas } from '@/lib/roles';
+import { currentSession } from '@/lib/accounts/session';
+import { ROLE_LABELS, visibleAreas } from '@/lib/accounts/roles';
 import { WhorlMark } from './WhorlMark';
 import { SignOutButton } from './SignOutButton';
 

@@ -5,7 +5,7 @@
 // form itself, so text typed before the page finished loading is what gets checked and sent.
 import { useEffect, useState, type ChangeEvent, type FocusEvent, type FormEvent } from 'react';
 import type { z } from 'zod';
-import { fieldErrors, type FieldErrors } from '@/lib/validation/fields';
+import { fieldErrors, type FieldErrors } from '@/lib/http/field-errors';
 
 function readForm(form: HTMLFormElement): Record<string, string> {
   const values: Record<string, string> = {};

@@ -3,7 +3,7 @@
 // everything else in the database alone.
 import type { Knex } from 'knex';
 import { DEMO_ACCOUNTS, DEMO_STUDIOS } from '../demo-scenario';
-import { hashPassword } from '../../lib/passwords';
+import { hashPassword } from '../../lib/accounts/passwords';
 
 export async function seed(knex: Knex) {
   await knex.transaction(async (trx) => {

@@ -6,12 +6,12 @@
 // of the grooms are queued; the app's job workers render them when it starts.
 import type { Knex } from 'knex';
 import { DEMO_ACCOUNTS } from '../demo-scenario';
-import { closeDb } from '../../lib/db';
+import { closeDb } from '../../lib/platform/db';
 import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom';
 import type { SurfaceUnits } from '../../lib/studio/api-types';
 import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
 import type { Groomer } from '../../lib/studio/http';
-import { stopJobs } from '../../lib/jobs';
+import { stopJobs } from '../../lib/platform/jobs';
 import { createSurfaceUpload, registerSurface } from '../../lib/studio/surfaces';
 
 const FIRST_VERSION = 'First pass';

@@ -19,9 +19,9 @@ import {
   type ThumbnailView,
 } from '../groom';
 import { encodeImage } from '../groom/encode-image';
-import { db } from '../db';
-import { fileSlug } from '../file-names';
-import { getObjectBytes, putObject } from '../storage';
+import { db } from '../platform/db';
+import { fileSlug } from '../platform/file-names';
+import { getObjectBytes, putObject } from '../platform/storage';
 import { copyObject, listingPrefix } from './storage';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
 

@@ -1,9 +1,9 @@
 // Checkout: a Checkout Session at the payment provider for one published listing, with the price
 // taken from the database. A buyer cannot buy their own listing or one they already own; a second
 // click while a checkout is open returns the same checkout instead of a second payment.
-import { db } from '../db';
-import { env } from '../env';
-import { payments } from '../payments';
+import { db } from '../platform/db';
+import { env } from '../platform/env';
+import { payments } from '../platform/payments';
 import { MarketError, notFound, providerFailed } from './errors';
 import type { Actor } from './http';
 

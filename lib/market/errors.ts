@@ -1,6 +1,6 @@
 // Failures of the market's operations that a person can act on, with the market's error codes.
 // Route handlers turn them into the platform's JSON envelope (lib/market/http.ts).
-import type { FieldErrors } from '../validation/fields';
+import type { FieldErrors } from '../http/field-errors';
 
 export type MarketErrorCode =
   | 'invalid-input'

@@ -1,6 +1,6 @@
 // The saved groom version a listing sells, read from the studio's tables (grooms, groom_versions,
 // growth_surfaces; db/migrations/*studio*). Only the seller's own grooms; anything else is 404.
-import { db } from '../db';
+import { db } from '../platform/db';
 import { notFound } from './errors';
 
 export type GroomVersionSource = {

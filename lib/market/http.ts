@@ -3,9 +3,9 @@
 // and MarketError turned into the JSON envelope `{ error: { code, message, fields?, details? } }`.
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
-import { requireApiRoles, currentSession, type SignedInSession } from '../auth';
-import type { Role } from '../roles';
-import { fieldErrors } from '../validation/fields';
+import { requireApiRoles, currentSession, type SignedInSession } from '../accounts/session';
+import type { Role } from '../accounts/roles';
+import { fieldErrors } from '../http/field-errors';
 import { MarketError, notFound, type MarketErrorCode, type MarketThing } from './errors';
 import { startMarketWorkers } from './jobs';
 

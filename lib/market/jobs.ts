@@ -1,9 +1,9 @@
-// The market's background work on the process's job queue (lib/jobs.ts): pictures and packages of listings,
+// The market's background work on the process's job queue (lib/platform/jobs.ts): pictures and packages of listings,
 // and the periodic reconciliation of payments. Workers run inside the server process and start
 // on first use of the market (startMarketWorkers), so any number of app servers share the queue.
 import type PgBoss from 'pg-boss';
-import { db } from '../db';
-import { jobQueue, startWorkers } from '../jobs';
+import { db } from '../platform/db';
+import { jobQueue, startWorkers } from '../platform/jobs';
 import { buildListingAssets } from './assets';
 import { reconcilePayments } from './reconcile';
 

@@ -1,7 +1,7 @@
 // A buyer's library: their purchases with the files, and downloads. Each download is logged and
 // answered with a presigned URL of the listing's package that lives 5 minutes; a refunded
 // purchase (or one whose refund is under way) downloads nothing.
-import { db } from '../db';
+import { db } from '../platform/db';
 import { MarketError, notFound } from './errors';
 import type { Actor } from './http';
 import { enqueueListingAssets } from './jobs';

@@ -1,7 +1,7 @@
 // The market's own licence texts. A seller picks one for each listing; the buyer sees it in full
 // before paying, and the package carries it as LICENCE.txt. Seeded by db/seeds/*market* (upsert
 // by slug), read from the database by everything else.
-import { db } from '../db';
+import { db } from '../platform/db';
 
 export type LicenceText = { slug: string; title: string; summary: string; body: string; position: number };
 

@@ -5,8 +5,8 @@
 // are stored with it, so later edits or deletion of the groom change nothing it sells.
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
-import { db } from '../db';
-import { MailNotSent, sendMail } from '../mail';
+import { db } from '../platform/db';
+import { MailNotSent, sendMail } from '../platform/mail';
 import { parseGroomSpec } from '../groom';
 import type { Actor } from './http';
 import { MarketError, notFound } from './errors';

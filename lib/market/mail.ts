@@ -1,7 +1,7 @@
 // The market's e-mails: listing approved or rejected (to the seller), receipt (to the buyer),
 // sale notice (to the seller), refund notice (to the buyer). Plain text with a simple HTML twin.
-import { env } from '../env';
-import { sendMail, type OutgoingMail } from '../mail';
+import { env } from '../platform/env';
+import { sendMail, type OutgoingMail } from '../platform/mail';
 import { TAX_NOTE, formatPrice } from './vocabulary';
 
 const escapeHtml = (value: string) =>

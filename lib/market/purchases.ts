@@ -9,8 +9,8 @@
 import type { Knex } from 'knex';
 import type Stripe from 'stripe';
 import { z } from 'zod';
-import { db } from '../db';
-import { payments } from '../payments';
+import { db } from '../platform/db';
+import { payments } from '../platform/payments';
 import { platformFeeCents } from './checkout';
 import { receiptMail, refundMail, saleNoticeMail, sendMailLogged } from './mail';
 

@@ -1,8 +1,8 @@
 // Refunds by an admin: asked of the payment provider; the provider's `charge.refunded` webhook
 // then marks the purchase refunded (lib/market/purchases.ts). From the request on, the purchase
 // no longer downloads.
-import { db } from '../db';
-import { payments } from '../payments';
+import { db } from '../platform/db';
+import { payments } from '../platform/payments';
 import { MarketError, notFound, providerFailed } from './errors';
 import type { Actor } from './http';
 import type { AdminPurchase } from './types';

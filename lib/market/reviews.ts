@@ -1,6 +1,6 @@
 // Reviews: a buyer who owns a preset (a paid purchase, not refunded) rates it 1–5 with some words,
 // once, and may edit it. The listing's average and count change in the same transaction.
-import { db } from '../db';
+import { db } from '../platform/db';
 import { MarketError, notFound } from './errors';
 import type { Actor } from './http';
 import type { Review } from './types';

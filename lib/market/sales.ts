@@ -6,9 +6,9 @@
 // can be negative). The fee is kept on sales and given back on refunds:
 //   net = revenue − refunds − (fee on sales − fee on refunds).
 import { randomUUID } from 'node:crypto';
-import { db } from '../db';
-import { env } from '../env';
-import { payments } from '../payments';
+import { db } from '../platform/db';
+import { env } from '../platform/env';
+import { payments } from '../platform/payments';
 import { MarketError, providerFailed } from './errors';
 import type { Actor } from './http';
 import type { Payout, SalesFigures, SalesReport } from './types';

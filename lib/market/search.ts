@@ -5,7 +5,7 @@
 // grows with every change a result could show: a kept answer is reused only while nothing changed.
 import type { Knex } from 'knex';
 import { LRUCache } from 'lru-cache';
-import { db } from '../db';
+import { db } from '../platform/db';
 import { cardOf, type ListingRow } from './listings';
 import type { SearchResponse } from './types';
 import type { SearchInput } from './validation';

@@ -3,8 +3,8 @@
 // the market's own checks (the store itself checks nothing locally).
 import { CopyObjectCommand, DeleteObjectsCommand, GetObjectCommand } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
-import { env } from '../env';
-import { storageClient } from '../storage';
+import { env } from '../platform/env';
+import { storageClient } from '../platform/storage';
 
 /** How long a download link of a purchase stays valid. */
 export const DOWNLOAD_URL_SECONDS = 5 * 60;

@@ -2,8 +2,8 @@
 // HMAC of the timestamp and the raw body with the endpoint's secret, within 5 minutes of now)
 // before anything is read; a bad, missing or stale signature changes nothing.
 import type Stripe from 'stripe';
-import { env } from '../env';
-import { payments } from '../payments';
+import { env } from '../platform/env';
+import { payments } from '../platform/payments';
 import { MarketError } from './errors';
 import { handlePaymentEvent, type EventOutcome } from './purchases';
 

@@ -14,7 +14,7 @@ import type {
   Version,
 } from '@/lib/studio/api-types';
 import type { GroomSpec } from '@/lib/groom/spec';
-import type { FieldErrors } from '@/lib/validation/fields';
+import type { FieldErrors } from '@/lib/http/field-errors';
 
 export { EXPORT_FORMATS, SURFACE_FORMATS, SURFACE_UNITS } from '@/lib/studio/api-types';
 export type { ExportFormat, ExportJob, GroomDetail, GroomSummary, SurfaceDetail, SurfaceProblem, SurfaceSummary, SurfaceUnits, UploadTicket };

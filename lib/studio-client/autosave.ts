@@ -3,7 +3,7 @@
 // waiting, failed (with the server's field messages), or a conflict when the groom was saved from
 // somewhere else in the meantime. No timers of its own beyond the one delay; no React.
 import type { GroomSpec } from '@/lib/groom/spec';
-import type { FieldErrors } from '@/lib/validation/fields';
+import type { FieldErrors } from '@/lib/http/field-errors';
 import type { Outcome } from './api';
 
 export type SaveStatus =

@@ -1,6 +1,6 @@
 // Failures of the studio's operations that a person can act on. Route handlers turn them into
 // the platform's JSON envelope (lib/studio/http.ts); anything else is a server error.
-import type { ApiError, ApiErrorCode } from '../api/types';
+import type { ApiError, ApiErrorCode } from '../http/types';
 
 export class StudioError extends Error {
   constructor(

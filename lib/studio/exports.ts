@@ -3,9 +3,9 @@
 // presigned URL. The job reports its stage and progress on the export's row.
 import { FieldError } from '../field';
 import { fieldToPly, GroomError, guidesToGltf, guidesToObj, guidesToUsda, parseGroomSpec, specToJson } from '../groom';
-import { db } from '../db';
-import { fileSlug } from '../file-names';
-import { putObject } from '../storage';
+import { db } from '../platform/db';
+import { fileSlug } from '../platform/file-names';
+import { putObject } from '../platform/storage';
 import type { ExportFormat, ExportJob, ExportStatus } from './api-types';
 import { notFound, StudioError } from './errors';
 import type { Groomer } from './http';

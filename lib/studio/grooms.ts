@@ -2,7 +2,7 @@
 // revisions) and named versions that can be restored. A groomer only ever sees their own.
 import type { Knex } from 'knex';
 import { validateGroomSpec, type GroomSpec } from '../groom';
-import { db } from '../db';
+import { db } from '../platform/db';
 import type { GroomDetail, GroomSummary, RestoredResponse, SpecSavedResponse, Version } from './api-types';
 import { notFound, StudioError } from './errors';
 import type { Groomer } from './http';

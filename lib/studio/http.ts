@@ -3,8 +3,8 @@
 // StudioError turned into the JSON envelope.
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
-import type { ApiFailure } from '../api/types';
-import { requireApiRoles } from '../auth';
+import type { ApiFailure } from '../http/types';
+import { requireApiRoles } from '../accounts/session';
 import { notFound, StudioError, type StudioThing } from './errors';
 
 /** The signed-in groomer on whose behalf the studio acts. */

@@ -1,7 +1,7 @@
-// The studio's background work on the process's job queue (lib/jobs.ts): exports, thumbnails,
+// The studio's background work on the process's job queue (lib/platform/jobs.ts): exports, thumbnails,
 // and the hourly sweep of abandoned uploads; its workers are in lib/studio/workers.ts.
 import type PgBoss from 'pg-boss';
-import { jobQueue } from '../jobs';
+import { jobQueue } from '../platform/jobs';
 
 export const EXPORT_QUEUE = 'studio-export';
 export const THUMBNAIL_QUEUE = 'studio-thumbnail';

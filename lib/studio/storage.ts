@@ -3,8 +3,8 @@
 // presigned URLs handed out only after the ownership checks of lib/studio.
 import { DeleteObjectsCommand, GetObjectCommand, HeadObjectCommand, NotFound, PutObjectCommand } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
-import { env } from '../env';
-import { storageClient } from '../storage';
+import { env } from '../platform/env';
+import { storageClient } from '../platform/storage';
 
 /** How long presigned URLs of the studio stay valid. */
 export const STUDIO_URL_SECONDS = 10 * 60;

@@ -4,7 +4,7 @@
 // only solves and traces.
 import { readSurface, type BoundaryMode, type TriangleMesh } from '../field';
 import { prepareGroomSurface, type GroomSurface } from '../groom';
-import { getObjectBytes } from '../storage';
+import { getObjectBytes } from '../platform/storage';
 
 /** Surfaces kept; each holds its mesh and one prepared surface per boundary mode used. */
 const CACHED_SURFACES = 3;

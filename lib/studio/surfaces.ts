@@ -6,9 +6,9 @@ import { checkSurfaceFile, type ComponentFacts, type TriangleMesh } from '../fie
 import type { Problem } from '../field/check';
 import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
 import { encodeImage } from '../groom/encode-image';
-import { db } from '../db';
-import { env } from '../env';
-import { getObjectBytes, putObject } from '../storage';
+import { db } from '../platform/db';
+import { env } from '../platform/env';
+import { getObjectBytes, putObject } from '../platform/storage';
 import type { SurfaceDetail, SurfaceFileFormat, SurfaceSummary, SurfaceUnits, UploadTicket } from './api-types';
 import { SURFACE_FORMATS } from './api-types';
 import { notFound, StudioError } from './errors';

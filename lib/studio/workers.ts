@@ -2,7 +2,7 @@
 // job at a time per queue and process (exports and thumbnails are CPU-bound), and the schedule
 // of the upload sweep.
 import type { ExportJobData, ThumbnailJobData } from './jobs';
-import { startWorkers } from '../jobs';
+import { startWorkers } from '../platform/jobs';
 import { EXPORT_QUEUE, studioBoss, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
 import { runExport } from './exports';
 import { sweepAbandonedUploads } from './surfaces';

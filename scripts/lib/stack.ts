@@ -15,7 +15,7 @@ import {
   localServiceEnv,
   localWebhookUrl,
   type LocalPorts,
-} from '../../lib/local-services';
+} from '../../lib/platform/local-services';
 import { startS3StandIn } from '../../services/s3';
 import { startSmtpSink } from '../../services/smtp-sink';
 import { startPaymentsFake } from '../../services/payments-fake';
@@ -167,7 +167,7 @@ export async function migrateAndSeed(profile: StackProfile) {
     await connection.destroy();
   }
   // Seeds run in a process of their own with this stack's environment: the studio's seed uploads
-  // the demo surfaces through lib/storage, whose configuration (lib/env.ts) this process has
+  // the demo surfaces through lib/platform/storage, whose configuration (lib/platform/env.ts) this process has
   // already read with the demo's defaults.
   const knexCli = join(projectRoot, 'node_modules', 'knex', 'bin', 'cli.js');
   await runCommand(process.execPath, ['--import', 'tsx', knexCli, 'seed:run'], { cwd: projectRoot, env: environment });

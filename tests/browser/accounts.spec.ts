@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
-import { closeDb, db } from '../../lib/db';
-import { MAX_FAILURES_PER_EMAIL } from '../../lib/sign-in';
+import { closeDb, db } from '../../lib/platform/db';
+import { MAX_FAILURES_PER_EMAIL } from '../../lib/accounts/sign-in';
 import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
 import { confirmedAccount, expectSignedInAs, linkFromNewestMail, pageAlert, pageStatus, signInThroughForm, uniqueEmail } from './helpers';
 

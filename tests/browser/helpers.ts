@@ -2,9 +2,9 @@
 // server-side modules, against the same PostgreSQL and mail sink the app under test uses.
 import { randomUUID } from 'node:crypto';
 import { expect, type Page } from '@playwright/test';
-import { signUp, verifyEmail } from '../../lib/accounts';
-import { listCaughtMail, type CaughtMail } from '../../lib/mail-sink';
-import type { Role } from '../../lib/roles';
+import { signUp, verifyEmail } from '../../lib/accounts/users';
+import { listCaughtMail, type CaughtMail } from '../../lib/platform/mail-sink';
+import type { Role } from '../../lib/accounts/roles';
 
 export function uniqueEmail(label: string) {
   return `${label}-${randomUUID().slice(0, 8)}@browser.example`;

@@ -8,7 +8,7 @@ import { validateBytes } from 'gltf-validator';
 import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { PLYLoader } from 'three/examples/jsm/loaders/PLYLoader.js';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
-import { closeDb } from '../../lib/db';
+import { closeDb } from '../../lib/platform/db';
 import { surfaceToObj } from '../../lib/groom/demo/obj';
 import { FOX, foxHead } from '../../lib/groom/demo/surfaces';
 import { parseGroomSpecJson } from '../../lib/groom/spec';

@@ -1,6 +1,6 @@
 // The route handlers: validation, status codes and the JSON envelope, called as Next calls them.
 import { afterAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
+import { closeDb, db } from '@/lib/platform/db';
 import { POST as signUpPost } from '@/app/api/account/sign-up/route';
 import { POST as resendPost } from '@/app/api/account/verification/route';
 import { POST as resetRequestPost } from '@/app/api/account/password-reset/route';

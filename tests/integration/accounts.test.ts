@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { db, closeDb } from '@/lib/db';
-import { requestPasswordReset, resetPassword, resendVerification, signUp, verifyEmail } from '@/lib/accounts';
-import { checkCredentials } from '@/lib/sign-in';
+import { db, closeDb } from '@/lib/platform/db';
+import { requestPasswordReset, resetPassword, resendVerification, signUp, verifyEmail } from '@/lib/accounts/users';
+import { checkCredentials } from '@/lib/accounts/sign-in';
 import { mailTo, onlyMailTo, tokenFromLink, uniqueEmail } from './helpers';
 
 afterAll(closeDb);

@@ -1,7 +1,7 @@
 // Shared steps of the integration tests. They talk to the services `npm test` started.
 import { randomUUID } from 'node:crypto';
 import { expect } from 'vitest';
-import { listCaughtMail, type CaughtMail } from '@/lib/mail-sink';
+import { listCaughtMail, type CaughtMail } from '@/lib/platform/mail-sink';
 
 /** An address no other test uses, so tests never see each other's accounts or mail. */
 export function uniqueEmail(label: string) {

@@ -15,18 +15,18 @@ async function closedPort(): Promise<number> {
 }
 
 let modules: {
-  db: typeof import('@/lib/db');
-  accounts: typeof import('@/lib/accounts');
-  mail: typeof import('@/lib/mail');
+  db: typeof import('@/lib/platform/db');
+  accounts: typeof import('@/lib/accounts/users');
+  mail: typeof import('@/lib/platform/mail');
   signUpRoute: typeof import('@/app/api/account/sign-up/route');
 };
 
 beforeAll(async () => {
   vi.stubEnv('SMTP_PORT', String(await closedPort()));
   modules = {
-    db: await import('@/lib/db'),
-    accounts: await import('@/lib/accounts'),
-    mail: await import('@/lib/mail'),
+    db: await import('@/lib/platform/db'),
+    accounts: await import('@/lib/accounts/users'),
+    mail: await import('@/lib/platform/mail'),
     signUpRoute: await import('@/app/api/account/sign-up/route'),
   };
 });

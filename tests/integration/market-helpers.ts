@@ -4,13 +4,13 @@
 import { randomUUID } from 'node:crypto';
 import { createServer, type Server } from 'node:http';
 import type Stripe from 'stripe';
-import { db } from '@/lib/db';
-import { env } from '@/lib/env';
-import { payments } from '@/lib/payments';
-import { putObject } from '@/lib/storage';
+import { db } from '@/lib/platform/db';
+import { env } from '@/lib/platform/env';
+import { payments } from '@/lib/platform/payments';
+import { putObject } from '@/lib/platform/storage';
 import { DEMO_GROOMS, parseGroomSpec, surfaceToObj } from '@/lib/groom';
 import type { Actor } from '@/lib/market/http';
-import type { Role } from '@/lib/roles';
+import type { Role } from '@/lib/accounts/roles';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 import { uniqueEmail } from './helpers';
 

@@ -2,13 +2,13 @@
 // seller's figures and payouts, reviews, and moderation with its mails.
 import { unzipSync, strFromU8 } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { payments } from '@/lib/payments';
+import { closeDb, db } from '@/lib/platform/db';
+import { payments } from '@/lib/platform/payments';
 import { buildListingAssets } from '@/lib/market/assets';
 import { startCheckout } from '@/lib/market/checkout';
 import { MarketError } from '@/lib/market/errors';
 import type { Actor } from '@/lib/market/http';
-import { stopJobs } from '@/lib/jobs';
+import { stopJobs } from '@/lib/platform/jobs';
 import { enqueueListingAssets } from '@/lib/market/jobs';
 import { listLibrary, requestDownload } from '@/lib/market/library';
 import { decideListing, getListingDetail, submitListing, updateListing } from '@/lib/market/listings';

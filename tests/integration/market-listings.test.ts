@@ -2,13 +2,13 @@
 // copied), states move only as allowed, and other groomers' grooms are not found.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { getObjectBytes } from '@/lib/storage';
+import { closeDb, db } from '@/lib/platform/db';
+import { getObjectBytes } from '@/lib/platform/storage';
 import { DEMO_GROOMS, parseGroomSpec } from '@/lib/groom';
 import { buildListingAssets } from '@/lib/market/assets';
 import { MarketError } from '@/lib/market/errors';
 import type { Actor } from '@/lib/market/http';
-import { stopJobs } from '@/lib/jobs';
+import { stopJobs } from '@/lib/platform/jobs';
 import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
 import type { ListingDraftInput } from '@/lib/market/validation';
 import { makePerson, ringSurfaceKey } from './market-helpers';

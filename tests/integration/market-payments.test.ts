@@ -1,11 +1,11 @@
 // Checkout, the signed webhook and purchases against the payments fake: signatures, duplicate
 // and shuffled deliveries, declined cards, reconciliation, own and repeated purchases.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { payments } from '@/lib/payments';
+import { closeDb, db } from '@/lib/platform/db';
+import { payments } from '@/lib/platform/payments';
 import { startCheckout } from '@/lib/market/checkout';
 import { reconcilePayments } from '@/lib/market/reconcile';
-import { stopJobs } from '@/lib/jobs';
+import { stopJobs } from '@/lib/platform/jobs';
 import { MarketError } from '@/lib/market/errors';
 import type { Actor } from '@/lib/market/http';
 import { mailTo } from './helpers';

@@ -1,8 +1,8 @@
 // The market's search through its route handler: text, filters, sorts, pages and bad input.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { stopJobs } from '@/lib/jobs';
+import { closeDb, db } from '@/lib/platform/db';
+import { stopJobs } from '@/lib/platform/jobs';
 import type { ListingCard, SearchResponse } from '@/lib/market/types';
 import { GET as searchGet } from '@/app/api/market/search/route';
 import { insertListing, makePerson } from './market-helpers';

@@ -2,11 +2,11 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import Stripe from 'stripe';
 import { randomUUID } from 'node:crypto';
-import { closeDb, db } from '@/lib/db';
-import { env } from '@/lib/env';
-import { sendMail } from '@/lib/mail';
-import { getObjectBytes, presignDownload, presignUpload, putObject, storageReachable } from '@/lib/storage';
-import { payments } from '@/lib/payments';
+import { closeDb, db } from '@/lib/platform/db';
+import { env } from '@/lib/platform/env';
+import { sendMail } from '@/lib/platform/mail';
+import { getObjectBytes, presignDownload, presignUpload, putObject, storageReachable } from '@/lib/platform/storage';
+import { payments } from '@/lib/platform/payments';
 import { mailTo, uniqueEmail } from './helpers';
 
 afterAll(closeDb);

@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { requestPasswordReset, resetPassword, signUp, verifyEmail } from '@/lib/accounts';
-import { checkCredentials, MAX_FAILURES_PER_CLIENT, MAX_FAILURES_PER_EMAIL } from '@/lib/sign-in';
+import { closeDb, db } from '@/lib/platform/db';
+import { requestPasswordReset, resetPassword, signUp, verifyEmail } from '@/lib/accounts/users';
+import { checkCredentials, MAX_FAILURES_PER_CLIENT, MAX_FAILURES_PER_EMAIL } from '@/lib/accounts/sign-in';
 import { DEMO_ACCOUNTS } from '@/db/demo-scenario';
 import { mailTo, onlyMailTo, tokenFromLink, uniqueEmail } from './helpers';
 

@@ -6,7 +6,7 @@ import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
 import type { LineSegments } from 'three';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
+import { closeDb, db } from '@/lib/platform/db';
 import { readSurface } from '@/lib/field';
 import { DEMO_GROOMS, parseGroomSpec, parseGroomSpecJson, surfaceToObj } from '@/lib/groom';
 import { startJobsWorker, type JobsWorker } from '@/services/jobs-worker';

@@ -3,7 +3,7 @@
 import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
 import { readFile } from 'node:fs/promises';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
+import { closeDb, db } from '@/lib/platform/db';
 import { indexBudget, readSurface } from '@/lib/field';
 import { DEMO_GROOMS, fieldRequestFromSpec, parseGroomSpec, prepareGroomSurface, solveGroomField, surfaceToObj, type GroomSpec } from '@/lib/groom';
 import { startJobsWorker, type JobsWorker } from '@/services/jobs-worker';

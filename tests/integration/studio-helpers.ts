@@ -12,9 +12,9 @@ import { workAsyncStorage } from 'next/dist/server/app-render/work-async-storage
 import { workUnitAsyncStorage } from 'next/dist/server/app-render/work-unit-async-storage.external';
 import { createRequestStoreForAPI } from 'next/dist/server/async-storage/request-store';
 import { createWorkStore } from 'next/dist/server/async-storage/work-store';
-import { signUp, verifyEmail } from '@/lib/accounts';
-import { db } from '@/lib/db';
-import type { Role } from '@/lib/roles';
+import { signUp, verifyEmail } from '@/lib/accounts/users';
+import { db } from '@/lib/platform/db';
+import type { Role } from '@/lib/accounts/roles';
 import * as authRoute from '@/app/api/auth/[...nextauth]/route';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';

@@ -5,8 +5,8 @@ import { spawn } from 'node:child_process';
 import { readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { stopJobs } from '@/lib/jobs';
+import { closeDb, db } from '@/lib/platform/db';
+import { stopJobs } from '@/lib/platform/jobs';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 
 afterAll(async () => {

@@ -3,9 +3,9 @@
 import { callRoute, expectJson, signedInAccount, uploadFile, type TestAccount } from './studio-helpers';
 import { ListObjectsV2Command } from '@aws-sdk/client-s3';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { closeDb, db } from '@/lib/db';
-import { env } from '@/lib/env';
-import { storageClient } from '@/lib/storage';
+import { closeDb, db } from '@/lib/platform/db';
+import { env } from '@/lib/platform/env';
+import { storageClient } from '@/lib/platform/storage';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';

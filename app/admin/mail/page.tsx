@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { CaughtMailList } from '@/components/admin/CaughtMailList';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 
 export const metadata: Metadata = { title: 'Outgoing mail' };
 

@@ -1,6 +1,6 @@
 // Answers 200 when the server can reach its database; the task scripts wait on it.
-import { db } from '@/lib/db';
-import { jsonData, jsonError } from '@/lib/api/server';
+import { db } from '@/lib/platform/db';
+import { jsonData, jsonError } from '@/lib/http/server';
 
 export type HealthResponse = { database: 'reachable' };
 

@@ -13,7 +13,7 @@ import { StateBadge } from '@/components/market/StateBadge';
 import { Stars } from '@/components/market/Stars';
 import { TAG_KEYS, TAG_LABELS, tagLabel } from '@/components/market/search-params';
 import { Notice } from '@/components/ui/Notice';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { MarketError } from '@/lib/market/errors';
 import { getListingDetail } from '@/lib/market/listings';
 import { FORMAT_LABELS, formatPrice } from '@/lib/market/vocabulary';

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { ListingForm } from '@/components/market/ListingForm';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { listLicences } from '@/lib/market/licences';
 
 export const metadata: Metadata = { title: 'List a preset' };

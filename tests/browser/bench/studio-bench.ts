@@ -11,7 +11,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { expect, test, type Page } from '@playwright/test';
-import { closeDb, db } from '../../../lib/db';
+import { closeDb, db } from '../../../lib/platform/db';
 import { uvSphere } from '../../../lib/field/shapes';
 import { surfaceToObj } from '../../../lib/groom/demo/obj';
 import { confirmedAccount, signInThroughForm } from '../helpers';

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { fieldErrors } from '@/lib/validation/fields';
-import { resetPasswordSchema, signUpSchema } from '@/lib/validation/account';
-import { safeCallbackPath } from '@/lib/safe-callback';
+import { fieldErrors } from '@/lib/http/field-errors';
+import { resetPasswordSchema, signUpSchema } from '@/lib/accounts/schemas';
+import { safeCallbackPath } from '@/lib/accounts/safe-callback';
 
 const valid = { displayName: 'Ottilie Fenwick', email: 'Ottilie@Example.COM ', password: 'guard-hairs-01', role: 'groomer' };
 

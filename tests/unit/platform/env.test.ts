@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { InvalidEnvironment, parseEnv } from '@/lib/env';
-import { DEMO_PORTS } from '@/lib/local-services';
+import { InvalidEnvironment, parseEnv } from '@/lib/platform/env';
+import { DEMO_PORTS } from '@/lib/platform/local-services';
 
 describe('server configuration', () => {
   it('defaults to the local demo services', () => {

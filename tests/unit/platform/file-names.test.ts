@@ -1,6 +1,6 @@
 // File names made from typed names: what downloads and package folders are called.
 import { describe, expect, it } from 'vitest';
-import { fileSlug } from '@/lib/file-names';
+import { fileSlug } from '@/lib/platform/file-names';
 
 describe('fileSlug', () => {
   it('keeps letters and digits, drops accents, joins the rest with single dashes', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { area, mayEnter, visibleAreas } from '@/lib/roles';
+import { area, mayEnter, visibleAreas } from '@/lib/accounts/roles';
 
 const ids = (roles: Parameters<typeof visibleAreas>[0]) => visibleAreas(roles).map((entry) => entry.id);
 

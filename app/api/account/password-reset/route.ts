@@ -1,8 +1,8 @@
 // Sends a password reset link; answers the same whether or not the address has an account.
-import { requestPasswordReset } from '@/lib/accounts';
-import { MailNotSent } from '@/lib/mail';
-import { jsonData, jsonError, readJson } from '@/lib/api/server';
-import { emailOnlySchema } from '@/lib/validation/account';
+import { requestPasswordReset } from '@/lib/accounts/users';
+import { MailNotSent } from '@/lib/platform/mail';
+import { jsonData, jsonError, readJson } from '@/lib/http/server';
+import { emailOnlySchema } from '@/lib/accounts/schemas';
 
 export type PasswordResetRequestResponse = { email: string };
 

@@ -1,7 +1,7 @@
-import { signUp } from '@/lib/accounts';
-import { MailNotSent } from '@/lib/mail';
-import { jsonData, jsonError, readJson } from '@/lib/api/server';
-import { signUpSchema } from '@/lib/validation/account';
+import { signUp } from '@/lib/accounts/users';
+import { MailNotSent } from '@/lib/platform/mail';
+import { jsonData, jsonError, readJson } from '@/lib/http/server';
+import { signUpSchema } from '@/lib/accounts/schemas';
 
 export type SignUpResponse = { email: string };
 

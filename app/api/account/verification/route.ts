@@ -1,9 +1,9 @@
 // Sends a new confirmation link. The answer is the same whether or not an unconfirmed account
 // has the address, so the form cannot be used to find out who has an account.
-import { resendVerification } from '@/lib/accounts';
-import { MailNotSent } from '@/lib/mail';
-import { jsonData, jsonError, readJson } from '@/lib/api/server';
-import { emailOnlySchema } from '@/lib/validation/account';
+import { resendVerification } from '@/lib/accounts/users';
+import { MailNotSent } from '@/lib/platform/mail';
+import { jsonData, jsonError, readJson } from '@/lib/http/server';
+import { emailOnlySchema } from '@/lib/accounts/schemas';
 
 export type ResendVerificationResponse = { email: string };
 

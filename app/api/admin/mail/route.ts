@@ -1,7 +1,7 @@
 // The e-mail the local SMTP sink caught, for admins.
-import { requireApiRoles } from '@/lib/auth';
-import { jsonData, jsonError } from '@/lib/api/server';
-import { listCaughtMail, mailSinkConfigured, MailSinkUnavailable, type CaughtMail } from '@/lib/mail-sink';
+import { requireApiRoles } from '@/lib/accounts/session';
+import { jsonData, jsonError } from '@/lib/http/server';
+import { listCaughtMail, mailSinkConfigured, MailSinkUnavailable, type CaughtMail } from '@/lib/platform/mail-sink';
 
 export type CaughtMailResponse = { configured: false } | { configured: true; messages: CaughtMail[] };
 

@@ -1,5 +1,5 @@
 // The groomer's grooms: list them, or start one on a growth surface.
-import { jsonData, readJson } from '@/lib/api/server';
+import { jsonData, readJson } from '@/lib/http/server';
 import type { GroomListResponse, GroomResponse } from '@/lib/studio/api-types';
 import { createGroom, listGrooms } from '@/lib/studio/grooms';
 import { studioHandler } from '@/lib/studio/http';

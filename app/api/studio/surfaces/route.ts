@@ -1,5 +1,5 @@
 // The groomer's growth surfaces: list them, or register an uploaded file as a new one.
-import { jsonData, readJson } from '@/lib/api/server';
+import { jsonData, readJson } from '@/lib/http/server';
 import type { SurfaceListResponse, SurfaceResponse } from '@/lib/studio/api-types';
 import { studioHandler } from '@/lib/studio/http';
 import { listSurfaces, registerSurface } from '@/lib/studio/surfaces';

@@ -1,5 +1,5 @@
 // A presigned upload of one growth surface file, straight to object storage.
-import { jsonData, readJson } from '@/lib/api/server';
+import { jsonData, readJson } from '@/lib/http/server';
 import type { UploadResponse } from '@/lib/studio/api-types';
 import { studioHandler } from '@/lib/studio/http';
 import { createSurfaceUpload } from '@/lib/studio/surfaces';

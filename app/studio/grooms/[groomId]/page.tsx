@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { GroomEditor } from '@/components/studio/editor/GroomEditor';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { StudioError } from '@/lib/studio/errors';
 import { getGroom } from '@/lib/studio/grooms';
 import { pathId } from '@/lib/studio/http';

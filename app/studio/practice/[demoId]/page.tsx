@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { PracticeEditor } from '@/components/studio/editor/PracticeEditor';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 
 export const metadata: Metadata = { title: 'Practice groom' };
 

@@ -1,6 +1,6 @@
-import { resetPassword, TOKEN_PROBLEM_MESSAGES } from '@/lib/accounts';
-import { jsonData, jsonError, readJson } from '@/lib/api/server';
-import { resetPasswordSchema } from '@/lib/validation/account';
+import { resetPassword, TOKEN_PROBLEM_MESSAGES } from '@/lib/accounts/users';
+import { jsonData, jsonError, readJson } from '@/lib/http/server';
+import { resetPasswordSchema } from '@/lib/accounts/schemas';
 
 export type PasswordResetConfirmResponse = { email: string };
 

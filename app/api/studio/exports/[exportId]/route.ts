@@ -1,5 +1,5 @@
 // An export's progress, and once done its download link.
-import { jsonData } from '@/lib/api/server';
+import { jsonData } from '@/lib/http/server';
 import type { ExportResponse } from '@/lib/studio/api-types';
 import { getExport } from '@/lib/studio/exports';
 import { pathId, studioHandler } from '@/lib/studio/http';

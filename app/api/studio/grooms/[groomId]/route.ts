@@ -1,5 +1,5 @@
 // One groom of the groomer: its spec, surface and versions; renaming; deletion.
-import { jsonData, readJson } from '@/lib/api/server';
+import { jsonData, readJson } from '@/lib/http/server';
 import type { DeletedResponse, GroomResponse } from '@/lib/studio/api-types';
 import { deleteGroom, getGroom, renameGroom } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';

@@ -1,5 +1,5 @@
 // One growth surface of the groomer: its facts with links to the file and thumbnail, or deletion.
-import { jsonData } from '@/lib/api/server';
+import { jsonData } from '@/lib/http/server';
 import type { DeletedResponse, SurfaceDetailResponse } from '@/lib/studio/api-types';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { deleteSurface, getSurface } from '@/lib/studio/surfaces';

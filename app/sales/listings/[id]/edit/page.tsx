@@ -5,7 +5,7 @@ import { ListingForm } from '@/components/market/ListingForm';
 import { actorOf } from '@/components/market/session-actor';
 import { StateBadge } from '@/components/market/StateBadge';
 import { Notice } from '@/components/ui/Notice';
-import { requireArea } from '@/lib/auth';
+import { requireArea } from '@/lib/accounts/session';
 import { MarketError } from '@/lib/market/errors';
 import { listLicences } from '@/lib/market/licences';
 import { getListingDetail } from '@/lib/market/listings';

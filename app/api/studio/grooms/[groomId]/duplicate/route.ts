@@ -1,5 +1,5 @@
 // A copy of a groom on the same surface, starting from its saved spec.
-import { jsonData, readJson } from '@/lib/api/server';
+import { jsonData, readJson } from '@/lib/http/server';
 import type { GroomResponse } from '@/lib/studio/api-types';
 import { duplicateGroom } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';

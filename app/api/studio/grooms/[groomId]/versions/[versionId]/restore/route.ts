@@ -1,5 +1,5 @@
 // Restoring a version: its spec becomes the groom's saved spec, as a new revision.
-import { jsonData } from '@/lib/api/server';
+import { jsonData } from '@/lib/http/server';
 import type { RestoredResponse } from '@/lib/studio/api-types';
 import { restoreVersion } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';

@@ -1,6 +1,6 @@
 // Where the local stand-ins listen, for the demo and for the test run. The demo's values are
-// also the defaults of lib/env.ts, so a developer's `next dev` finds the demo's services.
-// Production sets the environment variables of lib/env.ts to the hosted services instead.
+// also the defaults of lib/platform/env.ts, so a developer's `next dev` finds the demo's services.
+// Production sets the environment variables of lib/platform/env.ts to the hosted services instead.
 
 export type LocalPorts = {
   app: number;
@@ -19,7 +19,7 @@ export const LOCAL_S3 = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', buck
 export const LOCAL_STRIPE_SECRET_KEY = 'sk_test_whorlwind_local';
 /** Signs the payments fake's webhooks; the app checks them with it (lib/market/webhooks.ts). */
 export const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_whorlwind_local_webhooks';
-// Only for local runs; lib/env.ts refuses to use it when NEXTAUTH_URL is not a loopback address.
+// Only for local runs; lib/platform/env.ts refuses to use it when NEXTAUTH_URL is not a loopback address.
 export const LOCAL_NEXTAUTH_SECRET = 'whorlwind-local-only-secret-do-not-use-in-production';
 
 /** Where the payments fake delivers its signed webhooks: the app's own route. */

@@ -1,7 +1,7 @@
 // Input rules for accounts, shared by the forms (checked as you type and on submit) and by
 // the route handlers (checked again on the server, which is the check that counts).
 import { z } from 'zod';
-import { SIGN_UP_ROLES } from '../roles';
+import { SIGN_UP_ROLES } from './roles';
 
 export const PASSWORD_MIN_LENGTH = 10;
 // bcrypt only reads the first 72 bytes of a password; longer ones would be silently cut.

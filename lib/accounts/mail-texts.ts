@@ -1,6 +1,6 @@
 // The texts of the account e-mails. Links are absolute, built on NEXTAUTH_URL.
-import { env } from './env';
-import type { OutgoingMail } from './mail';
+import { env } from '../platform/env';
+import type { OutgoingMail } from '../platform/mail';
 
 function escapeHtml(value: string) {
   return value.replace(/[&<>"']/g, (character) => `&#${character.charCodeAt(0)};`);

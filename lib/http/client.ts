@@ -1,6 +1,6 @@
 // How client components talk to the route handlers: typed results instead of thrown errors
 // for form submissions, and a throwing fetcher for SWR.
-import type { ApiError, ApiFailure, ApiSuccess } from '../api/types';
+import type { ApiError, ApiFailure, ApiSuccess } from './types';
 
 export type ApiOutcome<T> = { ok: true; data: T } | { ok: false; error: ApiError };
 

@@ -4,10 +4,10 @@ import type { NextAuthOptions, Session } from 'next-auth';
 import { getServerSession } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { forbidden, redirect } from 'next/navigation';
-import { env } from './env';
+import { env } from '../platform/env';
 import { checkCredentials } from './sign-in';
 import { area, isRole, mayEnter, type AreaId, type Role } from './roles';
-import { jsonError } from './api/server';
+import { jsonError } from '../http/server';
 
 // The address the proxy in front of the app reports. A client can forge these headers, so the
 // per-client limit only slows down spraying; the per-address limit is what protects an account.

@@ -1,6 +1,6 @@
 // The JSON envelope of every route handler under app/api, shared with the client code.
 // Success: { data: T } with a 2xx status. Failure: { error: ApiError } with a 4xx/5xx status.
-import type { FieldErrors } from '../validation/fields';
+import type { FieldErrors } from './field-errors';
 
 export type ApiErrorCode =
   | 'invalid-input'

@@ -2,11 +2,11 @@
 // hold across all server processes; an advisory lock per e-mail address keeps two concurrent
 // attempts from both slipping under the limit.
 import type { Knex } from 'knex';
-import { db } from './db';
+import { db } from '../platform/db';
 import { passwordMatches, spendComparisonTime } from './passwords';
-import { rolesOf } from './accounts';
+import { rolesOf } from './users';
 import type { Role } from './roles';
-import { signInSchema } from './validation/account';
+import { signInSchema } from './schemas';
 import { SIGN_IN_WINDOW_MINUTES, type SignInProblem } from './sign-in-problems';
 
 /** Failed attempts for one e-mail address within the window before it is locked. */

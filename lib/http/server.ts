@@ -1,7 +1,7 @@
 // Helpers for route handlers: read and validate JSON input, answer in the shared envelope.
 import { NextResponse } from 'next/server';
 import type { z } from 'zod';
-import { fieldErrors } from '../validation/fields';
+import { fieldErrors } from './field-errors';
 import type { ApiError, ApiErrorCode, ApiFailure, ApiSuccess } from './types';
 
 export function jsonData<T>(data: T, status = 200) {

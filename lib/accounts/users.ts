@@ -3,12 +3,12 @@
 // be sent leaves no account or token behind.
 import { createHash, randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
-import { db, isUniqueViolation } from './db';
-import { sendMail } from './mail';
-import { passwordResetMail, verificationMail } from './account-mail';
+import { db, isUniqueViolation } from '../platform/db';
+import { sendMail } from '../platform/mail';
+import { passwordResetMail, verificationMail } from './mail-texts';
 import { hashPassword } from './passwords';
 import { isRole, type Role } from './roles';
-import type { ResetPasswordInput, SignUpInput } from './validation/account';
+import type { ResetPasswordInput, SignUpInput } from './schemas';
 
 export type TokenPurpose = 'verify-email' | 'reset-password';
 

@@ -1,5 +1,5 @@
 // The server's configuration, read from environment variables and checked once with zod.
-// Every variable has a default that reaches the local demo services (lib/local-services.ts);
+// Every variable has a default that reaches the local demo services (lib/platform/local-services.ts);
 // production points the same variables at the hosted services. .env.example lists them.
 import { z } from 'zod';
 import { DEMO_PORTS, LOCAL_DATABASE, LOCAL_NEXTAUTH_SECRET, localServiceEnv } from './local-services';

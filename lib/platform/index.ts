@@ -1,0 +1,11 @@
+// The platform room: configuration, the database, the job queue, object storage, mail and the
+// payment provider's SDK: the server-side services every area builds on. Server code only.
+export * from './env';
+export * from './local-services';
+export * from './db';
+export * from './jobs';
+export * from './storage';
+export * from './mail';
+export * from './mail-sink';
+export * from './payments';
+export * from './file-names';
