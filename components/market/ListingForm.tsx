@@ -12,7 +12,7 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import { fetchData, postJson, request, type ApiRequestError } from '@/lib/http/client';
 import type { FieldErrors } from '@/lib/http/field-errors';
 import type { CreateListingResponse } from '@/app/api/market/listings/route';
 import type { UpdateListingResponse } from '@/app/api/market/listings/[id]/route';
@@ -20,9 +20,8 @@ import type { Licence } from '@/lib/market/licences';
 import type { ListingDetail } from '@/lib/market/types';
 import { listingDraftSchema, tagsSchema } from '@/lib/market/validation';
 import { CURRENCIES, FORMAT_LABELS, MAX_PRICE_CENTS, MIN_PRICE_CENTS, PACKAGE_FORMATS, type PackageFormat } from '@/lib/market/vocabulary';
-import type { GroomListResponse, VersionListResponse } from '@/lib/studio/api-types';
+import type { GroomListResponse, VersionListResponse } from '@/lib/studio/types';
 import { centsToText, TAG_KEYS, TAG_LABELS, TAG_VALUES, tagLabel } from './search-params';
-import { sendJson } from './send-json';
 import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
 import { TextAreaField, textAreaField } from './TextAreaField';
 
@@ -120,7 +119,7 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
       formats: input.formats,
     };
     const saved = editing
-      ? await sendJson<UpdateListingResponse>('PATCH', `/api/market/listings/${listing.id}`, fields)
+      ? await request<UpdateListingResponse>('PATCH', `/api/market/listings/${listing.id}`, fields)
       : await postJson<CreateListingResponse>('/api/market/listings', { groomId: input.groomId, versionId: input.versionId, ...fields });
     if (!saved.ok) return { message: saved.error.message, fields: formFields(saved.error.fields) };
     if (submitAfterSave) {

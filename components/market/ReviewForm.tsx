@@ -7,11 +7,10 @@ import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, type ApiRequestError } from '@/lib/http/client';
+import { fetchData, request, type ApiRequestError } from '@/lib/http/client';
 import type { ListingResponse } from '@/app/api/market/listings/[id]/route';
 import type { ReviewResponse } from '@/app/api/market/listings/[id]/review/route';
 import { reviewSchema } from '@/lib/market/validation';
-import { sendJson } from './send-json';
 import { TextAreaField, textAreaField } from './TextAreaField';
 
 // The form's values are text; the rules are the route's own.
@@ -39,7 +38,7 @@ export function ReviewForm({ listingId, title }: { listingId: string; title: str
       className="flex flex-col gap-3"
       onSubmit={form.onSubmit(async (input) => {
         setSaved(false);
-        const outcome = await sendJson<ReviewResponse>('PUT', `/api/market/listings/${listingId}/review`, input);
+        const outcome = await request<ReviewResponse>('PUT', `/api/market/listings/${listingId}/review`, input);
         if (!outcome.ok) return outcome.error;
         setSaved(true);
         await mutate();

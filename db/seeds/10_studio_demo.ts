@@ -8,7 +8,7 @@ import type { Knex } from 'knex';
 import { DEMO_ACCOUNTS } from '../demo-scenario';
 import { closeDb } from '../../lib/platform/db';
 import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom';
-import type { SurfaceUnits } from '../../lib/studio/api-types';
+import type { SurfaceUnits } from '../../lib/studio/types';
 import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
 import type { Groomer } from '../../lib/studio/http';
 import { stopJobs } from '../../lib/platform/jobs';

@@ -1,53 +1,54 @@
-// How client components talk to the route handlers: typed results instead of thrown errors
-// for form submissions, and a throwing fetcher for SWR.
+// How client components talk to the route handlers: one `request<T>` that answers with a typed
+// result instead of throwing (for forms and buttons), and a throwing fetcher for SWR.
 import type { ApiError, ApiFailure, ApiSuccess } from './types';
 
-export type ApiOutcome<T> = { ok: true; data: T } | { ok: false; error: ApiError };
+/** An error as a route handler sent it, with the HTTP status (0 when the server could not be reached). */
+export type ApiCallError = ApiError & { status: number };
 
-const unreachable: ApiError = {
-  code: 'service-unavailable',
-  message: 'Whorlwind could not be reached. Check your connection and try again.',
-};
+export type ApiOutcome<T> = { ok: true; data: T } | { ok: false; error: ApiCallError };
 
-async function outcomeOf<T>(response: Response): Promise<ApiOutcome<T>> {
-  let body: ApiSuccess<T> | ApiFailure;
+export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+const UNREACHABLE = 'Whorlwind could not be reached. Check your connection and try again.';
+
+/** Calls a route handler with an optional JSON body; never throws. */
+export async function request<T>(method: HttpMethod, url: string, body?: unknown): Promise<ApiOutcome<T>> {
+  let response: Response;
   try {
-    body = await response.json();
+    response = await fetch(url, {
+      method,
+      headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
   } catch {
-    return { ok: false, error: { code: 'service-unavailable', message: `The server answered ${response.status} without details.` } };
+    return { ok: false, error: { code: 'service-unavailable', message: UNREACHABLE, status: 0 } };
   }
-  if ('error' in body) return { ok: false, error: body.error };
-  return { ok: true, data: body.data };
+  let envelope: Partial<ApiSuccess<T> & ApiFailure>;
+  try {
+    envelope = await response.json();
+  } catch {
+    return { ok: false, error: { code: 'service-unavailable', message: `The server answered ${response.status} without details.`, status: response.status } };
+  }
+  if (envelope.error || !response.ok) {
+    const error = envelope.error ?? { code: 'service-unavailable', message: `The server answered ${response.status}.` };
+    return { ok: false, error: { ...error, status: response.status } };
+  }
+  return { ok: true, data: envelope.data as T };
 }
 
-export async function postJson<T>(url: string, body: unknown): Promise<ApiOutcome<T>> {
-  try {
-    const response = await fetch(url, {
-      method: 'POST',
-      headers: { 'content-type': 'application/json' },
-      body: JSON.stringify(body),
-    });
-    return await outcomeOf<T>(response);
-  } catch {
-    return { ok: false, error: unreachable };
-  }
+export function postJson<T>(url: string, body: unknown): Promise<ApiOutcome<T>> {
+  return request<T>('POST', url, body);
 }
 
 export class ApiRequestError extends Error {
-  constructor(readonly apiError: ApiError) {
+  constructor(readonly apiError: ApiCallError) {
     super(apiError.message);
   }
 }
 
 /** SWR fetcher: resolves to the `data` of the envelope, throws ApiRequestError otherwise. */
 export async function fetchData<T>(url: string): Promise<T> {
-  let response: Response;
-  try {
-    response = await fetch(url, { headers: { accept: 'application/json' } });
-  } catch {
-    throw new ApiRequestError(unreachable);
-  }
-  const outcome = await outcomeOf<T>(response);
+  const outcome = await request<T>('GET', url);
   if (!outcome.ok) throw new ApiRequestError(outcome.error);
   return outcome.data;
 }

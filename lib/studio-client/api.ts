@@ -12,11 +12,11 @@ import type {
   SurfaceUnits,
   UploadTicket,
   Version,
-} from '@/lib/studio/api-types';
+} from '@/lib/studio/types';
 import type { GroomSpec } from '@/lib/groom/spec';
 import type { FieldErrors } from '@/lib/http/field-errors';
 
-export { EXPORT_FORMATS, SURFACE_FORMATS, SURFACE_UNITS } from '@/lib/studio/api-types';
+export { EXPORT_FORMATS, SURFACE_FORMATS, SURFACE_UNITS } from '@/lib/studio/types';
 export type { ExportFormat, ExportJob, GroomDetail, GroomSummary, SurfaceDetail, SurfaceProblem, SurfaceSummary, SurfaceUnits, UploadTicket };
 export type GroomVersion = Version;
 

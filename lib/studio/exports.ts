@@ -6,7 +6,7 @@ import { fieldToPly, GroomError, guidesToGltf, guidesToObj, guidesToUsda, parseG
 import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { putObject } from '../platform/storage';
-import type { ExportFormat, ExportJob, ExportStatus } from './api-types';
+import type { ExportFormat, ExportJob, ExportStatus } from './types';
 import { notFound, StudioError } from './errors';
 import type { Groomer } from './http';
 import { enqueueExport, type ExportJobData } from './jobs';

@@ -3,7 +3,7 @@
 import type { Knex } from 'knex';
 import { validateGroomSpec, type GroomSpec } from '../groom';
 import { db } from '../platform/db';
-import type { GroomDetail, GroomSummary, RestoredResponse, SpecSavedResponse, Version } from './api-types';
+import type { GroomDetail, GroomSummary, RestoredResponse, SpecSavedResponse, Version } from './types';
 import { notFound, StudioError } from './errors';
 import type { Groomer } from './http';
 import { enqueueThumbnail } from './jobs';

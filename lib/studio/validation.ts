@@ -1,7 +1,7 @@
 // The zod schemas of the studio's request bodies, shared by the route handlers and the studio's
 // forms (plain zod, safe to import from client code).
 import { z } from 'zod';
-import { EXPORT_FORMATS, SURFACE_UNITS } from './api-types';
+import { EXPORT_FORMATS, SURFACE_UNITS } from './types';
 
 const name = (what: string) =>
   z.string().trim().min(1, `Give the ${what} a name.`).max(200, 'Use a name of at most 200 characters.');

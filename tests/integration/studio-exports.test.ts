@@ -15,7 +15,7 @@ import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
 import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
 import * as exportsRoute from '@/app/api/studio/grooms/[groomId]/exports/route';
 import * as exportRoute from '@/app/api/studio/exports/[exportId]/route';
-import { EXPORT_FORMATS, type ExportFormat, type ExportJob, type GroomDetail } from '@/lib/studio/api-types';
+import { EXPORT_FORMATS, type ExportFormat, type ExportJob, type GroomDetail } from '@/lib/studio/types';
 
 const cat = DEMO_GROOMS[1];
 const catMesh = cat.surface();

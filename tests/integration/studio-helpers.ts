@@ -18,7 +18,7 @@ import type { Role } from '@/lib/accounts/roles';
 import * as authRoute from '@/app/api/auth/[...nextauth]/route';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
-import type { SurfaceSummary, UploadTicket } from '@/lib/studio/api-types';
+import type { SurfaceSummary, UploadTicket } from '@/lib/studio/types';
 import { onlyMailTo, tokenFromLink, uniqueEmail } from './helpers';
 
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';

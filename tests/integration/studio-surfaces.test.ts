@@ -14,7 +14,7 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
-import type { SurfaceDetail, SurfaceSummary } from '@/lib/studio/api-types';
+import type { SurfaceDetail, SurfaceSummary } from '@/lib/studio/types';
 
 afterAll(closeDb);
 

@@ -1,6 +1,6 @@
 // The groomer's grooms: list them, or start one on a growth surface.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { GroomListResponse, GroomResponse } from '@/lib/studio/api-types';
+import type { GroomListResponse, GroomResponse } from '@/lib/studio/types';
 import { createGroom, listGrooms } from '@/lib/studio/grooms';
 import { studioHandler } from '@/lib/studio/http';
 import { createGroomSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // The groomer's growth surfaces: list them, or register an uploaded file as a new one.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { SurfaceListResponse, SurfaceResponse } from '@/lib/studio/api-types';
+import type { SurfaceListResponse, SurfaceResponse } from '@/lib/studio/types';
 import { studioHandler } from '@/lib/studio/http';
 import { listSurfaces, registerSurface } from '@/lib/studio/surfaces';
 import { registerSurfaceSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // A presigned upload of one growth surface file, straight to object storage.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { UploadResponse } from '@/lib/studio/api-types';
+import type { UploadResponse } from '@/lib/studio/types';
 import { studioHandler } from '@/lib/studio/http';
 import { createSurfaceUpload } from '@/lib/studio/surfaces';
 import { uploadSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // An export's progress, and once done its download link.
 import { jsonData } from '@/lib/http/server';
-import type { ExportResponse } from '@/lib/studio/api-types';
+import type { ExportResponse } from '@/lib/studio/types';
 import { getExport } from '@/lib/studio/exports';
 import { pathId, studioHandler } from '@/lib/studio/http';
 

@@ -1,6 +1,6 @@
 // One groom of the groomer: its spec, surface and versions; renaming; deletion.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { DeletedResponse, GroomResponse } from '@/lib/studio/api-types';
+import type { DeletedResponse, GroomResponse } from '@/lib/studio/types';
 import { deleteGroom, getGroom, renameGroom } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { renameGroomSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // One growth surface of the groomer: its facts with links to the file and thumbnail, or deletion.
 import { jsonData } from '@/lib/http/server';
-import type { DeletedResponse, SurfaceDetailResponse } from '@/lib/studio/api-types';
+import type { DeletedResponse, SurfaceDetailResponse } from '@/lib/studio/types';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { deleteSurface, getSurface } from '@/lib/studio/surfaces';
 

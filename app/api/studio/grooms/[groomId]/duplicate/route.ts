@@ -1,6 +1,6 @@
 // A copy of a groom on the same surface, starting from its saved spec.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { GroomResponse } from '@/lib/studio/api-types';
+import type { GroomResponse } from '@/lib/studio/types';
 import { duplicateGroom } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { duplicateGroomSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // Asks for an export of a groom's saved spec, made by a background job.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { ExportResponse } from '@/lib/studio/api-types';
+import type { ExportResponse } from '@/lib/studio/types';
 import { requestExport } from '@/lib/studio/exports';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { createExportSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // Autosave of a groom's spec, checked against lib/groom's schema and the revision it was loaded at.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { SpecSavedResponse } from '@/lib/studio/api-types';
+import type { SpecSavedResponse } from '@/lib/studio/types';
 import { saveSpec } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { saveSpecSchema } from '@/lib/studio/validation';

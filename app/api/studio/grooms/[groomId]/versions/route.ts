@@ -1,6 +1,6 @@
 // Named versions of a groom: the list, or a copy of the saved spec kept under a name.
 import { jsonData, readJson } from '@/lib/http/server';
-import type { VersionListResponse, VersionResponse } from '@/lib/studio/api-types';
+import type { VersionListResponse, VersionResponse } from '@/lib/studio/types';
 import { createVersion, listVersions } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';
 import { createVersionSchema } from '@/lib/studio/validation';

@@ -1,6 +1,6 @@
 // Restoring a version: its spec becomes the groom's saved spec, as a new revision.
 import { jsonData } from '@/lib/http/server';
-import type { RestoredResponse } from '@/lib/studio/api-types';
+import type { RestoredResponse } from '@/lib/studio/types';
 import { restoreVersion } from '@/lib/studio/grooms';
 import { pathId, studioHandler } from '@/lib/studio/http';
 
