@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import { checkSurfaceFile, type ComponentFacts, type TriangleMesh } from '../field';
 import type { Problem } from '../field/check';
 import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
-import { encodeImage } from '../groom/encode-image';
+import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
 import { getObjectBytes, putObject } from '../platform/storage';

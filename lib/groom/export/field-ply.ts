@@ -1,4 +1,4 @@
-import type { DirectionField, TriangleMesh } from '../field';
+import type { DirectionField, TriangleMesh } from '../../field';
 import { AsciiWriter } from './ascii';
 
 /**

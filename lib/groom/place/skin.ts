@@ -1,6 +1,6 @@
 import { BufferAttribute, BufferGeometry } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
-import type { Topology, TriangleMesh } from '../field';
+import type { Topology, TriangleMesh } from '../../field';
 
 /**
  * The skin as a spatial index: the closest skin point to any point in space, and which side of
@@ -104,7 +104,7 @@ export function buildSkin(mesh: TriangleMesh, topology: Topology): Skin {
   const serialized = MeshBVH.serialize(bvh, { cloneBuffers: false });
   const version = (serialized as { version?: number }).version;
   if (version !== 1 || serialized.roots.length !== 1 || !serialized.indirectBuffer) {
-    throw new Error(`three-mesh-bvh changed its node layout (serialization version ${version}); lib/groom/skin.ts must follow it.`);
+    throw new Error(`three-mesh-bvh changed its node layout (serialization version ${version}); lib/groom/place/skin.ts must follow it.`);
   }
   const nodes = serialized.roots[0];
   const bounds = new Float32Array(nodes);

@@ -1,14 +1,14 @@
-import type { SolvedField } from '../field';
-import { GroomError } from './errors';
-import { blendPins, type PinnedFactors } from './pins';
+import type { SolvedField } from '../../field';
+import { GroomError } from '../errors';
+import { blendPins, type PinnedFactors } from '../place/pins';
 import { guideRandom } from './random';
-import { growthMask } from './regions';
-import { downOf } from './request';
+import { growthMask } from '../place/regions';
+import { downOf } from '../place/request';
 import { sampleRoots } from './roots';
 import { shapeGuide } from './shape';
-import { SKIN_QUERY_SIZE } from './skin';
-import { CENTIMETRES_PER_UNIT, type GroomSpec, type Unit } from './spec';
-import type { GroomSurface } from './surface';
+import { SKIN_QUERY_SIZE } from '../place/skin';
+import { CENTIMETRES_PER_UNIT, type GroomSpec, type Unit } from '../spec/spec';
+import type { GroomSurface } from '../place/surface';
 import { createTracer } from './trace';
 
 /**

@@ -1,10 +1,10 @@
 import { z } from 'zod';
-import { GroomError } from './errors';
+import { GroomError } from '../errors';
 
 /**
  * The groom spec: every decision of a groom in one versioned JSON document, so that the same spec
- * on the same surface gives the same guides. README.md beside this file documents each field, its
- * unit and its range. Lengths are in the surface's declared `units`; angles in degrees; densities
+ * on the same surface gives the same guides. lib/groom/README.md ("The groom spec") documents
+ * each field, its unit and its range. Lengths are in the surface's declared `units`; angles in degrees; densities
  * in guides per cm² whatever the units, because that is how densities are quoted in the trade.
  */
 

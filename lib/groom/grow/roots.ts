@@ -1,4 +1,4 @@
-import { grow, MaxHeap } from './heap';
+import { grow, MaxHeap } from '../place/heap';
 import { randomStream } from './random';
 
 /**

@@ -1,5 +1,5 @@
-import type { TriangleMesh } from '../field';
-import { GroomError } from './errors';
+import type { TriangleMesh } from '../../field';
+import { GroomError } from '../errors';
 
 /**
  * The faces guides may grow on: those of the named OBJ groups, or every face when no group is named.

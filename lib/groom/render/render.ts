@@ -1,5 +1,5 @@
-import type { TriangleMesh } from '../field';
-import type { Guides } from './guides';
+import type { TriangleMesh } from '../../field';
+import type { Guides } from '../grow/guides';
 
 /**
  * A software renderer for groom thumbnails: the surface z-buffered and shaded, the guides drawn

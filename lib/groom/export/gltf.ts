@@ -1,5 +1,5 @@
-import type { Guides } from './guides';
-import { CENTIMETRES_PER_UNIT } from './spec';
+import type { Guides } from '../grow/guides';
+import { CENTIMETRES_PER_UNIT } from '../spec/spec';
 
 /**
  * The guides as glTF 2.0: one mesh with one `LINES` primitive (mode 1) whose index pairs join

@@ -1,8 +1,8 @@
-import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '../field/topology';
-import { GroomError } from './errors';
+import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '../../field/topology';
+import { GroomError } from '../errors';
 import { MaxHeap } from './heap';
 import { SKIN_QUERY_SIZE } from './skin';
-import type { PlaceSpec } from './spec';
+import type { PlaceSpec } from '../spec/spec';
 import type { GroomSurface } from './surface';
 
 /**

@@ -1,5 +1,5 @@
 import { AsciiWriter } from './ascii';
-import type { Guides } from './guides';
+import type { Guides } from '../grow/guides';
 
 /**
  * The guides as Wavefront OBJ text: every point a `v` line, every guide one `l` polyline through

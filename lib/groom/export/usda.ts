@@ -1,6 +1,6 @@
 import { AsciiWriter } from './ascii';
-import type { Guides } from './guides';
-import { CENTIMETRES_PER_UNIT } from './spec';
+import type { Guides } from '../grow/guides';
+import { CENTIMETRES_PER_UNIT } from '../spec/spec';
 
 /** How the curves are interpolated: linear segments, or cubic through pinned end points. */
 export type UsdCurveBasis = 'linear' | 'bspline' | 'catmullRom';

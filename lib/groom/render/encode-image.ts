@@ -1,6 +1,6 @@
 import sharp from 'sharp';
-import type { TriangleMesh } from '../field';
-import type { Guides } from './guides';
+import type { TriangleMesh } from '../../field';
+import type { Guides } from '../grow/guides';
 import { renderThumbnail, THUMBNAIL_VIEWS, type GuideColouring, type RgbaImage, type ThumbnailView } from './render';
 
 /**

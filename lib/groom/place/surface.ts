@@ -8,7 +8,7 @@ import {
   type FieldSurface,
   type HarmonicInterpolator,
   type TriangleMesh,
-} from '../field';
+} from '../../field';
 import { buildNearestVertex, type NearestVertex } from './nearest-vertex';
 import { buildSkin, type Skin } from './skin';
 

@@ -1,4 +1,4 @@
-import { PIN_ATTRIBUTES, type GroomSpec, type PinAttribute } from './spec';
+import { PIN_ATTRIBUTES, type GroomSpec, type PinAttribute } from '../spec/spec';
 import { vertexOfPlace } from './place';
 import type { GroomSurface } from './surface';
 

@@ -1,7 +1,7 @@
-import { solveField, type CurveFeature, type FaceAlignment, type FieldRequest, type PointSingularity, type SolvedField } from '../field';
-import { GroomError } from './errors';
+import { solveField, type CurveFeature, type FaceAlignment, type FieldRequest, type PointSingularity, type SolvedField } from '../../field';
+import { GroomError } from '../errors';
 import { edgePath, surfacePointOf, vertexOfPlace } from './place';
-import type { CurveSpec, GroomSpec, StrokeSpec } from './spec';
+import type { CurveSpec, GroomSpec, StrokeSpec } from '../spec/spec';
 import type { GroomSurface } from './surface';
 
 /** Most samples one flow stroke becomes: each is a row of the field solve's small dense system. */
