@@ -1,8 +1,8 @@
 import { dualPieces, type ConnectionResult, type FieldSurface } from './connection';
-import { crossingSign } from './dual-chains';
-import { faceAreas, vertexNormals } from './geometry';
-import { faceOfHalfedge } from './topology';
-import { angleInFace } from './transport';
+import { crossingSign } from './mesh/dual-chains';
+import { faceAreas, vertexNormals } from './mesh/geometry';
+import { faceOfHalfedge } from './mesh/topology';
+import { angleInFace } from './mesh/transport';
 
 /** A direction field on the faces, and its smoothed version at the vertices. */
 export interface DirectionField {

@@ -1,7 +1,7 @@
 import type { ConnectionResult, FieldSurface } from './connection';
-import { faceNormals } from './geometry';
-import { nextAroundVertex, nextHalfedge } from './topology';
-import { TWO_PI, wrapAngleForOrder } from './transport';
+import { faceNormals } from './mesh/geometry';
+import { nextAroundVertex, nextHalfedge } from './mesh/topology';
+import { TWO_PI, wrapAngleForOrder } from './mesh/transport';
 
 /**
  * Measures the index of a face field at every vertex from the field alone: around the vertex, the

@@ -1,4 +1,4 @@
-import type { TriangleMesh } from './mesh';
+import type { TriangleMesh } from './mesh/mesh';
 
 /*
  * Test surfaces for tests, benchmarks and demo data. Every face is counter-clockwise seen from

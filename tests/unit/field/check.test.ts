@@ -1,10 +1,11 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from '@/lib/field/check';
-import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
+import { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from '@/lib/field/mesh/check';
+import { FieldError } from '@/lib/field/mesh/errors';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
 import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/lib/field/shapes';
-import { buildTopology } from '@/lib/field/topology';
+import { buildTopology } from '@/lib/field/mesh/topology';
 import { concatenate, stanfordBunny } from './surfaces';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));

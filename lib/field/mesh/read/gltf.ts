@@ -1,4 +1,4 @@
-import { FieldError } from '../mesh';
+import { FieldError } from '../errors';
 import { assertFaceBudget, triangleStarts, type PolygonSoup } from './soup';
 import { clip } from './text';
 

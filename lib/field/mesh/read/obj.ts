@@ -1,4 +1,4 @@
-import { FieldError } from '../mesh';
+import { FieldError } from '../errors';
 import { GrowableFloat64, GrowableUint32 } from './growable';
 import { assertFaceBudget, type PolygonSoup } from './soup';
 import { TextCursor, clip, parseInteger, parseNumber } from './text';

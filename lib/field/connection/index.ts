@@ -1,5 +1,6 @@
-import { factorCholesky, type CholeskyFactor } from './cholesky';
-import { factorDenseLU, type DenseLU } from './dense';
+import { now } from '../clock';
+import { factorCholesky, type CholeskyFactor } from '../linalg/cholesky';
+import { factorDenseLU, type DenseLU } from '../linalg/dense';
 import {
   homologyGenerators,
   partialFan,
@@ -7,12 +8,13 @@ import {
   shortestDualPath,
   vertexFan,
   type DualChain,
-} from './dual-chains';
-import { angleDefects, componentFacts, cornerAngles, type ComponentFacts } from './geometry';
-import { FieldError, describeFirst, type TriangleMesh } from './mesh';
-import { symmetricFromTriplets } from './sparse';
-import { buildTopology, faceOfHalfedge, facePieces, nextAroundVertex, nextHalfedge, type Topology } from './topology';
-import { TWO_PI, angleInFace, buildFaceFrames, type FaceFrames } from './transport';
+} from '../mesh/dual-chains';
+import { angleDefects, componentFacts, cornerAngles, type ComponentFacts } from '../mesh/geometry';
+import { FieldError, describeFirst } from '../mesh/errors';
+import type { TriangleMesh } from '../mesh/mesh';
+import { symmetricFromTriplets } from '../linalg/sparse';
+import { buildTopology, faceOfHalfedge, facePieces, nextAroundVertex, nextHalfedge, type Topology } from '../mesh/topology';
+import { TWO_PI, angleInFace, buildFaceFrames, type FaceFrames } from '../mesh/transport';
 
 /**
  * What the field does along the surface's boundary loops: `free` leaves it to the smoothest
@@ -151,8 +153,6 @@ interface RingSolver {
   storedResponses: number;
   readonly scratch: Float64Array;
 }
-
-const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 /**
  * Prepares a surface for solving: builds topology (throws FieldError on non-manifold input),

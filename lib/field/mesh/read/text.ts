@@ -1,4 +1,4 @@
-import { FieldError } from '../mesh';
+import { FieldError } from '../errors';
 
 /**
  * Line-by-line and token-by-token access to the text formats (OBJ, ASCII PLY, ASCII STL).

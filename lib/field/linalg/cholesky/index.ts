@@ -11,9 +11,9 @@
  *
  * Pure TypeScript on typed arrays: runs unchanged in a Web Worker and on the server.
  */
-import { assertSymmetricSparse, type SymmetricSparse } from './sparse';
-import { graphOfSymmetric, minimumDegreeOrder, nestedDissectionOrder } from './ordering';
-import { factorPanel, subtractGram } from './cholesky-dense';
+import { assertSymmetricSparse, type SymmetricSparse } from '../sparse';
+import { graphOfSymmetric, minimumDegreeOrder, nestedDissectionOrder } from '../ordering/minimum-degree';
+import { factorPanel, subtractGram } from './dense-kernels';
 
 export interface CholeskyFactor {
   readonly n: number;

@@ -13,7 +13,7 @@
  * dissects large matrices, compares both on small ones, and minimum degree orders the
  * dissection's leaves, where no long-range structure is left to exploit.
  */
-import type { SymmetricSparse } from './sparse';
+import type { SymmetricSparse } from '../sparse';
 
 /** An undirected graph without self-loops, in compressed adjacency form. */
 export interface AdjacencyGraph {

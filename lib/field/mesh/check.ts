@@ -1,5 +1,6 @@
 import { boundingBox, componentFacts, faceAreas, type BoundingBox, type ComponentFacts } from './geometry';
-import { FieldError, describeFirst, faceCount, vertexCount, type TriangleMesh } from './mesh';
+import { FieldError, describeFirst } from './errors';
+import { faceCount, vertexCount, type TriangleMesh } from './mesh';
 import { DEFAULT_MAX_FACES, readSurface, type ReadSurfaceOptions, type SurfaceReadResult } from './read';
 import { EXAMPLE_LIMIT } from './read/soup';
 import { buildTopology, nextHalfedge } from './topology';

@@ -1,4 +1,4 @@
-import { FieldError } from './mesh';
+import { FieldError } from './errors';
 import type { Topology } from './topology';
 import { faceOfHalfedge, nextAroundVertex, nextHalfedge, prevHalfedge } from './topology';
 

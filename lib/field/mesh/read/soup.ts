@@ -1,4 +1,5 @@
-import { FieldError, describeFirst, type FaceGroups, type TriangleMesh } from '../mesh';
+import { FieldError, describeFirst } from '../errors';
+import type { FaceGroups, TriangleMesh } from '../mesh';
 import { GrowableUint32 } from './growable';
 import { triangulatePolygon } from './polygon';
 import { defaultWeldTolerance, weldVertices } from './weld';

@@ -1,4 +1,5 @@
-import { FieldError, type TriangleMesh } from '../mesh';
+import { FieldError } from '../errors';
+import type { TriangleMesh } from '../mesh';
 import { readGltf } from './gltf';
 import { readObj } from './obj';
 import { readPly } from './ply';
