@@ -10,7 +10,9 @@ import {
   NotPositiveDefiniteError,
   type CholeskyOptions,
 } from '@/lib/field/linalg/cholesky';
-import { graphOfSymmetric, minimumDegreeOrder, nestedDissectionOrder } from '@/lib/field/linalg/ordering/minimum-degree';
+import { graphOfSymmetric } from '@/lib/field/linalg/ordering/graph';
+import { minimumDegreeOrder } from '@/lib/field/linalg/ordering/minimum-degree';
+import { nestedDissectionOrder } from '@/lib/field/linalg/ordering/nested-dissection';
 
 type Ordering = NonNullable<CholeskyOptions['ordering']>;
 const ORDERINGS: Ordering[] = ['auto', 'nested-dissection', 'minimum-degree', 'natural'];
