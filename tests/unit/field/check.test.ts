@@ -176,7 +176,7 @@ describe('checkSurface on hostile meshes', () => {
     .map(({ positions, triangles }) => meshOf(positions, triangles.flat()));
 
   it('never throws, and agrees with buildTopology about what breaks the connectivity', () => {
-    // The reference for agreement is lib/field/topology.ts's buildTopology, which the field
+    // The reference for agreement is lib/field/mesh/topology.ts's buildTopology, which the field
     // engine uses: it must accept exactly the meshes the checker finds manifold and oriented.
     fc.assert(
       fc.property(fc.oneof(smallMesh, plausibleMesh), (mesh) => {
