@@ -1,3 +1,8 @@
+/**
+ * The field a groomer sees: one direction carried over the surface with a solved connection,
+ * so that it turns exactly as the connection says and nowhere else, plus a blended direction per
+ * vertex for drawing and for growing hair between faces.
+ */
 import { dualPieces, type ConnectionResult, type FieldSurface } from './connection';
 import { crossingSign } from './mesh/dual-chains';
 import { faceAreas, vertexNormals } from './mesh/geometry';

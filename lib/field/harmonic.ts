@@ -1,3 +1,8 @@
+/**
+ * Smooth values between pinned ones (length, lift, density…): a groomer sets a few vertices and
+ * every other vertex gets the smoothest blend, with the surface factored once so that moving a pin
+ * stays interactive.
+ */
 import { factorCholesky, type CholeskyFactor } from './linalg/cholesky';
 import { factorDenseLU } from './linalg/dense';
 import { cornerAngles, faceAreas } from './mesh/geometry';

@@ -1,3 +1,7 @@
+/**
+ * The engine's proof: the index of the built field at every vertex, measured from positions and
+ * face directions alone, to be compared with what was asked rather than trusted from the solver.
+ */
 import type { ConnectionResult, FieldSurface } from './connection';
 import { faceNormals } from './mesh/geometry';
 import { nextAroundVertex, nextHalfedge } from './mesh/topology';

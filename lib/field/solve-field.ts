@@ -1,3 +1,7 @@
+/**
+ * The one call an editor makes per edit: solve, build the field, and measure it independently,
+ * so that a field with a singularity the groomer did not place never leaves the engine.
+ */
 import { now } from './clock';
 import { solveConnection, type ConnectionResult, type FieldRequest, type FieldSurface } from './connection';
 import { buildDirectionField, type DirectionField } from './direction-field';

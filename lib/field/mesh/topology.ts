@@ -1,3 +1,7 @@
+/**
+ * Connectivity without pointers: halfedges numbered by face and corner, so that every walk over
+ * the surface is integer arithmetic on typed arrays, and non-manifold input is refused up front.
+ */
 import { FieldError, describeFirst } from './errors';
 import { faceCount, vertexCount, type TriangleMesh } from './mesh';
 

@@ -1,3 +1,7 @@
+/**
+ * Wavefront OBJ, the format most modelling tools export: positions, polygons and face groups,
+ * which become growth regions.
+ */
 import { FieldError } from '../errors';
 import { GrowableFloat64, GrowableUint32 } from './growable';
 import { assertFaceBudget, type PolygonSoup } from './soup';

@@ -1,3 +1,7 @@
+/**
+ * Stanford PLY in ASCII and both binary byte orders: the vertex positions and face lists, whatever
+ * other properties a scanner or modeller stores beside them.
+ */
 import { FieldError } from '../errors';
 import { GrowableUint32 } from './growable';
 import { assertFaceBudget, type PolygonSoup } from './soup';

@@ -1,3 +1,7 @@
+/**
+ * What every reader produces and how it becomes a mesh: polygons as written in the file, then
+ * split into triangles, welded, and checked against the face budget, in one place for all formats.
+ */
 import { FieldError, describeFirst } from '../errors';
 import type { FaceGroups, TriangleMesh } from '../mesh';
 import { GrowableUint32 } from './growable';
