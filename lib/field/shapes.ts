@@ -1,10 +1,9 @@
-import type { TriangleMesh } from './mesh';
-
 /*
  * Test surfaces for tests, benchmarks and demo data. Every face is counter-clockwise seen from
  * outside (for the open surfaces: from +z), every surface is manifold, and none has a degenerate
  * face.
  */
+import type { TriangleMesh } from './mesh/mesh';
 
 function mesh(positions: number[] | Float64Array, triangles: number[] | Uint32Array): TriangleMesh {
   return { positions: Float64Array.from(positions), triangles: Uint32Array.from(triangles) };

@@ -1,7 +1,6 @@
 // The shapes the studio's route handlers answer with (docs/studio-api.md). Types only, so the
 // studio's client code can import them without pulling in anything of the server.
-import type { ComponentFacts } from '../field';
-import type { Problem } from '../field/check';
+import type { ComponentFacts, Problem } from '../field';
 import type { GroomSpec } from '../groom';
 import { EXPORT_FORMATS, type ExportFormat } from '../groom/export/formats';
 

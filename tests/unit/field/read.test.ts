@@ -8,12 +8,13 @@ import { STLExporter } from 'three/examples/jsm/exporters/STLExporter.js';
 import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { PLYLoader } from 'three/examples/jsm/loaders/PLYLoader.js';
 import { STLLoader } from 'three/examples/jsm/loaders/STLLoader.js';
-import { surfaceArea } from '@/lib/field/geometry';
-import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
-import { readSurface, sniffContent } from '@/lib/field/read';
-import { weldVertices } from '@/lib/field/read/weld';
+import { surfaceArea } from '@/lib/field/mesh/geometry';
+import { FieldError } from '@/lib/field/mesh/errors';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import { readSurface, sniffContent } from '@/lib/field/mesh/read';
+import { weldVertices } from '@/lib/field/mesh/read/weld';
 import { icosphere, torus } from '@/lib/field/shapes';
-import { buildTopology } from '@/lib/field/topology';
+import { buildTopology } from '@/lib/field/mesh/topology';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));
 const text = (s: string) => new TextEncoder().encode(s);

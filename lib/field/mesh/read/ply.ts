@@ -1,4 +1,8 @@
-import { FieldError } from '../mesh';
+/**
+ * Stanford PLY in ASCII and both binary byte orders: the vertex positions and face lists, whatever
+ * other properties a scanner or modeller stores beside them.
+ */
+import { FieldError } from '../errors';
 import { GrowableUint32 } from './growable';
 import { assertFaceBudget, type PolygonSoup } from './soup';
 import { TextCursor, clip, parseNumber } from './text';

@@ -1,4 +1,9 @@
-import { FieldError, type TriangleMesh } from '../mesh';
+/**
+ * One entry for every surface file a groomer may upload: the format named by the file's extension
+ * is checked against the bytes, read by its reader, then triangulated and welded the same way.
+ */
+import { FieldError } from '../errors';
+import type { TriangleMesh } from '../mesh';
 import { readGltf } from './gltf';
 import { readObj } from './obj';
 import { readPly } from './ply';

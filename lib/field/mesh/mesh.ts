@@ -31,23 +31,3 @@ export function vertexCount(mesh: TriangleMesh): number {
 export function faceCount(mesh: TriangleMesh): number {
   return mesh.triangles.length / 3;
 }
-
-/** A problem in a surface that the field engine cannot work with, or a request it cannot satisfy. */
-export class FieldError extends Error {
-  constructor(
-    /** Stable machine-readable reason, e.g. `non-manifold-edge`, `index-budget`. */
-    readonly code: string,
-    message: string,
-  ) {
-    super(message);
-    this.name = 'FieldError';
-  }
-}
-
-/** Lists up to `limit` items of a list for an error message: "3, 17, 20 and 12 more". */
-export function describeFirst(items: ArrayLike<number | string>, limit = 5): string {
-  const shown: string[] = [];
-  for (let i = 0; i < Math.min(limit, items.length); i++) shown.push(String(items[i]));
-  const rest = items.length - shown.length;
-  return rest > 0 ? `${shown.join(', ')} and ${rest} more` : shown.join(', ');
-}

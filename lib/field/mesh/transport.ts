@@ -1,3 +1,7 @@
+/**
+ * How a direction is compared between neighbouring faces: the frames every angle is measured in
+ * and the Levi-Civita rotation across each edge, on top of which the connection adds its angles.
+ */
 import type { TriangleMesh } from './mesh';
 import type { Topology } from './topology';
 import { nextHalfedge } from './topology';

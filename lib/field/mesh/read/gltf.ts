@@ -1,7 +1,3 @@
-import { FieldError } from '../mesh';
-import { assertFaceBudget, triangleStarts, type PolygonSoup } from './soup';
-import { clip } from './text';
-
 /*
  * glTF 2.0 is read here directly rather than through @gltf-transform/core: that library's
  * readers are asynchronous only (they return Promises), while `readSurface` is synchronous, and
@@ -9,6 +5,9 @@ import { clip } from './text';
  * fully specified piece of the format. The tests check this reader against files written by
  * @gltf-transform/core.
  */
+import { FieldError } from '../errors';
+import { assertFaceBudget, triangleStarts, type PolygonSoup } from './soup';
+import { clip } from './text';
 
 const GLB_MAGIC = 0x46546c67; // "glTF"
 const CHUNK_JSON = 0x4e4f534a;

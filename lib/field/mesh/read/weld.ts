@@ -1,3 +1,8 @@
+/**
+ * Exporters split a vertex wherever its UV or normal changes; welding joins the copies again so
+ * that the surface is one connected sheet, without merging vertices the modeller meant apart.
+ */
+
 /** Default weld distance as a fraction of the bounding-box diagonal of the file's vertices. */
 export const DEFAULT_WELD_FRACTION = 1e-6;
 

@@ -1,4 +1,9 @@
-import { FieldError, describeFirst, type FaceGroups, type TriangleMesh } from '../mesh';
+/**
+ * What every reader produces and how it becomes a mesh: polygons as written in the file, then
+ * split into triangles, welded, and checked against the face budget, in one place for all formats.
+ */
+import { FieldError, describeFirst } from '../errors';
+import type { FaceGroups, TriangleMesh } from '../mesh';
 import { GrowableUint32 } from './growable';
 import { triangulatePolygon } from './polygon';
 import { defaultWeldTolerance, weldVertices } from './weld';

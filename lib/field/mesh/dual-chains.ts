@@ -1,4 +1,9 @@
-import { FieldError } from './mesh';
+/**
+ * Walks from face to face across edges, the paths along which a connection's holonomy is summed:
+ * vertex rings, partial fans beside curves, shortest paths for strokes and ties, and the
+ * tree–cotree generators of a surface with handles.
+ */
+import { FieldError } from './errors';
 import type { Topology } from './topology';
 import { faceOfHalfedge, nextAroundVertex, nextHalfedge, prevHalfedge } from './topology';
 

@@ -1,4 +1,8 @@
-import { FieldError } from '../mesh';
+/**
+ * Wavefront OBJ, the format most modelling tools export: positions, polygons and face groups,
+ * which become growth regions.
+ */
+import { FieldError } from '../errors';
 import { GrowableFloat64, GrowableUint32 } from './growable';
 import { assertFaceBudget, type PolygonSoup } from './soup';
 import { TextCursor, clip, parseInteger, parseNumber } from './text';

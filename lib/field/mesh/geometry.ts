@@ -1,3 +1,7 @@
+/**
+ * What the surface's shape says, as opposed to its connectivity: corner angles, curvature (angle
+ * defects), areas, normals, and the counts (χ, genus, components) that fix the index budget.
+ */
 import { faceCount, vertexCount, type TriangleMesh } from './mesh';
 import { faceOfHalfedge, type Topology } from './topology';
 

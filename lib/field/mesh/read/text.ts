@@ -1,5 +1,3 @@
-import { FieldError } from '../mesh';
-
 /**
  * Line-by-line and token-by-token access to the text formats (OBJ, ASCII PLY, ASCII STL).
  *
@@ -7,6 +5,8 @@ import { FieldError } from '../mesh';
  * decoded at once would exceed what a JavaScript string may hold. Cutting at byte 0x0A is
  * safe in UTF-8, where that byte never occurs inside a multi-byte character.
  */
+import { FieldError } from '../errors';
+
 export class TextCursor {
   private readonly decoder = new TextDecoder('utf-8');
   private chunk = '';

@@ -1,4 +1,8 @@
-import { FieldError } from '../mesh';
+/**
+ * STL, ASCII and binary, the format of printers and sculpting tools: unshared triangles only, so
+ * welding does all the joining.
+ */
+import { FieldError } from '../errors';
 import { GrowableFloat64, GrowableUint32 } from './growable';
 import { assertFaceBudget, triangleStarts, type PolygonSoup } from './soup';
 import { TextCursor, clip, parseNumber } from './text';
