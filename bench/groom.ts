@@ -10,7 +10,7 @@
  * guide count are those of its fastest run. The load average is printed with the table.
  */
 import { cpus, loadavg } from 'node:os';
-import { torus } from '../lib/field/shapes';
+import { torus } from '../tests/fixtures/shapes';
 import { encodeImage } from '../lib/groom/render/encode-image';
 import {
   EXPORT_FORMATS,

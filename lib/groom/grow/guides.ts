@@ -1,4 +1,4 @@
-import type { SolvedField } from '../../field';
+import { now, type SolvedField } from '../../field';
 import { GroomError } from '../errors';
 import { blendPins, type PinnedFactors } from '../place/pins';
 import { guideRandom } from './random';
@@ -54,7 +54,6 @@ const JITTER_LEAN = 0.15;
 /** Height kept above the skin, as a fraction of the surface's bounding box diagonal. */
 const CLEARANCE_FRACTION = 1e-4;
 
-const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 /** Barycentric weights of (x, y, z) in face f (projected onto its plane), into w. */
 function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y: number, z: number, w: Float64Array): void {

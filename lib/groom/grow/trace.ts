@@ -1,5 +1,5 @@
 import type { DirectionField, FieldSurface } from '../../field';
-import { nextAroundVertex, nextHalfedge, prevHalfedge } from '../../field/topology';
+import { nextAroundVertex, nextHalfedge, prevHalfedge } from '../../field';
 
 /**
  * Streamlines of a face-wise constant direction field over the surface. Inside a face the field

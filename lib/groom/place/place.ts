@@ -1,4 +1,4 @@
-import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '../../field/topology';
+import { nextAroundVertex, nextHalfedge, prevHalfedge, type Topology } from '../../field';
 import { GroomError } from '../errors';
 import { MaxHeap } from './heap';
 import { SKIN_QUERY_SIZE } from './skin';

@@ -1,6 +1,7 @@
 import {
   boundingBox,
   faceAreas,
+  now,
   prepareHarmonic,
   prepareSurface,
   vertexNormals,
@@ -36,7 +37,6 @@ export interface GroomSurface {
   readonly setupSeconds: { readonly field: number; readonly skin: number };
 }
 
-const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 /**
  * Prepares a surface for grooming.

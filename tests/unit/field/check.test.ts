@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from '@/lib/field/mesh/check';
 import { FieldError } from '@/lib/field/mesh/errors';
 import type { TriangleMesh } from '@/lib/field/mesh/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/lib/field/shapes';
+import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/tests/fixtures/shapes';
 import { buildTopology } from '@/lib/field/mesh/topology';
 import { concatenate, stanfordBunny } from './surfaces';
 

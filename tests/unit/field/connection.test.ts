@@ -4,7 +4,7 @@ import { indexBudget, prepareSurface, solveConnection, type FieldSurface } from 
 import { vertexFan } from '@/lib/field/mesh/dual-chains';
 import { FieldError } from '@/lib/field/mesh/errors';
 import type { TriangleMesh } from '@/lib/field/mesh/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/lib/field/shapes';
+import { disc, genusTwoSurface, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/tests/fixtures/shapes';
 import { solveField } from '@/lib/field/solve-field';
 import { nextHalfedge } from '@/lib/field/mesh/topology';
 import { wrapAngle, wrapAngleForOrder } from '@/lib/field/mesh/transport';

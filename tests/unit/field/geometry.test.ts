@@ -13,7 +13,7 @@ import {
   vertexNormals,
 } from '@/lib/field/mesh/geometry';
 import type { TriangleMesh } from '@/lib/field/mesh/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, torus, uvSphere } from '@/lib/field/shapes';
+import { disc, genusTwoSurface, gridPlane, icosphere, torus, uvSphere } from '@/tests/fixtures/shapes';
 import { buildTopology } from '@/lib/field/mesh/topology';
 import { concatenate, stanfordBunny } from './surfaces';
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { prepareHarmonic } from '@/lib/field/harmonic';
 import { FieldError } from '@/lib/field/mesh/errors';
-import { disc, gridPlane, icosphere } from '@/lib/field/shapes';
+import { disc, gridPlane, icosphere } from '@/tests/fixtures/shapes';
 import { buildTopology } from '@/lib/field/mesh/topology';
 
 describe('harmonic interpolation of pinned values', () => {

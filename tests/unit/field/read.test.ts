@@ -13,7 +13,7 @@ import { FieldError } from '@/lib/field/mesh/errors';
 import type { TriangleMesh } from '@/lib/field/mesh/mesh';
 import { readSurface, sniffContent } from '@/lib/field/mesh/read';
 import { weldVertices } from '@/lib/field/mesh/read/weld';
-import { icosphere, torus } from '@/lib/field/shapes';
+import { icosphere, torus } from '@/tests/fixtures/shapes';
 import { buildTopology } from '@/lib/field/mesh/topology';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));

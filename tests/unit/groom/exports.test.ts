@@ -4,7 +4,7 @@ import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { PLYLoader } from 'three/examples/jsm/loaders/PLYLoader.js';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { icosphere, torus } from '@/lib/field/shapes';
+import { icosphere, torus } from '@/tests/fixtures/shapes';
 import { fieldToPly } from '@/lib/groom/export/field-ply';
 import { guidesToGltf } from '@/lib/groom/export/gltf';
 import type { Guides } from '@/lib/groom/grow/guides';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { icosphere } from '@/lib/field/shapes';
+import { icosphere } from '@/tests/fixtures/shapes';
 import { EXPORT_EXTENSIONS, EXPORT_FORMAT_FACTS, EXPORT_FORMATS, formatOfExtension, type ExportSource } from '@/lib/groom/export/formats';
 import { writeExport, type GroomMade } from '@/lib/groom/export/write';
 import { groomOn } from './support';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { faceAreas, surfaceArea } from '@/lib/field';
-import { icosphere } from '@/lib/field/shapes';
+import { icosphere } from '@/tests/fixtures/shapes';
 import { GroomError } from '@/lib/groom/errors';
 import { HUMAN_SCALP_PRESET } from '@/lib/groom/spec/presets';
 import { growthMask } from '@/lib/groom/place/regions';
