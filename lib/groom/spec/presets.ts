@@ -4,7 +4,9 @@ import type { GroomSpecInput } from './spec';
  * Starting points for common coats, as the part of a spec they decide (centimetre units).
  *
  * A human scalp carries about 175–300 hairs per cm² (Barman, Astore & Pecoraro, "The normal
- * trichogram of the adult", J. Invest. Dermatol. 44:233, 1965). Guides are far sparser than hairs:
+ * trichogram of the adult", J. Invest. Dermatol. 44:233, 1965: "a wide range in density of hair
+ * population (175 to 300 hairs per cm²), with an average of 223", p. 233; checked against the
+ * passage as BioNumbers entry 116431 quotes it). Guides are far sparser than hairs:
  * the renderer grows `hairsPerGuide` hairs around each guide, so the preset's hair density is
  * density × hairsPerGuide = 2.2 × 100 = 220 hairs per cm².
  */

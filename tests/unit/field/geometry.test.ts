@@ -75,7 +75,7 @@ describe('discrete Gauss–Bonnet: Σ angle defects = 2πχ', () => {
         const mesh = { ...base, positions };
         expect(sum(angleDefects(mesh, buildTopology(mesh)))).toBeCloseTo(0, 9);
       }),
-      { numRuns: 50 },
+      { numRuns: 50, seed: 20261204 },
     );
   });
 });
@@ -97,6 +97,7 @@ describe('cornerAngles', () => {
         fc.pre(faceAreas(mesh)[0] > 1e-9);
         expect(sum(cornerAngles(mesh))).toBeCloseTo(Math.PI, 12);
       }),
+      { seed: 20261204 },
     );
     // A sliver whose small angle is 1e-12: acos would return 0 or ~1e-8 here.
     const sliver = { positions: Float64Array.of(0, 0, 0, 1, 0, 0, 0.5, 0.5e-12, 0), triangles: Uint32Array.of(0, 1, 2) };

@@ -7,14 +7,12 @@ import { readSurface } from '@/lib/field/mesh/read';
 import { torus } from '@/tests/fixtures/shapes';
 
 // Property-based robustness: whatever the bytes, a reader returns a well-formed mesh or throws a
-// FieldError, quickly (fast-check, Dubien, https://fast-check.dev).
+// FieldError (fast-check, Dubien, https://fast-check.dev; fixed seeds, so a failure repeats). How
+// fast the readers are is for the benchmarks; a reader that hung would fail on the test timeout.
 
 const EXTENSIONS = ['obj', 'ply', 'stl', 'gltf', 'glb'];
-/** Generous bound for one small file on a shared, slow machine; a hang would take far longer. */
-const TIME_LIMIT_MS = 2000;
 
 function expectResultOrFieldError(bytes: Uint8Array, fileName: string): void {
-  const started = performance.now();
   try {
     const result = readSurface(bytes, fileName, { maxFaces: 100_000 });
     const { positions, triangles, fileVertexToVertex } = result.mesh;
@@ -32,7 +30,6 @@ function expectResultOrFieldError(bytes: Uint8Array, fileName: string): void {
     if (!(error instanceof FieldError)) throw error;
     expect(error.message.length).toBeGreaterThan(0);
   }
-  expect(performance.now() - started).toBeLessThan(TIME_LIMIT_MS);
 }
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));
@@ -65,7 +62,7 @@ describe('readers on hostile input', () => {
       fc.property(fc.uint8Array({ maxLength: 3000 }), fc.constantFrom(...EXTENSIONS), (bytes, extension) => {
         expectResultOrFieldError(bytes, `random.${extension}`);
       }),
-      { numRuns: 1000 },
+      { numRuns: 1000, seed: 20261204 },
     );
   });
 
@@ -85,7 +82,7 @@ describe('readers on hostile input', () => {
         bytes.set(tail, head.length);
         expectResultOrFieldError(bytes, `signed.${extension}`);
       }),
-      { numRuns: 500 },
+      { numRuns: 500, seed: 20261204 },
     );
   });
 
@@ -109,7 +106,7 @@ describe('readers on hostile input', () => {
           expectResultOrFieldError(bytes, name);
         },
       ),
-      { numRuns: 1500 },
+      { numRuns: 1500, seed: 20261204 },
     );
   });
 
@@ -126,7 +123,7 @@ describe('readers on hostile input', () => {
       fc.property(fc.array(statement, { maxLength: 40 }), fc.constantFrom('\n', '\r\n'), (lines, eol) => {
         expectResultOrFieldError(new TextEncoder().encode(lines.join(eol)), 'fuzz.obj');
       }),
-      { numRuns: 1000 },
+      { numRuns: 1000, seed: 20261204 },
     );
   });
 
@@ -154,7 +151,7 @@ describe('readers on hostile input', () => {
           expectResultOrFieldError(bytes, 'fuzz.ply');
         },
       ),
-      { numRuns: 1000 },
+      { numRuns: 1000, seed: 20261204 },
     );
   });
 
@@ -199,7 +196,7 @@ describe('readers on hostile input', () => {
     );
     fc.assert(
       fc.property(gltf, (json) => expectResultOrFieldError(new TextEncoder().encode(JSON.stringify(json)), 'fuzz.gltf')),
-      { numRuns: 1500 },
+      { numRuns: 1500, seed: 20261204 },
     );
   });
 

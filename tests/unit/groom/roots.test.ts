@@ -83,7 +83,8 @@ describe('guide roots', () => {
 
   it('has a human-scalp preset whose hair density is in the published range', () => {
     // Barman, Astore & Pecoraro, "The normal trichogram of the adult", J. Invest. Dermatol.
-    // 44:233, 1965: 175–300 hairs per cm² on the adult scalp. Each guide stands for
+    // 44:233, 1965, p. 233: 175–300 hairs per cm² on the adult scalp, mean 223 (the passage as
+    // BioNumbers entry 116431 quotes it). Each guide stands for
     // `hairsPerGuide` rendered hairs, so hairs per cm² = guides per cm² × hairsPerGuide.
     const hairsPerCm2 = HUMAN_SCALP_PRESET.guides.density * HUMAN_SCALP_PRESET.guides.hairsPerGuide;
     expect(hairsPerCm2).toBeGreaterThanOrEqual(175);
