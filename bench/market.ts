@@ -29,7 +29,7 @@ import { join } from 'node:path';
 import knex, { type Knex } from 'knex';
 import { migrateAndSeed, projectRoot, stackEnvironment, startStack, testProfile, type StackProfile } from '../scripts/lib/stack';
 import { CommandFailed, log, runCommand, shutdown, startProcess, stopEverythingOnSignals, waitForHttp } from '../scripts/lib/processes';
-import { migrationConfig } from '../knexfile';
+import { migrationConfig } from '../db/migration-config';
 import { ANIMALS, BODY_REGIONS, COAT_LENGTHS, PACKAGE_FORMATS, STYLES } from '../lib/market/vocabulary';
 
 type AutocannonClient = { on(event: 'response', listener: (status: number, bytes: number, ms: number) => void): void };

@@ -1,16 +1,22 @@
 // The server's configuration, read from environment variables and checked once with zod.
-// Every variable has a default that reaches the local demo services (lib/platform/local-services.ts);
-// production points the same variables at the hosted services. .env.example lists them.
+// Where WHORLWIND_LOCAL=true (set by the demo, dev and test scripts, never in production) every
+// variable has a default that reaches the local demo services (lib/platform/local-services.ts).
+// Anywhere else the secrets and the database must be set, and none of them may be one of the local
+// values that are in this repository: a server that forgot a variable refuses to start instead
+// of signing sessions with a published secret. .env.example lists the variables.
 import { z } from 'zod';
-import { DEMO_PORTS, LOCAL_DATABASE, LOCAL_NEXTAUTH_SECRET, localServiceEnv } from './local-services';
+import { DEMO_PORTS, LOCAL_DATABASE, LOCAL_ONLY_FLAG, localServiceEnv } from './local-services';
 
-const defaults = localServiceEnv(DEMO_PORTS, LOCAL_DATABASE.demoName);
+const localDefaults = localServiceEnv(DEMO_PORTS, LOCAL_DATABASE.demoName);
+
+/** Variables that hold a secret (or a database password): no default outside local runs. */
+const SECRETS = ['DATABASE_URL', 'NEXTAUTH_SECRET', 'S3_ACCESS_KEY_ID', 'S3_SECRET_ACCESS_KEY', 'STRIPE_SECRET_KEY', 'STRIPE_WEBHOOK_SECRET'] as const;
 
 const flag = z.enum(['true', 'false']).transform((value) => value === 'true');
 const optionalUrl = z.union([z.literal(''), z.url()]);
 
-const schema = z
-  .object({
+function schemaFor(defaults: Record<string, string>) {
+  return z.object({
     DATABASE_URL: z.url().default(defaults.DATABASE_URL),
     NEXTAUTH_URL: z.url().default(defaults.NEXTAUTH_URL),
     NEXTAUTH_SECRET: z.string().min(32, 'must be at least 32 characters').default(defaults.NEXTAUTH_SECRET),
@@ -38,27 +44,45 @@ const schema = z
     MARKET_PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(100).default(15),
     /** Largest growth surface file the studio accepts, in bytes (default 200 MB). */
     SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200_000_000),
-  })
-  .refine(
-    (config) => config.NEXTAUTH_SECRET !== LOCAL_NEXTAUTH_SECRET || isLoopback(config.NEXTAUTH_URL),
-    { path: ['NEXTAUTH_SECRET'], message: 'the local default secret is only allowed on a loopback NEXTAUTH_URL' },
-  );
-
-function isLoopback(url: string) {
-  const host = new URL(url).hostname;
-  return host === 'localhost' || host === '[::1]' || host.startsWith('127.');
+  });
 }
 
-export type Env = z.infer<typeof schema>;
+/** Whether a URL names this machine: localhost, [::1] or an IPv4 address in 127.0.0.0/8 (not a name that merely starts with "127."). */
+export function isLoopbackUrl(url: string): boolean {
+  const host = new URL(url).hostname;
+  return host === 'localhost' || host === '[::1]' || /^127(\.(25[0-5]|2[0-4]\d|1?\d?\d)){3}$/.test(host);
+}
+
+export type Env = z.infer<ReturnType<typeof schemaFor>>;
 
 export class InvalidEnvironment extends Error {}
 
+/**
+ * The configuration from these variables. Guarantee: outside local runs, every secret is set and
+ * none equals the local value of this repository; in local runs, the local session secret is used
+ * only with a loopback NEXTAUTH_URL. Every problem is named in one InvalidEnvironment.
+ */
 export function parseEnv(source: Record<string, string | undefined>): Env {
-  const result = schema.safeParse(source);
-  if (!result.success) {
-    const problems = result.error.issues.map((issue) => `${issue.path.join('.')}: ${issue.message}`);
-    throw new InvalidEnvironment(`Invalid server configuration:\n  ${problems.join('\n  ')}`);
+  const local = source[LOCAL_ONLY_FLAG] === 'true';
+  const defaults = local ? localDefaults : Object.fromEntries(Object.entries(localDefaults).filter(([key]) => !(SECRETS as readonly string[]).includes(key)));
+  const problems: string[] = [];
+  if (!local) {
+    for (const key of SECRETS) {
+      const value = source[key];
+      if (value === undefined || value === '') problems.push(`${key}: must be set (local defaults need ${LOCAL_ONLY_FLAG}=true, which only the demo and the tests set)`);
+      else if (value === localDefaults[key]) problems.push(`${key}: is the local value published in this repository; set your own`);
+    }
   }
+  const result = schemaFor(defaults).safeParse(source);
+  if (!result.success) {
+    for (const issue of result.error.issues) {
+      const key = issue.path.join('.');
+      if (!problems.some((problem) => problem.startsWith(`${key}:`))) problems.push(`${key}: ${issue.message}`);
+    }
+  } else if (result.data.NEXTAUTH_SECRET === localDefaults.NEXTAUTH_SECRET && !isLoopbackUrl(result.data.NEXTAUTH_URL)) {
+    problems.push('NEXTAUTH_SECRET: the local default secret is only allowed on a loopback NEXTAUTH_URL');
+  }
+  if (problems.length > 0 || !result.success) throw new InvalidEnvironment(`Invalid server configuration:\n  ${problems.join('\n  ')}`);
   return result.data;
 }
 

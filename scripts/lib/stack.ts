@@ -19,7 +19,7 @@ import {
 import { startS3StandIn } from '../../services/s3';
 import { startSmtpSink } from '../../services/smtp-sink';
 import { startPaymentsFake } from '../../services/payments-fake/index';
-import { migrationConfig } from '../../knexfile';
+import { migrationConfig } from '../../db/migration-config';
 import { CommandFailed, log, onShutdown, runCommand } from './processes';
 import { preparePostgres } from './postgres';
 

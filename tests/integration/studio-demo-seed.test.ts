@@ -10,7 +10,7 @@ import { env } from '@/lib/platform/env';
 import { parseGroomSpec } from '@/lib/groom';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
 import { storedObjectSize } from '@/lib/studio/storage';
-import { migrationConfig } from '@/knexfile';
+import { migrationConfig } from '@/db/migration-config';
 
 afterAll(closeDb);
 
