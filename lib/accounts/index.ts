@@ -10,4 +10,6 @@ export * from './passwords';
 export * from './users';
 export * from './sign-in';
 export * from './session';
+export * from './actor';
 export * from './mail-texts';
+export * from './types';

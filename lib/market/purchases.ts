@@ -11,7 +11,7 @@ import type Stripe from 'stripe';
 import { z } from 'zod';
 import { db } from '../platform/db';
 import { payments } from '../platform/payments';
-import { platformFeeCents } from './checkout';
+import { platformFeeCents } from './fees';
 import { receiptMail, refundMail, saleNoticeMail, sendMailLogged } from './mail';
 
 type Trx = Knex.Transaction;

@@ -3,8 +3,9 @@
 // no longer downloads.
 import { db } from '../platform/db';
 import { payments } from '../platform/payments';
-import { MarketError, notFound, providerFailed } from './errors';
-import type { Actor } from './http';
+import { HttpError } from '../http/errors';
+import { notFound, providerFailed } from './errors';
+import type { Actor } from '../accounts/actor';
 import type { AdminPurchase } from './types';
 
 export async function adminPurchase(id: string): Promise<AdminPurchase> {
@@ -63,9 +64,9 @@ export async function refundPurchase(actor: Actor, purchaseId: string, reason?: 
   await db().transaction(async (trx) => {
     const purchase = await trx('purchases').where({ id: purchaseId }).forUpdate().first('id', 'status', 'refund_id', 'payment_intent_id');
     if (!purchase) throw notFound('purchase');
-    if (purchase.status === 'refunded') throw new MarketError(409, 'refunded', 'This purchase is already refunded.');
+    if (purchase.status === 'refunded') throw new HttpError(409, 'refunded', 'This purchase is already refunded.');
     if (purchase.refund_id) return; // asked before; the provider's webhook will complete it
-    if (!purchase.payment_intent_id) throw new MarketError(409, 'wrong-state', 'This purchase has no payment to refund.');
+    if (!purchase.payment_intent_id) throw new HttpError(409, 'wrong-state', 'This purchase has no payment to refund.');
     let refundId: string;
     try {
       const refund = await payments().refunds.create(

@@ -9,3 +9,4 @@ export * from './mail';
 export * from './mail-sink';
 export * from './payments';
 export * from './file-names';
+export * from './types';

@@ -7,8 +7,9 @@ import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { putObject } from '../platform/storage';
 import type { ExportFormat, ExportJob, ExportStatus } from './types';
-import { notFound, StudioError } from './errors';
-import type { Groomer } from './http';
+import { HttpError } from '../http/errors';
+import { notFound } from './errors';
+import type { Groomer } from '../accounts/actor';
 import { enqueueExport, type ExportJobData } from './jobs';
 import { growStoredSpec, solveStoredSpec, type StageReport } from './grow';
 import { deleteOrphanedObjects, presignStudioDownload } from './storage';
@@ -87,7 +88,7 @@ export async function requestExport(groomer: Groomer, groomId: string, format: E
   } catch (error) {
     console.error(`[studio] export ${row.id} not queued: ${(error as Error).message}`);
     await db()('groom_exports').where({ id: row.id }).delete();
-    throw new StudioError(503, 'service-unavailable', 'The export could not be queued: the job queue is not reachable. Try again in a moment.');
+    throw new HttpError(503, 'service-unavailable', 'The export could not be queued: the job queue is not reachable. Try again in a moment.');
   }
   return exportJob(row);
 }

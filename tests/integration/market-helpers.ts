@@ -9,7 +9,7 @@ import { env } from '@/lib/platform/env';
 import { payments } from '@/lib/platform/payments';
 import { putObject } from '@/lib/platform/storage';
 import { DEMO_GROOMS, parseGroomSpec, surfaceToObj } from '@/lib/groom';
-import type { Actor } from '@/lib/market/http';
+import type { Actor } from '@/lib/accounts/actor';
 import type { Role } from '@/lib/accounts/roles';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 import { uniqueEmail } from './helpers';

@@ -6,8 +6,8 @@ import { closeDb, db } from '@/lib/platform/db';
 import { payments } from '@/lib/platform/payments';
 import { buildListingAssets } from '@/lib/market/assets';
 import { startCheckout } from '@/lib/market/checkout';
-import { MarketError } from '@/lib/market/errors';
-import type { Actor } from '@/lib/market/http';
+import { HttpError } from '@/lib/http/errors';
+import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { enqueueListingAssets } from '@/lib/market/jobs';
 import { listLibrary, requestDownload } from '@/lib/market/library';
@@ -23,13 +23,13 @@ afterAll(async () => {
   await closeDb();
 });
 
-async function failure(promise: Promise<unknown>): Promise<MarketError & { fields?: Record<string, string> }> {
+async function failure(promise: Promise<unknown>): Promise<HttpError & { fields?: Record<string, string> }> {
   const error = await promise.then(
     () => null,
     (caught: unknown) => caught,
   );
-  expect(error).toBeInstanceOf(MarketError);
-  return Object.assign(error as MarketError, { fields: (error as MarketError).extra.fields });
+  expect(error).toBeInstanceOf(HttpError);
+  return Object.assign(error as HttpError, { fields: (error as HttpError).extra.fields });
 }
 
 /** Buys a listing end to end and delivers the fake's events; the purchase id. */

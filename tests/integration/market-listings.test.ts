@@ -6,8 +6,8 @@ import { closeDb, db } from '@/lib/platform/db';
 import { getObjectBytes } from '@/lib/platform/storage';
 import { DEMO_GROOMS, parseGroomSpec } from '@/lib/groom';
 import { buildListingAssets } from '@/lib/market/assets';
-import { MarketError } from '@/lib/market/errors';
-import type { Actor } from '@/lib/market/http';
+import { HttpError } from '@/lib/http/errors';
+import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
 import type { ListingDraftInput } from '@/lib/market/validation';
@@ -59,13 +59,13 @@ const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput =
   formats: ['usda', 'json'],
 });
 
-async function failure(promise: Promise<unknown>): Promise<MarketError> {
+async function failure(promise: Promise<unknown>): Promise<HttpError> {
   const error = await promise.then(
     () => null,
     (caught: unknown) => caught,
   );
-  expect(error).toBeInstanceOf(MarketError);
-  return error as MarketError;
+  expect(error).toBeInstanceOf(HttpError);
+  return error as HttpError;
 }
 
 let seller: Actor;
