@@ -3,8 +3,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { payments } from '@/lib/platform/payments';
-import { startCheckout } from '@/lib/market/checkout';
-import { reconcilePayments } from '@/lib/market/reconcile';
+import { startCheckout } from '@/lib/market/payments/checkout';
+import { reconcilePayments } from '@/lib/market/payments/reconcile';
 import { stopJobs } from '@/lib/platform/jobs';
 import { HttpError } from '@/lib/http/errors';
 import type { Actor } from '@/lib/accounts/actor';

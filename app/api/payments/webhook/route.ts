@@ -3,7 +3,7 @@
 // answers 200 with outcome "duplicate"), so the provider may deliver as often as it likes.
 import { handler, jsonData } from '@/lib/http/server';
 import type { WebhookResponse } from '@/lib/market/types';
-import { receivePaymentWebhook } from '@/lib/market/webhooks';
+import { receivePaymentWebhook } from '@/lib/market/payments/webhooks';
 
 export function POST(request: Request) {
   return handler('none', async () => {

@@ -2,7 +2,7 @@
 // downloading at once; the provider's charge.refunded webhook marks it refunded.
 import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import { notFound } from '@/lib/market/errors';
-import { refundPurchase } from '@/lib/market/refunds';
+import { refundPurchase } from '@/lib/market/payments/refunds';
 import type { RefundResponse } from '@/lib/market/types';
 import { refundSchema } from '@/lib/market/validation';
 

@@ -2,7 +2,7 @@
 // published listing; the price comes from the database. 403 own-listing, 409 already-owned.
 import { handler, jsonData, pathId } from '@/lib/http/server';
 import { notFound } from '@/lib/market/errors';
-import { startCheckout } from '@/lib/market/checkout';
+import { startCheckout } from '@/lib/market/payments/checkout';
 import type { CheckoutResponse } from '@/lib/market/types';
 
 export function POST(_request: Request, { params }: { params: Promise<{ id: string }> }) {

@@ -2,9 +2,9 @@
 // HMAC of the timestamp and the raw body with the endpoint's secret, within 5 minutes of now)
 // before anything is read; a bad, missing or stale signature changes nothing.
 import type Stripe from 'stripe';
-import { env } from '../platform/env';
-import { payments } from '../platform/payments';
-import { HttpError } from '../http/errors';
+import { env } from '../../platform/env';
+import { payments } from '../../platform/payments';
+import { HttpError } from '../../http/errors';
 import { handlePaymentEvent, type EventOutcome } from './purchases';
 
 /** Seconds a signature's timestamp may lie in the past (the SDK's own default). */

@@ -1,13 +1,13 @@
 // Checkout: a Checkout Session at the payment provider for one published listing, with the price
 // taken from the database. A buyer cannot buy their own listing or one they already own; a second
 // click while a checkout is open returns the same checkout instead of a second payment.
-import { db } from '../platform/db';
-import { env } from '../platform/env';
-import { payments } from '../platform/payments';
-import { HttpError } from '../http/errors';
-import { notFound, providerFailed } from './errors';
-import { platformFeeCents } from './fees';
-import type { Actor } from '../accounts/actor';
+import { db } from '../../platform/db';
+import { env } from '../../platform/env';
+import { payments } from '../../platform/payments';
+import { HttpError } from '../../http/errors';
+import { notFound, providerFailed } from '../errors';
+import { platformFeeCents } from '../fees';
+import type { Actor } from '../../accounts/actor';
 
 /** How long a checkout stays payable (the provider's minimum is 30 minutes). */
 const CHECKOUT_MINUTES = 60;

@@ -1,12 +1,12 @@
 // Refunds by an admin: asked of the payment provider; the provider's `charge.refunded` webhook
-// then marks the purchase refunded (lib/market/purchases.ts). From the request on, the purchase
+// then marks the purchase refunded (lib/market/payments/purchases.ts). From the request on, the purchase
 // no longer downloads.
-import { db } from '../platform/db';
-import { payments } from '../platform/payments';
-import { HttpError } from '../http/errors';
-import { notFound, providerFailed } from './errors';
-import type { Actor } from '../accounts/actor';
-import type { AdminPurchase } from './types';
+import { db } from '../../platform/db';
+import { payments } from '../../platform/payments';
+import { HttpError } from '../../http/errors';
+import { notFound, providerFailed } from '../errors';
+import type { Actor } from '../../accounts/actor';
+import type { AdminPurchase } from '../types';
 
 export async function adminPurchase(id: string): Promise<AdminPurchase> {
   const row = await db()('purchases as p')
