@@ -13,6 +13,7 @@
 //   4000 0000 0000 9995  declined (insufficient_funds)
 import { createHmac, randomBytes } from 'node:crypto';
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
+import { escapeHtml } from '../lib/platform/html';
 
 export type PaymentsFakeOptions = {
   port: number;
@@ -234,9 +235,6 @@ const DECLINES: Record<string, { code: string; message: string }> = {
   '4000000000009995': { code: 'insufficient_funds', message: 'Your card has insufficient funds.' },
 };
 const SUCCEEDS = new Set(['4242424242424242']);
-
-const escapeHtml = (value: string) =>
-  value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 function formatMoney(cents: number, currency: string) {
   return `${(cents / 100).toFixed(2)} ${currency.toUpperCase()}`;

@@ -7,7 +7,8 @@ import { notFound } from './errors';
 import type { Actor } from '../accounts/actor';
 import { enqueueListingAssets } from './jobs';
 import { cardPictureUrl } from './listings';
-import { DOWNLOAD_URL_SECONDS, presignMarketObject } from './storage';
+import { presignDownload } from '../platform/storage';
+import { DOWNLOAD_URL_SECONDS } from './storage';
 import type { DownloadLink, LibraryItem } from './types';
 
 export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
@@ -80,7 +81,7 @@ export async function requestDownload(actor: Actor, purchaseId: string): Promise
   });
   if (!logged) throw new HttpError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
   return {
-    url: await presignMarketObject(purchase.object_key, DOWNLOAD_URL_SECONDS, purchase.file_name),
+    url: await presignDownload(purchase.object_key, DOWNLOAD_URL_SECONDS, purchase.file_name),
     fileName: purchase.file_name,
     expiresInSeconds: DOWNLOAD_URL_SECONDS,
   };

@@ -6,6 +6,7 @@ export * from './db';
 export * from './jobs';
 export * from './storage';
 export * from './mail';
+export * from './html';
 export * from './mail-sink';
 export * from './payments';
 export * from './file-names';

@@ -12,7 +12,8 @@ import { notFound } from './errors';
 import type { Groomer } from '../accounts/actor';
 import { enqueueExport, type ExportJobData } from './jobs';
 import { growStoredSpec, solveStoredSpec, type StageReport } from './grow';
-import { deleteOrphanedObjects, presignStudioDownload } from './storage';
+import { presignDownload } from '../platform/storage';
+import { deleteOrphanedObjects, STUDIO_URL_SECONDS } from './storage';
 import type { StoredSurfaceFile } from './surface-cache';
 
 type ExportRow = {
@@ -61,7 +62,7 @@ async function exportJob(row: ExportRow): Promise<ExportJob> {
     stage: row.stage,
     error: row.error,
     fileName: row.file_name,
-    downloadUrl: row.status === 'done' && row.object_key ? await presignStudioDownload(row.object_key, row.file_name) : null,
+    downloadUrl: row.status === 'done' && row.object_key ? await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name) : null,
     specRevision: row.spec_revision,
     createdAt: row.created_at.toISOString(),
   };

@@ -9,7 +9,8 @@ import { notFound } from './errors';
 import type { Groomer } from '../accounts/actor';
 import { enqueueThumbnail } from './jobs';
 import { startingSpec } from './starting-spec';
-import { deleteOrphanedObjects, presignStudioDownload } from './storage';
+import { presignDownload } from '../platform/storage';
+import { deleteOrphanedObjects, STUDIO_URL_SECONDS } from './storage';
 import { surfaceMesh } from './surface-cache';
 import { ownSurfaceRow, surfaceDetail, type SurfaceRow } from './surfaces';
 
@@ -63,7 +64,7 @@ async function groomSummary(row: GroomListRow): Promise<GroomSummary> {
     revision: row.revision,
     versionCount: row.version_count,
     latestVersion: row.latest_number === null ? null : { number: row.latest_number, name: row.latest_name! },
-    thumbnailUrl: thumbnailKey ? await presignStudioDownload(thumbnailKey) : null,
+    thumbnailUrl: thumbnailKey ? await presignDownload(thumbnailKey, STUDIO_URL_SECONDS) : null,
     updatedAt: row.updated_at.toISOString(),
   };
 }
@@ -74,7 +75,7 @@ async function version(row: VersionRow): Promise<Version> {
     number: row.number,
     name: row.name,
     createdAt: row.created_at.toISOString(),
-    thumbnailUrl: row.thumbnail_key ? await presignStudioDownload(row.thumbnail_key) : null,
+    thumbnailUrl: row.thumbnail_key ? await presignDownload(row.thumbnail_key, STUDIO_URL_SECONDS) : null,
   };
 }
 

@@ -14,7 +14,8 @@ import { SURFACE_FORMATS } from './types';
 import { HttpError } from '../http/errors';
 import { notFound } from './errors';
 import type { Groomer } from '../accounts/actor';
-import { deleteOrphanedObjects, deleteStoredObjects, presignStudioDownload, presignSurfaceUpload, storedObjectSize, STUDIO_URL_SECONDS } from './storage';
+import { presignDownload } from '../platform/storage';
+import { deleteOrphanedObjects, deleteStoredObjects, presignSurfaceUpload, storedObjectSize, STUDIO_URL_SECONDS } from './storage';
 import { rememberSurfaceMesh } from './surface-cache';
 
 /** Edge length of the stored surface thumbnail, in pixels. */
@@ -232,7 +233,7 @@ export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
     areaCm2: row.area_cm2,
     groups: row.groups,
     warnings: row.warnings,
-    thumbnailUrl: row.thumbnail_key ? await presignStudioDownload(row.thumbnail_key) : null,
+    thumbnailUrl: row.thumbnail_key ? await presignDownload(row.thumbnail_key, STUDIO_URL_SECONDS) : null,
     createdAt: row.created_at.toISOString(),
   };
 }
@@ -240,7 +241,7 @@ export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
 export async function surfaceDetail(row: SurfaceRow): Promise<SurfaceDetail> {
   return {
     ...(await surfaceSummary(row)),
-    fileUrl: await presignStudioDownload(row.object_key, row.file_name),
+    fileUrl: await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name),
     byteSize: Number(row.byte_size),
     components: row.components,
   };
