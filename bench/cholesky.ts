@@ -11,8 +11,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { multiplySymmetric, symmetricFromTriplets, type SymmetricSparse } from '../lib/field/sparse';
-import { analyzeCholesky, computeOrdering, factorNumeric } from '../lib/field/cholesky';
+import { analyzeCholesky, computeOrdering, factorNumeric, multiplySymmetric, symmetricFromTriplets, type SymmetricSparse } from '../lib/field';
 
 const DEFAULT_SIZES = [10_000, 50_000, 200_000, 800_000];
 const SOLVE_REPEATS = 9;

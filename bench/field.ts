@@ -8,7 +8,7 @@ import { execFileSync } from 'node:child_process';
 import os from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { buildDirectionField, prepareSurface, solveConnection } from '@/lib/field';
-import { torus } from '@/lib/field/shapes';
+import { torus } from '@/tests/fixtures/shapes';
 
 const sizes: [number, number][] = [
   [100, 100],

@@ -10,19 +10,18 @@
  * guide count are those of its fastest run. The load average is printed with the table.
  */
 import { cpus, loadavg } from 'node:os';
-import { torus } from '../lib/field/shapes';
-import { encodeImage } from '../lib/groom/encode-image';
+import { torus } from '../tests/fixtures/shapes';
+import { encodeImage } from '../lib/groom/render/encode-image';
 import {
-  fieldToPly,
+  EXPORT_FORMATS,
+  EXPORT_FORMAT_FACTS,
   growGuides,
-  guidesToGltf,
-  guidesToObj,
-  guidesToUsda,
   parseGroomSpec,
   prepareGroomSurface,
   renderThumbnail,
   solveGroomField,
-  specToJson,
+  writeExport,
+  type ExportSource,
   type GroomSpecInput,
 } from '../lib/groom';
 
@@ -90,15 +89,11 @@ for (const count of [5_000, 50_000]) {
   row(`${count} guides × 16: total`, grown.ms);
   large = grown.result;
 }
-const guides = large!.guides;
-const spec = parseGroomSpec(specFor(50_000));
-row('export .usda linear (50,000 guides)', best(() => guidesToUsda(guides, 'linear')).ms);
-row('export .usda pinned B-spline (50,000 guides)', best(() => guidesToUsda(guides, 'bspline')).ms);
-row('export .gltf (50,000 guides)', best(() => guidesToGltf(guides, { binary: false })).ms);
-row('export .glb (50,000 guides)', best(() => guidesToGltf(guides, { binary: true })).ms);
-row('export .obj (50,000 guides)', best(() => guidesToObj(guides)).ms);
-row('export spec .json', best(() => specToJson(spec)).ms);
-row(`export field .ply (${faces} faces)`, best(() => fieldToPly(mesh, solved.result.field)).ms);
+const made = { spec: parseGroomSpec(specFor(50_000)), surface, solved: solved.result, guides: large!.guides };
+const SCALE: Record<ExportSource, string> = { guides: ' (50,000 guides)', field: ` (${faces} faces)`, spec: '' };
+for (const format of EXPORT_FORMATS) {
+  row(`export ${format}${SCALE[EXPORT_FORMAT_FACTS[format].source]}`, best(() => writeExport(format, made)).ms);
+}
 const thumbnailGuides = growGuides(surface, solved.result, parseGroomSpec(specFor(5_000))).guides;
 const image = best(() => renderThumbnail(mesh, thumbnailGuides, { size: 1024, view: 'top', upAxis: 'z', colourBy: 'length' }));
 row('thumbnail 1024² render (5,000 guides)', image.ms);

@@ -14,20 +14,19 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
 import { FieldError, indexBudget, readSurface, solveField } from '../lib/field';
-import { encodeImage } from '../lib/groom/encode-image';
+import { encodeImage } from '../lib/groom/render/encode-image';
 import {
+  EXPORT_EXTENSIONS,
+  EXPORT_FORMAT_FACTS,
   GroomError,
   fieldRequestFromSpec,
-  fieldToPly,
+  formatOfExtension,
   growGuides,
-  guidesToGltf,
-  guidesToObj,
-  guidesToUsda,
   parseGroomSpecJson,
   prepareGroomSurface,
   renderThumbnail,
-  specToJson,
   THUMBNAIL_VIEWS,
+  writeExport,
   type GuideColouring,
   type ThumbnailView,
   type UsdCurveBasis,
@@ -35,7 +34,8 @@ import {
 
 class UsageError extends Error {}
 
-const OUT_FORMATS = ['.usda', '.gltf', '.glb', '.obj', '.json'];
+/** Extensions --out takes: every export format's but the field's, which has its own --field. */
+const OUT_FORMATS = EXPORT_EXTENSIONS.filter((extension) => EXPORT_FORMAT_FACTS[formatOfExtension(extension)!].source !== 'field');
 
 function parseCommandLine(argv: string[]) {
   const { values } = parseArgs({
@@ -113,18 +113,12 @@ async function main(argv: string[]): Promise<void> {
   const solved = time('solve field', () => solveField(surface.field, request));
   const grown = time('grow guides', () => growGuides(surface, solved, spec));
   const { guides } = grown;
+  const made = { spec, surface, solved, guides };
   for (const out of options.out) {
     const ext = extname(out).toLowerCase();
-    time(`write ${ext}`, () => {
-      const bytes =
-        ext === '.usda' ? guidesToUsda(guides, options.basis)
-        : ext === '.obj' ? guidesToObj(guides)
-        : ext === '.json' ? specToJson(spec)
-        : guidesToGltf(guides, { binary: ext === '.glb' });
-      writeFileSync(out, bytes);
-    });
+    time(`write ${ext}`, () => writeFileSync(out, writeExport(formatOfExtension(ext)!, made, { basis: options.basis })));
   }
-  if (options.field) time('write field', () => writeFileSync(options.field!, fieldToPly(read.mesh, solved.field)));
+  if (options.field) time('write field', () => writeFileSync(options.field!, writeExport('ply', made)));
   for (const path of options.thumbnails) {
     const image = time(`render ${options.size}²`, () => renderThumbnail(read.mesh, guides, { size: options.size, view: options.view, upAxis: spec.upAxis, colourBy: options.colour }));
     const t0 = performance.now();

@@ -1,4 +1,4 @@
-// The small HTTP JSON servers of the stand-ins (the mail sink's endpoint, the payments fake).
+// The small HTTP JSON servers of the stand-ins (the mail sink's endpoint).
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 
 export type JsonReply = (status: number, body: unknown) => void;

@@ -7,7 +7,7 @@
 import type { Knex } from 'knex';
 import { DEMO_ACCOUNTS } from '../demo-scenario';
 import { closeDb } from '../../lib/platform/db';
-import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom';
+import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom/demo';
 import type { SurfaceUnits } from '../../lib/studio/types';
 import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
 import type { Groomer } from '../../lib/accounts/actor';

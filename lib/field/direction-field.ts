@@ -1,8 +1,13 @@
+/**
+ * The field a groomer sees: one direction carried over the surface with a solved connection,
+ * so that it turns exactly as the connection says and nowhere else, plus a blended direction per
+ * vertex for drawing and for growing hair between faces.
+ */
 import { dualPieces, type ConnectionResult, type FieldSurface } from './connection';
-import { crossingSign } from './dual-chains';
-import { faceAreas, vertexNormals } from './geometry';
-import { faceOfHalfedge } from './topology';
-import { angleInFace } from './transport';
+import { crossingSign } from './mesh/dual-chains';
+import { faceAreas, vertexNormals } from './mesh/geometry';
+import { faceOfHalfedge } from './mesh/topology';
+import { angleInFace } from './mesh/transport';
 
 /** A direction field on the faces, and its smoothed version at the vertices. */
 export interface DirectionField {

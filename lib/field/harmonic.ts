@@ -1,9 +1,15 @@
-import { factorCholesky, type CholeskyFactor } from './cholesky';
-import { factorDenseLU } from './dense';
-import { cornerAngles, faceAreas } from './geometry';
-import { FieldError, type TriangleMesh } from './mesh';
-import { symmetricFromTriplets } from './sparse';
-import { nextHalfedge, prevHalfedge } from './topology';
+/**
+ * Smooth values between pinned ones (length, lift, density…): a groomer sets a few vertices and
+ * every other vertex gets the smoothest blend, with the surface factored once so that moving a pin
+ * stays interactive.
+ */
+import { factorCholesky, type CholeskyFactor } from './linalg/cholesky';
+import { factorDenseLU } from './linalg/dense';
+import { cornerAngles, faceAreas } from './mesh/geometry';
+import { FieldError } from './mesh/errors';
+import type { TriangleMesh } from './mesh/mesh';
+import { symmetricFromTriplets } from './linalg/sparse';
+import { nextHalfedge, prevHalfedge } from './mesh/topology';
 
 /** A value of a scalar attribute (length, lift, density…) pinned at a vertex. */
 export interface Pin {

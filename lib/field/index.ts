@@ -1,12 +1,21 @@
 /**
  * Whorlwind's field engine: direction fields with singularities exactly where they are placed,
  * by trivial connections. Plain TypeScript on typed arrays; runs in a Web Worker and on the server.
- * See README.md beside this file for what each function guarantees.
+ * See README.md beside this file for what each function guarantees. Code outside lib/field
+ * imports from here only.
  */
-export { FieldError, type TriangleMesh, type FaceGroups } from './mesh';
-export { buildTopology, type Topology } from './topology';
-export { cornerAngles, angleDefects, faceAreas, faceNormals, vertexNormals, surfaceArea, boundingBox, eulerCharacteristic, componentFacts, genus, type ComponentFacts, type BoundingBox } from './geometry';
-export { buildFaceFrames, type FaceFrames } from './transport';
+export { now } from './clock';
+
+// The surface: mesh, errors, halfedges, geometry, frames, reading and checking files.
+export { FieldError } from './mesh/errors';
+export type { TriangleMesh, FaceGroups } from './mesh/mesh';
+export { buildTopology, nextHalfedge, prevHalfedge, nextAroundVertex, type Topology } from './mesh/topology';
+export { cornerAngles, angleDefects, faceAreas, faceNormals, vertexNormals, surfaceArea, boundingBox, eulerCharacteristic, componentFacts, genus, type ComponentFacts, type BoundingBox } from './mesh/geometry';
+export { buildFaceFrames, type FaceFrames } from './mesh/transport';
+export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult } from './mesh/read';
+export { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from './mesh/check';
+
+// The field: the connection, the directions it carries, and the proof by measured indices.
 export {
   prepareSurface,
   indexBudget,
@@ -24,5 +33,7 @@ export { buildDirectionField, type DirectionField, type FieldStart } from './dir
 export { measureIndices, compareIndices, type IndexMismatch } from './indices';
 export { solveField, type SolvedField } from './solve-field';
 export { prepareHarmonic, type HarmonicInterpolator, type Pin } from './harmonic';
-export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult } from './read';
-export { checkSurface, checkSurfaceFile, type SurfaceReport } from './check';
+
+// The sparse linear algebra underneath, for benchmarks that time its stages (bench/cholesky.ts).
+export { symmetricFromTriplets, multiplySymmetric, type SymmetricSparse } from './linalg/sparse';
+export { analyzeCholesky, computeOrdering, factorNumeric } from './linalg/cholesky';

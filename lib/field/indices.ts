@@ -1,7 +1,11 @@
+/**
+ * The engine's proof: the index of the built field at every vertex, measured from positions and
+ * face directions alone, to be compared with what was asked rather than trusted from the solver.
+ */
 import type { ConnectionResult, FieldSurface } from './connection';
-import { faceNormals } from './geometry';
-import { nextAroundVertex, nextHalfedge } from './topology';
-import { TWO_PI, wrapAngleForOrder } from './transport';
+import { faceNormals } from './mesh/geometry';
+import { nextAroundVertex, nextHalfedge } from './mesh/topology';
+import { TWO_PI, wrapAngleForOrder } from './mesh/transport';
 
 /**
  * Measures the index of a face field at every vertex from the field alone: around the vertex, the

@@ -1,7 +1,12 @@
+/**
+ * The one call an editor makes per edit: solve, build the field, and measure it independently,
+ * so that a field with a singularity the groomer did not place never leaves the engine.
+ */
+import { now } from './clock';
 import { solveConnection, type ConnectionResult, type FieldRequest, type FieldSurface } from './connection';
 import { buildDirectionField, type DirectionField } from './direction-field';
 import { compareIndices, measureIndices, type IndexMismatch } from './indices';
-import { FieldError, describeFirst } from './mesh';
+import { FieldError, describeFirst } from './mesh/errors';
 
 /** Everything a solve produces, with the proof that it did what was asked. */
 export interface SolvedField {
@@ -11,8 +16,6 @@ export interface SolvedField {
   readonly measuredIndex: Float64Array;
   readonly timings: { readonly solveMilliseconds: number; readonly fieldMilliseconds: number; readonly measureMilliseconds: number };
 }
-
-const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 /**
  * Solves the connection, builds the field and measures its indices independently.

@@ -1,8 +1,9 @@
 /**
  * Whorlwind's groom library: guide curves grown along a direction field, the groom spec, exports
  * and thumbnails. Plain TypeScript on typed arrays; runs in a Web Worker and on the server. The
- * one Node-only part, image encoding with sharp, lives in `./encode-image` and is not exported
- * here. README.md beside this file documents the spec and the exports.
+ * one Node-only part, image encoding with sharp, lives in `./render/encode-image` and is not
+ * exported here; nor are the demo grooms (`./demo`). README.md beside this file documents the
+ * spec and the exports.
  */
 export { GroomError } from './errors';
 export {
@@ -25,22 +26,22 @@ export {
   type PinAttribute,
   type SpecProblem,
   type Unit,
-} from './spec';
-export { prepareGroomSurface, type GroomSurface } from './surface';
-export { fieldRequestFromSpec, solveGroomField, downOf } from './request';
-export { growGuides, MAX_GUIDES, type Guides, type GrowResult } from './guides';
-export { sampleRoots, type Roots, type RootRequest } from './roots';
-export { createTracer, STOP, type StopReason, type Tracer } from './trace';
-export { shapeGuide, type ShapeParameters } from './shape';
-export { buildSkin, SKIN_QUERY_SIZE, type Skin } from './skin';
-export { growthMask } from './regions';
-export { blendPins, type PinnedFactors } from './pins';
-export { vertexOfPlace, surfacePointOf, edgePath } from './place';
-export { guidesToUsda, type UsdCurveBasis } from './usda';
-export { guidesToGltf } from './gltf';
-export { guidesToObj } from './obj';
-export { fieldToPly } from './field-ply';
-export { renderThumbnail, THUMBNAIL_VIEWS, type ThumbnailView, type GuideColouring, type RgbaImage, type RenderOptions } from './render';
-export { HUMAN_SCALP_PRESET } from './presets';
-export { DEMO_GROOMS, DEMO_STUDIO, type DemoGroom } from './demo/grooms';
-export { surfaceToObj } from './demo/obj';
+} from './spec/spec';
+export { HUMAN_SCALP_PRESET } from './spec/presets';
+export { prepareGroomSurface, type GroomSurface } from './place/surface';
+export { buildSkin, SKIN_QUERY_SIZE, type Skin } from './place/skin';
+export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
+export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
+export { blendPins, type PinnedFactors } from './place/pins';
+export { growthMask } from './place/regions';
+export { growGuides, MAX_GUIDES, type Guides, type GrowResult } from './grow/guides';
+export { sampleRoots, type Roots, type RootRequest } from './grow/roots';
+export { createTracer, STOP, type StopReason, type Tracer } from './grow/trace';
+export { shapeGuide, type ShapeParameters } from './grow/shape';
+export { EXPORT_FORMATS, EXPORT_FORMAT_FACTS, EXPORT_EXTENSIONS, formatOfExtension, type ExportFormat, type ExportFormatFacts, type ExportSource } from './export/formats';
+export { writeExport, type GroomMade, type ExportOptions } from './export/write';
+export { guidesToUsda, type UsdCurveBasis } from './export/usda';
+export { guidesToGltf } from './export/gltf';
+export { guidesToObj } from './export/obj';
+export { fieldToPly } from './export/field-ply';
+export { renderThumbnail, THUMBNAIL_VIEWS, type ThumbnailView, type GuideColouring, type RgbaImage, type RenderOptions } from './render/render';

@@ -5,20 +5,19 @@
 import { strToU8, zipSync, type Zippable } from 'fflate';
 import { readSurface } from '../field';
 import {
-  fieldToPly,
+  EXPORT_FORMAT_FACTS,
   growGuides,
-  guidesToGltf,
-  guidesToObj,
-  guidesToUsda,
   parseGroomSpec,
   prepareGroomSurface,
   renderThumbnail,
   solveGroomField,
-  specToJson,
   THUMBNAIL_VIEWS,
+  writeExport,
+  type ExportSource,
+  type GroomMade,
   type ThumbnailView,
 } from '../groom';
-import { encodeImage } from '../groom/encode-image';
+import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { getObjectBytes, putObject } from '../platform/storage';
@@ -29,16 +28,13 @@ export type Picture = { view: ThumbnailView; size: number; key: string };
 
 export const PICTURE_SIZES = [256, 1024] as const;
 
-const PACKAGE_FILES: Record<PackageFormat, string> = {
-  usda: 'guides.usda',
-  'usda-bspline': 'guides-bspline.usda',
-  gltf: 'guides.gltf',
-  glb: 'guides.glb',
-  obj: 'guides.obj',
-  json: 'groom-spec.json',
-  ply: 'field.ply',
-};
+/** A package's files are named after what they are made from: guides.usda, guides-bspline.usda, groom-spec.json, field.ply … */
+const PACKAGE_FILE_STEMS: Record<ExportSource, string> = { guides: 'guides', spec: 'groom-spec', field: 'field' };
 
+function packageFileName(format: PackageFormat): string {
+  const { source, variant, extension } = EXPORT_FORMAT_FACTS[format];
+  return [PACKAGE_FILE_STEMS[source], variant].filter(Boolean).join('-') + extension;
+}
 
 type ListingForAssets = {
   id: string;
@@ -133,6 +129,7 @@ export async function buildListingAssets(listingId: string): Promise<void> {
     const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
     const solved = solveGroomField(spec, surface);
     const { guides } = growGuides(surface, solved, spec);
+    const made: GroomMade = { spec, surface, solved, guides };
     const prefix = listingPrefix(listing.id);
 
     const pictures: Picture[] = [];
@@ -144,7 +141,7 @@ export async function buildListingAssets(listingId: string): Promise<void> {
         pictures.push({ view, size, key });
       }
     }
-    await putObject(`${prefix}/preview/guides.glb`, guidesToGltf(guides, { binary: true }), 'model/gltf-binary');
+    await putObject(`${prefix}/preview/guides.glb`, writeExport('glb', made), EXPORT_FORMAT_FACTS.glb.mediaType);
 
     const existing = await db()('listing_packages').where({ listing_id: listing.id }).first('listing_id');
     if (!existing) {
@@ -152,15 +149,8 @@ export async function buildListingAssets(listingId: string): Promise<void> {
       const entries: Zippable = {};
       const fileNames: string[] = [];
       for (const format of listing.formats) {
-        const name = PACKAGE_FILES[format];
-        const bytes =
-          format === 'usda' ? guidesToUsda(guides, 'linear')
-          : format === 'usda-bspline' ? guidesToUsda(guides, 'bspline')
-          : format === 'gltf' ? guidesToGltf(guides, { binary: false })
-          : format === 'glb' ? guidesToGltf(guides, { binary: true })
-          : format === 'obj' ? guidesToObj(guides)
-          : format === 'json' ? specToJson(spec)
-          : fieldToPly(read.mesh, solved.field);
+        const name = packageFileName(format);
+        const bytes = writeExport(format, made);
         entries[`${folder}/${name}`] = typeof bytes === 'string' ? strToU8(bytes) : bytes;
         fileNames.push(`${name} — ${FORMAT_LABELS[format]}`);
       }

@@ -1,5 +1,6 @@
 // The market's fixed words: tag vocabularies, currencies, file formats, states and sort orders.
 // Plain data, shared by the route handlers, the search and the market's pages (safe in the browser).
+import { EXPORT_FORMAT_FACTS, EXPORT_FORMATS, type ExportFormat } from '../groom/export/formats';
 
 export const ANIMALS = ['fox', 'cat', 'dog', 'wolf', 'bear', 'horse', 'deer', 'rabbit', 'rodent', 'bird', 'human', 'creature', 'toy'] as const;
 export const COAT_LENGTHS = ['short', 'medium', 'long'] as const;
@@ -22,21 +23,13 @@ export const MIN_PRICE_CENTS = 100;
 export const MAX_PRICE_CENTS = 10_000_000;
 
 /**
- * Files a preset can include: the studio's export formats. The package always holds the licence
- * text and a README besides.
+ * Files a preset can include: the studio's export formats (lib/groom's table). The package
+ * always holds the licence text and a README besides.
  */
-export const PACKAGE_FORMATS = ['usda', 'usda-bspline', 'gltf', 'glb', 'obj', 'json', 'ply'] as const;
-export type PackageFormat = (typeof PACKAGE_FORMATS)[number];
+export const PACKAGE_FORMATS = EXPORT_FORMATS;
+export type PackageFormat = ExportFormat;
 
-export const FORMAT_LABELS: Record<PackageFormat, string> = {
-  usda: 'OpenUSD BasisCurves, linear (.usda)',
-  'usda-bspline': 'OpenUSD BasisCurves, B-spline (.usda)',
-  gltf: 'glTF 2.0 line strips (.gltf)',
-  glb: 'glTF 2.0 binary (.glb)',
-  obj: 'OBJ polylines (.obj)',
-  json: 'Whorlwind groom spec (.json)',
-  ply: 'Direction field on the growth surface (.ply)',
-};
+export const FORMAT_LABELS = Object.fromEntries(PACKAGE_FORMATS.map((format) => [format, EXPORT_FORMAT_FACTS[format].label])) as Record<PackageFormat, string>;
 
 export const LISTING_STATES = ['draft', 'submitted', 'published', 'rejected', 'unlisted'] as const;
 export type ListingState = (typeof LISTING_STATES)[number];

@@ -1,5 +1,5 @@
 // The payment provider through the `stripe` SDK. With STRIPE_API_URL set (locally: the fake
-// in services/payments-fake.ts) the SDK is pointed at that host; empty means the real API.
+// in services/payments-fake/) the SDK is pointed at that host; empty means the real API.
 import Stripe from 'stripe';
 import { env } from './env';
 

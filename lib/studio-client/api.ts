@@ -13,7 +13,7 @@ import type {
   UploadTicket,
   Version,
 } from '@/lib/studio/types';
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import type { FieldErrors } from '@/lib/http/field-errors';
 
 export { EXPORT_FORMATS, SURFACE_FORMATS, SURFACE_UNITS } from '@/lib/studio/types';

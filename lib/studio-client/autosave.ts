@@ -2,7 +2,7 @@
 // revision the page last saw), one save at a time, and every outcome in words — saved, saving,
 // waiting, failed (with the server's field messages), or a conflict when the groom was saved from
 // somewhere else in the meantime. No timers of its own beyond the one delay; no React.
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import type { FieldErrors } from '@/lib/http/field-errors';
 import type { Outcome } from './api';
 

@@ -1,7 +1,7 @@
 // The editor's state as a plain value: the spec being edited with its undo and redo history, the
 // selected feature, and an unfinished gesture (a drag whose intermediate positions are shown but
 // become one history entry when the pointer is let go). Every function returns a new state.
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { featureExists, sameFeature, type FeatureRef } from './features';
 import { applySpecEdit, describeSpecEdit, type SpecEdit } from './spec-edits';
 

@@ -1,6 +1,6 @@
 // The features of a groom spec as the studio names and lists them: whorls, saddles and other
 // singularities, partings, crests, flow strokes and pins. Plain data helpers, no React.
-import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec } from '@/lib/groom/spec';
+import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec } from '@/lib/groom/spec/spec';
 
 export type Vec3 = [number, number, number];
 

@@ -15,7 +15,6 @@ import {
   type TriangleMesh,
 } from '@/lib/field';
 import {
-  DEMO_GROOMS,
   GroomError,
   createTracer,
   edgePath,
@@ -29,6 +28,7 @@ import {
   type GroomSpec,
   type GroomSurface,
 } from '@/lib/groom';
+import { DEMO_GROOMS } from '@/lib/groom/demo';
 import {
   NONZERO_LIMIT,
   type DisplayOptions,

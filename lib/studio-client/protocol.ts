@@ -1,8 +1,8 @@
 // The messages between the studio page and its field worker (field-worker.ts). The worker holds
 // the prepared growth surface and runs every solve, trace and guide growth with lib/field and
 // lib/groom — the same code the server runs for exports — so the page never waits on them.
-import type { GroomSpec } from '@/lib/groom/spec';
-import type { BoundaryMode } from '@/lib/field/connection';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
+import type { BoundaryMode } from '@/lib/field';
 
 export type Vec3 = [number, number, number];
 

@@ -1,7 +1,7 @@
 // Every change the studio makes to a groom spec, as plain data: applied by one pure function,
 // named in words for the undo history, checked with the groom library's own schema before it
 // is accepted. The spec is never changed in place.
-import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec';
+import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec/spec';
 import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureRef } from './features';
 
 export type CurveKind = 'parting' | 'crest';

@@ -2,7 +2,7 @@
 // the export was asked for, stored in object storage and downloaded through a short-lived
 // presigned URL. The job reports its stage and progress on the export's row.
 import { FieldError } from '../field';
-import { fieldToPly, GroomError, guidesToGltf, guidesToObj, guidesToUsda, parseGroomSpec, specToJson } from '../groom';
+import { EXPORT_FORMAT_FACTS, GroomError, parseGroomSpec, writeExport } from '../groom';
 import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { putObject } from '../platform/storage';
@@ -31,25 +31,22 @@ type ExportRow = {
   created_at: Date;
 };
 
-/** What each format is called in file names and served as. */
-const FORMAT_FILES: Record<ExportFormat, { suffix: string; contentType: string }> = {
-  usda: { suffix: '.usda', contentType: 'text/plain; charset=utf-8' },
-  'usda-bspline': { suffix: '-bspline.usda', contentType: 'text/plain; charset=utf-8' },
-  gltf: { suffix: '.gltf', contentType: 'model/gltf+json' },
-  glb: { suffix: '.glb', contentType: 'model/gltf-binary' },
-  obj: { suffix: '-guides.obj', contentType: 'text/plain; charset=utf-8' },
-  json: { suffix: '.json', contentType: 'application/json' },
-  ply: { suffix: '-field.ply', contentType: 'application/octet-stream' },
-};
+/** The studio's file names say what an .obj or .ply file holds, as either extension could hold a mesh too. */
+const FILE_CONTENT: Partial<Record<ExportFormat, string>> = { obj: 'guides', ply: 'field' };
 
 const QUEUED = { stage: 'waiting in the queue', progress: 0 };
 const WRITING = { stage: 'writing', progress: 0.85 };
 const STORING = { stage: 'storing the file', progress: 0.95 };
 const SERVER_FAILURE = 'The export could not be made because of a problem on the server. Try again; if it keeps failing, tell us.';
 
-/** "Bramble — autumn coat", revision 12 → "bramble-autumn-coat-r12": a file name any system accepts. */
-function fileBaseName(groomName: string, revision: number): string {
-  return `${fileSlug(groomName, 80, 'groom')}-r${revision}`;
+/**
+ * "Bramble — autumn coat", revision 12, B-spline USD → "bramble-autumn-coat-r12-bspline.usda":
+ * a file name any system accepts.
+ */
+function exportFileName(groomName: string, revision: number, format: ExportFormat): string {
+  const { variant, extension } = EXPORT_FORMAT_FACTS[format];
+  const words = [fileSlug(groomName, 80, 'groom'), `r${revision}`, variant ?? FILE_CONTENT[format]].filter(Boolean);
+  return words.join('-') + extension;
 }
 
 async function exportJob(row: ExportRow): Promise<ExportJob> {
@@ -81,7 +78,7 @@ export async function requestExport(groomer: Groomer, groomId: string, format: E
       stage: QUEUED.stage,
       spec: JSON.stringify(groom.spec),
       spec_revision: groom.revision,
-      file_name: fileBaseName(groom.name, groom.revision) + FORMAT_FILES[format].suffix,
+      file_name: exportFileName(groom.name, groom.revision, format),
     })
     .returning('*');
   try {
@@ -105,20 +102,13 @@ export async function getExport(groomer: Groomer, exportId: string): Promise<Exp
 
 /** The bytes of one format, from the spec saved on the export (solving and tracing only as far as the format needs). */
 async function exportFile(format: ExportFormat, storedSpec: unknown, surface: StoredSurfaceFile, report: StageReport): Promise<Uint8Array | string> {
-  if (format === 'json') {
-    await report(WRITING);
-    return specToJson(parseGroomSpec(storedSpec));
-  }
-  if (format === 'ply') {
-    const { surface: prepared, solved } = await solveStoredSpec(storedSpec, surface, report);
-    await report(WRITING);
-    return fieldToPly(prepared.mesh, solved.field);
-  }
-  const { guides } = await growStoredSpec(storedSpec, surface, report);
+  const { source } = EXPORT_FORMAT_FACTS[format];
+  const made =
+    source === 'spec' ? { spec: parseGroomSpec(storedSpec) }
+    : source === 'field' ? await solveStoredSpec(storedSpec, surface, report)
+    : await growStoredSpec(storedSpec, surface, report);
   await report(WRITING);
-  if (format === 'usda' || format === 'usda-bspline') return guidesToUsda(guides, format === 'usda' ? 'linear' : 'bspline');
-  if (format === 'obj') return guidesToObj(guides);
-  return guidesToGltf(guides, { binary: format === 'glb' });
+  return writeExport(format, made);
 }
 
 /**
@@ -143,7 +133,7 @@ export async function runExport({ exportId }: ExportJobData): Promise<void> {
     const bytes = await exportFile(row.format, row.spec, surface, report);
     await report(STORING);
     const key = `exports/${row.groom_id}/${exportId}/${row.file_name}`;
-    await putObject(key, bytes, FORMAT_FILES[row.format as ExportFormat].contentType);
+    await putObject(key, bytes, EXPORT_FORMAT_FACTS[row.format as ExportFormat].mediaType);
     const stored = await update({ status: 'done', stage: 'done', progress: 1, object_key: key });
     if (stored === 0) await deleteOrphanedObjects([key]);
   } catch (error) {

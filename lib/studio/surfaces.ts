@@ -2,10 +2,9 @@
 // read back, checked by lib/field, measured, and given a thumbnail — or rejected with its problems
 // and removed. A groomer only ever sees their own surfaces.
 import { randomUUID } from 'node:crypto';
-import { checkSurfaceFile, type ComponentFacts, type TriangleMesh } from '../field';
-import type { Problem } from '../field/check';
+import { checkSurfaceFile, type ComponentFacts, type Problem, type TriangleMesh } from '../field';
 import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
-import { encodeImage } from '../groom/encode-image';
+import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
 import { getObjectBytes, putObject } from '../platform/storage';

@@ -3,7 +3,7 @@
 import { randomUUID } from 'node:crypto';
 import { FieldError } from '../field';
 import { GroomError, renderThumbnail, type Guides } from '../groom';
-import { encodeImage } from '../groom/encode-image';
+import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
 import { putObject } from '../platform/storage';
 import type { ThumbnailJobData } from './jobs';

@@ -1,8 +1,8 @@
 // The shapes the studio's route handlers answer with (docs/studio-api.md). Types only, so the
 // studio's client code can import them without pulling in anything of the server.
-import type { ComponentFacts } from '../field';
-import type { Problem } from '../field/check';
+import type { ComponentFacts, Problem } from '../field';
 import type { GroomSpec } from '../groom';
+import { EXPORT_FORMATS, type ExportFormat } from '../groom/export/formats';
 
 export const SURFACE_UNITS = ['mm', 'cm', 'm', 'in'] as const;
 export type SurfaceUnits = (typeof SURFACE_UNITS)[number];
@@ -10,8 +10,8 @@ export type SurfaceUnits = (typeof SURFACE_UNITS)[number];
 export const SURFACE_FORMATS = ['obj', 'ply', 'stl', 'gltf', 'glb'] as const;
 export type SurfaceFileFormat = (typeof SURFACE_FORMATS)[number];
 
-export const EXPORT_FORMATS = ['usda', 'usda-bspline', 'gltf', 'glb', 'obj', 'json', 'ply'] as const;
-export type ExportFormat = (typeof EXPORT_FORMATS)[number];
+/** The export formats are lib/groom's (its table is plain data, safe in the browser). */
+export { EXPORT_FORMATS, type ExportFormat };
 
 export type { Problem as SurfaceProblem };
 

@@ -18,7 +18,7 @@ import {
 } from '../../lib/platform/local-services';
 import { startS3StandIn } from '../../services/s3';
 import { startSmtpSink } from '../../services/smtp-sink';
-import { startPaymentsFake } from '../../services/payments-fake';
+import { startPaymentsFake } from '../../services/payments-fake/index';
 import { migrationConfig } from '../../knexfile';
 import { CommandFailed, log, onShutdown, runCommand } from './processes';
 import { preparePostgres } from './postgres';

@@ -7,7 +7,7 @@ import { readFile } from 'node:fs/promises';
 import { expect, test, type Browser, type Page } from '@playwright/test';
 import { unzipSync, strFromU8 } from 'fflate';
 import { closeDb } from '../../lib/platform/db';
-import { DEMO_GROOMS, surfaceToObj } from '../../lib/groom';
+import { DEMO_GROOMS, surfaceToObj } from '../../lib/groom/demo';
 import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
 import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
 

@@ -11,7 +11,7 @@ import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
 import { closeDb } from '../../lib/platform/db';
 import { surfaceToObj } from '../../lib/groom/demo/obj';
 import { FOX, foxHead } from '../../lib/groom/demo/surfaces';
-import { parseGroomSpecJson } from '../../lib/groom/spec';
+import { parseGroomSpecJson } from '../../lib/groom/spec/spec';
 import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
 import { STAGE_BACKGROUND, openPanel, pixelStats, typeNumber, typePoint, waitForField, waitForSaved } from './studio-helpers';
 

@@ -7,7 +7,8 @@ import { DEMO_ACCOUNTS } from '@/db/demo-scenario';
 import { seed } from '@/db/seeds/10_studio_demo';
 import { closeDb, db } from '@/lib/platform/db';
 import { env } from '@/lib/platform/env';
-import { DEMO_GROOMS, parseGroomSpec } from '@/lib/groom';
+import { parseGroomSpec } from '@/lib/groom';
+import { DEMO_GROOMS } from '@/lib/groom/demo';
 import { storedObjectSize } from '@/lib/studio/storage';
 import { migrationConfig } from '@/knexfile';
 

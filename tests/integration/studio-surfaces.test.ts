@@ -10,7 +10,7 @@ import { closeDb, db } from '@/lib/platform/db';
 import { env } from '@/lib/platform/env';
 import { storageClient } from '@/lib/platform/storage';
 import { sweepAbandonedUploads } from '@/lib/studio/surfaces';
-import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
+import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { env } from '@/lib/platform/env';
 import { storageClient } from '@/lib/platform/storage';
-import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom';
+import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 

@@ -3,7 +3,7 @@
 // what remains, and one action to put the remainder where the groomer picks), and what the
 // independent measurement of the solved field found — the proof that the field has exactly the
 // singularities that were placed.
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { formatIndex } from '@/lib/studio-client/features';
 import type { OpenedSurface, SolveReport } from '@/lib/studio-client/protocol';
 

@@ -5,7 +5,7 @@
 import type { ThreeEvent } from '@react-three/fiber';
 import { memo, useMemo, type RefObject } from 'react';
 import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
 import type { GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio-client/protocol';
 import { guideSegments } from '@/lib/studio-client/surface-geometry';

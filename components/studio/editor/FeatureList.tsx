@@ -3,7 +3,7 @@
 // twist and turn, a curve's points, a pin's value — with the measured index beside the requested
 // one. Reachable by keyboard from top to bottom; the picked feature opens its fields.
 import { memo } from 'react';
-import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec } from '@/lib/groom/spec';
+import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec } from '@/lib/groom/spec/spec';
 import { featureLabel, formatIndex, listFeatures, roundPoint, sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
 import type { SolveReport } from '@/lib/studio-client/protocol';
 import { NumberField } from '../ui/NumberField';

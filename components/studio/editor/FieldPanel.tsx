@@ -2,7 +2,7 @@
 // Settings of the field itself (its order, how it meets the border, an overall turn, the up axis)
 // and of how the stage draws it (strokes or streamlines, and how many).
 import { useState } from 'react';
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import type { DisplayOptions, OpenedSurface } from '@/lib/studio-client/protocol';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './Workspace';

@@ -1,5 +1,5 @@
 // The guide setting a pin scales, chosen from lib/groom's pin attributes.
-import { PIN_ATTRIBUTES, type PinAttribute } from '@/lib/groom/spec';
+import { PIN_ATTRIBUTES, type PinAttribute } from '@/lib/groom/spec/spec';
 
 export function PinAttributeSelect({ value, onChange }: { value: PinAttribute; onChange: (attribute: PinAttribute) => void }) {
   return (

@@ -3,7 +3,7 @@
 // (it becomes the saved spec, and one undo takes the editor back to what it was before).
 import { useState, type FormEvent } from 'react';
 import useSWR from 'swr';
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { fetchStudio, studioApi, type GroomVersion, type StudioRequestError } from '@/lib/studio-client/api';
 import { Notice } from '@/components/ui/Notice';
 import { ConfirmDialog } from '../ui/ConfirmDialog';

@@ -6,7 +6,7 @@
 import type { ThreeEvent } from '@react-three/fiber';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { Mesh } from 'three';
-import type { GroomSpec } from '@/lib/groom/spec';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { Autosaver, type SaveStatus } from '@/lib/studio-client/autosave';
 import { studioApi, type GroomVersion } from '@/lib/studio-client/api';
 import {

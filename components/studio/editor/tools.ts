@@ -1,5 +1,5 @@
 // The editor's ways of working on the surface, named in Whorlwind's words.
-import type { PinAttribute } from '@/lib/groom/spec';
+import type { PinAttribute } from '@/lib/groom/spec/spec';
 
 export type Tool = 'look' | 'whorl' | 'saddle' | 'singularity' | 'parting' | 'crest' | 'flow' | 'pin' | 'remainder';
 

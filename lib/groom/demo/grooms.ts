@@ -1,5 +1,5 @@
 import type { TriangleMesh } from '../../field';
-import type { GroomSpecInput } from '../spec';
+import type { GroomSpecInput } from '../spec/spec';
 import { CAT, FOX, RING, foxHead, longCat, plushRing } from './surfaces';
 
 /**

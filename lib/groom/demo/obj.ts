@@ -1,5 +1,5 @@
 import type { TriangleMesh } from '../../field';
-import { AsciiWriter } from '../ascii';
+import { AsciiWriter } from '../export/ascii';
 
 /**
  * A demo surface as OBJ text, with a `g` line wherever the face group changes, so that reading

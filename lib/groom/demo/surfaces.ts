@@ -1,4 +1,4 @@
-import { icosphere, torus, uvSphere } from '../../field/shapes';
+import { icosphere, torus, uvSphere } from './primitives';
 import type { TriangleMesh } from '../../field';
 
 /**

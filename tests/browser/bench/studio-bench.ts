@@ -12,7 +12,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { expect, test, type Page } from '@playwright/test';
 import { closeDb, db } from '../../../lib/platform/db';
-import { uvSphere } from '../../../lib/field/shapes';
+import { uvSphere } from '../../fixtures/shapes';
 import { surfaceToObj } from '../../../lib/groom/demo/obj';
 import { confirmedAccount, signInThroughForm } from '../helpers';
 import { waitForField } from '../studio-helpers';

@@ -1,10 +1,11 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from '@/lib/field/check';
-import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/lib/field/shapes';
-import { buildTopology } from '@/lib/field/topology';
+import { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from '@/lib/field/mesh/check';
+import { FieldError } from '@/lib/field/mesh/errors';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/tests/fixtures/shapes';
+import { buildTopology } from '@/lib/field/mesh/topology';
 import { concatenate, stanfordBunny } from './surfaces';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));
@@ -175,7 +176,7 @@ describe('checkSurface on hostile meshes', () => {
     .map(({ positions, triangles }) => meshOf(positions, triangles.flat()));
 
   it('never throws, and agrees with buildTopology about what breaks the connectivity', () => {
-    // The reference for agreement is lib/field/topology.ts's buildTopology, which the field
+    // The reference for agreement is lib/field/mesh/topology.ts's buildTopology, which the field
     // engine uses: it must accept exactly the meshes the checker finds manifold and oriented.
     fc.assert(
       fc.property(fc.oneof(smallMesh, plausibleMesh), (mesh) => {

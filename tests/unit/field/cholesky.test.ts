@@ -1,7 +1,7 @@
 import { describe, expect, it, afterAll } from 'vitest';
 import fc from 'fast-check';
 import { CholeskyDecomposition, inverse, Matrix, solve as denseSolve } from 'ml-matrix';
-import { multiplySymmetric, symmetricFromTriplets, type SymmetricSparse } from '@/lib/field/sparse';
+import { multiplySymmetric, symmetricFromTriplets, type SymmetricSparse } from '@/lib/field/linalg/sparse';
 import {
   analyzeCholesky,
   computeOrdering,
@@ -9,8 +9,10 @@ import {
   factorNumeric,
   NotPositiveDefiniteError,
   type CholeskyOptions,
-} from '@/lib/field/cholesky';
-import { graphOfSymmetric, minimumDegreeOrder, nestedDissectionOrder } from '@/lib/field/ordering';
+} from '@/lib/field/linalg/cholesky';
+import { graphOfSymmetric } from '@/lib/field/linalg/ordering/graph';
+import { minimumDegreeOrder } from '@/lib/field/linalg/ordering/minimum-degree';
+import { nestedDissectionOrder } from '@/lib/field/linalg/ordering/nested-dissection';
 
 type Ordering = NonNullable<CholeskyOptions['ordering']>;
 const ORDERINGS: Ordering[] = ['auto', 'nested-dissection', 'minimum-degree', 'natural'];

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { prepareSurface, type BoundaryMode } from '@/lib/field/connection';
-import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
-import { disc, icosphere, torus } from '@/lib/field/shapes';
+import { FieldError } from '@/lib/field/mesh/errors';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import { disc, icosphere, torus } from '@/tests/fixtures/shapes';
 import { solveField } from '@/lib/field/solve-field';
 
 /** Moves every vertex by up to `amount` (relative to `scale`) in a seeded pseudo-random direction. */

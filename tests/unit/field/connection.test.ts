@@ -1,12 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { Matrix, pseudoInverse } from 'ml-matrix';
 import { indexBudget, prepareSurface, solveConnection, type FieldSurface } from '@/lib/field/connection';
-import { vertexFan } from '@/lib/field/dual-chains';
-import { FieldError, type TriangleMesh } from '@/lib/field/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/lib/field/shapes';
+import { vertexFan } from '@/lib/field/mesh/dual-chains';
+import { FieldError } from '@/lib/field/mesh/errors';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import { disc, genusTwoSurface, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/tests/fixtures/shapes';
 import { solveField } from '@/lib/field/solve-field';
-import { nextHalfedge } from '@/lib/field/topology';
-import { wrapAngle, wrapAngleForOrder } from '@/lib/field/transport';
+import { nextHalfedge } from '@/lib/field/mesh/topology';
+import { wrapAngle, wrapAngleForOrder } from '@/lib/field/mesh/transport';
 import { stanfordBunny } from './surfaces';
 import { edgePath, spreadVertices } from './support';
 

@@ -11,10 +11,10 @@ import {
   genus,
   surfaceArea,
   vertexNormals,
-} from '@/lib/field/geometry';
-import type { TriangleMesh } from '@/lib/field/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, torus, uvSphere } from '@/lib/field/shapes';
-import { buildTopology } from '@/lib/field/topology';
+} from '@/lib/field/mesh/geometry';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import { disc, genusTwoSurface, gridPlane, icosphere, torus, uvSphere } from '@/tests/fixtures/shapes';
+import { buildTopology } from '@/lib/field/mesh/topology';
 import { concatenate, stanfordBunny } from './surfaces';
 
 const TWO_PI = 2 * Math.PI;

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { prepareHarmonic } from '@/lib/field/harmonic';
-import { FieldError } from '@/lib/field/mesh';
-import { disc, gridPlane, icosphere } from '@/lib/field/shapes';
-import { buildTopology } from '@/lib/field/topology';
+import { FieldError } from '@/lib/field/mesh/errors';
+import { disc, gridPlane, icosphere } from '@/tests/fixtures/shapes';
+import { buildTopology } from '@/lib/field/mesh/topology';
 
 describe('harmonic interpolation of pinned values', () => {
   it('reproduces a linear function on a flat mesh from its boundary values', () => {

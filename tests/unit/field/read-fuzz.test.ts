@@ -2,9 +2,9 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { Document, WebIO } from '@gltf-transform/core';
-import { FieldError } from '@/lib/field/mesh';
-import { readSurface } from '@/lib/field/read';
-import { torus } from '@/lib/field/shapes';
+import { FieldError } from '@/lib/field/mesh/errors';
+import { readSurface } from '@/lib/field/mesh/read';
+import { torus } from '@/tests/fixtures/shapes';
 
 // Property-based robustness: whatever the bytes, a reader returns a well-formed mesh or throws a
 // FieldError, quickly (fast-check, Dubien, https://fast-check.dev).

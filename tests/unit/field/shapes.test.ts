@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { faceAreas, faceNormals } from '@/lib/field/geometry';
-import type { TriangleMesh } from '@/lib/field/mesh';
-import { disc, genusTwoSurface, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/lib/field/shapes';
-import { buildTopology } from '@/lib/field/topology';
+import { faceAreas, faceNormals } from '@/lib/field/mesh/geometry';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import { disc, genusTwoSurface, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/tests/fixtures/shapes';
+import { buildTopology } from '@/lib/field/mesh/topology';
 
 /** Signed volume enclosed by a closed mesh; positive when its faces wind counter-clockwise seen from outside. */
 function signedVolume(mesh: TriangleMesh): number {

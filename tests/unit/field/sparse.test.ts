@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { Matrix } from 'ml-matrix';
-import { multiplySymmetric, symmetricFromTriplets } from '@/lib/field/sparse';
+import { multiplySymmetric, symmetricFromTriplets } from '@/lib/field/linalg/sparse';
 
 describe('symmetricFromTriplets', () => {
   it('mirrors upper entries, sums duplicates and sorts rows within columns', () => {

@@ -1,6 +1,6 @@
-import type { TriangleMesh } from '@/lib/field/mesh';
-import type { Topology } from '@/lib/field/topology';
-import { nextAroundVertex, nextHalfedge } from '@/lib/field/topology';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
+import type { Topology } from '@/lib/field/mesh/topology';
+import { nextAroundVertex, nextHalfedge } from '@/lib/field/mesh/topology';
 
 /** `count` vertices spread over the surface by farthest-point sampling (Euclidean), starting at `first`. */
 export function spreadVertices(mesh: TriangleMesh, count: number, first = 0): number[] {

@@ -1,5 +1,5 @@
 import * as bunny from 'bunny';
-import type { TriangleMesh } from '@/lib/field/mesh';
+import type { TriangleMesh } from '@/lib/field/mesh/mesh';
 
 /** The Stanford bunny as the `bunny` package stores it (Stanford 3D Scanning Repository). */
 export function stanfordBunny(): TriangleMesh {

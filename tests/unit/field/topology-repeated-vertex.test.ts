@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildTopology } from '@/lib/field/topology';
+import { buildTopology } from '@/lib/field/mesh/topology';
 
 describe('buildTopology on a face that uses a vertex twice', () => {
   it('refuses it instead of making a side its own twin', () => {

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { AsciiWriter } from '@/lib/groom/ascii';
+import { AsciiWriter } from '@/lib/groom/export/ascii';
 
 describe('ASCII number writer', () => {
   it('writes numbers that read back within half a unit of the last decimal kept', () => {

@@ -3,7 +3,7 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { icosphere } from '@/lib/field/shapes';
+import { icosphere } from '@/tests/fixtures/shapes';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
 
 const launcher = join(process.cwd(), 'bin', 'whorlwind-groom.mjs');

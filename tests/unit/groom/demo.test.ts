@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { eulerCharacteristic, buildTopology, readSurface } from '@/lib/field';
 import { DEMO_GROOMS, DEMO_STUDIO } from '@/lib/groom/demo/grooms';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
-import { solveGroomField } from '@/lib/groom/request';
-import { parseGroomSpec } from '@/lib/groom/spec';
-import { prepareGroomSurface } from '@/lib/groom/surface';
+import { solveGroomField } from '@/lib/groom/place/request';
+import { parseGroomSpec } from '@/lib/groom/spec/spec';
+import { prepareGroomSurface } from '@/lib/groom/place/surface';
 import { groomOn } from './support';
 
 describe(`demo grooms of ${DEMO_STUDIO}`, () => {

@@ -4,12 +4,12 @@ import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { PLYLoader } from 'three/examples/jsm/loaders/PLYLoader.js';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { icosphere, torus } from '@/lib/field/shapes';
-import { fieldToPly } from '@/lib/groom/field-ply';
-import { guidesToGltf } from '@/lib/groom/gltf';
-import type { Guides } from '@/lib/groom/guides';
-import { guidesToObj } from '@/lib/groom/obj';
-import { guidesToUsda, type UsdCurveBasis } from '@/lib/groom/usda';
+import { icosphere, torus } from '@/tests/fixtures/shapes';
+import { fieldToPly } from '@/lib/groom/export/field-ply';
+import { guidesToGltf } from '@/lib/groom/export/gltf';
+import type { Guides } from '@/lib/groom/grow/guides';
+import { guidesToObj } from '@/lib/groom/export/obj';
+import { guidesToUsda, type UsdCurveBasis } from '@/lib/groom/export/usda';
 import { groomOn } from './support';
 
 let sphere: ReturnType<typeof groomOn>;

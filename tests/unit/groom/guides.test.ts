@@ -1,11 +1,11 @@
 import { BufferAttribute, BufferGeometry, DoubleSide, Mesh, MeshBasicMaterial, Raycaster, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import type { TriangleMesh } from '@/lib/field';
-import { gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/lib/field/shapes';
-import { prepareGroomSurface } from '@/lib/groom/surface';
-import { solveGroomField } from '@/lib/groom/request';
-import { parseGroomSpec } from '@/lib/groom/spec';
-import { createTracer, STOP } from '@/lib/groom/trace';
+import { gridPlane, icosphere, latitudeRingVertices, torus, uvSphere } from '@/tests/fixtures/shapes';
+import { prepareGroomSurface } from '@/lib/groom/place/surface';
+import { solveGroomField } from '@/lib/groom/place/request';
+import { parseGroomSpec } from '@/lib/groom/spec/spec';
+import { createTracer, STOP } from '@/lib/groom/grow/trace';
 import { groomOn } from './support';
 
 /**

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { faceAreas, surfaceArea } from '@/lib/field';
-import { icosphere } from '@/lib/field/shapes';
+import { icosphere } from '@/tests/fixtures/shapes';
 import { GroomError } from '@/lib/groom/errors';
-import { HUMAN_SCALP_PRESET } from '@/lib/groom/presets';
-import { growthMask } from '@/lib/groom/regions';
-import { sampleRoots } from '@/lib/groom/roots';
+import { HUMAN_SCALP_PRESET } from '@/lib/groom/spec/presets';
+import { growthMask } from '@/lib/groom/place/regions';
+import { sampleRoots } from '@/lib/groom/grow/roots';
 import { nearestNeighbourDistances, withGroups } from './support';
 
 describe('guide roots', () => {

@@ -2,9 +2,9 @@ import { BufferAttribute, BufferGeometry, Vector3 } from 'three';
 import { MeshBVH } from 'three-mesh-bvh';
 import { describe, expect, it } from 'vitest';
 import { buildTopology } from '@/lib/field';
-import { genusTwoSurface, torus } from '@/lib/field/shapes';
-import { buildSkin, SKIN_QUERY_SIZE } from '@/lib/groom/skin';
-import { randomStream } from '@/lib/groom/random';
+import { genusTwoSurface, torus } from '@/tests/fixtures/shapes';
+import { buildSkin, SKIN_QUERY_SIZE } from '@/lib/groom/place/skin';
+import { randomStream } from '@/lib/groom/grow/random';
 
 describe('skin index', () => {
   it('finds the same closest distance as three-mesh-bvh’s own closest-point query', () => {

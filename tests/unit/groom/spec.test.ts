@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { GroomError } from '@/lib/groom/errors';
-import { parseGroomSpec, parseGroomSpecJson, SPEC_VERSION, specToJson, validateGroomSpec } from '@/lib/groom/spec';
+import { parseGroomSpec, parseGroomSpecJson, SPEC_VERSION, specToJson, validateGroomSpec } from '@/lib/groom/spec/spec';
 
 /** The fixed core of the spec exactly as DESIGN.md publishes it (specVersion 1). */
 const FIXED_CORE_EXAMPLE = {

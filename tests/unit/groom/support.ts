@@ -1,8 +1,8 @@
 import type { TriangleMesh } from '@/lib/field';
-import { growGuides } from '@/lib/groom/guides';
-import { solveGroomField } from '@/lib/groom/request';
-import { parseGroomSpec, type GroomSpecInput } from '@/lib/groom/spec';
-import { prepareGroomSurface } from '@/lib/groom/surface';
+import { growGuides } from '@/lib/groom/grow/guides';
+import { solveGroomField } from '@/lib/groom/place/request';
+import { parseGroomSpec, type GroomSpecInput } from '@/lib/groom/spec/spec';
+import { prepareGroomSurface } from '@/lib/groom/place/surface';
 
 /** Prepares, solves and grows a spec on a mesh, as the app does. */
 export function groomOn(mesh: TriangleMesh, input: GroomSpecInput) {

@@ -1,8 +1,8 @@
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import { icosphere } from '@/lib/field/shapes';
-import { encodeImage, encodeThumbnails } from '@/lib/groom/encode-image';
-import { renderThumbnail } from '@/lib/groom/render';
+import { icosphere } from '@/tests/fixtures/shapes';
+import { encodeImage, encodeThumbnails } from '@/lib/groom/render/encode-image';
+import { renderThumbnail } from '@/lib/groom/render/render';
 import { groomOn, withGroups } from './support';
 
 const BACKGROUND = [246, 244, 240];

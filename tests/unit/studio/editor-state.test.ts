@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
-import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec';
+import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
 import {
   applyEdit,
   canRedo,

@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
-import { fieldRequestFromSpec } from '@/lib/groom/request';
-import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec';
+import { fieldRequestFromSpec } from '@/lib/groom/place/request';
+import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
 import { FieldEngine } from '@/lib/studio-client/field-engine';
 import type { OpenedSurface, ProgressReport } from '@/lib/studio-client/protocol';
 

@@ -1,0 +1,191 @@
+/**
+ * The trivial connection: the smallest extra rotations per edge that give every vertex ring,
+ * generator, stroke and curve the holonomy asked of it. This file is the solve itself; the room's
+ * other files prepare the surface, check the request, lay out curves and solve the rows.
+ */
+import { now } from '../clock';
+import { homologyGenerators, shortestDualPath, vertexFan, type DualChain } from '../mesh/dual-chains';
+import { FieldError } from '../mesh/errors';
+import { faceOfHalfedge } from '../mesh/topology';
+import { TWO_PI, angleInFace } from '../mesh/transport';
+import { validateRequest } from './budget';
+import { dualPieces, layOutCurves } from './curves';
+import type { ConnectionResult, FieldRequest } from './request';
+import { solveRows, type ExtraRow } from './schur-rows';
+import type { FieldSurface } from './surface';
+
+export type { BoundaryMode, ConnectionResult, CurveFeature, FaceAlignment, FieldRequest, PointSingularity } from './request';
+export { prepareSurface, type FieldSurface } from './surface';
+export { indexBudget, type IndexBudget } from './budget';
+export { dualPieces } from './curves';
+
+/** Σ sign·values[edge] along a chain. */
+function chainSum(chain: DualChain, values: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < chain.edges.length; i++) s += chain.signs[i] * values[chain.edges[i]];
+  return s;
+}
+
+/** The value of Σ sign·angle along `chain` that turns `fromTarget` into `toTarget` with the multiple of 2π/n nearest `preferred`. */
+function alignmentValue(surface: FieldSurface, chain: DualChain, fromTarget: number, toTarget: number, order: number, preferred: number): number {
+  const base = toTarget - fromTarget - chainSum(chain, surface.frames.edgeRotation);
+  const step = TWO_PI / order;
+  return base + step * Math.round((preferred - base) / step);
+}
+
+function chainKey(prefix: string, chain: DualChain): string {
+  return `${prefix}:${chain.fromFace}>${chain.toFace}:${Array.from(chain.edges, (e, i) => (chain.signs[i] > 0 ? e : -e - 1)).join(',')}`;
+}
+
+/**
+ * Solves for the trivial connection: the smallest (least-squares) set of extra rotations per edge
+ * such that the holonomy around every vertex ring is 2π × its index (Levi-Civita's curvature
+ * cancelled), around every generator the asked value, along every stroke and curve the asked
+ * turning, with the boundary free or held.
+ *
+ * Guarantees: never refactors the surface's matrix; throws FieldError naming the reason for an
+ * infeasible request (index not a multiple of 1/order, unbalanced index budget, singularity on a
+ * free boundary or on a curve, conflicting alignments, curves that cross); never returns NaN.
+ */
+export function solveConnection(surface: FieldSurface, request: FieldRequest): ConnectionResult {
+  const started = now();
+  const topology = surface.topology;
+  const { rowOfVertex, vertexOfRow, droppedVertexOfComponent, ringDefect } = surface.solver;
+  const curves = layOutCurves(surface, request.curves ?? []);
+  const { order, requestedIndex } = validateRequest(surface, request, curves.cutVertex);
+  const frames = surface.frames;
+
+  const ringValues = new Float64Array(vertexOfRow.length);
+  const constrainedVertex = new Uint8Array(topology.vertexCount);
+  for (let r = 0; r < vertexOfRow.length; r++) {
+    const v = vertexOfRow[r];
+    if (curves.cutVertex[v]) continue;
+    ringValues[r] = TWO_PI * requestedIndex[v] - ringDefect[v];
+    constrainedVertex[v] = 1;
+  }
+
+  const stage1: ExtraRow[] = [];
+  const hasCurves = (request.curves ?? []).length > 0;
+  const generators = hasCurves ? homologyGenerators(topology, curves.cutEdge) : surface.generators;
+  const given = request.generatorHolonomies ?? [];
+  generators.forEach((g, i) => {
+    const levelCivita = chainSum(g, frames.edgeRotation);
+    const wanted = given[i] ?? (TWO_PI / order) * Math.round((levelCivita * order) / TWO_PI);
+    if (!Number.isFinite(wanted)) throw new FieldError('bad-holonomy', `The holonomy given for generator ${i + 1} is not a finite angle.`);
+    stage1.push({ key: chainKey('g', g), chain: g, removedVertex: -1, value: wanted - levelCivita });
+  });
+  if (hasCurves) {
+    for (let v = 0; v < topology.vertexCount; v++) {
+      if (curves.cutVertex[v] && rowOfVertex[v] >= 0) stage1.push({ key: `off:${v}`, chain: null, removedVertex: v, value: 0 });
+    }
+    // A cut gives a closed piece a boundary, so the ring left out to make the system definite counts again.
+    droppedVertexOfComponent.forEach((v, c) => {
+      if (v < 0 || curves.cutVertex[v]) return;
+      const cutHere = (request.curves ?? []).some((curve) => surface.componentOfVertex[curve.vertices[0]] === c);
+      if (!cutHere) return;
+      const fan = vertexFan(topology, v);
+      stage1.push({ key: chainKey('ring', fan), chain: fan, removedVertex: -1, value: TWO_PI * requestedIndex[v] - ringDefect[v] });
+      constrainedVertex[v] = 1;
+    });
+  }
+  for (const v of droppedVertexOfComponent) if (v >= 0 && !curves.cutVertex[v]) constrainedVertex[v] = 1;
+
+  // Fixed directions: curve sides, stroke samples, twists, held boundary loops.
+  const fixedFaces = new Map<number, number>(curves.targets);
+  const features: number[] = [...curves.anchors];
+  for (const link of curves.links) {
+    stage1.push({
+      key: chainKey('curve', link.chain),
+      chain: link.chain,
+      removedVertex: -1,
+      value: alignmentValue(surface, link.chain, fixedFaces.get(link.from)!, fixedFaces.get(link.to)!, order, link.preferred),
+    });
+  }
+  const fix = (face: number, angle: number, what: string) => {
+    if (!Number.isInteger(face) || face < 0 || face >= topology.faceCount) throw new FieldError('face-out-of-range', `${what} is on face ${face}, which the surface does not have.`);
+    if (!Number.isFinite(angle)) throw new FieldError('bad-direction', `${what} has a direction that is not finite or lies across the face.`);
+    if (fixedFaces.has(face)) throw new FieldError('conflicting-constraints', `${what} fixes face ${face}, which another stroke, curve or twist already fixes.`);
+    fixedFaces.set(face, angle);
+  };
+  (request.strokes ?? []).forEach((stroke, si) => {
+    let previous = -1;
+    stroke.forEach((sample, k) => {
+      if (sample.face === previous) return;
+      const [dx, dy, dz] = sample.direction;
+      const f = sample.face;
+      const angle = f >= 0 && f < topology.faceCount ? angleInFace(frames, f, dx, dy, dz) : NaN;
+      fix(f, angle, `Stroke ${si + 1}, sample ${k + 1}`);
+      if (previous === -1) features.push(f);
+      else {
+        const chain = shortestDualPath(topology, previous, f, curves.cutEdge);
+        stage1.push({ key: chainKey('stroke', chain), chain, removedVertex: -1, value: alignmentValue(surface, chain, fixedFaces.get(previous)!, angle, order, 0) });
+      }
+      previous = f;
+    });
+  });
+  const tri = topology.triangles;
+  const p = surface.mesh.positions;
+  for (const s of request.singularities ?? []) {
+    if (s.orientation === undefined) continue;
+    const h = topology.vertexHalfedge[s.vertex];
+    const f = faceOfHalfedge(h);
+    let cx = 0, cy = 0, cz = 0;
+    for (let k = 0; k < 3; k++) {
+      const w = 3 * tri[3 * f + k];
+      cx += p[w] / 3; cy += p[w + 1] / 3; cz += p[w + 2] / 3;
+    }
+    const o = 3 * s.vertex;
+    const outward = angleInFace(frames, f, cx - p[o], cy - p[o + 1], cz - p[o + 2]);
+    fix(f, outward + s.orientation, `The twist of the singularity at vertex ${s.vertex}`);
+    features.push(f);
+  }
+  if (surface.boundary !== 'free') {
+    const quarter = surface.boundary === 'normal' ? Math.PI / 2 : 0;
+    for (const loop of topology.boundaryLoops) {
+      const h = loop[0];
+      fix(faceOfHalfedge(h), frames.halfedgeAngle[h] + quarter, `The held boundary at vertex ${tri[h]}`);
+      features.push(faceOfHalfedge(h));
+    }
+  }
+
+  // Tie each feature to the first fixed face of its piece of surface; the turning along the tie
+  // is whatever the field would do without it, rounded to a whole symmetry step.
+  const piece = features.length > 0 ? dualPieces(topology, curves.cutEdge) : topology.componentOfFace;
+  const referenceOfPiece = new Map<number, number>();
+  const stage2: ExtraRow[] = [];
+  for (const f of features) {
+    const reference = referenceOfPiece.get(piece[f]);
+    if (reference === undefined) {
+      referenceOfPiece.set(piece[f], f);
+      continue;
+    }
+    const chain = shortestDualPath(topology, reference, f, curves.cutEdge);
+    stage2.push({ key: chainKey('tie', chain), chain, removedVertex: -1, value: 0 });
+  }
+  let angles: Float64Array;
+  if (stage2.length === 0) {
+    angles = solveRows(surface, ringValues, stage1);
+  } else {
+    const natural = solveRows(surface, ringValues, stage1);
+    for (const row of stage2) {
+      const chain = row.chain!;
+      row.value = alignmentValue(surface, chain, fixedFaces.get(chain.fromFace)!, fixedFaces.get(chain.toFace)!, order, chainSum(chain, natural));
+    }
+    angles = solveRows(surface, ringValues, [...stage1, ...stage2]);
+  }
+  let largestAngle = 0;
+  for (let e = 0; e < angles.length; e++) {
+    if (!Number.isFinite(angles[e])) throw new FieldError('numerical-failure', 'The solve produced a non-finite angle; the surface may have degenerate faces.');
+    largestAngle = Math.max(largestAngle, Math.abs(angles[e]));
+  }
+  return {
+    order,
+    angles,
+    requestedIndex,
+    constrainedVertex,
+    cutEdge: curves.cutEdge,
+    fixedFaces,
+    largestAngle,
+    solveMilliseconds: now() - started,
+  };
+}

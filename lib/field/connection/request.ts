@@ -1,0 +1,78 @@
+/**
+ * What a caller asks of the connection solve — singularities, strokes, curves, boundary mode —
+ * and what it gets back. Types only, so the studio's client code can name them freely.
+ */
+
+/**
+ * What the field does along the surface's boundary loops: `free` leaves it to the smoothest
+ * solution; `tangent` holds it along the boundary (in the loop's direction, surface on the left);
+ * `normal` holds it across the boundary, pointing into the surface.
+ */
+export type BoundaryMode = 'free' | 'tangent' | 'normal';
+
+/** A point singularity: a whorl (index +1), a saddle (−1) or any multiple of 1/order. */
+export interface PointSingularity {
+  readonly vertex: number;
+  readonly index: number;
+  /**
+   * Optional twist: the field's angle (radians) in the vertex's first face, measured from the
+   * direction pointing from the vertex into that face. For a whorl, 0 is outflow, π inflow,
+   * ±π/2 a spiral.
+   */
+  readonly orientation?: number;
+}
+
+/** A face whose direction is fixed: one sample of a flow stroke. */
+export interface FaceAlignment {
+  readonly face: number;
+  /** A 3D direction; its projection onto the face plane is what the field follows. */
+  readonly direction: readonly [number, number, number];
+}
+
+/**
+ * A curve along mesh edges, given as the vertices it passes through (consecutive ones share an
+ * edge; first = last for a closed curve). A parting sends the flow away from the curve on both
+ * sides, a crest brings it in from both sides; either way perpendicular to the curve.
+ */
+export interface CurveFeature {
+  readonly kind: 'parting' | 'crest';
+  readonly vertices: readonly number[];
+}
+
+export interface FieldRequest {
+  /** n of an n-direction field: 1 for hair direction. */
+  readonly order?: number;
+  readonly singularities?: readonly PointSingularity[];
+  /** Flow strokes, each a chain of faces with the direction to follow there. */
+  readonly strokes?: readonly (readonly FaceAlignment[])[];
+  readonly curves?: readonly CurveFeature[];
+  /**
+   * Holonomy (radians) around each homology generator, in the order `FieldSurface.generators`
+   * lists them; `null` or missing picks the multiple of 2π/order nearest to Levi-Civita's.
+   */
+  readonly generatorHolonomies?: readonly (number | null)[];
+  /** Rotation (radians) of the whole field where no alignment fixes its direction. */
+  readonly rotation?: number;
+  /** World direction the field starts from where no alignment fixes it (projected onto the surface). */
+  readonly referenceDirection?: readonly [number, number, number];
+  /** A vertex that receives whatever index the surface still demands (see `indexBudget`). */
+  readonly remainderAt?: number;
+}
+
+/** The connection found by a solve: rotation angles per edge on top of Levi-Civita transport. */
+export interface ConnectionResult {
+  readonly order: number;
+  /** Extra rotation per edge (0 on boundary and curve edges); crossing sign as in `DualChain`. */
+  readonly angles: Float64Array;
+  /** Index asked for at each vertex (after `remainderAt`). */
+  readonly requestedIndex: Float64Array;
+  /** 1 where the index is defined and was prescribed: interior vertices off curves (and boundary vertices when held). */
+  readonly constrainedVertex: Uint8Array;
+  /** Edges that the field does not cross continuously (the curves). */
+  readonly cutEdge: Uint8Array;
+  /** Faces whose direction is fixed, with the fixed angle in the face frame. */
+  readonly fixedFaces: ReadonlyMap<number, number>;
+  /** Largest |angle| over all edges: below π/order, the index measurement sees exactly the prescribed indices. */
+  readonly largestAngle: number;
+  readonly solveMilliseconds: number;
+}

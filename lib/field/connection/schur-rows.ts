@@ -1,0 +1,164 @@
+/**
+ * Extra rows — generators, switched-off rings, curve and stroke links, twists, ties — solved
+ * beside the factored ring system through a small dense Schur complement, with each row's
+ * coupling, Schur entries and L⁻¹Pᵣ column cached so an edit costs one sparse solve.
+ */
+import { factorDenseLU } from '../linalg/dense';
+import type { DualChain } from '../mesh/dual-chains';
+import { FieldError } from '../mesh/errors';
+import { nextHalfedge } from '../mesh/topology';
+import type { RowCacheEntry } from './ring-solver';
+import type { FieldSurface } from './surface';
+
+export interface ExtraRow {
+  readonly key: string;
+  /** The row as a dual chain, or null for a "this vertex row is switched off" row. */
+  readonly chain: DualChain | null;
+  readonly removedVertex: number;
+  value: number;
+}
+
+/** Doubles of L⁻¹Pᵣ columns kept per surface (≈ 200 MB). */
+const RESPONSE_BUDGET = 24_000_000;
+/** Extra rows remembered per surface before the caches start over. */
+const ROW_CACHE_LIMIT = 4000;
+
+/** Row couplings Pᵣ = C_base · cᵣᵀ as a sparse vector over ring rows. */
+function coupling(surface: FieldSurface, row: ExtraRow): { idx: Int32Array; val: Float64Array } {
+  const { rowOfVertex } = surface.solver;
+  if (!row.chain) return { idx: Int32Array.of(rowOfVertex[row.removedVertex]), val: Float64Array.of(1) };
+  const topology = surface.topology;
+  const acc = new Map<number, number>();
+  const { edges, signs } = row.chain;
+  for (let i = 0; i < edges.length; i++) {
+    const h = topology.edgeHalfedge[edges[i]];
+    const head = rowOfVertex[topology.triangles[nextHalfedge(h)]];
+    const tail = rowOfVertex[topology.triangles[h]];
+    if (head >= 0) acc.set(head, (acc.get(head) ?? 0) + signs[i]);
+    if (tail >= 0) acc.set(tail, (acc.get(tail) ?? 0) - signs[i]);
+  }
+  const idx = new Int32Array(acc.size);
+  const val = new Float64Array(acc.size);
+  let k = 0;
+  for (const [r, v] of acc) {
+    idx[k] = r;
+    val[k++] = v;
+  }
+  return { idx, val };
+}
+
+function sparseDot(idx: Int32Array, val: Float64Array, dense: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < idx.length; i++) s += val[i] * dense[idx[i]];
+  return s;
+}
+
+/** Makes sure every row has its coupling and its Schur entries against all the others cached. */
+function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEntry[] {
+  const solver = surface.solver;
+  const { rowCache, factor, scratch } = solver;
+  if (rowCache.size + rows.length > ROW_CACHE_LIMIT) {
+    rowCache.clear();
+    solver.luCache.clear();
+    solver.storedResponses = 0;
+  }
+  const entries = rows.map((row) => {
+    let entry = rowCache.get(row.key);
+    if (!entry) {
+      const { idx, val } = coupling(surface, row);
+      entry = { couplingIdx: idx, couplingVal: val, schur: new Map(), response: null };
+      rowCache.set(row.key, entry);
+    }
+    return entry;
+  });
+  const rhs = new Float64Array(factor.n);
+  rows.forEach((row, i) => {
+    const entry = entries[i];
+    const missing = rows.some((other) => !entry.schur.has(other.key));
+    if (!missing) return;
+    rhs.fill(0);
+    for (let k = 0; k < entry.couplingIdx.length; k++) rhs[entry.couplingIdx[k]] = entry.couplingVal[k];
+    const w = factor.solve(rhs);
+    if (solver.storedResponses + w.length <= RESPONSE_BUDGET) {
+      entry.response = w;
+      solver.storedResponses += w.length;
+    }
+    if (row.chain) for (let k = 0; k < row.chain.edges.length; k++) scratch[row.chain.edges[k]] += row.chain.signs[k];
+    rows.forEach((other, j) => {
+      if (entry.schur.has(other.key)) return;
+      let direct = 0;
+      if (row.chain && other.chain) for (let k = 0; k < other.chain.edges.length; k++) direct += other.chain.signs[k] * scratch[other.chain.edges[k]];
+      const value = direct - sparseDot(entries[j].couplingIdx, entries[j].couplingVal, w);
+      entry.schur.set(other.key, value);
+      entries[j].schur.set(row.key, value);
+    });
+    if (row.chain) for (let k = 0; k < row.chain.edges.length; k++) scratch[row.chain.edges[k]] = 0;
+  });
+  return entries;
+}
+
+/**
+ * Minimal-norm angles subject to the ring rows (right-hand side `ringValues`) and the extra rows:
+ * x = Cᵀy with C Cᵀ y = b, the extra rows entering through a dense Schur complement.
+ */
+export function solveRows(surface: FieldSurface, ringValues: Float64Array, rows: readonly ExtraRow[]): Float64Array {
+  const { factor, luCache, vertexOfRow } = surface.solver;
+  const topology = surface.topology;
+  const entries = cacheRows(surface, rows);
+  const k = rows.length;
+  const t = factor.solve(ringValues);
+  let y: Float64Array = t;
+  let z: Float64Array = new Float64Array(0);
+  if (k > 0) {
+    const signature = rows.map((r) => r.key).join('|');
+    let lu = luCache.get(signature);
+    if (!lu) {
+      const s = new Float64Array(k * k);
+      for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) s[i * k + j] = entries[i].schur.get(rows[j].key)!;
+      const factored = factorDenseLU(s, k);
+      if (!factored) {
+        throw new FieldError('conflicting-constraints', 'Some of the strokes, curves, twists or generator holonomies fix the same thing twice (for example two strokes through one face); remove one of them.');
+      }
+      lu = factored;
+      if (luCache.size > 32) luCache.clear();
+      luCache.set(signature, lu);
+    }
+    const rhs = new Float64Array(k);
+    for (let i = 0; i < k; i++) rhs[i] = rows[i].value - sparseDot(entries[i].couplingIdx, entries[i].couplingVal, t);
+    z = lu.solve(rhs);
+    if (entries.every((e) => e.response)) {
+      y = t.slice();
+      for (let i = 0; i < k; i++) {
+        const w = entries[i].response!;
+        const zi = z[i];
+        for (let r = 0; r < y.length; r++) y[r] -= zi * w[r];
+      }
+    } else {
+      const corrected = ringValues.slice();
+      for (let i = 0; i < k; i++) {
+        const e = entries[i];
+        for (let q = 0; q < e.couplingIdx.length; q++) corrected[e.couplingIdx[q]] -= z[i] * e.couplingVal[q];
+      }
+      y = factor.solve(corrected);
+    }
+  }
+  const removed = new Uint8Array(vertexOfRow.length);
+  rows.forEach((r) => {
+    if (!r.chain) removed[surface.solver.rowOfVertex[r.removedVertex]] = 1;
+  });
+  const x = new Float64Array(topology.edgeCount);
+  const { rowOfVertex } = surface.solver;
+  for (let e = 0; e < topology.edgeCount; e++) {
+    const h = topology.edgeHalfedge[e];
+    if (topology.twin[h] === -1) continue;
+    const head = rowOfVertex[topology.triangles[nextHalfedge(h)]];
+    const tail = rowOfVertex[topology.triangles[h]];
+    x[e] = (head >= 0 && !removed[head] ? y[head] : 0) - (tail >= 0 && !removed[tail] ? y[tail] : 0);
+  }
+  rows.forEach((r, i) => {
+    if (!r.chain) return;
+    for (let q = 0; q < r.chain.edges.length; q++) x[r.chain.edges[q]] += z[i] * r.chain.signs[q];
+  });
+  return x;
+}
+

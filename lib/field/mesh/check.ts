@@ -1,0 +1,321 @@
+/**
+ * Everything wrong with an uploaded surface at once, in words a groomer can act on: the field
+ * engine itself stops at the first problem, but an upload page should list them all with counts
+ * and examples, plus the facts of the surface (χ, genus, boundary loops, area).
+ */
+import { analyseEdges, Examples } from './check-edges';
+import { boundingBox, componentFacts, faceAreas, type BoundingBox, type ComponentFacts } from './geometry';
+import { FieldError, describeFirst } from './errors';
+import { faceCount, vertexCount, type TriangleMesh } from './mesh';
+import { DEFAULT_MAX_FACES, readSurface, type ReadSurfaceOptions, type SurfaceReadResult } from './read';
+import { EXAMPLE_LIMIT } from './read/soup';
+import { buildTopology } from './topology';
+
+/**
+ * Faces whose height, relative to their longest side, is below this are taken to have no area:
+ * flatter than that, a face's normal and its two small angles are decided by the rounding of its
+ * coordinates rather than by its shape, even for a face a thousand times smaller than the model.
+ */
+export const DEFAULT_DEGENERATE_TOLERANCE = 1e-9;
+
+export interface Problem {
+  /** Stable reason, e.g. `non-manifold-edge`; reader failures keep the reader's FieldError code. */
+  readonly code: string;
+  /** An error stops the field from being computed; a warning is worth knowing but allowed. */
+  readonly severity: 'error' | 'warning';
+  /** Plain words for the groomer: what is wrong, how much, where, and what it means. */
+  readonly message: string;
+  /** How many faces, vertices or edges have the problem. */
+  readonly count: number;
+  /**
+   * The first few of them, numbered from 0: face or vertex indices; for `where: 'edge'`, the two
+   * end vertices of each edge one after the other (a0, b0, a1, b1, …). Faces of the `collapsed-faces`
+   * problem are numbered as in the file, since they are not in the mesh.
+   */
+  readonly examples: readonly number[];
+  /** What `count` and `examples` count; `file` for a file that could not be read at all. */
+  readonly where: 'face' | 'vertex' | 'edge' | 'file';
+}
+
+export interface SurfaceFacts {
+  /** Vertices in the mesh, including any that no face uses. */
+  readonly vertexCount: number;
+  readonly usedVertexCount: number;
+  readonly faceCount: number;
+  /** Distinct edges of the faces that have three different, existing vertices. */
+  readonly edgeCount: number;
+  /** Pieces of the surface connected through shared edges. */
+  readonly componentCount: number;
+  /**
+   * V − E + F over the vertices faces use, and the faces with three different, existing vertices
+   * and their edges; 2 for a closed sphere-like surface.
+   */
+  readonly eulerCharacteristic: number;
+  /**
+   * Boundary loops, and per component χ, boundary loops and genus (χ = 2 − 2g − b); null when
+   * the surface is not manifold and consistently oriented, where these are not defined.
+   */
+  readonly boundaryLoopCount: number | null;
+  readonly genus: number | null;
+  readonly components: readonly ComponentFacts[] | null;
+  /** Total area of the faces whose coordinates are all finite, in the file's units squared. */
+  readonly surfaceArea: number;
+  readonly boundingBox: BoundingBox | null;
+}
+
+export interface SurfaceReport {
+  /** True when there is no problem of severity `error`. */
+  readonly ok: boolean;
+  readonly problems: readonly Problem[];
+  /** Null only when the file could not be read. */
+  readonly facts: SurfaceFacts | null;
+}
+
+export interface CheckSurfaceOptions {
+  /** Most faces allowed. Default `DEFAULT_MAX_FACES`. */
+  readonly maxFaces?: number;
+  /** See `DEFAULT_DEGENERATE_TOLERANCE`. */
+  readonly degenerateTolerance?: number;
+}
+
+const plural = (n: number, one: string, many: string) => `${n.toLocaleString('en-US')} ${n === 1 ? one : many}`;
+
+function pairs(flat: readonly number[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i + 1 < flat.length; i += 2) out.push(`${flat[i]}–${flat[i + 1]}`);
+  return out;
+}
+
+/**
+ * Checks a triangle mesh for everything that stops a direction field from being computed on it,
+ * and measures it.
+ *
+ * Guarantees: never throws, and takes time linear in the numbers of vertices and faces, for any
+ * mesh, however broken: out-of-range indices, repeated corners and non-finite coordinates are
+ * reported, not trusted. Detects, with counts and first examples: no faces, too many faces,
+ * non-finite coordinates, corners referring to missing vertices, edges with more than two faces,
+ * neighbouring faces of opposite orientation, vertices where surface pieces meet at a single
+ * point, faces of (numerically) zero area — all errors — and vertices no face uses and a surface
+ * in several pieces — warnings. `ok` is true exactly when there is no error, and then
+ * `buildTopology(mesh)` succeeds and the facts include genus and boundary loops.
+ */
+export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = {}): SurfaceReport {
+  const maxFaces = options.maxFaces ?? DEFAULT_MAX_FACES;
+  const tolerance = options.degenerateTolerance ?? DEFAULT_DEGENERATE_TOLERANCE;
+  // Trailing values that do not make a whole vertex or face are ignored; readers never write them.
+  const nV = Math.floor(vertexCount(mesh));
+  const nF = Math.floor(faceCount(mesh));
+  const tri = mesh.triangles.subarray(0, 3 * nF);
+  const p = mesh.positions.subarray(0, 3 * nV);
+  const whole: TriangleMesh = { positions: p, triangles: tri };
+  const problems: Problem[] = [];
+
+  if (nF === 0) {
+    problems.push({ code: 'no-faces', severity: 'error', message: 'The surface has no faces, so there is nothing to grow on.', count: 0, examples: [], where: 'face' });
+  }
+  if (nF > maxFaces) {
+    problems.push({
+      code: 'too-many-faces',
+      severity: 'error',
+      message: `The surface has ${plural(nF, 'face', 'faces')}; the limit is ${maxFaces.toLocaleString('en-US')}. Decimate it before uploading.`,
+      count: nF,
+      examples: [],
+      where: 'face',
+    });
+  }
+
+  const finite = new Uint8Array(nV);
+  const nonFinite = new Examples();
+  for (let v = 0; v < nV; v++) {
+    if (Number.isFinite(p[3 * v]) && Number.isFinite(p[3 * v + 1]) && Number.isFinite(p[3 * v + 2])) finite[v] = 1;
+    else nonFinite.add(v);
+  }
+  if (nonFinite.count > 0) {
+    problems.push({
+      code: 'non-finite-coordinates',
+      severity: 'error',
+      message: `${plural(nonFinite.count, 'vertex has', 'vertices have')} a coordinate that is not a number or is infinite (vertices ${describeFirst(nonFinite.items)}).`,
+      count: nonFinite.count,
+      examples: nonFinite.items,
+      where: 'vertex',
+    });
+  }
+
+  // Faces with three different, existing vertices take part in the edge analysis; the others are
+  // reported and left out of it, since they have no well-defined sides.
+  const valid = new Uint8Array(nF);
+  const outOfRange = new Examples();
+  const degenerate = new Examples();
+  const used = new Uint8Array(nV);
+  const areas = faceAreas(whole);
+  let surfaceArea = 0;
+  let repeatedCorners = 0;
+  for (let f = 0; f < nF; f++) {
+    const a = tri[3 * f];
+    const b = tri[3 * f + 1];
+    const c = tri[3 * f + 2];
+    if (a >= nV || b >= nV || c >= nV) {
+      outOfRange.add(f);
+      continue;
+    }
+    used[a] = used[b] = used[c] = 1;
+    if (a === b || b === c || c === a) {
+      repeatedCorners++;
+      degenerate.add(f);
+      continue;
+    }
+    valid[f] = 1;
+    if (!finite[a] || !finite[b] || !finite[c]) continue;
+    surfaceArea += areas[f];
+    let longest = 0;
+    for (let k = 0; k < 3; k++) {
+      const u = 3 * tri[3 * f + k];
+      const w = 3 * tri[3 * f + ((k + 1) % 3)];
+      longest = Math.max(longest, (p[w] - p[u]) ** 2 + (p[w + 1] - p[u + 1]) ** 2 + (p[w + 2] - p[u + 2]) ** 2);
+    }
+    // Twice the area over the longest side is the height onto that side.
+    if (!((2 * areas[f]) / Math.sqrt(longest) > tolerance * Math.sqrt(longest))) degenerate.add(f);
+  }
+  if (outOfRange.count > 0) {
+    problems.push({
+      code: 'vertex-out-of-range',
+      severity: 'error',
+      message: `${plural(outOfRange.count, 'face refers', 'faces refer')} to vertices the surface does not have (it has ${nV}): faces ${describeFirst(outOfRange.items)}.`,
+      count: outOfRange.count,
+      examples: outOfRange.items,
+      where: 'face',
+    });
+  }
+  if (degenerate.count > 0) {
+    problems.push({
+      code: 'degenerate-faces',
+      severity: 'error',
+      message: `${plural(degenerate.count, 'face has', 'faces have')} no area: their corners lie on one line or coincide (faces ${describeFirst(degenerate.items)}). A direction cannot be laid on them; remove or repair them.`,
+      count: degenerate.count,
+      examples: degenerate.items,
+      where: 'face',
+    });
+  }
+
+  const edges = analyseEdges(tri, nV, valid);
+  if (edges.nonManifold.count > 0) {
+    problems.push({
+      code: 'non-manifold-edge',
+      severity: 'error',
+      message: `${plural(edges.nonManifold.count, 'edge is', 'edges are')} shared by more than two faces (between vertices ${describeFirst(pairs(edges.nonManifold.items))}). Every edge may have at most one face on each side.`,
+      count: edges.nonManifold.count,
+      examples: edges.nonManifold.items,
+      where: 'edge',
+    });
+  }
+  if (edges.misoriented.count > 0) {
+    problems.push({
+      code: 'inconsistent-orientation',
+      severity: 'error',
+      message: `${plural(edges.misoriented.count, 'edge joins', 'edges join')} faces that face opposite ways (between vertices ${describeFirst(pairs(edges.misoriented.items))}): some faces are flipped. Unify the normals so that all point out of the skin.`,
+      count: edges.misoriented.count,
+      examples: edges.misoriented.items,
+      where: 'edge',
+    });
+  }
+  if (edges.pinched.count > 0) {
+    problems.push({
+      code: 'non-manifold-vertex',
+      severity: 'error',
+      message: `At ${plural(edges.pinched.count, 'vertex', 'vertices')}, pieces of surface touch at a single point (vertices ${describeFirst(edges.pinched.items)}). Split or separate them.`,
+      count: edges.pinched.count,
+      examples: edges.pinched.items,
+      where: 'vertex',
+    });
+  }
+
+  const isolated = new Examples();
+  let usedVertexCount = 0;
+  for (let v = 0; v < nV; v++) {
+    if (used[v]) usedVertexCount++;
+    else isolated.add(v);
+  }
+  if (isolated.count > 0) {
+    problems.push({
+      code: 'isolated-vertices',
+      severity: 'warning',
+      message: `${plural(isolated.count, 'vertex belongs', 'vertices belong')} to no face (vertices ${describeFirst(isolated.items)}); they are ignored.`,
+      count: isolated.count,
+      examples: isolated.items,
+      where: 'vertex',
+    });
+  }
+  if (edges.componentCount > 1) {
+    problems.push({
+      code: 'several-components',
+      severity: 'warning',
+      message: `The surface is made of ${edges.componentCount} separate pieces (first faces ${describeFirst(edges.componentStarts)}). Each piece gets its own field, and on each closed piece the singularities must add up on their own.`,
+      count: edges.componentCount,
+      examples: edges.componentStarts.slice(0, EXAMPLE_LIMIT),
+      where: 'face',
+    });
+  }
+
+  const ok = !problems.some((problem) => problem.severity === 'error');
+  // Faces of zero area, or with non-finite corners, do not upset the connectivity; the rest does.
+  const connectivityIntact =
+    outOfRange.count === 0 && repeatedCorners === 0 && edges.nonManifold.count === 0 && edges.misoriented.count === 0 && edges.pinched.count === 0;
+  const topology = connectivityIntact ? buildTopology(whole) : null;
+  const components = topology ? componentFacts(topology) : null;
+  let validFaces = 0;
+  for (let f = 0; f < nF; f++) validFaces += valid[f];
+  return {
+    ok,
+    problems,
+    facts: {
+      vertexCount: nV,
+      usedVertexCount,
+      faceCount: nF,
+      edgeCount: edges.edgeCount,
+      componentCount: edges.componentCount,
+      eulerCharacteristic: usedVertexCount - edges.edgeCount + validFaces,
+      boundaryLoopCount: topology ? topology.boundaryLoops.length : null,
+      genus: components ? components.reduce((sum, c) => sum + c.genus, 0) : null,
+      components,
+      surfaceArea,
+      boundingBox: boundingBox(whole),
+    },
+  };
+}
+
+/**
+ * Reads a file and checks the surface in it, for an upload page: one report whatever happens.
+ *
+ * Guarantees: never throws a FieldError — a file that cannot be read gives a report with one
+ * error problem carrying the reader's code and message (`where: 'file'`) and `facts: null`;
+ * otherwise the report of `checkSurface`, plus a `collapsed-faces` warning when welding left out
+ * triangles, and `read` holds the reader's result.
+ */
+export function checkSurfaceFile(
+  bytes: Uint8Array,
+  fileName: string,
+  options: ReadSurfaceOptions & CheckSurfaceOptions = {},
+): { read: SurfaceReadResult | null; report: SurfaceReport } {
+  let read: SurfaceReadResult;
+  try {
+    read = readSurface(bytes, fileName, options);
+  } catch (error) {
+    if (!(error instanceof FieldError)) throw error;
+    return {
+      read: null,
+      report: { ok: false, problems: [{ code: error.code, severity: 'error', message: error.message, count: 1, examples: [], where: 'file' }], facts: null },
+    };
+  }
+  const report = checkSurface(read.mesh, options);
+  const collapsed = read.collapsedTriangles;
+  if (collapsed.count === 0) return { read, report };
+  const warning: Problem = {
+    code: 'collapsed-faces',
+    severity: 'warning',
+    message: `${plural(collapsed.count, 'triangle was', 'triangles were')} left out because two of its corners are the same point once vertices closer than ${read.weldTolerance.toPrecision(2)} are merged (from faces ${describeFirst(collapsed.examples)} of the file, counted from 0).`,
+    count: collapsed.count,
+    examples: collapsed.examples,
+    where: 'face',
+  };
+  return { read, report: { ...report, problems: [...report.problems, warning] } };
+}

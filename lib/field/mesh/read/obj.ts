@@ -1,0 +1,159 @@
+/**
+ * Wavefront OBJ, the format most modelling tools export: positions, polygons and face groups,
+ * which become growth regions.
+ */
+import { FieldError } from '../errors';
+import { GrowableFloat64, GrowableUint32 } from './growable';
+import { assertFaceBudget, type PolygonSoup } from './soup';
+import { TextCursor, clip, parseInteger, parseNumber } from './text';
+
+const IGNORED_GEOMETRY = new Set(['l', 'p', 'curv', 'curv2', 'surf']);
+const MAX_GROUPS = 0xffff;
+
+/**
+ * Reads a Wavefront OBJ file: `v` positions and `f` faces (`i`, `i/t`, `i//n`, `i/t/n`, negative
+ * indices counting back from the latest vertex), with `g` and `o` naming the group of the faces
+ * that follow (the latest of the two wins). Lines, points, curves and every other statement are
+ * ignored; lines, points and curves are noted.
+ *
+ * Guarantees: returns the polygons as written, or throws a FieldError (`malformed-file` naming the
+ * line, `vertex-out-of-range`, `too-many-faces` as soon as the budget is exceeded). Time and
+ * memory are linear in the file size.
+ */
+export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
+  const cursor = new TextCursor(bytes);
+  const positions = new GrowableFloat64(3 * 1024);
+  const polygonStart = new GrowableUint32(1024);
+  polygonStart.push(0);
+  const corners = new GrowableUint32(4096);
+  const groupOfPolygon = new GrowableUint32(1024);
+  const groupIndex = new Map<string, number>();
+  const groupNames: string[] = [];
+  let currentGroup = -1;
+  let sawGroupStatement = false;
+  let triangles = 0;
+  let ignoredGeometry = 0;
+  let vertexCount = 0;
+
+  const useGroup = (name: string) => {
+    let g = groupIndex.get(name);
+    if (g === undefined) {
+      g = groupNames.length;
+      groupNames.push(name);
+      groupIndex.set(name, g);
+    }
+    currentGroup = g;
+  };
+
+  const tokens: string[] = [];
+  for (let line = cursor.nextLine(); line !== null; line = cursor.nextLine()) {
+    const lineNumber = cursor.lineNumber;
+    // A backslash at the end of a line continues the statement on the next line.
+    while (line.endsWith('\\')) {
+      const more = cursor.nextLine();
+      line = line.slice(0, -1) + ' ' + (more ?? '');
+      if (more === null) break;
+    }
+    const hash = line.indexOf('#');
+    const text = hash === -1 ? line : line.slice(0, hash);
+    const tokenCount = splitWords(text, tokens);
+    if (tokenCount === 0) continue;
+    const where = () => `line ${lineNumber}`;
+    switch (tokens[0]) {
+      case 'v':
+        positions.push(parseNumber(tokenCount > 1 ? tokens[1] : null, where));
+        positions.push(parseNumber(tokenCount > 2 ? tokens[2] : null, where));
+        positions.push(parseNumber(tokenCount > 3 ? tokens[3] : null, where));
+        vertexCount++;
+        break;
+      case 'f':
+      case 'fo': {
+        for (let i = 1; i < tokenCount; i++) {
+          let index = leadingInteger(tokens[i]);
+          if (Number.isNaN(index)) {
+            const slash = tokens[i].indexOf('/');
+            index = parseInteger(slash === -1 ? tokens[i] : tokens[i].slice(0, slash), where);
+          }
+          const resolved = index > 0 ? index - 1 : vertexCount + index;
+          if (index === 0 || resolved < 0) {
+            throw new FieldError(
+              'vertex-out-of-range',
+              `Line ${lineNumber} refers to vertex ${index}, ${index === 0 ? 'but OBJ numbers vertices from 1' : `but only ${vertexCount} vertices come before it`}.`,
+            );
+          }
+          corners.push(Math.min(resolved, 0xffffffff));
+        }
+        polygonStart.push(corners.length);
+        if (tokenCount > 3) triangles += tokenCount - 3;
+        assertFaceBudget(triangles, maxFaces);
+        groupOfPolygon.push(currentGroup === -1 ? 0 : currentGroup);
+        break;
+      }
+      case 'g':
+      case 'o': {
+        const name = text.trim().slice(1).trim() || 'default';
+        // Faces before the first group statement were recorded as group 0; name it first.
+        if (!sawGroupStatement && polygonStart.length > 1) useGroup('default');
+        sawGroupStatement = true;
+        useGroup(clip(name, 200));
+        break;
+      }
+      default:
+        if (IGNORED_GEOMETRY.has(tokens[0])) ignoredGeometry++;
+    }
+  }
+
+  const notes: string[] = [];
+  if (ignoredGeometry > 0) notes.push(`${ignoredGeometry} lines, points or curves in the file were ignored: only faces make the surface.`);
+  let groups: PolygonSoup['groups'];
+  if (sawGroupStatement && groupNames.length > MAX_GROUPS) {
+    notes.push(`The file has ${groupNames.length} groups, more than the ${MAX_GROUPS} Whorlwind keeps; the groups were ignored.`);
+  } else if (sawGroupStatement) {
+    groups = { names: groupNames, groupOfFace: Uint16Array.from(groupOfPolygon.toArray()) };
+  }
+  return {
+    positions: positions.toArray(),
+    polygonStart: polygonStart.toArray(),
+    corners: corners.toArray(),
+    ...(groups ? { groups } : {}),
+    firstVertexNumber: 1,
+    notes,
+  };
+}
+
+/** Splits a line at spaces and tabs into `out`, reusing it across lines; returns the word count. */
+function splitWords(line: string, out: string[]): number {
+  let count = 0;
+  let i = 0;
+  while (i < line.length) {
+    while (i < line.length && line.charCodeAt(i) <= 32) i++;
+    if (i === line.length) break;
+    const start = i;
+    while (i < line.length && line.charCodeAt(i) > 32) i++;
+    out[count++] = line.slice(start, i);
+  }
+  return count;
+}
+
+/**
+ * The whole number before the first “/” of a face corner (`12`, `-3/7`, `5//2`), read without
+ * building substrings because faces make up half of a large OBJ; NaN when the text is anything
+ * else, for the caller to report.
+ */
+function leadingInteger(token: string): number {
+  let i = 0;
+  let sign = 1;
+  if (token.charCodeAt(0) === 45 /* - */) {
+    sign = -1;
+    i = 1;
+  }
+  let value = 0;
+  const digitsStart = i;
+  for (; i < token.length; i++) {
+    const c = token.charCodeAt(i);
+    if (c === 47 /* / */) break;
+    if (c < 48 || c > 57) return Number.NaN;
+    value = 10 * value + (c - 48);
+  }
+  return i === digitsStart || value > Number.MAX_SAFE_INTEGER ? Number.NaN : sign * value;
+}

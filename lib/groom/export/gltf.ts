@@ -1,0 +1,139 @@
+import type { Guides } from '../grow/guides';
+import { CENTIMETRES_PER_UNIT } from '../spec/spec';
+
+/**
+ * The guides as glTF 2.0: one mesh with one `LINES` primitive (mode 1) whose index pairs join
+ * consecutive points of each guide, a `POSITION` attribute and a `_WIDTH` attribute (per point,
+ * metres). glTF fixes metres and +Y up, so points are scaled from the surface's units and, for a
+ * Z-up surface, turned so that its up becomes +Y.
+ *
+ * Guarantees: `.glb` bytes (`binary: true`) or `.gltf` JSON bytes with the buffer embedded as a
+ * base64 data URI; POSITION has count × pointsPerGuide entries with exact float32 min/max; the
+ * index buffer has 2 · (pointsPerGuide − 1) entries per guide, and no index pair joins two guides.
+ */
+export function guidesToGltf(guides: Guides, options: { binary: boolean }): Uint8Array {
+  const n = guides.pointsPerGuide;
+  const total = guides.count * n;
+  const metres = CENTIMETRES_PER_UNIT[guides.units] / 100;
+  const zUp = guides.upAxis === 'z';
+  const positions = new Float32Array(3 * total);
+  for (let i = 0; i < total; i++) {
+    const x = guides.points[3 * i], y = guides.points[3 * i + 1], z = guides.points[3 * i + 2];
+    positions[3 * i] = x * metres;
+    positions[3 * i + 1] = (zUp ? z : y) * metres;
+    positions[3 * i + 2] = (zUp ? -y : z) * metres;
+  }
+  const min = [Infinity, Infinity, Infinity], max = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < positions.length; i++) {
+    const k = i % 3;
+    if (positions[i] < min[k]) min[k] = positions[i];
+    if (positions[i] > max[k]) max[k] = positions[i];
+  }
+  const widths = new Float32Array(total);
+  for (let i = 0; i < total; i++) {
+    const t = n > 1 ? (i % n) / (n - 1) : 0;
+    widths[i] = (guides.rootWidth + (guides.tipWidth - guides.rootWidth) * t) * metres;
+  }
+  const indices = new Uint32Array(2 * (n - 1) * guides.count);
+  let k = 0;
+  for (let g = 0; g < guides.count; g++) {
+    for (let j = 0; j + 1 < n; j++) {
+      indices[k++] = g * n + j;
+      indices[k++] = g * n + j + 1;
+    }
+  }
+  const parts = [positions, widths, indices];
+  const byteLength = parts.reduce((sum, a) => sum + a.byteLength, 0);
+  const binary = new Uint8Array(byteLength);
+  const views: object[] = [];
+  let offset = 0;
+  parts.forEach((array, i) => {
+    binary.set(new Uint8Array(array.buffer, array.byteOffset, array.byteLength), offset);
+    views.push({ buffer: 0, byteOffset: offset, byteLength: array.byteLength, target: i === 2 ? 34963 : 34962 });
+    offset += array.byteLength;
+  });
+  const accessors = [
+    { bufferView: 0, componentType: 5126, count: total, type: 'VEC3', min: total ? min : [0, 0, 0], max: total ? max : [0, 0, 0] },
+    { bufferView: 1, componentType: 5126, count: total, type: 'SCALAR' },
+    { bufferView: 2, componentType: 5125, count: indices.length, type: 'SCALAR' },
+  ];
+  const json: Record<string, unknown> = {
+    asset: { version: '2.0', generator: 'Whorlwind' },
+    scene: 0,
+    scenes: [{ nodes: [0] }],
+    nodes: [{ name: 'Guides', mesh: 0 }],
+    meshes: [
+      {
+        name: 'Guides',
+        primitives: [{ attributes: { POSITION: 0, _WIDTH: 1 }, indices: 2, mode: 1 }],
+        extras: { guideCount: guides.count, pointsPerGuide: n, hairsPerGuide: guides.hairsPerGuide },
+      },
+    ],
+    accessors,
+    bufferViews: views,
+    buffers: [{ byteLength }],
+  };
+  // glTF forbids zero-length buffers and accessors of count 0.
+  if (total === 0 || indices.length === 0) {
+    json.accessors = [];
+    json.bufferViews = [];
+    json.buffers = [];
+    json.meshes = [];
+    json.nodes = [{ name: 'Guides' }];
+    return options.binary ? glb(JSON.stringify(json), new Uint8Array(0)) : new TextEncoder().encode(JSON.stringify(json));
+  }
+  if (options.binary) return glb(JSON.stringify(json), binary);
+  // The buffer is spliced in as bytes: a JSON string of tens of megabytes would cost far more.
+  const marker = 'WHORLWIND_BUFFER';
+  (json.buffers as { uri?: string }[])[0].uri = marker;
+  const [before, after] = JSON.stringify(json).split(marker);
+  const head = new TextEncoder().encode(`${before}data:application/octet-stream;base64,`);
+  const tail = new TextEncoder().encode(after);
+  const encoded = base64(binary);
+  const out = new Uint8Array(head.length + encoded.length + tail.length);
+  out.set(head, 0);
+  out.set(encoded, head.length);
+  out.set(tail, head.length + encoded.length);
+  return out;
+}
+
+/** The GLB container: 12-byte header, a JSON chunk padded with spaces, a BIN chunk padded with zeros. */
+function glb(jsonText: string, binary: Uint8Array): Uint8Array {
+  const jsonBytes = new TextEncoder().encode(jsonText);
+  const jsonLength = Math.ceil(jsonBytes.length / 4) * 4;
+  const binLength = Math.ceil(binary.length / 4) * 4;
+  const total = 12 + 8 + jsonLength + (binary.length > 0 ? 8 + binLength : 0);
+  const out = new Uint8Array(total);
+  const view = new DataView(out.buffer);
+  view.setUint32(0, 0x46546c67, true);
+  view.setUint32(4, 2, true);
+  view.setUint32(8, total, true);
+  view.setUint32(12, jsonLength, true);
+  view.setUint32(16, 0x4e4f534a, true);
+  out.set(jsonBytes, 20);
+  out.fill(0x20, 20 + jsonBytes.length, 20 + jsonLength);
+  if (binary.length > 0) {
+    view.setUint32(20 + jsonLength, binLength, true);
+    view.setUint32(24 + jsonLength, 0x004e4942, true);
+    out.set(binary, 28 + jsonLength);
+  }
+  return out;
+}
+
+const BASE64 = new TextEncoder().encode('ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/');
+const PAD = '='.charCodeAt(0);
+
+/** Standard base64 with padding (RFC 4648 §4) as ASCII bytes, without Node's Buffer so it runs in a worker. */
+function base64(bytes: Uint8Array): Uint8Array {
+  const out = new Uint8Array(4 * Math.ceil(bytes.length / 3));
+  let o = 0;
+  for (let i = 0; i < bytes.length; i += 3) {
+    const a = bytes[i], b = i + 1 < bytes.length ? bytes[i + 1] : 0, c = i + 2 < bytes.length ? bytes[i + 2] : 0;
+    const triple = (a << 16) | (b << 8) | c;
+    out[o++] = BASE64[(triple >> 18) & 63];
+    out[o++] = BASE64[(triple >> 12) & 63];
+    out[o++] = i + 1 < bytes.length ? BASE64[(triple >> 6) & 63] : PAD;
+    out[o++] = i + 2 < bytes.length ? BASE64[triple & 63] : PAD;
+  }
+  return out;
+}

@@ -1,0 +1,270 @@
+import { now, type SolvedField } from '../../field';
+import { GroomError } from '../errors';
+import { blendPins, type PinnedFactors } from '../place/pins';
+import { guideRandom } from './random';
+import { growthMask } from '../place/regions';
+import { downOf } from '../place/request';
+import { sampleRoots } from './roots';
+import { shapeGuide } from './shape';
+import { SKIN_QUERY_SIZE } from '../place/skin';
+import { CENTIMETRES_PER_UNIT, type GroomSpec, type Unit } from '../spec/spec';
+import type { GroomSurface } from '../place/surface';
+import { createTracer } from './trace';
+
+/**
+ * A set of guides: every guide has the same number of points, stored guide after guide.
+ * Everything an export needs travels with it, so exports are pure functions of this.
+ */
+export interface Guides {
+  readonly count: number;
+  readonly pointsPerGuide: number;
+  /** x, y, z of every point, guide after guide (3 · count · pointsPerGuide numbers), in surface units. */
+  readonly points: Float64Array;
+  /** The face each root lies in. */
+  readonly rootFace: Uint32Array;
+  /** Arc length of each guide's polyline, in surface units. */
+  readonly length: Float64Array;
+  /** Why each guide's skin path ended (see `STOP` in trace.ts): it reached its length, or a boundary, singularity, curve or convergence. */
+  readonly stop: Uint8Array;
+  /** Width at the root and at the tip, in surface units (widths taper linearly along each guide). */
+  readonly rootWidth: number;
+  readonly tipWidth: number;
+  readonly units: Unit;
+  readonly upAxis: 'y' | 'z';
+  /** How many rendered hairs each guide stands for. */
+  readonly hairsPerGuide: number;
+}
+
+export interface GrowResult {
+  readonly guides: Guides;
+  /** Area the guides grow on (the chosen regions, weighted by density pins), in cm². */
+  readonly areaSquareCm: number;
+  /** Points moved out from under the skin by the collision check. */
+  readonly pushedOut: number;
+  readonly timings: { readonly rootsMilliseconds: number; readonly traceMilliseconds: number; readonly shapeMilliseconds: number };
+}
+
+/** Most guides one groom may have. */
+export const MAX_GUIDES = 5_000_000;
+/** Tip width as a fraction of the root width. */
+const TIP_TAPER = 0.2;
+/** At jitter 1, a guide's length varies by up to ±25 % and its tip leans sideways by up to 15 % of its length. */
+const JITTER_LENGTH = 0.5;
+const JITTER_LEAN = 0.15;
+/** Height kept above the skin, as a fraction of the surface's bounding box diagonal. */
+const CLEARANCE_FRACTION = 1e-4;
+
+
+/** Barycentric weights of (x, y, z) in face f (projected onto its plane), into w. */
+function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y: number, z: number, w: Float64Array): void {
+  const a = 3 * tri[3 * f], b = 3 * tri[3 * f + 1], c = 3 * tri[3 * f + 2];
+  const v0x = p[b] - p[a], v0y = p[b + 1] - p[a + 1], v0z = p[b + 2] - p[a + 2];
+  const v1x = p[c] - p[a], v1y = p[c + 1] - p[a + 1], v1z = p[c + 2] - p[a + 2];
+  const v2x = x - p[a], v2y = y - p[a + 1], v2z = z - p[a + 2];
+  const d00 = v0x * v0x + v0y * v0y + v0z * v0z, d01 = v0x * v1x + v0y * v1y + v0z * v1z, d11 = v1x * v1x + v1y * v1y + v1z * v1z;
+  const d20 = v2x * v0x + v2y * v0y + v2z * v0z, d21 = v2x * v1x + v2y * v1y + v2z * v1z;
+  const denom = d00 * d11 - d01 * d01;
+  const v = denom > 0 ? (d11 * d20 - d01 * d21) / denom : 1 / 3;
+  const u = denom > 0 ? (d00 * d21 - d01 * d20) / denom : 1 / 3;
+  w[0] = 1 - v - u; w[1] = v; w[2] = u;
+}
+
+/**
+ * Grows the spec's guides on a solved field: roots, streamlines, shapes, collision check.
+ *
+ * Guarantees: the same spec on the same surface and field gives identical guides (bit for bit);
+ * the root count is `guides.count`, or density × growth area (cm², from the declared units,
+ * weighted by density pins) rounded; every point is finite and no point but the root is under
+ * the skin or nearer to it than the clearance (1e-4 of the bounding box diagonal), as the skin's
+ * spatial index finds; each guide's first segment leaves the root along the field (see shapeGuide).
+ */
+export function growGuides(surface: GroomSurface, solved: SolvedField, spec: GroomSpec): GrowResult {
+  const settings = spec.guides;
+  const { mesh } = surface;
+  const p = mesh.positions;
+  const tri = mesh.triangles;
+  const t0 = now();
+  const mask = growthMask(mesh, settings.regions);
+  const pins: PinnedFactors = blendPins(spec, surface);
+  const cm2PerUnit2 = CENTIMETRES_PER_UNIT[spec.units] ** 2;
+  let area = 0;
+  for (let f = 0; f < tri.length / 3; f++) {
+    if (!mask[f]) continue;
+    const d = pins.density;
+    area += surface.faceArea[f] * (d ? (d[tri[3 * f]] + d[tri[3 * f + 1]] + d[tri[3 * f + 2]]) / 3 : 1);
+  }
+  const areaSquareCm = area * cm2PerUnit2;
+  const wanted = settings.count ?? Math.round((settings.density ?? 0) * areaSquareCm);
+  if (wanted > MAX_GUIDES) {
+    throw new GroomError('too-many-guides', `guides.density: ${settings.density} guides per cm² over ${Math.round(areaSquareCm)} cm² makes ${wanted} guides; at most ${MAX_GUIDES} are allowed.`, 'guides.density');
+  }
+  const roots = sampleRoots({ positions: p, triangles: tri, faceArea: surface.faceArea, count: wanted, allowedFace: mask, vertexDensity: pins.density, seed: settings.seed });
+  const t1 = now();
+
+  const n = settings.pointsPerGuide;
+  const count = roots.count;
+  const points = new Float64Array(3 * n * count);
+  const length = new Float64Array(count);
+  const stop = new Uint8Array(count);
+  const singular = new Uint8Array(surface.field.topology.vertexCount);
+  const requested = solved.connection.requestedIndex;
+  for (let v = 0; v < requested.length; v++) if (requested[v] !== 0) singular[v] = 1;
+  const tracer = createTracer(surface.field, solved.field, singular, solved.connection.cutEdge);
+  const faceDirection = solved.field.faceDirection;
+  const faceNormal = surface.field.frames.normal;
+  const vertexNormal = surface.vertexNormal;
+  const gravity = downOf(spec.upAxis);
+  const clearance = CLEARANCE_FRACTION * surface.diagonal;
+
+  const targets = new Float64Array(n);
+  const skin = new Float64Array(3 * n);
+  const skinNormal = new Float64Array(3 * n);
+  const skinFace = new Uint32Array(n);
+  const weights = new Float64Array(3);
+  const query = new Float64Array(SKIN_QUERY_SIZE);
+  const factor = (values: Float64Array | undefined, f: number) =>
+    values ? weights[0] * values[tri[3 * f]] + weights[1] * values[tri[3 * f + 1]] + weights[2] * values[tri[3 * f + 2]] : 1;
+  let traceTime = 0;
+  let pushedOut = 0;
+
+  for (let g = 0; g < count; g++) {
+    const f0 = roots.face[g];
+    const rx = roots.position[3 * g], ry = roots.position[3 * g + 1], rz = roots.position[3 * g + 2];
+    barycentric(p, tri, f0, rx, ry, rz, weights);
+    const jitter = settings.jitter * factor(pins.jitter, f0);
+    const guideLength = settings.length * factor(pins.length, f0) * (1 + JITTER_LENGTH * jitter * (guideRandom(settings.seed, g, 0) - 0.5));
+    const lift = Math.min(90, settings.lift * factor(pins.lift, f0)) * (Math.PI / 180);
+    const params = {
+      length: guideLength,
+      lift,
+      droop: Math.min(1, settings.droop * factor(pins.droop, f0)),
+      gravity,
+      curlAmplitude: settings.curl.amplitude * factor(pins.curl, f0),
+      curlWavelength: settings.curl.wavelength,
+      curlPhase: 2 * Math.PI * guideRandom(settings.seed, g, 1),
+      jitterOffset: JITTER_LEAN * jitter * guideLength,
+      jitterAngle: 2 * Math.PI * guideRandom(settings.seed, g, 2),
+      clearance,
+    };
+
+    // The skin path: points at arc lengths s_i·cos(lift) along the streamline from the root.
+    const tt = now();
+    const step = guideLength / (n - 1);
+    for (let i = 1; i < n; i++) targets[i - 1] = i * step * Math.cos(lift);
+    const reached = tracer.trace(f0, rx, ry, rz, targets, n - 1, skin, skinFace, 1);
+    traceTime += now() - tt;
+    stop[g] = tracer.end.reason;
+    const e = tracer.end;
+    for (let i = 1; i < n; i++) {
+      if (i <= reached) {
+        barycentric(p, tri, skinFace[i], skin[3 * i], skin[3 * i + 1], skin[3 * i + 2], weights);
+        const f = skinFace[i];
+        let nx = 0, ny = 0, nz = 0;
+        for (let k = 0; k < 3; k++) {
+          const v = 3 * tri[3 * f + k];
+          nx += weights[k] * vertexNormal[v]; ny += weights[k] * vertexNormal[v + 1]; nz += weights[k] * vertexNormal[v + 2];
+        }
+        const l = Math.sqrt(nx * nx + ny * ny + nz * nz) || 1;
+        skinNormal[3 * i] = nx / l; skinNormal[3 * i + 1] = ny / l; skinNormal[3 * i + 2] = nz / l;
+      } else {
+        // Past the end of the skin path the guide carries straight on, over the last skin normal.
+        const beyond = targets[i - 1] - e.length;
+        skin[3 * i] = e.x + beyond * e.dx; skin[3 * i + 1] = e.y + beyond * e.dy; skin[3 * i + 2] = e.z + beyond * e.dz;
+        skinFace[i] = e.face;
+        for (let k = 0; k < 3; k++) skinNormal[3 * i + k] = i > 1 ? skinNormal[3 * (i - 1) + k] : faceNormal[3 * e.face + k];
+      }
+    }
+    const rootNormal = faceNormal.subarray(3 * f0, 3 * f0 + 3);
+    shapeGuide(points, g * n, n, roots.position.subarray(3 * g, 3 * g + 3), faceDirection.subarray(3 * f0, 3 * f0 + 3), rootNormal, skin, skinNormal, params);
+    pushedOut += keepAboveSkin(surface, points, g * n, n, skin, skinFace, reached, e, clearance, query);
+
+    let arc = 0;
+    for (let i = 1; i < n; i++) {
+      const q = 3 * (g * n + i);
+      arc += Math.hypot(points[q] - points[q - 3], points[q + 1] - points[q - 2], points[q + 2] - points[q - 1]);
+    }
+    length[g] = arc;
+  }
+  const t2 = now();
+  for (let i = 0; i < points.length; i++) {
+    if (!Number.isFinite(points[i])) throw new GroomError('non-finite-guide', `Guide ${Math.floor(i / (3 * n))} has a point that is not finite; the surface may have degenerate faces there.`);
+  }
+  return {
+    guides: {
+      count,
+      pointsPerGuide: n,
+      points,
+      rootFace: roots.face,
+      length,
+      stop,
+      rootWidth: settings.width,
+      tipWidth: settings.width * TIP_TAPER,
+      units: spec.units,
+      upAxis: spec.upAxis,
+      hairsPerGuide: settings.hairsPerGuide,
+    },
+    areaSquareCm,
+    pushedOut,
+    timings: { rootsMilliseconds: t1 - t0, traceMilliseconds: traceTime, shapeMilliseconds: t2 - t1 - traceTime },
+  };
+}
+
+/**
+ * Moves every point after the root that the skin's spatial index finds under the skin, or nearer
+ * to it than `clearance`, out along the skin's pseudo-normal to `clearance` above it; the points
+ * after it move with it, so the rest of the guide rests on the skin it met. Returns how many
+ * points moved.
+ *
+ * A point needs no look-up when it lies well inside the skin-free ball around the point before
+ * it: if the previous point is outside with no skin within `free`, a point less than
+ * `free − clearance` from it is outside too (the segment between them meets no skin) and keeps
+ * at least `clearance` from the skin.
+ */
+function keepAboveSkin(
+  surface: GroomSurface,
+  points: Float64Array,
+  first: number,
+  n: number,
+  skin: Float64Array,
+  skinFace: Uint32Array,
+  reached: number,
+  end: { x: number; y: number; z: number },
+  clearance: number,
+  query: Float64Array,
+): number {
+  let moved = 0;
+  // Radius of a ball around the previous point known to hold no skin (0 at the root, on the skin).
+  let free = 0;
+  for (let i = 1; i < n; i++) {
+    const q = 3 * (first + i);
+    const x = points[q], y = points[q + 1], z = points[q + 2];
+    const step = Math.sqrt((x - points[q - 3]) ** 2 + (y - points[q - 2]) ** 2 + (z - points[q - 1]) ** 2);
+    if (step + clearance <= free) {
+      free -= step;
+      continue;
+    }
+    // The point's skin point (or the end of the skin path) lies on the skin, so no closest skin
+    // point is farther than it is (plus rounding); that bound keeps the search small.
+    const rx = i <= reached ? skin[3 * i] : end.x, ry = i <= reached ? skin[3 * i + 1] : end.y, rz = i <= reached ? skin[3 * i + 2] : end.z;
+    const reach = Math.sqrt((x - rx) ** 2 + (y - ry) ** 2 + (z - rz) ** 2) + 2 * clearance;
+    if (!surface.skin.closest(x, y, z, reach, query, skinFace[i])) {
+      free = 0;
+      continue;
+    }
+    if (query[6] >= clearance) {
+      free = query[6];
+      continue;
+    }
+    const nl = Math.hypot(query[3], query[4], query[5]) || 1;
+    const dx = query[0] + (clearance * query[3]) / nl - x;
+    const dy = query[1] + (clearance * query[4]) / nl - y;
+    const dz = query[2] + (clearance * query[5]) / nl - z;
+    for (let j = i; j < n; j++) {
+      const r = 3 * (first + j);
+      points[r] += dx; points[r + 1] += dy; points[r + 2] += dz;
+    }
+    free = 0;
+    moved++;
+  }
+  return moved;
+}

@@ -1,0 +1,295 @@
+import { z } from 'zod';
+import { GroomError } from '../errors';
+
+/**
+ * The groom spec: every decision of a groom in one versioned JSON document, so that the same spec
+ * on the same surface gives the same guides. lib/groom/README.md ("The groom spec") documents
+ * each field, its unit and its range. Lengths are in the surface's declared `units`; angles in degrees; densities
+ * in guides per cm² whatever the units, because that is how densities are quoted in the trade.
+ */
+
+export const SPEC_VERSION = 2;
+
+export const UNITS = ['mm', 'cm', 'm', 'in'] as const;
+export type Unit = (typeof UNITS)[number];
+
+/** Centimetres in one surface unit. */
+export const CENTIMETRES_PER_UNIT: Readonly<Record<Unit, number>> = { mm: 0.1, cm: 1, m: 100, in: 2.54 };
+
+export const PIN_ATTRIBUTES = ['length', 'lift', 'droop', 'curl', 'jitter', 'density'] as const;
+export type PinAttribute = (typeof PIN_ATTRIBUTES)[number];
+
+const vec3 = z.tuple([z.number(), z.number(), z.number()]);
+const fileVertex = z.int().min(0).max(2 ** 32 - 2);
+const degrees = (low: number, high: number) => z.number().min(low).max(high);
+const size = z.number().positive().max(1e6);
+
+/** A place on the surface: a point snapped to the nearest vertex, or a vertex as numbered in the surface file. */
+const placement = {
+  point: vec3.optional(),
+  vertex: fileVertex.optional(),
+};
+
+function exactlyOnePlace(value: { point?: unknown; vertex?: unknown }, ctx: z.RefinementCtx): void {
+  if ((value.point === undefined) === (value.vertex === undefined)) {
+    ctx.addIssue({ code: 'custom', message: 'give either "point" or "vertex" (one of them, not both)' });
+  }
+}
+
+const singularitySchema = z
+  .strictObject({
+    ...placement,
+    index: z.number().min(-8).max(8).refine((x) => x !== 0, 'an index of 0 is no singularity'),
+    twist: degrees(0, 180).optional(),
+    handedness: z.enum(['counterclockwise', 'clockwise']).default('counterclockwise'),
+  })
+  .superRefine(exactlyOnePlace);
+
+const curveSchema = z
+  .strictObject({
+    points: z.array(vec3).min(2).max(10_000).optional(),
+    vertices: z.array(fileVertex).min(2).max(100_000).optional(),
+    closed: z.boolean().default(false),
+  })
+  .superRefine((value, ctx) => {
+    if ((value.points === undefined) === (value.vertices === undefined)) {
+      ctx.addIssue({ code: 'custom', message: 'give either "points" or "vertices" (one of them, not both)' });
+    }
+  });
+
+const strokeSchema = z.strictObject({ points: z.array(vec3).min(2).max(10_000) });
+
+const pinSchema = z
+  .strictObject({
+    attribute: z.enum(PIN_ATTRIBUTES),
+    ...placement,
+    value: z.number().min(0).max(10),
+  })
+  .superRefine(exactlyOnePlace);
+
+const fieldSchemaV2 = z.strictObject({
+  order: z.int().min(1).max(12).default(1),
+  boundary: z.enum(['free', 'tangent', 'normal']).default('free'),
+  rotation: degrees(-360, 360).default(0),
+  referenceDirection: vec3.refine((d) => Math.hypot(...d) > 0, 'the reference direction must not be zero').optional(),
+  singularities: z.array(singularitySchema).max(256).default([]),
+  partings: z.array(curveSchema).max(64).default([]),
+  crests: z.array(curveSchema).max(64).default([]),
+  strokes: z.array(strokeSchema).max(256).default([]),
+});
+
+const guideAmount = {
+  density: z.number().positive().max(10_000).optional(),
+  count: z.int().min(1).max(5_000_000).optional(),
+};
+
+function notBothAmounts(value: { density?: number; count?: number }, ctx: z.RefinementCtx): void {
+  if (value.density !== undefined && value.count !== undefined) {
+    ctx.addIssue({ code: 'custom', message: 'give either "density" or "count", not both' });
+  }
+}
+
+const guidesSchemaV2 = z
+  .strictObject({
+    ...guideAmount,
+    regions: z.array(z.string().min(1).max(200)).max(1000).default([]),
+    length: size.optional(),
+    lift: degrees(0, 90).default(20),
+    droop: z.number().min(0).max(1).default(0.3),
+    curl: z.strictObject({ amplitude: z.number().min(0).max(1e6).optional(), wavelength: size.optional() }).prefault({}),
+    jitter: z.number().min(0).max(1).default(0.1),
+    pointsPerGuide: z.int().min(2).max(64).default(16),
+    seed: z.int().min(0).max(2 ** 32 - 1).default(1),
+    width: size.optional(),
+    hairsPerGuide: z.int().min(1).max(100_000).default(100),
+  })
+  .superRefine(notBothAmounts);
+
+const specSchemaV2 = z
+  .strictObject({
+    specVersion: z.literal(2),
+    name: z.string().max(200).optional(),
+    units: z.enum(UNITS),
+    upAxis: z.enum(['y', 'z']).default('y'),
+    field: fieldSchemaV2,
+    guides: guidesSchemaV2.prefault({}),
+    pins: z.array(pinSchema).max(1024).default([]),
+  })
+  .superRefine((spec, ctx) => {
+    const order = spec.field.order;
+    spec.field.singularities.forEach((s, i) => {
+      if (Math.abs(s.index * order - Math.round(s.index * order)) > 1e-9) {
+        ctx.addIssue({ code: 'custom', path: ['field', 'singularities', i, 'index'], message: `must be a multiple of 1/${order} for a field of order ${order}` });
+      }
+    });
+  })
+  .transform((spec) => {
+    // Lengths whose sensible default depends on the declared units are filled here, so that the
+    // resolved spec written back out states every decision explicitly.
+    const perCm = 1 / CENTIMETRES_PER_UNIT[spec.units];
+    const g = spec.guides;
+    const length = g.length ?? 2 * perCm;
+    const amount = g.count !== undefined ? { count: g.count } : { density: g.density ?? 1 };
+    return {
+      ...spec,
+      guides: {
+        ...amount,
+        regions: g.regions,
+        length,
+        lift: g.lift,
+        droop: g.droop,
+        curl: { amplitude: g.curl.amplitude ?? 0, wavelength: g.curl.wavelength ?? perCm },
+        jitter: g.jitter,
+        pointsPerGuide: g.pointsPerGuide,
+        seed: g.seed,
+        width: g.width ?? 0.01 * perCm,
+        hairsPerGuide: g.hairsPerGuide,
+      },
+    };
+  });
+
+/** A groom spec as written by people and programs (defaults may be left out). */
+export type GroomSpecInput = z.input<typeof specSchemaV2>;
+/** A resolved groom spec: current version, every default filled in. */
+export type GroomSpec = z.output<typeof specSchemaV2>;
+export type SingularitySpec = GroomSpec['field']['singularities'][number];
+export type CurveSpec = GroomSpec['field']['partings'][number];
+export type StrokeSpec = GroomSpec['field']['strokes'][number];
+export type PinSpec = GroomSpec['pins'][number];
+export type GuideSettings = GroomSpec['guides'];
+/** A place on the surface as the spec gives it. */
+export interface PlaceSpec {
+  readonly point?: readonly [number, number, number];
+  readonly vertex?: number;
+}
+
+/**
+ * Version 1, the first published layout: no up axis (Y was assumed), curl as two flat numbers
+ * `curl` and `curlWavelength`, and pins inside `guides`.
+ */
+const specSchemaV1 = z.strictObject({
+  specVersion: z.literal(1),
+  name: z.string().max(200).optional(),
+  units: z.enum(UNITS),
+  field: z.strictObject({
+    order: z.int().min(1).max(12).optional(),
+    rotation: degrees(-360, 360).optional(),
+    singularities: z.array(singularitySchema).max(256).optional(),
+    partings: z.array(curveSchema).max(64).optional(),
+    crests: z.array(curveSchema).max(64).optional(),
+    strokes: z.array(strokeSchema).max(256).optional(),
+  }),
+  guides: z
+    .strictObject({
+      ...guideAmount,
+      regions: z.array(z.string().min(1).max(200)).max(1000).optional(),
+      length: size.optional(),
+      lift: degrees(0, 90).optional(),
+      droop: z.number().min(0).max(1).optional(),
+      curl: z.number().min(0).max(1e6).optional(),
+      curlWavelength: size.optional(),
+      jitter: z.number().min(0).max(1).optional(),
+      pointsPerGuide: z.int().min(2).max(64).optional(),
+      seed: z.int().min(0).max(2 ** 32 - 1).optional(),
+      pins: z.array(pinSchema).max(1024).optional(),
+    })
+    .superRefine(notBothAmounts)
+    .optional(),
+});
+
+/** Version 1 → 2: the up axis becomes explicit (Y, as version 1 assumed), curl one object, pins top level. */
+function migrateV1(raw: unknown): unknown {
+  const v1 = specSchemaV1.parse(raw);
+  const { pins, curl, curlWavelength, ...guides } = v1.guides ?? {};
+  return {
+    specVersion: 2,
+    ...(v1.name !== undefined ? { name: v1.name } : {}),
+    units: v1.units,
+    upAxis: 'y',
+    field: v1.field,
+    guides: { ...guides, curl: { amplitude: curl, wavelength: curlWavelength } },
+    pins: pins ?? [],
+  };
+}
+
+/** One problem in a spec: where (dotted path, `field.singularities[1].index`) and what. */
+export interface SpecProblem {
+  readonly path: string;
+  readonly message: string;
+}
+
+function formatPath(path: readonly PropertyKey[]): string {
+  let out = '';
+  for (const key of path) out += typeof key === 'number' ? `[${key}]` : `${out ? '.' : ''}${String(key)}`;
+  return out || '(the whole spec)';
+}
+
+function problemsOf(error: z.ZodError): SpecProblem[] {
+  return error.issues.flatMap((issue): SpecProblem[] => {
+    if (issue.code === 'unrecognized_keys') {
+      return issue.keys.map((key) => ({ path: formatPath([...issue.path, key]), message: 'is not a field of the groom spec' }));
+    }
+    return [{ path: formatPath(issue.path), message: issue.message }];
+  });
+}
+
+/**
+ * Checks a spec of any supported version and brings it to the current one.
+ *
+ * Guarantees: returns either the resolved current-version spec (every default filled in) or every
+ * problem found, each with the dotted path of the offending field; unknown fields and values out
+ * of range are problems, never silently dropped or clamped.
+ */
+export function validateGroomSpec(input: unknown): { spec: GroomSpec; problems?: undefined } | { spec?: undefined; problems: SpecProblem[] } {
+  if (typeof input !== 'object' || input === null || Array.isArray(input)) {
+    return { problems: [{ path: '(the whole spec)', message: 'must be a JSON object' }] };
+  }
+  const version = (input as { specVersion?: unknown }).specVersion;
+  let current: unknown = input;
+  if (version === 1) {
+    try {
+      current = migrateV1(input);
+    } catch (error) {
+      if (error instanceof z.ZodError) return { problems: problemsOf(error) };
+      throw error;
+    }
+  } else if (version !== SPEC_VERSION) {
+    const said = version === undefined ? 'is missing' : `is ${JSON.stringify(version)}`;
+    return { problems: [{ path: 'specVersion', message: `${said}; this version of Whorlwind reads spec versions 1 to ${SPEC_VERSION}` }] };
+  }
+  const result = specSchemaV2.safeParse(current);
+  return result.success ? { spec: result.data } : { problems: problemsOf(result.error) };
+}
+
+/**
+ * Parses a spec (any supported version) into the resolved current version.
+ *
+ * Guarantees: throws GroomError `invalid-spec` whose message starts with the dotted path of the
+ * first bad field (and whose `path` holds it) when anything is unknown, missing or out of range.
+ */
+export function parseGroomSpec(input: unknown): GroomSpec {
+  const result = validateGroomSpec(input);
+  if (result.spec) return result.spec;
+  const [first, ...rest] = result.problems;
+  const more = rest.length > 0 ? ` (and ${rest.length} more problem${rest.length > 1 ? 's' : ''})` : '';
+  throw new GroomError('invalid-spec', `${first.path}: ${first.message}${more}`, first.path);
+}
+
+/** Parses spec JSON text. Guarantees: a GroomError `invalid-json` for text that is not JSON, else as `parseGroomSpec`. */
+export function parseGroomSpecJson(text: string): GroomSpec {
+  let input: unknown;
+  try {
+    input = JSON.parse(text);
+  } catch (error) {
+    throw new GroomError('invalid-json', `The groom spec is not valid JSON: ${(error as Error).message}`);
+  }
+  return parseGroomSpec(input);
+}
+
+/**
+ * The spec as the `.json` export: the resolved current version, two-space indented, one final
+ * newline. Guarantees: `parseGroomSpecJson(specToJson(s))` deep-equals `s`.
+ */
+export function specToJson(spec: GroomSpec): string {
+  return `${JSON.stringify(spec, null, 2)}\n`;
+}
