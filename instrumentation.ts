@@ -5,7 +5,7 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
   // Imported here, not at the top, so that the edge runtime's bundle never includes pg-boss or sharp.
   const { startStudioWorkers } = await import('./lib/studio/workers');
-  const { startMarketWorkers } = await import('./lib/market/jobs');
+  const { startMarketWorkers } = await import('./lib/market/workers');
   for (const [area, start] of [['studio', startStudioWorkers], ['market', startMarketWorkers]] as const) {
     try {
       await start();

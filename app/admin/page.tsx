@@ -4,7 +4,7 @@ import { ModerationQueue } from '@/components/admin/ModerationQueue';
 import { PurchaseList } from '@/components/admin/PurchaseList';
 import { requireArea } from '@/lib/accounts/session';
 import { listListingsForAdmin } from '@/lib/market/listings';
-import { listPurchasesForAdmin } from '@/lib/market/refunds';
+import { listPurchasesForAdmin } from '@/lib/market/payments/refunds';
 
 export const metadata: Metadata = { title: 'Admin' };
 

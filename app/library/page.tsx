@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { LibraryList } from '@/components/market/LibraryList';
-import { actorOf } from '@/components/market/session-actor';
+import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
 import { listLibrary } from '@/lib/market/library';
 

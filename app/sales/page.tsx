@@ -1,10 +1,10 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { actorOf } from '@/components/market/session-actor';
 import { Payouts } from '@/components/sales/Payouts';
 import { SalesDashboard } from '@/components/sales/SalesDashboard';
 import { SellerListings } from '@/components/sales/SellerListings';
 import { Notice } from '@/components/ui/Notice';
+import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
 import { listOwnListings } from '@/lib/market/listings';
 import { listPayouts, salesReport } from '@/lib/market/sales';

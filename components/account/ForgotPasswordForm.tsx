@@ -6,7 +6,7 @@ import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { postJson } from '@/lib/http/client';
 import { emailOnlySchema } from '@/lib/accounts/schemas';
-import type { PasswordResetRequestResponse } from '@/app/api/account/password-reset/route';
+import type { PasswordResetRequestResponse } from '@/lib/accounts/types';
 
 export function ForgotPasswordForm() {
   const form = useValidatedForm(emailOnlySchema);

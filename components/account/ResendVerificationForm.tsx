@@ -6,7 +6,7 @@ import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { postJson } from '@/lib/http/client';
 import { emailOnlySchema } from '@/lib/accounts/schemas';
-import type { ResendVerificationResponse } from '@/app/api/account/verification/route';
+import type { ResendVerificationResponse } from '@/lib/accounts/types';
 
 export function ResendVerificationForm({ email = '' }: { email?: string }) {
   const form = useValidatedForm(emailOnlySchema);

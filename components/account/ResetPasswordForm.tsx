@@ -8,7 +8,7 @@ import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { postJson } from '@/lib/http/client';
 import { PASSWORD_MIN_LENGTH, resetPasswordSchema } from '@/lib/accounts/schemas';
 import type { ApiErrorCode } from '@/lib/http/types';
-import type { PasswordResetConfirmResponse } from '@/app/api/account/password-reset/confirm/route';
+import type { PasswordResetConfirmResponse } from '@/lib/accounts/types';
 
 const TOKEN_PROBLEMS: ApiErrorCode[] = ['invalid-token', 'expired-token', 'used-token'];
 

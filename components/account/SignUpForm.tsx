@@ -7,7 +7,7 @@ import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { postJson } from '@/lib/http/client';
 import { PASSWORD_MIN_LENGTH, signUpSchema } from '@/lib/accounts/schemas';
-import type { SignUpResponse } from '@/app/api/account/sign-up/route';
+import type { SignUpResponse } from '@/lib/accounts/types';
 
 const ROLE_CHOICES = [
   { value: 'groomer', title: 'I groom', text: 'Build coats in the studio, sell presets — and buy them too.' },

@@ -2,7 +2,7 @@
 import useSWR from 'swr';
 import { Notice } from '@/components/ui/Notice';
 import { fetchData, type ApiRequestError } from '@/lib/http/client';
-import type { CaughtMailResponse } from '@/app/api/admin/mail/route';
+import type { CaughtMailResponse } from '@/lib/platform/types';
 
 const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium' });
 

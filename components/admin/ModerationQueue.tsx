@@ -9,8 +9,7 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
-import type { AdminListingsResponse } from '@/app/api/admin/listings/route';
-import type { ListingSummary } from '@/lib/market/types';
+import type { AdminListingsResponse, DecisionResponse, ListingSummary } from '@/lib/market/types';
 import { decisionSchema } from '@/lib/market/validation';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDateTime } from '@/components/market/format';
@@ -65,7 +64,7 @@ function QueueItem({ listing, onDecided }: { listing: ListingSummary; onDecided:
   async function decide(approve: boolean, reason?: string) {
     setBusy(true);
     setProblem(null);
-    const outcome = await postJson<{ listing: ListingSummary }>(`/api/admin/listings/${listing.id}/decision`, { approve, reason });
+    const outcome = await postJson<DecisionResponse>(`/api/admin/listings/${listing.id}/decision`, { approve, reason });
     setBusy(false);
     if (!outcome.ok) return outcome.error;
     await onDecided(approve ? `“${listing.title}” is on the market; the seller has been told.` : `“${listing.title}” went back to its seller with your reason.`);

@@ -7,10 +7,7 @@ import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
-import type { AdminPurchasesResponse } from '@/app/api/admin/purchases/route';
-import type { RefundResponse } from '@/app/api/admin/purchases/[id]/refund/route';
-import type { ReconcileResponse } from '@/app/api/admin/reconcile/route';
-import type { AdminPurchase } from '@/lib/market/types';
+import type { AdminPurchase, AdminPurchasesResponse, ReconcileResponse, RefundResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDateTime } from '@/components/market/format';
 

@@ -9,6 +9,7 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { postJson } from '@/lib/http/client';
 import type { ApiError } from '@/lib/http/types';
+import type { CheckoutResponse } from '@/lib/market/types';
 import { rememberCheckout } from './pending-checkout';
 
 export function BuyButton({ listingId, title, priceLabel }: { listingId: string; title: string; priceLabel: string }) {
@@ -18,7 +19,7 @@ export function BuyButton({ listingId, title, priceLabel }: { listingId: string;
   async function buy() {
     setBusy(true);
     setProblem(null);
-    const outcome = await postJson<{ url: string }>(`/api/market/listings/${listingId}/checkout`, {});
+    const outcome = await postJson<CheckoutResponse>(`/api/market/listings/${listingId}/checkout`, {});
     if (outcome.ok) {
       rememberCheckout({ listingId, title });
       window.location.assign(outcome.data.url);

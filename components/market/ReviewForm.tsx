@@ -8,10 +8,9 @@ import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { fetchData, request, type ApiRequestError } from '@/lib/http/client';
-import type { ListingResponse } from '@/app/api/market/listings/[id]/route';
-import type { ReviewResponse } from '@/app/api/market/listings/[id]/review/route';
 import { reviewSchema } from '@/lib/market/validation';
 import { TextAreaField, textAreaField } from './TextAreaField';
+import type { ListingResponse, ReviewResponse } from '@/lib/market/types';
 
 // The form's values are text; the rules are the route's own.
 const reviewFormSchema = z.object({

@@ -7,10 +7,9 @@ import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
-import type { PayoutResponse, PayoutsResponse } from '@/app/api/sales/payouts/route';
-import type { SalesResponse } from '@/app/api/sales/route';
 import { formatPrice, type Currency } from '@/lib/market/vocabulary';
 import { formatDateTime } from '@/components/market/format';
+import type { PayoutResponse, PayoutsResponse, SalesResponse } from '@/lib/market/types';
 
 export function Payouts({ initialPayouts, balance }: { initialPayouts: PayoutsResponse; balance: SalesResponse['balance'] }) {
   const router = useRouter();

@@ -7,8 +7,7 @@ import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
-import type { OwnListingsResponse } from '@/app/api/market/listings/route';
-import type { ListingSummary } from '@/lib/market/types';
+import type { ListingSummary, OwnListingsResponse, UpdateListingResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDate } from '@/components/market/format';
 import { StateBadge } from '@/components/market/StateBadge';
@@ -49,7 +48,7 @@ function ListingRow({ listing, highlighted, onChanged }: { listing: ListingSumma
   async function act(action: 'submit' | 'unlist') {
     setBusy(true);
     setProblem(null);
-    const outcome = await postJson<{ listing: ListingSummary }>(`/api/market/listings/${listing.id}/${action}`, {});
+    const outcome = await postJson<UpdateListingResponse>(`/api/market/listings/${listing.id}/${action}`, {});
     setBusy(false);
     if (!outcome.ok) setProblem(outcome.error.message);
     else onChanged();

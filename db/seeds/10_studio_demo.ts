@@ -10,7 +10,7 @@ import { closeDb } from '../../lib/platform/db';
 import { DEMO_GROOMS, surfaceToObj, type DemoGroom } from '../../lib/groom/demo';
 import type { SurfaceUnits } from '../../lib/studio/types';
 import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
-import type { Groomer } from '../../lib/studio/http';
+import type { Groomer } from '../../lib/accounts/actor';
 import { stopJobs } from '../../lib/platform/jobs';
 import { createSurfaceUpload, registerSurface } from '../../lib/studio/surfaces';
 

@@ -1,7 +1,8 @@
 // The accounts room: who someone is and what they may do: sign-up, e-mail confirmation,
-// password reset, sign-in with its limits, sessions and roles. Server code, except roles.ts,
-// schemas.ts, sign-in-problems.ts and safe-callback.ts, which are plain data and rules that client
-// components import directly (never through this index, which pulls in next-auth and the database).
+// password reset, sign-in with its limits, sessions and roles, and the Actor that server calls act
+// for (actor.ts). Server code, except roles.ts, schemas.ts, sign-in-problems.ts, safe-callback.ts and
+// types.ts (the account routes' answers), which are plain data and rules that client components
+// import directly (never through this index, which pulls in next-auth and the database).
 export * from './roles';
 export * from './schemas';
 export * from './sign-in-problems';
@@ -10,4 +11,6 @@ export * from './passwords';
 export * from './users';
 export * from './sign-in';
 export * from './session';
+export * from './actor';
 export * from './mail-texts';
+export * from './types';

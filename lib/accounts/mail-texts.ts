@@ -1,10 +1,7 @@
 // The texts of the account e-mails. Links are absolute, built on NEXTAUTH_URL.
 import { env } from '../platform/env';
+import { escapeHtml } from '../platform/html';
 import type { OutgoingMail } from '../platform/mail';
-
-function escapeHtml(value: string) {
-  return value.replace(/[&<>"']/g, (character) => `&#${character.charCodeAt(0)};`);
-}
 
 function link(path: string, token: string) {
   const url = new URL(path, env().NEXTAUTH_URL);

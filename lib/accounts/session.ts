@@ -1,5 +1,6 @@
 // Sign-in with next-auth: e-mail and password (credentials provider), JWT sessions with the
-// user's roles in the token, and the server-side checks that pages and route handlers use.
+// user's roles in the token, and the server-side check that pages use (route handlers check in
+// lib/http/server.ts).
 import type { NextAuthOptions, Session } from 'next-auth';
 import { getServerSession } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
@@ -7,7 +8,6 @@ import { forbidden, redirect } from 'next/navigation';
 import { env } from '../platform/env';
 import { checkCredentials } from './sign-in';
 import { area, isRole, mayEnter, type AreaId, type Role } from './roles';
-import { jsonError } from '../http/server';
 
 // The address the proxy in front of the app reports. A client can forge these headers, so the
 // per-client limit only slows down spraying; the per-address limit is what protects an account.
@@ -76,19 +76,4 @@ export async function requireArea(areaId: AreaId): Promise<SignedInSession | nul
   if (!session) redirect(`/signin?callbackUrl=${encodeURIComponent(target.href)}`);
   if (!mayEnter(target, session.user.roles)) forbidden();
   return session;
-}
-
-type ApiAccess = { ok: true; session: SignedInSession } | { ok: false; response: ReturnType<typeof jsonError> };
-
-/** For route handlers: 401 without a session, 403 without one of the roles. */
-export async function requireApiRoles(roles: readonly Role[]): Promise<ApiAccess> {
-  const session = await currentSession();
-  if (!session) return { ok: false, response: jsonError(401, 'not-signed-in', 'Sign in first.') };
-  if (!roles.some((role) => session.user.roles.includes(role))) {
-    return {
-      ok: false,
-      response: jsonError(403, 'forbidden', `This needs the ${roles.join(' or ')} role; your account does not have it.`),
-    };
-  }
-  return { ok: true, session };
 }

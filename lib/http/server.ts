@@ -1,34 +1,99 @@
-// Helpers for route handlers: read and validate JSON input, answer in the shared envelope.
+// The one way a route handler under app/api answers: `handler` checks who may call (401 / 403),
+// hands the work the signed-in Actor, and turns an HttpError into the JSON envelope; ids from the
+// path, the JSON body and the query are read here too, failing as HttpErrors.
 import { NextResponse } from 'next/server';
-import type { z } from 'zod';
+import { z } from 'zod';
+import { actorOf, type Actor } from '../accounts/actor';
+import type { Role } from '../accounts/roles';
+import { currentSession } from '../accounts/session';
+import { HttpError } from './errors';
 import { fieldErrors } from './field-errors';
-import type { ApiError, ApiErrorCode, ApiFailure, ApiSuccess } from './types';
+import type { ApiFailure, ApiSuccess } from './types';
 
 export function jsonData<T>(data: T, status = 200) {
   return NextResponse.json<ApiSuccess<T>>({ data }, { status });
 }
 
-export function jsonError(status: number, code: ApiErrorCode, message: string, fields?: ApiError['fields']) {
-  const error: ApiError = fields ? { code, message, fields } : { code, message };
-  return NextResponse.json<ApiFailure>({ error }, { status });
+function errorResponse(error: HttpError) {
+  return NextResponse.json<ApiFailure>({ error: error.toApiError() }, { status: error.status });
 }
 
-type Parsed<T> = { ok: true; value: T } | { ok: false; response: NextResponse<ApiFailure> };
+async function signedInActor(roles: readonly Role[]): Promise<Actor> {
+  const session = await currentSession();
+  if (!session) throw new HttpError(401, 'not-signed-in', 'Sign in first.');
+  if (!roles.some((role) => session.user.roles.includes(role))) {
+    throw new HttpError(403, 'forbidden', `This needs the ${roles.join(' or ')} role; your account does not have it.`);
+  }
+  return actorOf(session);
+}
 
-/** Parses the request body as JSON and validates it; the failure is a ready 400 response. */
-export async function readJson<Schema extends z.ZodType>(request: Request, schema: Schema): Promise<Parsed<z.infer<Schema>>> {
-  let body: unknown;
+/**
+ * Runs a route handler's work for those who may call it, and answers an HttpError it throws in
+ * the envelope (other errors stay server errors):
+ * - roles: signed in with one of them (401 signed out, 403 without), the work gets the Actor;
+ * - 'public': anyone, the work gets the Actor or null when nobody is signed in;
+ * - 'none': no session is read at all (sign-up, the payment provider's webhook, the search).
+ */
+export function handler(access: readonly Role[], work: (actor: Actor) => Promise<Response>): Promise<Response>;
+export function handler(access: 'public', work: (actor: Actor | null) => Promise<Response>): Promise<Response>;
+export function handler(access: 'none', work: () => Promise<Response>): Promise<Response>;
+export async function handler(access: readonly Role[] | 'public' | 'none', work: (actor: Actor) => Promise<Response>): Promise<Response> {
   try {
-    body = await request.json();
-  } catch {
-    return { ok: false, response: jsonError(400, 'invalid-input', 'The request body must be JSON.') };
+    if (access === 'none') return await (work as () => Promise<Response>)();
+    if (access === 'public') {
+      const session = await currentSession();
+      return await (work as (actor: Actor | null) => Promise<Response>)(session ? actorOf(session) : null);
+    }
+    return await work(await signedInActor(access));
+  } catch (error) {
+    if (error instanceof HttpError) return errorResponse(error);
+    throw error;
   }
-  const result = schema.safeParse(body);
-  if (!result.success) {
-    return {
-      ok: false,
-      response: jsonError(400, 'invalid-input', 'Some fields need another look.', fieldErrors(result.error)),
-    };
+}
+
+const uuid = z.uuid();
+
+/**
+ * The id named `key` in the route's parameters, lower-cased; when it cannot be an id, `missing`
+ * is thrown (the area's not-found error: a malformed id is as unknown as a missing one).
+ */
+export async function pathId<Key extends string>(params: Promise<Record<Key, string>>, key: Key, missing: HttpError): Promise<string> {
+  const value = (await params)[key];
+  if (!uuid.safeParse(value).success) throw missing;
+  return value.toLowerCase();
+}
+
+/** Validates a value with a schema; a failure is a 400 invalid-input with a message per field. */
+export function parseInput<Schema extends z.ZodType>(schema: Schema, value: unknown): z.infer<Schema> {
+  const result = schema.safeParse(value);
+  if (!result.success) throw new HttpError(400, 'invalid-input', 'Some fields need another look.', { fields: fieldErrors(result.error) });
+  return result.data;
+}
+
+/**
+ * The JSON body, validated with the schema (400 invalid-input when it is not JSON, or with a
+ * message per field). An empty body counts as `{}`, for calls whose fields are all optional.
+ */
+export async function readBody<Schema extends z.ZodType>(request: Request, schema: Schema): Promise<z.infer<Schema>> {
+  const raw = await request.text();
+  let body: unknown = {};
+  if (raw.trim() !== '') {
+    try {
+      body = JSON.parse(raw);
+    } catch {
+      throw new HttpError(400, 'invalid-input', 'The request body must be JSON.');
+    }
   }
-  return { ok: true, value: result.data };
+  return parseInput(schema, body);
+}
+
+/** Query parameters as a plain object (a repeated key gives all its values, in order). */
+export function queryOf(request: Request): Record<string, string | string[]> {
+  const params = new URL(request.url).searchParams;
+  const out: Record<string, string | string[]> = {};
+  for (const key of new Set(params.keys())) {
+    const all = params.getAll(key);
+    out[key] = all.length > 1 ? all : all[0];
+  }
+  return out;
 }

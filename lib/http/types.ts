@@ -2,22 +2,39 @@
 // Success: { data: T } with a 2xx status. Failure: { error: ApiError } with a 4xx/5xx status.
 import type { FieldErrors } from './field-errors';
 
+/** Every error code a route handler may answer with, the accounts', the studio's and the market's. */
 export type ApiErrorCode =
   | 'invalid-input'
-  | 'email-taken'
-  | 'invalid-token'
-  | 'expired-token'
-  | 'used-token'
   | 'not-signed-in'
   | 'forbidden'
   | 'not-found'
   | 'mail-failed'
   | 'service-unavailable'
+  // accounts
+  | 'email-taken'
+  | 'invalid-token'
+  | 'expired-token'
+  | 'used-token'
+  // studio
   | 'upload-missing'
   | 'surface-rejected'
   | 'surface-in-use'
   | 'invalid-spec'
-  | 'stale-revision';
+  | 'stale-revision'
+  // market
+  | 'bad-signature'
+  | 'own-listing'
+  | 'already-owned'
+  | 'not-for-sale'
+  | 'wrong-state'
+  | 'assets-pending'
+  | 'package-pending'
+  | 'refunded'
+  | 'refund-pending'
+  | 'not-owned'
+  | 'nothing-to-pay-out'
+  | 'choose-currency'
+  | 'payment-provider';
 
 /** `details` carries what a code needs beyond words, e.g. the problems of a rejected surface. */
 export type ApiError = { code: ApiErrorCode; message: string; fields?: FieldErrors; details?: Record<string, unknown> };

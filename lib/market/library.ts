@@ -2,12 +2,14 @@
 // answered with a presigned URL of the listing's package that lives 5 minutes; a refunded
 // purchase (or one whose refund is under way) downloads nothing.
 import { db } from '../platform/db';
-import { MarketError, notFound } from './errors';
-import type { Actor } from './http';
+import { HttpError } from '../http/errors';
+import { notFound } from './errors';
+import type { Actor } from '../accounts/actor';
 import { enqueueListingAssets } from './jobs';
 import { cardPictureUrl } from './listings';
-import { DOWNLOAD_URL_SECONDS, presignMarketObject } from './storage';
-import type { LibraryItem } from './types';
+import { presignDownload } from '../platform/storage';
+import { DOWNLOAD_URL_SECONDS } from './storage';
+import type { DownloadLink, LibraryItem } from './types';
 
 export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
   const counts = db()('downloads').select('purchase_id').count('* as downloads').groupBy('purchase_id').as('d');
@@ -58,19 +60,17 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
   }));
 }
 
-export type DownloadLink = { url: string; fileName: string; expiresInSeconds: number };
-
 export async function requestDownload(actor: Actor, purchaseId: string): Promise<DownloadLink> {
   const purchase = await db()('purchases as p')
     .leftJoin('listing_packages as k', 'k.listing_id', 'p.listing_id')
     .where({ 'p.id': purchaseId, 'p.buyer_id': actor.userId })
     .first('p.id', 'p.listing_id', 'p.status', 'p.refund_id', 'k.object_key', 'k.file_name');
   if (!purchase) throw notFound('purchase');
-  if (purchase.status === 'refunded') throw new MarketError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
-  if (purchase.refund_id) throw new MarketError(403, 'refunded', 'This purchase is being refunded: its files are no longer yours to download.');
+  if (purchase.status === 'refunded') throw new HttpError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
+  if (purchase.refund_id) throw new HttpError(403, 'refunded', 'This purchase is being refunded: its files are no longer yours to download.');
   if (!purchase.object_key) {
     await enqueueListingAssets(purchase.listing_id).catch(() => undefined);
-    throw new MarketError(409, 'package-pending', 'The files of this preset are still being packed; try again in a minute.');
+    throw new HttpError(409, 'package-pending', 'The files of this preset are still being packed; try again in a minute.');
   }
   // Logged only while the purchase is still paid (a refund landing meanwhile wins).
   const logged = await db().transaction(async (trx) => {
@@ -79,9 +79,9 @@ export async function requestDownload(actor: Actor, purchaseId: string): Promise
     await trx('downloads').insert({ purchase_id: purchase.id, listing_id: purchase.listing_id });
     return true;
   });
-  if (!logged) throw new MarketError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
+  if (!logged) throw new HttpError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
   return {
-    url: await presignMarketObject(purchase.object_key, DOWNLOAD_URL_SECONDS, purchase.file_name),
+    url: await presignDownload(purchase.object_key, DOWNLOAD_URL_SECONDS, purchase.file_name),
     fileName: purchase.file_name,
     expiresInSeconds: DOWNLOAD_URL_SECONDS,
   };

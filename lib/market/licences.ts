@@ -2,6 +2,7 @@
 // before paying, and the package carries it as LICENCE.txt. Seeded by db/seeds/*market* (upsert
 // by slug), read from the database by everything else.
 import { db } from '../platform/db';
+import type { Licence } from './types';
 
 export type LicenceText = { slug: string; title: string; summary: string; body: string; position: number };
 
@@ -86,8 +87,6 @@ ${COMMON_TERMS}
 ${NOT_LEGAL_ADVICE}`,
   },
 ];
-
-export type Licence = { id: string; slug: string; title: string; summary: string; body: string };
 
 /** The licences a listing can carry, in the order they are offered. */
 export async function listLicences(): Promise<Licence[]> {

@@ -1,11 +1,9 @@
 // The market's e-mails: listing approved or rejected (to the seller), receipt (to the buyer),
 // sale notice (to the seller), refund notice (to the buyer). Plain text with a simple HTML twin.
 import { env } from '../platform/env';
+import { escapeHtml } from '../platform/html';
 import { sendMail, type OutgoingMail } from '../platform/mail';
 import { TAX_NOTE, formatPrice } from './vocabulary';
-
-const escapeHtml = (value: string) =>
-  value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 const link = (path: string) => `${env().NEXTAUTH_URL.replace(/\/$/, '')}${path}`;
 

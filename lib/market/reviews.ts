@@ -1,8 +1,9 @@
 // Reviews: a buyer who owns a preset (a paid purchase, not refunded) rates it 1–5 with some words,
 // once, and may edit it. The listing's average and count change in the same transaction.
 import { db } from '../platform/db';
-import { MarketError, notFound } from './errors';
-import type { Actor } from './http';
+import { HttpError } from '../http/errors';
+import { notFound } from './errors';
+import type { Actor } from '../accounts/actor';
 import type { Review } from './types';
 
 export async function saveReview(actor: Actor, listingId: string, input: { rating: number; body: string }): Promise<Review> {
@@ -10,7 +11,7 @@ export async function saveReview(actor: Actor, listingId: string, input: { ratin
     const listing = await trx('listings').where({ id: listingId }).forUpdate().first('id', 'seller_id');
     if (!listing) throw notFound('listing');
     const owns = await trx('purchases').where({ listing_id: listingId, buyer_id: actor.userId, status: 'paid' }).whereNull('refund_id').first('id');
-    if (!owns) throw new MarketError(403, 'not-owned', 'Only buyers who own this preset can review it.');
+    if (!owns) throw new HttpError(403, 'not-owned', 'Only buyers who own this preset can review it.');
     const [review] = await trx('reviews')
       .insert({ listing_id: listingId, buyer_id: actor.userId, rating: input.rating, body: input.body })
       .onConflict(['listing_id', 'buyer_id'])

@@ -9,8 +9,9 @@ import { randomUUID } from 'node:crypto';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
 import { payments } from '../platform/payments';
-import { MarketError, providerFailed } from './errors';
-import type { Actor } from './http';
+import { HttpError } from '../http/errors';
+import { providerFailed } from './errors';
+import type { Actor } from '../accounts/actor';
 import type { Payout, SalesFigures, SalesReport } from './types';
 import type { SalesQuery } from './validation';
 import { TAX_NOTE, type Currency } from './vocabulary';
@@ -185,12 +186,12 @@ export async function requestPayout(actor: Actor, currency?: Currency): Promise<
     const available = (await balances(actor.userId)).filter((b) => b.availableCents > 0);
     const chosen = currency ? available.find((b) => b.currency === currency) : available[0];
     if (!currency && available.length > 1) {
-      throw new MarketError(400, 'choose-currency', `You have money to pay out in ${available.map((b) => b.currency.toUpperCase()).join(' and ')}: choose one.`, {
+      throw new HttpError(400, 'choose-currency', `You have money to pay out in ${available.map((b) => b.currency.toUpperCase()).join(' and ')}: choose one.`, {
         details: { currencies: available.map((b) => b.currency) },
       });
     }
     if (!chosen) {
-      throw new MarketError(409, 'nothing-to-pay-out', currency ? `There is nothing to pay out in ${currency.toUpperCase()}.` : 'There is nothing to pay out yet.');
+      throw new HttpError(409, 'nothing-to-pay-out', currency ? `There is nothing to pay out in ${currency.toUpperCase()}.` : 'There is nothing to pay out yet.');
     }
     let account = await trx('seller_accounts').where({ user_id: actor.userId }).first('account_id');
     if (!account) {

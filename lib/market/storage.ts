@@ -1,8 +1,7 @@
 // Object storage as the market uses it: each listing's frozen surface, pictures, guide preview and
-// package under market/listings/<id>/; handed out only through short-lived presigned URLs after
-// the market's own checks (the store itself checks nothing locally).
-import { CopyObjectCommand, DeleteObjectsCommand, GetObjectCommand } from '@aws-sdk/client-s3';
-import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+// package under market/listings/<id>/; handed out only through short-lived presigned URLs
+// (presignDownload of lib/platform/storage.ts) after the market's own checks.
+import { CopyObjectCommand, DeleteObjectsCommand } from '@aws-sdk/client-s3';
 import { env } from '../platform/env';
 import { storageClient } from '../platform/storage';
 
@@ -12,13 +11,6 @@ export const DOWNLOAD_URL_SECONDS = 5 * 60;
 export const PICTURE_URL_SECONDS = 10 * 60;
 
 export const listingPrefix = (listingId: string) => `market/listings/${listingId}`;
-
-export function presignMarketObject(key: string, seconds: number, downloadAs?: string): Promise<string> {
-  const disposition = downloadAs ? `attachment; filename="${downloadAs.replace(/["\\\r\n]/g, '_')}"` : undefined;
-  return getSignedUrl(storageClient(), new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key, ResponseContentDisposition: disposition }), {
-    expiresIn: seconds,
-  });
-}
 
 /** Copies an object inside the bucket (the frozen surface of a listing). */
 export async function copyObject(fromKey: string, toKey: string): Promise<void> {

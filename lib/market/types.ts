@@ -113,3 +113,46 @@ export type AdminPurchase = {
   createdAt: string;
   refundedAt: string | null;
 };
+
+export type Licence = { id: string; slug: string; title: string; summary: string; body: string };
+
+export type DownloadLink = { url: string; fileName: string; expiresInSeconds: number };
+
+// What each route handler answers with (docs/market-api.md), by route.
+
+/** GET /api/market/licences */
+export type LicencesResponse = { licences: Licence[] };
+/** POST /api/market/listings */
+export type CreateListingResponse = { listing: ListingSummary };
+/** GET /api/market/listings */
+export type OwnListingsResponse = { listings: ListingSummary[] };
+/** GET /api/market/listings/[id] */
+export type ListingResponse = { listing: ListingDetail };
+/** PATCH /api/market/listings/[id], and its submit and unlist */
+export type UpdateListingResponse = { listing: ListingSummary };
+/** PUT /api/market/listings/[id]/review */
+export type ReviewResponse = { review: Review };
+/** POST /api/market/listings/[id]/checkout */
+export type CheckoutResponse = { url: string; sessionId: string };
+/** GET /api/library */
+export type LibraryResponse = { purchases: LibraryItem[] };
+/** POST /api/library/[purchaseId]/download */
+export type DownloadResponse = DownloadLink;
+/** GET /api/sales */
+export type SalesResponse = SalesReport;
+/** POST /api/sales/payouts */
+export type PayoutResponse = { payout: Payout };
+/** GET /api/sales/payouts */
+export type PayoutsResponse = { payouts: Payout[] };
+/** GET /api/admin/listings */
+export type AdminListingsResponse = { listings: ListingSummary[] };
+/** POST /api/admin/listings/[id]/decision */
+export type DecisionResponse = { listing: ListingSummary };
+/** GET /api/admin/purchases */
+export type AdminPurchasesResponse = { purchases: AdminPurchase[] };
+/** POST /api/admin/purchases/[id]/refund */
+export type RefundResponse = { purchase: AdminPurchase };
+/** POST /api/admin/reconcile */
+export type ReconcileResponse = { recovered: number; checked: number };
+/** POST /api/payments/webhook */
+export type WebhookResponse = { received: true; id: string; type: string; outcome: 'handled' | 'duplicate' | 'ignored' };

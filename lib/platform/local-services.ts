@@ -17,7 +17,7 @@ export const TEST_PORTS: LocalPorts = { app: 3100, postgres: 54330, s3: 54331, s
 export const LOCAL_DATABASE = { user: 'whorlwind', password: 'whorlwind-local', demoName: 'whorlwind', testName: 'whorlwind_test' };
 export const LOCAL_S3 = { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', bucket: 'whorlwind', region: 'us-east-1' };
 export const LOCAL_STRIPE_SECRET_KEY = 'sk_test_whorlwind_local';
-/** Signs the payments fake's webhooks; the app checks them with it (lib/market/webhooks.ts). */
+/** Signs the payments fake's webhooks; the app checks them with it (lib/market/payments/webhooks.ts). */
 export const LOCAL_STRIPE_WEBHOOK_SECRET = 'whsec_whorlwind_local_webhooks';
 // Only for local runs; lib/platform/env.ts refuses to use it when NEXTAUTH_URL is not a loopback address.
 export const LOCAL_NEXTAUTH_SECRET = 'whorlwind-local-only-secret-do-not-use-in-production';

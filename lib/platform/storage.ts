@@ -48,9 +48,29 @@ export function presignUpload(key: string, contentType: string): Promise<string>
   });
 }
 
-export function presignDownload(key: string): Promise<string> {
-  return getSignedUrl(storageClient(), new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key }), {
-    expiresIn: PRESIGNED_URL_SECONDS,
+/**
+ * The Content-Disposition that saves a download as `fileName` (RFC 6266): a quoted ASCII
+ * `filename` (accents dropped, anything else unsafe as `_`), and when that is not the exact name,
+ * the name itself in UTF-8 as `filename*` (RFC 5987), which browsers prefer.
+ */
+export function attachmentDisposition(fileName: string): string {
+  const ascii = fileName
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .replace(/[^\x20-\x7e]|["\\]/g, '_');
+  if (ascii === fileName) return `attachment; filename="${ascii}"`;
+  const encoded = encodeURIComponent(fileName).replace(/['()*]/g, (character) => `%${character.charCodeAt(0).toString(16).toUpperCase()}`);
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${encoded}`;
+}
+
+/**
+ * A presigned GET of an object, valid for `expiresInSeconds`; with `downloadAs`, the browser
+ * saves it under that name (attachmentDisposition). Hand it out only after the caller's checks.
+ */
+export function presignDownload(key: string, expiresInSeconds = PRESIGNED_URL_SECONDS, downloadAs?: string): Promise<string> {
+  const disposition = downloadAs ? attachmentDisposition(downloadAs) : undefined;
+  return getSignedUrl(storageClient(), new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key, ResponseContentDisposition: disposition }), {
+    expiresIn: expiresInSeconds,
   });
 }
 

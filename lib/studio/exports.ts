@@ -7,11 +7,13 @@ import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { putObject } from '../platform/storage';
 import type { ExportFormat, ExportJob, ExportStatus } from './types';
-import { notFound, StudioError } from './errors';
-import type { Groomer } from './http';
+import { HttpError } from '../http/errors';
+import { notFound } from './errors';
+import type { Groomer } from '../accounts/actor';
 import { enqueueExport, type ExportJobData } from './jobs';
 import { growStoredSpec, solveStoredSpec, type StageReport } from './grow';
-import { deleteOrphanedObjects, presignStudioDownload } from './storage';
+import { presignDownload } from '../platform/storage';
+import { deleteOrphanedObjects, STUDIO_URL_SECONDS } from './storage';
 import type { StoredSurfaceFile } from './surface-cache';
 
 type ExportRow = {
@@ -57,7 +59,7 @@ async function exportJob(row: ExportRow): Promise<ExportJob> {
     stage: row.stage,
     error: row.error,
     fileName: row.file_name,
-    downloadUrl: row.status === 'done' && row.object_key ? await presignStudioDownload(row.object_key, row.file_name) : null,
+    downloadUrl: row.status === 'done' && row.object_key ? await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name) : null,
     specRevision: row.spec_revision,
     createdAt: row.created_at.toISOString(),
   };
@@ -84,7 +86,7 @@ export async function requestExport(groomer: Groomer, groomId: string, format: E
   } catch (error) {
     console.error(`[studio] export ${row.id} not queued: ${(error as Error).message}`);
     await db()('groom_exports').where({ id: row.id }).delete();
-    throw new StudioError(503, 'service-unavailable', 'The export could not be queued: the job queue is not reachable. Try again in a moment.');
+    throw new HttpError(503, 'service-unavailable', 'The export could not be queued: the job queue is not reachable. Try again in a moment.');
   }
   return exportJob(row);
 }

@@ -4,11 +4,13 @@ import type { Knex } from 'knex';
 import { validateGroomSpec, type GroomSpec } from '../groom';
 import { db } from '../platform/db';
 import type { GroomDetail, GroomSummary, RestoredResponse, SpecSavedResponse, Version } from './types';
-import { notFound, StudioError } from './errors';
-import type { Groomer } from './http';
+import { HttpError } from '../http/errors';
+import { notFound } from './errors';
+import type { Groomer } from '../accounts/actor';
 import { enqueueThumbnail } from './jobs';
 import { startingSpec } from './starting-spec';
-import { deleteOrphanedObjects, presignStudioDownload } from './storage';
+import { presignDownload } from '../platform/storage';
+import { deleteOrphanedObjects, STUDIO_URL_SECONDS } from './storage';
 import { surfaceMesh } from './surface-cache';
 import { ownSurfaceRow, surfaceDetail, type SurfaceRow } from './surfaces';
 
@@ -62,7 +64,7 @@ async function groomSummary(row: GroomListRow): Promise<GroomSummary> {
     revision: row.revision,
     versionCount: row.version_count,
     latestVersion: row.latest_number === null ? null : { number: row.latest_number, name: row.latest_name! },
-    thumbnailUrl: thumbnailKey ? await presignStudioDownload(thumbnailKey) : null,
+    thumbnailUrl: thumbnailKey ? await presignDownload(thumbnailKey, STUDIO_URL_SECONDS) : null,
     updatedAt: row.updated_at.toISOString(),
   };
 }
@@ -73,7 +75,7 @@ async function version(row: VersionRow): Promise<Version> {
     number: row.number,
     name: row.name,
     createdAt: row.created_at.toISOString(),
-    thumbnailUrl: row.thumbnail_key ? await presignStudioDownload(row.thumbnail_key) : null,
+    thumbnailUrl: row.thumbnail_key ? await presignDownload(row.thumbnail_key, STUDIO_URL_SECONDS) : null,
   };
 }
 
@@ -155,11 +157,11 @@ function checkedSpec(input: unknown, surfaceUnits: string): GroomSpec {
     const fields = Object.fromEntries(result.problems.map((problem) => [problem.path, problem.message]));
     const [first] = result.problems;
     const more = result.problems.length > 1 ? ` (and ${result.problems.length - 1} more)` : '';
-    throw new StudioError(400, 'invalid-spec', `The groom spec was not saved: ${first.path} ${first.message}${more}.`, { fields });
+    throw new HttpError(400, 'invalid-spec', `The groom spec was not saved: ${first.path} ${first.message}${more}.`, { fields });
   }
   if (result.spec.units !== surfaceUnits) {
     const message = `must be "${surfaceUnits}", the units the growth surface was uploaded in`;
-    throw new StudioError(400, 'invalid-spec', `The groom spec was not saved: units ${message}.`, { fields: { units: message } });
+    throw new HttpError(400, 'invalid-spec', `The groom spec was not saved: units ${message}.`, { fields: { units: message } });
   }
   return result.spec;
 }
@@ -174,7 +176,7 @@ export async function saveSpec(groomer: Groomer, groomId: string, input: { spec:
     const surface: Pick<SurfaceRow, 'units'> = await trx('growth_surfaces').where({ id: groom.surface_id }).first('units');
     const spec = checkedSpec(input.spec, surface.units);
     if (input.baseRevision !== groom.revision) {
-      throw new StudioError(
+      throw new HttpError(
         409,
         'stale-revision',
         `The spec changed since revision ${input.baseRevision} (another tab or a restore saved revision ${groom.revision}); load it again before saving.`,

@@ -1,7 +1,7 @@
 // Object storage as the studio uses it: surface files uploaded straight from the browser,
 // thumbnails and export files written by the server, everything read back through short-lived
 // presigned URLs handed out only after the ownership checks of lib/studio.
-import { DeleteObjectsCommand, GetObjectCommand, HeadObjectCommand, NotFound, PutObjectCommand } from '@aws-sdk/client-s3';
+import { DeleteObjectsCommand, HeadObjectCommand, NotFound, PutObjectCommand } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { env } from '../platform/env';
 import { storageClient } from '../platform/storage';
@@ -12,14 +12,6 @@ export const STUDIO_URL_SECONDS = 10 * 60;
 /** A presigned PUT for exactly `byteSize` bytes (the store refuses another length where it checks signatures). */
 export function presignSurfaceUpload(key: string, byteSize: number): Promise<string> {
   return getSignedUrl(storageClient(), new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, ContentLength: byteSize }), {
-    expiresIn: STUDIO_URL_SECONDS,
-  });
-}
-
-/** A presigned GET; with `downloadAs`, the browser saves the file under that name. */
-export function presignStudioDownload(key: string, downloadAs?: string): Promise<string> {
-  const disposition = downloadAs ? `attachment; filename="${downloadAs.replace(/["\\]/g, '_')}"` : undefined;
-  return getSignedUrl(storageClient(), new GetObjectCommand({ Bucket: env().S3_BUCKET, Key: key, ResponseContentDisposition: disposition }), {
     expiresIn: STUDIO_URL_SECONDS,
   });
 }

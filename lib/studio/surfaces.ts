@@ -10,9 +10,11 @@ import { env } from '../platform/env';
 import { getObjectBytes, putObject } from '../platform/storage';
 import type { SurfaceDetail, SurfaceFileFormat, SurfaceSummary, SurfaceUnits, UploadTicket } from './types';
 import { SURFACE_FORMATS } from './types';
-import { notFound, StudioError } from './errors';
-import type { Groomer } from './http';
-import { deleteOrphanedObjects, deleteStoredObjects, presignStudioDownload, presignSurfaceUpload, storedObjectSize, STUDIO_URL_SECONDS } from './storage';
+import { HttpError } from '../http/errors';
+import { notFound } from './errors';
+import type { Groomer } from '../accounts/actor';
+import { presignDownload } from '../platform/storage';
+import { deleteOrphanedObjects, deleteStoredObjects, presignSurfaceUpload, storedObjectSize, STUDIO_URL_SECONDS } from './storage';
 import { rememberSurfaceMesh } from './surface-cache';
 
 /** Edge length of the stored surface thumbnail, in pixels. */
@@ -77,13 +79,13 @@ function keySafe(fileName: string): string {
 export async function createSurfaceUpload(groomer: Groomer, input: { fileName: string; byteSize: number }): Promise<UploadTicket> {
   const format = formatOf(input.fileName);
   if (!format) {
-    throw new StudioError(400, 'invalid-input', 'This kind of file cannot be a growth surface.', {
+    throw new HttpError(400, 'invalid-input', 'This kind of file cannot be a growth surface.', {
       fields: { fileName: `Upload an OBJ, PLY, STL, glTF or GLB file (.${SURFACE_FORMATS.join(', .')}).` },
     });
   }
   const maxBytes = env().SURFACE_MAX_BYTES;
   if (input.byteSize > maxBytes) {
-    throw new StudioError(400, 'invalid-input', 'The file is too large.', {
+    throw new HttpError(400, 'invalid-input', 'The file is too large.', {
       fields: { byteSize: `${tooLarge(input.byteSize, maxBytes)} Decimate it before uploading.` },
     });
   }
@@ -126,10 +128,10 @@ async function discardUpload(upload: UploadRow): Promise<void> {
   await db()('surface_uploads').where({ id: upload.id }).delete();
 }
 
-function rejection(fileName: string, problems: readonly Problem[]): StudioError {
+function rejection(fileName: string, problems: readonly Problem[]): HttpError {
   const errors = problems.filter((problem) => problem.severity === 'error');
   const message = `${fileName} cannot be used as a growth surface: ${errors.map((problem) => problem.message).join(' ')}`;
-  return new StudioError(422, 'surface-rejected', message, { details: { problems } });
+  return new HttpError(422, 'surface-rejected', message, { details: { problems } });
 }
 
 async function storeSurfaceThumbnail(mesh: TriangleMesh, folder: string): Promise<string> {
@@ -150,7 +152,7 @@ export async function registerSurface(groomer: Groomer, input: { uploadId: strin
 
   const storedSize = await storedObjectSize(upload.object_key);
   if (storedSize === null) {
-    throw new StudioError(409, 'upload-missing', `Nothing has been uploaded for ${upload.file_name} yet: send the file to its upload URL first.`);
+    throw new HttpError(409, 'upload-missing', `Nothing has been uploaded for ${upload.file_name} yet: send the file to its upload URL first.`);
   }
   const maxBytes = env().SURFACE_MAX_BYTES;
   if (storedSize > maxBytes) {
@@ -230,7 +232,7 @@ export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
     areaCm2: row.area_cm2,
     groups: row.groups,
     warnings: row.warnings,
-    thumbnailUrl: row.thumbnail_key ? await presignStudioDownload(row.thumbnail_key) : null,
+    thumbnailUrl: row.thumbnail_key ? await presignDownload(row.thumbnail_key, STUDIO_URL_SECONDS) : null,
     createdAt: row.created_at.toISOString(),
   };
 }
@@ -238,7 +240,7 @@ export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
 export async function surfaceDetail(row: SurfaceRow): Promise<SurfaceDetail> {
   return {
     ...(await surfaceSummary(row)),
-    fileUrl: await presignStudioDownload(row.object_key, row.file_name),
+    fileUrl: await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name),
     byteSize: Number(row.byte_size),
     components: row.components,
   };
@@ -271,7 +273,7 @@ export async function deleteSurface(groomer: Groomer, surfaceId: string): Promis
     const grooms: string[] = await trx('grooms').where({ surface_id: surfaceId }).orderBy('name').pluck('name');
     if (grooms.length > 0) {
       const names = grooms.slice(0, 3).map((name) => `“${name}”`).join(', ') + (grooms.length > 3 ? ` and ${grooms.length - 3} more` : '');
-      throw new StudioError(
+      throw new HttpError(
         409,
         'surface-in-use',
         `${grooms.length === 1 ? 'A groom grows' : `${grooms.length} grooms grow`} on this surface (${names}); delete ${grooms.length === 1 ? 'it' : 'them'} first.`,

@@ -3,6 +3,7 @@
 //   4242 4242 4242 4242  succeeds
 //   4000 0000 0000 0002  declined (card_declined)
 //   4000 0000 0000 9995  declined (insufficient_funds)
+import { escapeHtml } from '../../lib/platform/html';
 import { expireIfDue, pay } from './checkout';
 import { formatMoney, newId, type Session } from './objects';
 import type { PaymentsFakeState } from './state';
@@ -13,9 +14,6 @@ const DECLINES: Record<string, { code: string; message: string }> = {
   '4000000000009995': { code: 'insufficient_funds', message: 'Your card has insufficient funds.' },
 };
 const SUCCEEDS = new Set(['4242424242424242']);
-
-const escapeHtml = (value: string) =>
-  value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 function checkoutPage(session: Session, notice?: { kind: 'error' | 'info'; text: string }) {
   const items = session.line_items_summary

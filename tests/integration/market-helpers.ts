@@ -10,7 +10,7 @@ import { payments } from '@/lib/platform/payments';
 import { putObject } from '@/lib/platform/storage';
 import { parseGroomSpec } from '@/lib/groom';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
-import type { Actor } from '@/lib/market/http';
+import type { Actor } from '@/lib/accounts/actor';
 import type { Role } from '@/lib/accounts/roles';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 import { uniqueEmail } from './helpers';

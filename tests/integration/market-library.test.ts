@@ -5,14 +5,15 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { payments } from '@/lib/platform/payments';
 import { buildListingAssets } from '@/lib/market/assets';
-import { startCheckout } from '@/lib/market/checkout';
-import { MarketError } from '@/lib/market/errors';
-import type { Actor } from '@/lib/market/http';
+import { startCheckout } from '@/lib/market/payments/checkout';
+import { HttpError } from '@/lib/http/errors';
+import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { enqueueListingAssets } from '@/lib/market/jobs';
+import { startMarketWorkers } from '@/lib/market/workers';
 import { listLibrary, requestDownload } from '@/lib/market/library';
 import { decideListing, getListingDetail, submitListing, updateListing } from '@/lib/market/listings';
-import { refundPurchase } from '@/lib/market/refunds';
+import { refundPurchase } from '@/lib/market/payments/refunds';
 import { saveReview } from '@/lib/market/reviews';
 import { listPayouts, requestPayout, salesCsv, salesReport } from '@/lib/market/sales';
 import { mailTo } from './helpers';
@@ -23,13 +24,13 @@ afterAll(async () => {
   await closeDb();
 });
 
-async function failure(promise: Promise<unknown>): Promise<MarketError & { fields?: Record<string, string> }> {
+async function failure(promise: Promise<unknown>): Promise<HttpError & { fields?: Record<string, string> }> {
   const error = await promise.then(
     () => null,
     (caught: unknown) => caught,
   );
-  expect(error).toBeInstanceOf(MarketError);
-  return Object.assign(error as MarketError, { fields: (error as MarketError).extra.fields });
+  expect(error).toBeInstanceOf(HttpError);
+  return Object.assign(error as HttpError, { fields: (error as HttpError).extra.fields });
 }
 
 /** Buys a listing end to end and delivers the fake's events; the purchase id. */
@@ -48,7 +49,9 @@ let listingId: string;
 beforeAll(async () => {
   seller = await makePerson('library-seller', ['groomer']);
   admin = await makePerson('library-admin', ['admin']);
-  // A draft made from the demo ring, its pictures and package made by the job's worker.
+  // A draft made from the demo ring, its pictures and package made by the job's worker, started
+  // here as the server starts it (instrumentation.ts).
+  await startMarketWorkers();
   listingId = await insertListing(
     seller,
     { title: 'Loop plush nap', state: 'draft', assetsStatus: 'pending', guideCount: null, formats: ['usda', 'usda-bspline', 'glb', 'obj', 'json', 'ply'], priceCents: 2000, licence: 'studio' },

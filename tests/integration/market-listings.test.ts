@@ -7,8 +7,8 @@ import { getObjectBytes } from '@/lib/platform/storage';
 import { parseGroomSpec } from '@/lib/groom';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
 import { buildListingAssets } from '@/lib/market/assets';
-import { MarketError } from '@/lib/market/errors';
-import type { Actor } from '@/lib/market/http';
+import { HttpError } from '@/lib/http/errors';
+import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
 import type { ListingDraftInput } from '@/lib/market/validation';
@@ -60,13 +60,13 @@ const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput =
   formats: ['usda', 'json'],
 });
 
-async function failure(promise: Promise<unknown>): Promise<MarketError> {
+async function failure(promise: Promise<unknown>): Promise<HttpError> {
   const error = await promise.then(
     () => null,
     (caught: unknown) => caught,
   );
-  expect(error).toBeInstanceOf(MarketError);
-  return error as MarketError;
+  expect(error).toBeInstanceOf(HttpError);
+  return error as HttpError;
 }
 
 let seller: Actor;

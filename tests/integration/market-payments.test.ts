@@ -3,11 +3,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { payments } from '@/lib/platform/payments';
-import { startCheckout } from '@/lib/market/checkout';
-import { reconcilePayments } from '@/lib/market/reconcile';
+import { startCheckout } from '@/lib/market/payments/checkout';
+import { reconcilePayments } from '@/lib/market/payments/reconcile';
 import { stopJobs } from '@/lib/platform/jobs';
-import { MarketError } from '@/lib/market/errors';
-import type { Actor } from '@/lib/market/http';
+import { HttpError } from '@/lib/http/errors';
+import type { Actor } from '@/lib/accounts/actor';
 import { mailTo } from './helpers';
 import { deliver, eventsAbout, insertListing, makePerson, payOnHostedPage, serveWebhookRoute, shuffle, signedRequest, waitFor } from './market-helpers';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
@@ -38,9 +38,9 @@ async function expectMarketError(promise: Promise<unknown>, status: number, code
     () => null,
     (caught: unknown) => caught,
   );
-  expect(error).toBeInstanceOf(MarketError);
-  expect((error as MarketError).status).toBe(status);
-  expect((error as MarketError).code).toBe(code);
+  expect(error).toBeInstanceOf(HttpError);
+  expect((error as HttpError).status).toBe(status);
+  expect((error as HttpError).code).toBe(code);
 }
 
 describe('checkout', () => {

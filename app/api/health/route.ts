@@ -1,15 +1,17 @@
 // Answers 200 when the server can reach its database; the task scripts wait on it.
+import { HttpError } from '@/lib/http/errors';
+import { handler, jsonData } from '@/lib/http/server';
 import { db } from '@/lib/platform/db';
-import { jsonData, jsonError } from '@/lib/http/server';
+import type { HealthResponse } from '@/lib/platform/types';
 
-export type HealthResponse = { database: 'reachable' };
-
-export async function GET() {
-  try {
-    await db().raw('SELECT 1');
+export function GET() {
+  return handler('none', async () => {
+    try {
+      await db().raw('SELECT 1');
+    } catch (error) {
+      console.error('health check: the database cannot be reached', error);
+      throw new HttpError(503, 'service-unavailable', 'The database cannot be reached.');
+    }
     return jsonData<HealthResponse>({ database: 'reachable' });
-  } catch (error) {
-    console.error('health check: the database cannot be reached', error);
-    return jsonError(503, 'service-unavailable', 'The database cannot be reached.');
-  }
+  });
 }

@@ -1,10 +1,8 @@
 // GET: the signed-in person's purchases, newest first, with what can be downloaded.
-import { marketData, marketHandler } from '@/lib/market/http';
+import { handler, jsonData } from '@/lib/http/server';
 import { listLibrary } from '@/lib/market/library';
-import type { LibraryItem } from '@/lib/market/types';
-
-export type LibraryResponse = { purchases: LibraryItem[] };
+import type { LibraryResponse } from '@/lib/market/types';
 
 export function GET() {
-  return marketHandler(['buyer', 'groomer'], async (actor) => marketData<LibraryResponse>({ purchases: await listLibrary(actor) }));
+  return handler(['buyer', 'groomer'], async (actor) => jsonData<LibraryResponse>({ purchases: await listLibrary(actor) }));
 }

@@ -8,13 +8,13 @@ import { Gallery } from '@/components/market/Gallery';
 import { galleryPictures } from '@/components/market/gallery-pictures';
 import { GuidePreview } from '@/components/market/GuidePreview';
 import { formatDate } from '@/components/market/format';
-import { actorOf } from '@/components/market/session-actor';
 import { StateBadge } from '@/components/market/StateBadge';
 import { Stars } from '@/components/market/Stars';
 import { TAG_KEYS, TAG_LABELS, tagLabel } from '@/components/market/search-params';
 import { Notice } from '@/components/ui/Notice';
+import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
-import { MarketError } from '@/lib/market/errors';
+import { HttpError } from '@/lib/http/errors';
 import { getListingDetail } from '@/lib/market/listings';
 import { FORMAT_LABELS, formatPrice } from '@/lib/market/vocabulary';
 
@@ -32,7 +32,7 @@ const readListing = cache(async (id: string) => {
   try {
     return { session, listing: await getListingDetail(session ? actorOf(session) : null, id.toLowerCase()) };
   } catch (error) {
-    if (error instanceof MarketError && error.status === 404) notFound();
+    if (error instanceof HttpError && error.status === 404) notFound();
     throw error;
   }
 });

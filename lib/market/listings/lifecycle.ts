@@ -8,8 +8,9 @@ import type { Knex } from 'knex';
 import { db } from '../../platform/db';
 import { MailNotSent, sendMail } from '../../platform/mail';
 import { parseGroomSpec } from '../../groom';
-import type { Actor } from '../http';
-import { MarketError, notFound } from '../errors';
+import type { Actor } from '../../accounts/actor';
+import { HttpError } from '../../http/errors';
+import { notFound } from '../errors';
 import { sellersGroomVersion } from '../groom-source';
 import { enqueueListingAssets } from '../jobs';
 import { listingApprovedMail, listingRejectedMail } from '../mail';
@@ -22,7 +23,7 @@ import { summaryById, type ListingRow } from './views';
 async function licenceBySlug(trx: Knex | Knex.Transaction, slug: string) {
   const licence = await trx('licences').where({ slug }).first('id', 'slug', 'title');
   if (!licence) {
-    throw new MarketError(400, 'invalid-input', 'Some fields need another look.', {
+    throw new HttpError(400, 'invalid-input', 'Some fields need another look.', {
       fields: { licenceSlug: 'Choose one of the market’s licences.' },
     });
   }
@@ -36,7 +37,7 @@ export async function createListing(actor: Actor, input: ListingDraftInput): Pro
   try {
     spec = parseGroomSpec(version.spec);
   } catch (error) {
-    throw new MarketError(422, 'invalid-input', `That version's groom spec cannot be sold as it is: ${(error as Error).message}`);
+    throw new HttpError(422, 'invalid-input', `That version's groom spec cannot be sold as it is: ${(error as Error).message}`);
   }
   const licence = await licenceBySlug(db(), input.licenceSlug);
   const id = randomUUID();
@@ -113,7 +114,7 @@ export async function updateListing(actor: Actor, id: string, patch: ListingPatc
     if (packageChanges) {
       const hadSales = await trx('purchases').where({ listing_id: id }).first('id');
       if (hadSales) {
-        throw new MarketError(409, 'wrong-state', 'This preset has buyers: its files, price and licence stay as sold. Make a new listing for a changed offer.');
+        throw new HttpError(409, 'wrong-state', 'This preset has buyers: its files, price and licence stay as sold. Make a new listing for a changed offer.');
       }
       await trx('listing_packages').where({ listing_id: id }).delete();
       changes.assets_status = 'pending';
@@ -149,7 +150,7 @@ export async function unlistListing(actor: Actor, id: string): Promise<ListingSu
 export async function decideListing(actor: Actor, id: string, decision: { approve: boolean; reason?: string }): Promise<ListingSummary> {
   const reason = decision.reason?.trim() ?? '';
   if (!decision.approve && reason === '') {
-    throw new MarketError(400, 'invalid-input', 'Some fields need another look.', { fields: { reason: 'Tell the seller why.' } });
+    throw new HttpError(400, 'invalid-input', 'Some fields need another look.', { fields: { reason: 'Tell the seller why.' } });
   }
   let requeue = false;
   try {
@@ -159,7 +160,7 @@ export async function decideListing(actor: Actor, id: string, decision: { approv
       const state = nextState(row.state, decision.approve ? 'approve' : 'reject');
       if (decision.approve && row.assets_status !== 'ready') {
         requeue = row.assets_status === 'pending';
-        throw new MarketError(
+        throw new HttpError(
           409,
           'assets-pending',
           row.assets_status === 'failed'
@@ -181,7 +182,7 @@ export async function decideListing(actor: Actor, id: string, decision: { approv
   } catch (error) {
     if (requeue) await queueAssets(id);
     if (error instanceof MailNotSent) {
-      throw new MarketError(502, 'mail-failed', `Nothing was changed: the e-mail to the seller could not be sent. ${error.message}`);
+      throw new HttpError(502, 'mail-failed', `Nothing was changed: the e-mail to the seller could not be sent. ${error.message}`);
     }
     throw error;
   }

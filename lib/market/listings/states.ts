@@ -4,7 +4,7 @@
 //   draft, rejected or unlisted → edit → draft;   draft, rejected or unlisted → submit → submitted;
 //   submitted → approve → published | reject → rejected (with a reason);
 //   submitted or published → unlist → unlisted.
-import { MarketError } from '../errors';
+import { HttpError } from '../../http/errors';
 import type { ListingState } from '../vocabulary';
 
 export type ListingCommand = 'edit' | 'submit' | 'approve' | 'reject' | 'unlist';
@@ -28,7 +28,7 @@ export const LISTING_TRANSITIONS: Readonly<Record<ListingCommand, Transition>> =
 export function nextState(state: ListingState, command: ListingCommand): ListingState {
   const transition = LISTING_TRANSITIONS[command];
   if (!transition.from.includes(state)) {
-    throw new MarketError(409, 'wrong-state', `A ${state} listing cannot be ${transition.refused}.`, { details: { state } });
+    throw new HttpError(409, 'wrong-state', `A ${state} listing cannot be ${transition.refused}.`, { details: { state } });
   }
   return transition.to;
 }

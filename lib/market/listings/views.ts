@@ -2,9 +2,11 @@
 // detail page (what each viewer may see of a listing in which state), and its pictures' URLs.
 import type { Knex } from 'knex';
 import { db } from '../../platform/db';
-import type { Actor } from '../http';
-import { MarketError, notFound } from '../errors';
-import { PICTURE_URL_SECONDS, listingPrefix, presignMarketObject } from '../storage';
+import type { Actor } from '../../accounts/actor';
+import { HttpError } from '../../http/errors';
+import { notFound } from '../errors';
+import { presignDownload } from '../../platform/storage';
+import { PICTURE_URL_SECONDS, listingPrefix } from '../storage';
 import type { ListingCard, ListingDetail, ListingSummary, Review } from '../types';
 import { TAX_NOTE, type ListingState } from '../vocabulary';
 import type { Picture } from '../assets';
@@ -180,7 +182,7 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
   ]);
   const pictures: Picture[] = row.assets_status === 'ready' ? row.pictures : [];
   const gallery = await Promise.all(
-    pictures.map(async (picture) => ({ view: picture.view, size: picture.size, url: await presignMarketObject(picture.key, PICTURE_URL_SECONDS) })),
+    pictures.map(async (picture) => ({ view: picture.view, size: picture.size, url: await presignDownload(picture.key, PICTURE_URL_SECONDS) })),
   );
   const reviews: Review[] = reviewRows.map((r) => ({
     id: r.id,
@@ -200,7 +202,7 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     rejectionReason: row.rejection_reason,
     groom: { id: row.groom_id, name: row.groom_name, versionId: row.groom_version_id, versionNumber: row.version_number, versionName: row.version_name },
     gallery,
-    guidePreviewUrl: row.assets_status === 'ready' ? await presignMarketObject(`${listingPrefix(id)}/preview/guides.glb`, PICTURE_URL_SECONDS) : null,
+    guidePreviewUrl: row.assets_status === 'ready' ? await presignDownload(`${listingPrefix(id)}/preview/guides.glb`, PICTURE_URL_SECONDS) : null,
     assets: { status: row.assets_status, error: isSeller || isAdmin(actor) ? row.assets_error : null },
     licence: { slug: row.licence_slug, title: row.licence_title, summary: row.licence_summary, body: row.licence_body },
     reviews,
@@ -221,6 +223,6 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
 export async function pictureUrl(actor: Actor | null, id: string, name: string): Promise<string> {
   const row = await visibleListing(actor, id);
   const picture = (row.assets_status === 'ready' ? row.pictures : []).find((p) => `${p.view}-${p.size}` === name);
-  if (!picture) throw new MarketError(404, 'not-found', 'There is no such picture of this listing.');
-  return presignMarketObject(picture.key, PICTURE_URL_SECONDS);
+  if (!picture) throw new HttpError(404, 'not-found', 'There is no such picture of this listing.');
+  return presignDownload(picture.key, PICTURE_URL_SECONDS);
 }

@@ -1,7 +1,7 @@
 // The one table of a listing's allowed state changes (lib/market/listings/states.ts): every
 // command from every state, and the refusal the seller or admin reads otherwise.
 import { describe, expect, it } from 'vitest';
-import { MarketError } from '@/lib/market/errors';
+import { HttpError } from '@/lib/http/errors';
 import { LISTING_TRANSITIONS, nextState, type ListingCommand } from '@/lib/market/listings/states';
 import { LISTING_STATES, type ListingState } from '@/lib/market/vocabulary';
 
@@ -21,11 +21,11 @@ const REFUSALS: Record<ListingCommand, (state: ListingState) => string> = {
   unlist: (state) => `A ${state} listing cannot be unlisted.`,
 };
 
-function refusal(state: ListingState, command: ListingCommand): MarketError {
+function refusal(state: ListingState, command: ListingCommand): HttpError {
   try {
     nextState(state, command);
   } catch (error) {
-    return error as MarketError;
+    return error as HttpError;
   }
   throw new Error(`${command} from ${state} was allowed`);
 }
@@ -45,7 +45,7 @@ describe('listing states', () => {
       } else {
         it(`${command} refuses a ${state} listing with 409 wrong-state`, () => {
           const error = refusal(state, command);
-          expect(error).toBeInstanceOf(MarketError);
+          expect(error).toBeInstanceOf(HttpError);
           expect(error).toMatchObject({ status: 409, code: 'wrong-state', message: REFUSALS[command](state), extra: { details: { state } } });
         });
       }

@@ -1,19 +1,20 @@
 // Sends a password reset link; answers the same whether or not the address has an account.
+import type { PasswordResetRequestResponse } from '@/lib/accounts/types';
 import { requestPasswordReset } from '@/lib/accounts/users';
-import { MailNotSent } from '@/lib/platform/mail';
-import { jsonData, jsonError, readJson } from '@/lib/http/server';
 import { emailOnlySchema } from '@/lib/accounts/schemas';
+import { HttpError } from '@/lib/http/errors';
+import { handler, jsonData, readBody } from '@/lib/http/server';
+import { MailNotSent } from '@/lib/platform/mail';
 
-export type PasswordResetRequestResponse = { email: string };
-
-export async function POST(request: Request) {
-  const input = await readJson(request, emailOnlySchema);
-  if (!input.ok) return input.response;
-  try {
-    await requestPasswordReset(input.value.email);
-    return jsonData<PasswordResetRequestResponse>({ email: input.value.email });
-  } catch (error) {
-    if (error instanceof MailNotSent) return jsonError(502, 'mail-failed', 'The e-mail could not be sent. Try again in a moment.');
-    throw error;
-  }
+export function POST(request: Request) {
+  return handler('none', async () => {
+    const { email } = await readBody(request, emailOnlySchema);
+    try {
+      await requestPasswordReset(email);
+    } catch (error) {
+      if (error instanceof MailNotSent) throw new HttpError(502, 'mail-failed', 'The e-mail could not be sent. Try again in a moment.');
+      throw error;
+    }
+    return jsonData<PasswordResetRequestResponse>({ email });
+  });
 }

@@ -1,20 +1,21 @@
 // Sends a new confirmation link. The answer is the same whether or not an unconfirmed account
 // has the address, so the form cannot be used to find out who has an account.
+import type { ResendVerificationResponse } from '@/lib/accounts/types';
 import { resendVerification } from '@/lib/accounts/users';
-import { MailNotSent } from '@/lib/platform/mail';
-import { jsonData, jsonError, readJson } from '@/lib/http/server';
 import { emailOnlySchema } from '@/lib/accounts/schemas';
+import { HttpError } from '@/lib/http/errors';
+import { handler, jsonData, readBody } from '@/lib/http/server';
+import { MailNotSent } from '@/lib/platform/mail';
 
-export type ResendVerificationResponse = { email: string };
-
-export async function POST(request: Request) {
-  const input = await readJson(request, emailOnlySchema);
-  if (!input.ok) return input.response;
-  try {
-    await resendVerification(input.value.email);
-    return jsonData<ResendVerificationResponse>({ email: input.value.email });
-  } catch (error) {
-    if (error instanceof MailNotSent) return jsonError(502, 'mail-failed', 'The e-mail could not be sent. Try again in a moment.');
-    throw error;
-  }
+export function POST(request: Request) {
+  return handler('none', async () => {
+    const { email } = await readBody(request, emailOnlySchema);
+    try {
+      await resendVerification(email);
+    } catch (error) {
+      if (error instanceof MailNotSent) throw new HttpError(502, 'mail-failed', 'The e-mail could not be sent. Try again in a moment.');
+      throw error;
+    }
+    return jsonData<ResendVerificationResponse>({ email });
+  });
 }

@@ -1,18 +1,17 @@
 // The e-mail the local SMTP sink caught, for admins.
-import { requireApiRoles } from '@/lib/accounts/session';
-import { jsonData, jsonError } from '@/lib/http/server';
-import { listCaughtMail, mailSinkConfigured, MailSinkUnavailable, type CaughtMail } from '@/lib/platform/mail-sink';
+import { HttpError } from '@/lib/http/errors';
+import { handler, jsonData } from '@/lib/http/server';
+import { listCaughtMail, mailSinkConfigured, MailSinkUnavailable } from '@/lib/platform/mail-sink';
+import type { CaughtMailResponse } from '@/lib/platform/types';
 
-export type CaughtMailResponse = { configured: false } | { configured: true; messages: CaughtMail[] };
-
-export async function GET() {
-  const access = await requireApiRoles(['admin']);
-  if (!access.ok) return access.response;
-  if (!mailSinkConfigured()) return jsonData<CaughtMailResponse>({ configured: false });
-  try {
-    return jsonData<CaughtMailResponse>({ configured: true, messages: await listCaughtMail() });
-  } catch (error) {
-    if (error instanceof MailSinkUnavailable) return jsonError(503, 'service-unavailable', error.message);
-    throw error;
-  }
+export function GET() {
+  return handler(['admin'], async () => {
+    if (!mailSinkConfigured()) return jsonData<CaughtMailResponse>({ configured: false });
+    try {
+      return jsonData<CaughtMailResponse>({ configured: true, messages: await listCaughtMail() });
+    } catch (error) {
+      if (error instanceof MailSinkUnavailable) throw new HttpError(503, 'service-unavailable', error.message);
+      throw error;
+    }
+  });
 }

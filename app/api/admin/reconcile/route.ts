@@ -1,10 +1,9 @@
 // POST: asks the payment provider for the completed checkouts of the last three days and records
 // the purchases whose webhook never arrived. The same runs every ten minutes as a job.
-import { marketData, marketHandler } from '@/lib/market/http';
-import { reconcilePayments } from '@/lib/market/reconcile';
-
-export type ReconcileResponse = { recovered: number; checked: number };
+import { handler, jsonData } from '@/lib/http/server';
+import { reconcilePayments } from '@/lib/market/payments/reconcile';
+import type { ReconcileResponse } from '@/lib/market/types';
 
 export function POST() {
-  return marketHandler(['admin'], async () => marketData<ReconcileResponse>(await reconcilePayments()));
+  return handler(['admin'], async () => jsonData<ReconcileResponse>(await reconcilePayments()));
 }

@@ -1,9 +1,8 @@
 // GET: the market's licences in full, for the listing form and the licence pages.
-import { listLicences, type Licence } from '@/lib/market/licences';
-import { marketData, plainMarketHandler } from '@/lib/market/http';
-
-export type LicencesResponse = { licences: Licence[] };
+import { handler, jsonData } from '@/lib/http/server';
+import { listLicences } from '@/lib/market/licences';
+import type { LicencesResponse } from '@/lib/market/types';
 
 export function GET() {
-  return plainMarketHandler(async () => marketData<LicencesResponse>({ licences: await listLicences() }));
+  return handler('none', async () => jsonData<LicencesResponse>({ licences: await listLicences() }));
 }

@@ -1,13 +1,14 @@
+// Sets a new password with the token from a reset link.
+import type { PasswordResetConfirmResponse } from '@/lib/accounts/types';
 import { resetPassword, TOKEN_PROBLEM_MESSAGES } from '@/lib/accounts/users';
-import { jsonData, jsonError, readJson } from '@/lib/http/server';
 import { resetPasswordSchema } from '@/lib/accounts/schemas';
+import { HttpError } from '@/lib/http/errors';
+import { handler, jsonData, readBody } from '@/lib/http/server';
 
-export type PasswordResetConfirmResponse = { email: string };
-
-export async function POST(request: Request) {
-  const input = await readJson(request, resetPasswordSchema);
-  if (!input.ok) return input.response;
-  const result = await resetPassword(input.value);
-  if (!result.ok) return jsonError(400, result.problem, TOKEN_PROBLEM_MESSAGES['reset-password'][result.problem]);
-  return jsonData<PasswordResetConfirmResponse>({ email: result.email });
+export function POST(request: Request) {
+  return handler('none', async () => {
+    const result = await resetPassword(await readBody(request, resetPasswordSchema));
+    if (!result.ok) throw new HttpError(400, result.problem, TOKEN_PROBLEM_MESSAGES['reset-password'][result.problem]);
+    return jsonData<PasswordResetConfirmResponse>({ email: result.email });
+  });
 }

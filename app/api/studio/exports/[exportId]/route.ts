@@ -1,14 +1,14 @@
 // An export's progress, and once done its download link.
-import { jsonData } from '@/lib/http/server';
+import { handler, jsonData, pathId } from '@/lib/http/server';
 import type { ExportResponse } from '@/lib/studio/types';
 import { getExport } from '@/lib/studio/exports';
-import { pathId, studioHandler } from '@/lib/studio/http';
+import { notFound } from '@/lib/studio/errors';
 
 type Context = { params: Promise<{ exportId: string }> };
 
-export async function GET(_request: Request, context: Context) {
-  return studioHandler(async (groomer) => {
-    const exportId = await pathId(context.params, 'exportId', 'export');
+export function GET(_request: Request, context: Context) {
+  return handler(['groomer'], async (groomer) => {
+    const exportId = await pathId(context.params, 'exportId', notFound('export'));
     return jsonData<ExportResponse>({ export: await getExport(groomer, exportId) });
   });
 }

@@ -1,31 +1,30 @@
 // One groom of the groomer: its spec, surface and versions; renaming; deletion.
-import { jsonData, readJson } from '@/lib/http/server';
+import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import type { DeletedResponse, GroomResponse } from '@/lib/studio/types';
 import { deleteGroom, getGroom, renameGroom } from '@/lib/studio/grooms';
-import { pathId, studioHandler } from '@/lib/studio/http';
+import { notFound } from '@/lib/studio/errors';
 import { renameGroomSchema } from '@/lib/studio/validation';
 
 type Context = { params: Promise<{ groomId: string }> };
 
-export async function GET(_request: Request, context: Context) {
-  return studioHandler(async (groomer) => {
-    const groomId = await pathId(context.params, 'groomId', 'groom');
+export function GET(_request: Request, context: Context) {
+  return handler(['groomer'], async (groomer) => {
+    const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     return jsonData<GroomResponse>({ groom: await getGroom(groomer, groomId) });
   });
 }
 
-export async function PATCH(request: Request, context: Context) {
-  return studioHandler(async (groomer) => {
-    const groomId = await pathId(context.params, 'groomId', 'groom');
-    const input = await readJson(request, renameGroomSchema);
-    if (!input.ok) return input.response;
-    return jsonData<GroomResponse>({ groom: await renameGroom(groomer, groomId, input.value.name) });
+export function PATCH(request: Request, context: Context) {
+  return handler(['groomer'], async (groomer) => {
+    const groomId = await pathId(context.params, 'groomId', notFound('groom'));
+    const input = await readBody(request, renameGroomSchema);
+    return jsonData<GroomResponse>({ groom: await renameGroom(groomer, groomId, input.name) });
   });
 }
 
-export async function DELETE(_request: Request, context: Context) {
-  return studioHandler(async (groomer) => {
-    await deleteGroom(groomer, await pathId(context.params, 'groomId', 'groom'));
+export function DELETE(_request: Request, context: Context) {
+  return handler(['groomer'], async (groomer) => {
+    await deleteGroom(groomer, await pathId(context.params, 'groomId', notFound('groom')));
     return jsonData<DeletedResponse>({ deleted: true });
   });
 }

@@ -2,11 +2,11 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { ListingForm } from '@/components/market/ListingForm';
-import { actorOf } from '@/components/market/session-actor';
 import { StateBadge } from '@/components/market/StateBadge';
 import { Notice } from '@/components/ui/Notice';
+import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
-import { MarketError } from '@/lib/market/errors';
+import { HttpError } from '@/lib/http/errors';
 import { listLicences } from '@/lib/market/licences';
 import { getListingDetail } from '@/lib/market/listings';
 
@@ -22,7 +22,7 @@ export default async function EditListingPage({ params }: { params: Promise<{ id
   try {
     listing = await getListingDetail(actorOf(session), id.toLowerCase());
   } catch (error) {
-    if (error instanceof MarketError && error.status === 404) notFound();
+    if (error instanceof HttpError && error.status === 404) notFound();
     throw error;
   }
   // Admins may see any listing; only its seller edits it.

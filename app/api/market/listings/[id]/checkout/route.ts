@@ -1,13 +1,13 @@
 // POST: a signed-in buyer (or groomer) opens the payment provider's hosted checkout for a
 // published listing; the price comes from the database. 403 own-listing, 409 already-owned.
-import { startCheckout } from '@/lib/market/checkout';
-import { marketData, marketHandler, pathId } from '@/lib/market/http';
-
-export type CheckoutResponse = { url: string; sessionId: string };
+import { handler, jsonData, pathId } from '@/lib/http/server';
+import { notFound } from '@/lib/market/errors';
+import { startCheckout } from '@/lib/market/payments/checkout';
+import type { CheckoutResponse } from '@/lib/market/types';
 
 export function POST(_request: Request, { params }: { params: Promise<{ id: string }> }) {
-  return marketHandler(['buyer', 'groomer'], async (actor) => {
-    const { url, sessionId } = await startCheckout(actor, await pathId(params, 'id', 'listing'));
-    return marketData<CheckoutResponse>({ url, sessionId });
+  return handler(['buyer', 'groomer'], async (actor) => {
+    const { url, sessionId } = await startCheckout(actor, await pathId(params, 'id', notFound('listing')));
+    return jsonData<CheckoutResponse>({ url, sessionId });
   });
 }

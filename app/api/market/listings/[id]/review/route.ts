@@ -1,15 +1,14 @@
 // PUT: a buyer who owns the preset rates and reviews it (once; a second PUT edits the review).
-import { marketData, marketHandler, pathId, readBody } from '@/lib/market/http';
+import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
+import { notFound } from '@/lib/market/errors';
 import { saveReview } from '@/lib/market/reviews';
-import type { Review } from '@/lib/market/types';
+import type { ReviewResponse } from '@/lib/market/types';
 import { reviewSchema } from '@/lib/market/validation';
 
-export type ReviewResponse = { review: Review };
-
 export function PUT(request: Request, { params }: { params: Promise<{ id: string }> }) {
-  return marketHandler(['buyer', 'groomer'], async (actor) => {
-    const id = await pathId(params, 'id', 'listing');
+  return handler(['buyer', 'groomer'], async (actor) => {
+    const id = await pathId(params, 'id', notFound('listing'));
     const input = await readBody(request, reviewSchema);
-    return marketData<ReviewResponse>({ review: await saveReview(actor, id, input) });
+    return jsonData<ReviewResponse>({ review: await saveReview(actor, id, input) });
   });
 }

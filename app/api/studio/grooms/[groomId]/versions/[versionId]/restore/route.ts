@@ -1,15 +1,15 @@
 // Restoring a version: its spec becomes the groom's saved spec, as a new revision.
-import { jsonData } from '@/lib/http/server';
+import { handler, jsonData, pathId } from '@/lib/http/server';
 import type { RestoredResponse } from '@/lib/studio/types';
 import { restoreVersion } from '@/lib/studio/grooms';
-import { pathId, studioHandler } from '@/lib/studio/http';
+import { notFound } from '@/lib/studio/errors';
 
 type Context = { params: Promise<{ groomId: string; versionId: string }> };
 
-export async function POST(_request: Request, context: Context) {
-  return studioHandler(async (groomer) => {
-    const groomId = await pathId(context.params, 'groomId', 'groom');
-    const versionId = await pathId(context.params, 'versionId', 'version');
+export function POST(_request: Request, context: Context) {
+  return handler(['groomer'], async (groomer) => {
+    const groomId = await pathId(context.params, 'groomId', notFound('groom'));
+    const versionId = await pathId(context.params, 'versionId', notFound('version'));
     return jsonData<RestoredResponse>(await restoreVersion(groomer, groomId, versionId));
   });
 }

@@ -9,10 +9,10 @@
 import type { Knex } from 'knex';
 import type Stripe from 'stripe';
 import { z } from 'zod';
-import { db } from '../platform/db';
-import { payments } from '../platform/payments';
-import { platformFeeCents } from './checkout';
-import { receiptMail, refundMail, saleNoticeMail, sendMailLogged } from './mail';
+import { db } from '../../platform/db';
+import { payments } from '../../platform/payments';
+import { platformFeeCents } from '../fees';
+import { receiptMail, refundMail, saleNoticeMail, sendMailLogged } from '../mail';
 
 type Trx = Knex.Transaction;
 

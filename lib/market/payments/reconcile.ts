@@ -1,9 +1,9 @@
 // Reconciliation: asks the payment provider for the completed Checkout Sessions of the last days
 // and records the purchase of any that has none (its webhook was lost, late or refused). Runs
-// every few minutes as a job (lib/market/jobs.ts) and on an admin's request.
-import { db } from '../platform/db';
-import { payments } from '../platform/payments';
-import { providerFailed } from './errors';
+// every few minutes as a job (lib/market/workers.ts) and on an admin's request.
+import { db } from '../../platform/db';
+import { payments } from '../../platform/payments';
+import { providerFailed } from '../errors';
 import { recordPaidSession, sendNotices, type Notice } from './purchases';
 
 export type ReconcileResult = { checked: number; recovered: number };

@@ -1,16 +1,13 @@
 // Checkout: a Checkout Session at the payment provider for one published listing, with the price
 // taken from the database. A buyer cannot buy their own listing or one they already own; a second
 // click while a checkout is open returns the same checkout instead of a second payment.
-import { db } from '../platform/db';
-import { env } from '../platform/env';
-import { payments } from '../platform/payments';
-import { MarketError, notFound, providerFailed } from './errors';
-import type { Actor } from './http';
-
-/** The market's fee on a price, in cents (rounded half up). */
-export function platformFeeCents(amountCents: number, percent = env().MARKET_PLATFORM_FEE_PERCENT): number {
-  return Math.min(amountCents, Math.max(0, Math.round((amountCents * percent) / 100)));
-}
+import { db } from '../../platform/db';
+import { env } from '../../platform/env';
+import { payments } from '../../platform/payments';
+import { HttpError } from '../../http/errors';
+import { notFound, providerFailed } from '../errors';
+import { platformFeeCents } from '../fees';
+import type { Actor } from '../../accounts/actor';
 
 /** How long a checkout stays payable (the provider's minimum is 30 minutes). */
 const CHECKOUT_MINUTES = 60;
@@ -27,11 +24,11 @@ export async function startCheckout(actor: Actor, listingId: string): Promise<Ch
     await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`checkout:${listingId}:${actor.userId}`]);
     const listing = await trx('listings').where({ id: listingId }).first('id', 'seller_id', 'state', 'title', 'price_cents', 'currency');
     if (!listing || (listing.state !== 'published' && listing.seller_id !== actor.userId && !actor.roles.includes('admin'))) throw notFound('listing');
-    if (listing.seller_id === actor.userId) throw new MarketError(403, 'own-listing', 'This is your own preset: it is already yours to use.');
-    if (listing.state !== 'published') throw new MarketError(409, 'not-for-sale', 'This preset is not on sale at the moment.');
+    if (listing.seller_id === actor.userId) throw new HttpError(403, 'own-listing', 'This is your own preset: it is already yours to use.');
+    if (listing.state !== 'published') throw new HttpError(409, 'not-for-sale', 'This preset is not on sale at the moment.');
     const owned = await trx('purchases').where({ listing_id: listingId, buyer_id: actor.userId, status: 'paid' }).first('id');
     if (owned) {
-      throw new MarketError(409, 'already-owned', 'You already own this preset: download it from your library.', { details: { purchaseId: owned.id } });
+      throw new HttpError(409, 'already-owned', 'You already own this preset: download it from your library.', { details: { purchaseId: owned.id } });
     }
 
     const open = await trx('checkout_sessions')
@@ -44,10 +41,10 @@ export async function startCheckout(actor: Actor, listingId: string): Promise<Ch
         const session = await payments().checkout.sessions.retrieve(open.session_id);
         if (session.status === 'open' && session.url) return { url: session.url, sessionId: session.id, reused: true };
         if (session.status === 'complete') {
-          throw new MarketError(409, 'already-owned', 'You have just paid for this preset; it appears in your library in a moment.');
+          throw new HttpError(409, 'already-owned', 'You have just paid for this preset; it appears in your library in a moment.');
         }
       } catch (error) {
-        if (error instanceof MarketError) throw error;
+        if (error instanceof HttpError) throw error;
         // The provider forgot it (or is unreachable): fall through to a new checkout.
       }
       await trx('checkout_sessions').where({ session_id: open.session_id }).delete();

@@ -1,11 +1,12 @@
 // Refunds by an admin: asked of the payment provider; the provider's `charge.refunded` webhook
-// then marks the purchase refunded (lib/market/purchases.ts). From the request on, the purchase
+// then marks the purchase refunded (lib/market/payments/purchases.ts). From the request on, the purchase
 // no longer downloads.
-import { db } from '../platform/db';
-import { payments } from '../platform/payments';
-import { MarketError, notFound, providerFailed } from './errors';
-import type { Actor } from './http';
-import type { AdminPurchase } from './types';
+import { db } from '../../platform/db';
+import { payments } from '../../platform/payments';
+import { HttpError } from '../../http/errors';
+import { notFound, providerFailed } from '../errors';
+import type { Actor } from '../../accounts/actor';
+import type { AdminPurchase } from '../types';
 
 export async function adminPurchase(id: string): Promise<AdminPurchase> {
   const row = await db()('purchases as p')
@@ -63,9 +64,9 @@ export async function refundPurchase(actor: Actor, purchaseId: string, reason?: 
   await db().transaction(async (trx) => {
     const purchase = await trx('purchases').where({ id: purchaseId }).forUpdate().first('id', 'status', 'refund_id', 'payment_intent_id');
     if (!purchase) throw notFound('purchase');
-    if (purchase.status === 'refunded') throw new MarketError(409, 'refunded', 'This purchase is already refunded.');
+    if (purchase.status === 'refunded') throw new HttpError(409, 'refunded', 'This purchase is already refunded.');
     if (purchase.refund_id) return; // asked before; the provider's webhook will complete it
-    if (!purchase.payment_intent_id) throw new MarketError(409, 'wrong-state', 'This purchase has no payment to refund.');
+    if (!purchase.payment_intent_id) throw new HttpError(409, 'wrong-state', 'This purchase has no payment to refund.');
     let refundId: string;
     try {
       const refund = await payments().refunds.create(
