@@ -3,7 +3,7 @@
 // and of how the stage draws it (strokes or streamlines, and how many).
 import { useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec';
-import type { DisplayOptions, OpenedSurface } from '@/lib/studio-client/protocol';
+import type { DisplayOptions, OpenedSurface } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './Workspace';
 

@@ -2,7 +2,7 @@
 // Guide settings, applied as they are changed: the field worker grows the guides again with
 // lib/groom's growGuides — the same guides an export writes — and the stage shows them.
 import type { GroomSpec, GuideSettings } from '@/lib/groom/spec';
-import type { GrownGuides } from '@/lib/studio-client/protocol';
+import type { GrownGuides } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './Workspace';
 

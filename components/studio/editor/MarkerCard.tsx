@@ -6,7 +6,7 @@ import { useFrame, useThree } from '@react-three/fiber';
 import { useEffect, useRef, type RefObject } from 'react';
 import { Vector3 } from 'three';
 import type { GroomSpec, SingularitySpec } from '@/lib/groom/spec';
-import { featureLabel, formatIndex, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
+import { featureLabel, formatIndex, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
 import type { EditorActions } from './Workspace';
 
 /** Inside the canvas: keeps `element` next to the screen position of `point`. */

@@ -4,7 +4,7 @@
 import { useState, type FormEvent } from 'react';
 import useSWR from 'swr';
 import type { GroomSpec } from '@/lib/groom/spec';
-import { fetchStudio, studioApi, type GroomVersion, type StudioRequestError } from '@/lib/studio-client/api';
+import { fetchStudio, studioApi, type GroomVersion, type StudioRequestError } from '@/lib/studio/client/api';
 import { Notice } from '@/components/ui/Notice';
 import { ConfirmDialog } from '../ui/ConfirmDialog';
 

@@ -7,8 +7,8 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { Mesh } from 'three';
 import type { GroomSpec } from '@/lib/groom/spec';
-import { Autosaver, type SaveStatus } from '@/lib/studio-client/autosave';
-import { studioApi, type GroomVersion } from '@/lib/studio-client/api';
+import { Autosaver, type SaveStatus } from '@/lib/studio/client/autosave';
+import { studioApi, type GroomVersion } from '@/lib/studio/client/api';
 import {
   applyEdit,
   canRedo,
@@ -22,12 +22,12 @@ import {
   undo,
   undoLabel,
   type EditorState,
-} from '@/lib/studio-client/editor-state';
-import { featureExists, featureLabel, featureOfPath, roundPoint, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
-import { SUPERSEDED, WorkerFailure, prewarmFieldWorker, startFieldWorker, type FieldClient } from '@/lib/studio-client/field-client';
-import type { DisplayOptions, GrownGuides, OpenedSurface, ProgressReport, SolveReport, SurfaceSource } from '@/lib/studio-client/protocol';
-import { applySpecEdit, checkedSpecEdit, type SpecEdit } from '@/lib/studio-client/spec-edits';
-import { nearestCorner, neighbourOf } from '@/lib/studio-client/surface-geometry';
+} from '@/lib/studio/client/editor-state';
+import { featureExists, featureLabel, featureOfPath, roundPoint, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
+import { SUPERSEDED, WorkerFailure, prewarmFieldWorker, startFieldWorker, type FieldClient } from '@/lib/studio/client/field-client';
+import type { DisplayOptions, GrownGuides, OpenedSurface, ProgressReport, SolveReport, SurfaceSource } from '@/lib/studio/client/protocol';
+import { applySpecEdit, checkedSpecEdit, type SpecEdit } from '@/lib/studio/client/spec-edits';
+import { nearestCorner, neighbourOf } from '@/lib/studio/client/surface-geometry';
 import { Stage, type StageApi } from '../scene/Stage';
 import { ProgressBar } from '../ui/ProgressBar';
 import { BudgetCard } from './BudgetCard';

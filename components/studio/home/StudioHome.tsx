@@ -6,7 +6,7 @@ import Link from 'next/link';
 import useSWR from 'swr';
 import { Notice } from '@/components/ui/Notice';
 import type { GroomListResponse, SurfaceListResponse } from '@/lib/studio/types';
-import { fetchStudio, studioApi, type StudioRequestError } from '@/lib/studio-client/api';
+import { fetchStudio, studioApi, type StudioRequestError } from '@/lib/studio/client/api';
 import { GroomList } from './GroomList';
 import { SurfaceList } from './SurfaceList';
 import { SurfaceUpload } from './SurfaceUpload';
