@@ -8,7 +8,7 @@ import { featureLabel, formatIndex, listFeatures, roundPoint, sameFeature, singu
 import type { SolveReport } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
 import { PinAttributeSelect } from './PinAttributeSelect';
-import type { EditorActions } from './Workspace';
+import type { EditorActions } from './editor-actions';
 
 type Place = { point?: readonly [number, number, number]; vertex?: number };
 

@@ -5,7 +5,7 @@ import { useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec';
 import type { DisplayOptions, OpenedSurface } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
-import type { EditorActions } from './Workspace';
+import type { EditorActions } from './editor-actions';
 
 const BOUNDARY_WORDS = {
   free: 'Free — the smoothest field, no sum asked of the indices',

@@ -4,7 +4,7 @@
 import type { GroomSpec, GuideSettings } from '@/lib/groom/spec';
 import type { GrownGuides } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
-import type { EditorActions } from './Workspace';
+import type { EditorActions } from './editor-actions';
 
 function Slider({ label, value, min, max, step, unit, onPreview, onFinish }: { label: string; value: number; min: number; max: number; step: number; unit?: string; onPreview: (value: number) => void; onFinish: () => void }) {
   return (

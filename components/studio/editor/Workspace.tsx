@@ -31,6 +31,7 @@ import { nearestCorner, neighbourOf } from '@/lib/studio/client/surface-geometry
 import { Stage, type StageApi } from '../scene/Stage';
 import { ProgressBar } from '../ui/ProgressBar';
 import { BudgetCard } from './BudgetCard';
+import type { EditorActions } from './editor-actions';
 import { EditorScene, placeOnSurface } from './EditorScene';
 import { ExportPanel } from './ExportPanel';
 import { FeatureList } from './FeatureList';
@@ -57,19 +58,6 @@ type Tab = 'features' | 'guides' | 'field' | 'versions' | 'export';
 interface Task {
   readonly progress: ProgressReport;
   readonly startedAt: number;
-}
-
-/** Everything panels need to read and change the spec. */
-export interface EditorActions {
-  /** Applies an edit as one undoable step; returns what stopped it, in words, or null. */
-  edit(edit: SpecEdit): string | null;
-  /** Shows an edit while a slider or drag is held; `finish` makes it one undoable step. */
-  preview(edit: SpecEdit): string | null;
-  finish(): void;
-  select(feature: FeatureRef | null): void;
-  lookAt(feature: FeatureRef): void;
-  /** Adds a feature from the side list, at the surface point in the middle of the view. */
-  addFromList(kind: 'whorl' | 'saddle' | 'singularity' | 'parting' | 'crest' | 'stroke' | 'pin'): void;
 }
 
 function problemText(problems: readonly { path: string; message: string }[]): string {
