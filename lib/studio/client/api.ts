@@ -1,6 +1,6 @@
-// The studio's calls to its route handlers, exactly as docs/studio-api.md describes them: typed
-// results (never a throw) in the platform's envelope, and the upload of a surface file straight
-// to object storage with its progress.
+// The studio's calls to its route handlers, exactly as docs/studio-api.md describes them, made with
+// the platform's one client (typed results, never a throw), and the upload of a surface file
+// straight to object storage with its progress.
 import type {
   ExportFormat,
   ExportJob,
@@ -14,62 +14,11 @@ import type {
   Version,
 } from '@/lib/studio/types';
 import type { GroomSpec } from '@/lib/groom/spec';
-import type { FieldErrors } from '@/lib/http/field-errors';
+import { request } from '@/lib/http/client';
 
 export { EXPORT_FORMATS, SURFACE_FORMATS, SURFACE_UNITS } from '@/lib/studio/types';
 export type { ExportFormat, ExportJob, GroomDetail, GroomSummary, SurfaceDetail, SurfaceProblem, SurfaceSummary, SurfaceUnits, UploadTicket };
 export type GroomVersion = Version;
-
-/** An error as the studio's route handlers send it. */
-export interface StudioError {
-  code: string;
-  message: string;
-  fields?: FieldErrors;
-  details?: { problems?: SurfaceProblem[]; revision?: number; [key: string]: unknown };
-  /** HTTP status, 0 when the server could not be reached. */
-  status: number;
-}
-
-export type Outcome<T> = { ok: true; data: T } | { ok: false; error: StudioError };
-
-const UNREACHABLE = 'Whorlwind could not be reached. Check your connection and try again.';
-
-async function call<T>(method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', url: string, body?: unknown): Promise<Outcome<T>> {
-  let response: Response;
-  try {
-    response = await fetch(url, {
-      method,
-      headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-  } catch {
-    return { ok: false, error: { code: 'service-unavailable', message: UNREACHABLE, status: 0 } };
-  }
-  let envelope: { data?: T; error?: Omit<StudioError, 'status'> };
-  try {
-    envelope = await response.json();
-  } catch {
-    return { ok: false, error: { code: 'service-unavailable', message: `The server answered ${response.status} without details.`, status: response.status } };
-  }
-  if (envelope.error || !response.ok) {
-    const error = envelope.error ?? { code: 'service-unavailable', message: `The server answered ${response.status}.` };
-    return { ok: false, error: { ...error, status: response.status } };
-  }
-  return { ok: true, data: envelope.data as T };
-}
-
-/** SWR's fetcher for the studio's lists: the `data` of the envelope, or a thrown StudioRequestError. */
-export class StudioRequestError extends Error {
-  constructor(readonly error: StudioError) {
-    super(error.message);
-  }
-}
-
-export async function fetchStudio<T>(url: string): Promise<T> {
-  const outcome = await call<T>('GET', url);
-  if (!outcome.ok) throw new StudioRequestError(outcome.error);
-  return outcome.data;
-}
 
 export const studioApi = {
   surfacesUrl: '/api/studio/surfaces',
@@ -77,23 +26,23 @@ export const studioApi = {
   groomUrl: (id: string) => `/api/studio/grooms/${encodeURIComponent(id)}`,
   versionsUrl: (id: string) => `/api/studio/grooms/${encodeURIComponent(id)}/versions`,
 
-  requestUpload: (fileName: string, byteSize: number) => call<UploadTicket>('POST', '/api/studio/uploads', { fileName, byteSize }),
-  createSurface: (input: { uploadId: string; name: string; units: SurfaceUnits }) => call<{ surface: SurfaceSummary }>('POST', '/api/studio/surfaces', input),
-  deleteSurface: (id: string) => call<{ deleted: true }>('DELETE', `/api/studio/surfaces/${encodeURIComponent(id)}`),
-  getSurface: (id: string) => call<{ surface: SurfaceDetail }>('GET', `/api/studio/surfaces/${encodeURIComponent(id)}`),
+  requestUpload: (fileName: string, byteSize: number) => request<UploadTicket>('POST', '/api/studio/uploads', { fileName, byteSize }),
+  createSurface: (input: { uploadId: string; name: string; units: SurfaceUnits }) => request<{ surface: SurfaceSummary }>('POST', '/api/studio/surfaces', input),
+  deleteSurface: (id: string) => request<{ deleted: true }>('DELETE', `/api/studio/surfaces/${encodeURIComponent(id)}`),
+  getSurface: (id: string) => request<{ surface: SurfaceDetail }>('GET', `/api/studio/surfaces/${encodeURIComponent(id)}`),
 
-  createGroom: (input: { surfaceId: string; name: string }) => call<{ groom: GroomSummary }>('POST', '/api/studio/grooms', input),
-  renameGroom: (id: string, name: string) => call<{ groom: GroomSummary }>('PATCH', studioApi.groomUrl(id), { name }),
-  duplicateGroom: (id: string, name?: string) => call<{ groom: GroomSummary }>('POST', `${studioApi.groomUrl(id)}/duplicate`, name ? { name } : {}),
-  deleteGroom: (id: string) => call<{ deleted: true }>('DELETE', studioApi.groomUrl(id)),
-  saveSpec: (id: string, spec: GroomSpec, baseRevision: number) => call<{ revision: number; savedAt: string }>('PUT', `${studioApi.groomUrl(id)}/spec`, { spec, baseRevision }),
+  createGroom: (input: { surfaceId: string; name: string }) => request<{ groom: GroomSummary }>('POST', '/api/studio/grooms', input),
+  renameGroom: (id: string, name: string) => request<{ groom: GroomSummary }>('PATCH', studioApi.groomUrl(id), { name }),
+  duplicateGroom: (id: string, name?: string) => request<{ groom: GroomSummary }>('POST', `${studioApi.groomUrl(id)}/duplicate`, name ? { name } : {}),
+  deleteGroom: (id: string) => request<{ deleted: true }>('DELETE', studioApi.groomUrl(id)),
+  saveSpec: (id: string, spec: GroomSpec, baseRevision: number) => request<{ revision: number; savedAt: string }>('PUT', `${studioApi.groomUrl(id)}/spec`, { spec, baseRevision }),
 
-  listVersions: (id: string) => call<{ versions: GroomVersion[] }>('GET', studioApi.versionsUrl(id)),
-  createVersion: (id: string, name: string) => call<{ version: GroomVersion }>('POST', studioApi.versionsUrl(id), { name }),
-  restoreVersion: (id: string, versionId: string) => call<{ spec: GroomSpec; revision: number }>('POST', `${studioApi.versionsUrl(id)}/${encodeURIComponent(versionId)}/restore`),
+  listVersions: (id: string) => request<{ versions: GroomVersion[] }>('GET', studioApi.versionsUrl(id)),
+  createVersion: (id: string, name: string) => request<{ version: GroomVersion }>('POST', studioApi.versionsUrl(id), { name }),
+  restoreVersion: (id: string, versionId: string) => request<{ spec: GroomSpec; revision: number }>('POST', `${studioApi.versionsUrl(id)}/${encodeURIComponent(versionId)}/restore`),
 
-  startExport: (id: string, format: ExportFormat) => call<{ export: ExportJob }>('POST', `${studioApi.groomUrl(id)}/exports`, { format }),
-  getExport: (exportId: string) => call<{ export: ExportJob }>('GET', `/api/studio/exports/${encodeURIComponent(exportId)}`),
+  startExport: (id: string, format: ExportFormat) => request<{ export: ExportJob }>('POST', `${studioApi.groomUrl(id)}/exports`, { format }),
+  getExport: (exportId: string) => request<{ export: ExportJob }>('GET', `/api/studio/exports/${encodeURIComponent(exportId)}`),
 };
 
 /**

@@ -40,9 +40,9 @@ import {
   type SingularityCheck,
   type SolveReport,
   type SurfaceSource,
-  type Vec3,
   type WorkerError,
 } from './protocol';
+import type { Vec3 } from './features';
 
 const now = () => performance.now();
 
