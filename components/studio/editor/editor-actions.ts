@@ -1,10 +1,8 @@
 // What the side panels and the marker card may do to the groom being edited, without knowing the
 // editor's page that carries them out (so that no panel imports the page).
 import type { FeatureRef } from '@/lib/studio/client/features';
+import type { ListedFeature } from '@/lib/studio/client/list-additions';
 import type { SpecEdit } from '@/lib/studio/client/spec-edits';
-
-/** The features the side list can add, at the surface point in the middle of the view. */
-export type ListedFeature = 'whorl' | 'saddle' | 'singularity' | 'parting' | 'crest' | 'stroke' | 'pin';
 
 /** Everything panels need to read and change the spec. */
 export interface EditorActions {

@@ -1,6 +1,6 @@
 // Tools that act on a click on the surface (a press and a release close together), and the click
 // test the drawing tools share: a press that travels further is the view being turned.
-import type { SurfaceHit, Tool, ToolContext, ToolId, ToolStep } from './tool';
+import { NO_DRAFT, type SurfaceHit, type Tool, type ToolContext, type ToolId, type ToolStep } from './tool';
 
 /** How far, in CSS pixels, the pointer may travel between press and release for a click. */
 export const CLICK_TRAVEL = 5;
@@ -32,12 +32,14 @@ export function clickTool(about: { id: ToolId; label: string; shortcut: string |
     pointerDown: (_state, hit) => ({ state: { press: hit.screen } }),
     pointerMove: (state) => ({ state }),
     pointerUp(state, hit, context) {
+      if (!state.press) return { state };
       const clicked = clickHit(state.press, hit);
       return clicked ? { ...click(clicked, context), state: idle } : { state: idle };
     },
     key: () => null,
     exit: () => ({ state: idle }),
-    draft: () => [],
+    draft: () => NO_DRAFT,
+    joinsDraft: false,
     holds: () => false,
   };
 }

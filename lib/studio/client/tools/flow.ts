@@ -2,7 +2,7 @@
 // a point each time the pointer has gone one and a half mean edges from the last, and becomes a
 // feature when the pointer is let go, wherever that is.
 import { roundPoint, type Vec3 } from '../features';
-import type { Tool } from './tool';
+import { NO_DRAFT, type Tool } from './tool';
 
 export interface FlowStroke {
   /** The points of the stroke being dragged, or null between strokes. */
@@ -37,6 +37,7 @@ export const flowTool: Tool<FlowStroke> = {
   },
   key: () => null,
   exit: () => ({ state: IDLE }),
-  draft: (state) => state.points ?? [],
+  draft: (state) => state.points ?? NO_DRAFT,
+  joinsDraft: false,
   holds: (state) => state.points !== null,
 };

@@ -39,7 +39,7 @@ function switchTo(session: ToolSession, next: ToolId, context: ToolContext): Ses
 
 /** A step of the active tool, with the switch it asks for. */
 function follow(session: ToolSession, step: ToolStep<unknown>, context: ToolContext): SessionStep {
-  const moved: SessionStep = { session: { ...session, state: step.state }, changes: step.changes ?? [], notice: step.notice };
+  const moved: SessionStep = { session: step.state === session.state ? session : { ...session, state: step.state }, changes: step.changes ?? [], notice: step.notice };
   if (!step.then) return moved;
   const switched = switchTo(moved.session, step.then, context);
   return { session: switched.session, changes: [...moved.changes, ...switched.changes], notice: moved.notice ?? switched.notice };
@@ -96,6 +96,18 @@ export function toolKey(session: ToolSession, key: string, context: ToolContext)
     return { ...dropped, changes: [...(step?.changes ?? []), ...dropped.changes] };
   }
   return step ? follow(session, step, context) : null;
+}
+
+/** The groomer drops what the tool has drawn and not finished, and stays with the tool. */
+export function discardDraft(session: ToolSession, context: ToolContext): SessionStep {
+  const step = TOOLS[session.tool].key(session.state, 'Escape', context);
+  return step ? follow(session, step, context) : { session, changes: [] };
+}
+
+/** The groomer finishes what the tool has drawn (as Enter does). */
+export function finishDraft(session: ToolSession, context: ToolContext): SessionStep {
+  const step = TOOLS[session.tool].key(session.state, 'Enter', context);
+  return step ? follow(session, step, context) : { session, changes: [] };
 }
 
 /** The points drawn and not yet a feature. */

@@ -55,6 +55,9 @@ export interface ToolStep<S> {
   readonly then?: ToolId;
 }
 
+/** The draft of a tool that holds no points. */
+export const NO_DRAFT: readonly Vec3[] = [];
+
 export interface Tool<S> {
   readonly id: ToolId;
   readonly label: string;
@@ -71,8 +74,10 @@ export interface Tool<S> {
   key(state: S, key: string, context: ToolContext): ToolStep<S> | null;
   /** Leaving the tool: what it holds unfinished is finished or dropped. */
   exit(state: S, context: ToolContext): ToolStep<S>;
-  /** The points drawn and not yet a feature, for the stage to show. */
+  /** The points drawn and not yet a feature, for the stage to show (the same array while they do not change). */
   draft(state: S): readonly Vec3[];
+  /** Whether the stage shows the draft joined along the mesh (a curve) rather than as points alone. */
+  readonly joinsDraft: boolean;
   /** Whether the tool holds the pointer (a stroke being dragged): the view must not turn meanwhile. */
   holds(state: S): boolean;
 }
