@@ -3,8 +3,7 @@
 import { NumberField } from '../ui/NumberField';
 import { COLOURS } from './EditorScene';
 import { PinAttributeSelect } from './PinAttributeSelect';
-import { RAIL_TOOLS, TOOLS } from '@/lib/studio/client/tools';
-import type { ToolId, ToolOptions } from '@/lib/studio/client/tools/tool';
+import { RAIL_TOOLS, TOOLS, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
 
 const SWATCH: Partial<Record<ToolId, string>> = {
   whorl: COLOURS.whorl,

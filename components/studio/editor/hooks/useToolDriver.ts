@@ -8,7 +8,7 @@ import type { EditorState } from '@/lib/studio/client/editor-state';
 import type { FeatureRef, Vec3 } from '@/lib/studio/client/features';
 import type { OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { nearestCorner, vertexPoint } from '@/lib/studio/client/surface-geometry';
-import { TOOLS } from '@/lib/studio/client/tools';
+import { TOOLS, type SurfaceHit, type ToolContext, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
 import {
   applyChanges,
   chooseTool,
@@ -26,7 +26,6 @@ import {
   type SessionStep,
   type ToolSession,
 } from '@/lib/studio/client/tools/session';
-import type { SurfaceHit, ToolContext, ToolId, ToolOptions } from '@/lib/studio/client/tools/tool';
 import type { StageApi } from '../../scene/Stage';
 import type { MarkerHandlers } from '../EditorScene';
 import { useLatest, useLiveState } from './useLiveState';

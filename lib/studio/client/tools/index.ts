@@ -1,5 +1,6 @@
-// The editor's tools, by id, in the order the tool rail shows them. A new tool is one file in this
-// folder implementing `Tool` (tool.ts) and one line here; the page needs no change.
+// The editor's tools, by id, in the order the tool rail shows them, and what a tool is (its
+// interface lives in tool.ts so that the tools themselves never import this registry). A new tool
+// is one file in this folder implementing `Tool` and one line here; the page needs no change.
 import { crestTool } from './crest';
 import { flowTool } from './flow';
 import { lookTool } from './look';
@@ -10,6 +11,8 @@ import { saddleTool } from './saddle';
 import { singularityTool } from './singularity';
 import type { Tool, ToolId } from './tool';
 import { whorlTool } from './whorl';
+
+export type { EditorChange, SurfaceHit, Tool, ToolContext, ToolId, ToolOptions, ToolStep } from './tool';
 
 /** A tool of any kind of state: the session only ever hands a tool back the state it made. */
 type AnyTool = Tool<unknown>;

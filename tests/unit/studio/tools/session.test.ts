@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { canUndo, currentSpec, undo, undoLabel } from '@/lib/studio/client/editor-state';
+import { canUndo, createEditorState, currentSpec, undo, undoLabel } from '@/lib/studio/client/editor-state';
 import { RAIL_TOOLS, TOOLS, toolOfKey } from '@/lib/studio/client/tools';
 import { chooseTool, holdsPointer, pointerDown, pointerMove, pointerUp, pressMarker, startSession, toolKey } from '@/lib/studio/client/tools/session';
 import { bramble, contextOf, hitAt, run } from './fixtures';
@@ -27,12 +27,15 @@ describe('dragging a marker, whatever the tool', () => {
   });
 
   it('holds the pointer while dragging; a pin is moved by its point, its file vertex dropped', () => {
-    const start = bramble();
+    const opened = bramble();
+    const spec = currentSpec(opened);
+    const start = createEditorState({ ...spec, pins: spec.pins.map((pin, i) => (i === 1 ? { attribute: pin.attribute, value: pin.value, vertex: 5 } : pin)) });
     const pressed = pressMarker(startSession(), { kind: 'pin', index: 1 });
     expect(holdsPointer(pressed.session)).toBe(true);
     const { editor } = run(start, pressed.session, [(s, c) => pointerMove(s, hitAt(6), c), (s, c) => pointerUp(s, null, c)]);
     const pin = currentSpec(editor).pins[1];
     expect(pin.point).toEqual([0.6, 0, 1]);
+    expect(currentSpec(start).pins[1].vertex).toBe(5);
     expect(pin.vertex).toBeUndefined();
     expect(undoLabel(editor)).toBe('Move length pin 2');
   });
