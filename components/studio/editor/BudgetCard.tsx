@@ -4,8 +4,8 @@
 // independent measurement of the solved field found — the proof that the field has exactly the
 // singularities that were placed.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import { formatIndex } from '@/lib/studio-client/features';
-import type { OpenedSurface, SolveReport } from '@/lib/studio-client/protocol';
+import { formatIndex } from '@/lib/studio/client/features';
+import type { OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 
 const count = (n: number, one: string, many = `${one}s`) => `${n.toLocaleString('en-GB')} ${n === 1 ? one : many}`;
 

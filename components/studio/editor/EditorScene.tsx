@@ -6,9 +6,10 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { memo, useMemo, type RefObject } from 'react';
 import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
-import type { GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio-client/protocol';
-import { guideSegments } from '@/lib/studio-client/surface-geometry';
+import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
+import { placeOnSurface } from '@/lib/studio/client/marker-places';
+import type { GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
+import { guideSegments } from '@/lib/studio/client/surface-geometry';
 import { FatLine } from '../scene/FatLine';
 import { LineLayer } from '../scene/LineLayer';
 import { SurfaceMesh, type SurfacePointerHandler } from '../scene/SurfaceMesh';
@@ -41,24 +42,6 @@ function orientation(normal: Vec3): Quaternion {
   const n = new Vector3(...normal);
   if (n.lengthSq() === 0) n.set(0, 1, 0);
   return new Quaternion().setFromUnitVectors(UP, n.normalize());
-}
-
-function vertexPoint(surface: OpenedSurface, vertex: number): Vec3 {
-  const p = surface.positions;
-  return [p[3 * vertex], p[3 * vertex + 1], p[3 * vertex + 2]];
-}
-
-function vertexNormal(surface: OpenedSurface, vertex: number): Vec3 {
-  const n = surface.vertexNormals;
-  return [n[3 * vertex], n[3 * vertex + 1], n[3 * vertex + 2]];
-}
-
-/** Where a feature's marker stands: the vertex the last solve snapped it to, or its own point. */
-export function placeOnSurface(surface: OpenedSurface, vertex: number | undefined, point: readonly number[] | undefined): { point: Vec3; normal: Vec3 } | null {
-  if (vertex !== undefined && vertex >= 0 && vertex < surface.vertexCount) return { point: vertexPoint(surface, vertex), normal: vertexNormal(surface, vertex) };
-  if (!point) return null;
-  const d: Vec3 = [point[0] - surface.center[0], point[1] - surface.center[1], point[2] - surface.center[2]];
-  return { point: [point[0], point[1], point[2]], normal: d };
 }
 
 const SingularityMarker = memo(function SingularityMarker({
@@ -150,7 +133,7 @@ export function EditorScene({
   guidesFaded: boolean;
   showGuides: boolean;
   selection: FeatureRef | null;
-  draft: Vec3[];
+  draft: readonly Vec3[];
   draftPath: Float32Array | null;
   meshRef: RefObject<Mesh | null>;
   handlers: MarkerHandlers;

@@ -3,7 +3,7 @@
 // format, the job's progress while it runs, and the download when it is ready.
 import { useEffect, useRef, useState } from 'react';
 import { Notice } from '@/components/ui/Notice';
-import { studioApi, type ExportFormat, type ExportJob } from '@/lib/studio-client/api';
+import { studioApi, type ExportFormat, type ExportJob } from '@/lib/studio/client/api';
 import { ProgressBar } from '../ui/ProgressBar';
 
 export const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; note: string }[] = [

@@ -4,11 +4,11 @@
 // one. Reachable by keyboard from top to bottom; the picked feature opens its fields.
 import { memo } from 'react';
 import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec } from '@/lib/groom/spec/spec';
-import { featureLabel, formatIndex, listFeatures, roundPoint, sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
-import type { SolveReport } from '@/lib/studio-client/protocol';
+import { featureLabel, formatIndex, listFeatures, roundPoint, sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
+import type { SolveReport } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
 import { PinAttributeSelect } from './PinAttributeSelect';
-import type { EditorActions } from './Workspace';
+import type { EditorActions } from './editor-actions';
 
 type Place = { point?: readonly [number, number, number]; vertex?: number };
 

@@ -3,9 +3,9 @@
 // and of how the stage draws it (strokes or streamlines, and how many).
 import { useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import type { DisplayOptions, OpenedSurface } from '@/lib/studio-client/protocol';
+import type { DisplayOptions, OpenedSurface } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
-import type { EditorActions } from './Workspace';
+import type { EditorActions } from './editor-actions';
 
 const BOUNDARY_WORDS = {
   free: 'Free — the smoothest field, no sum asked of the indices',

@@ -2,8 +2,8 @@
 // Opens a groom in the editor: its saved spec, revision and versions as the page read them, its
 // surface file through the presigned link (read by the field worker).
 import { useMemo } from 'react';
-import type { GroomDetail } from '@/lib/studio-client/api';
-import type { SurfaceSource } from '@/lib/studio-client/protocol';
+import type { GroomDetail } from '@/lib/studio/client/api';
+import type { SurfaceSource } from '@/lib/studio/client/protocol';
 import { Workspace } from './Workspace';
 
 export function GroomEditor({ groom }: { groom: GroomDetail }) {

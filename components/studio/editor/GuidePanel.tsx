@@ -2,9 +2,9 @@
 // Guide settings, applied as they are changed: the field worker grows the guides again with
 // lib/groom's growGuides — the same guides an export writes — and the stage shows them.
 import type { GroomSpec, GuideSettings } from '@/lib/groom/spec/spec';
-import type { GrownGuides } from '@/lib/studio-client/protocol';
+import type { GrownGuides } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
-import type { EditorActions } from './Workspace';
+import type { EditorActions } from './editor-actions';
 
 function Slider({ label, value, min, max, step, unit, onPreview, onFinish }: { label: string; value: number; min: number; max: number; step: number; unit?: string; onPreview: (value: number) => void; onFinish: () => void }) {
   return (

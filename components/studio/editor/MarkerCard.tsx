@@ -6,8 +6,8 @@ import { useFrame, useThree } from '@react-three/fiber';
 import { useEffect, useRef, type RefObject } from 'react';
 import { Vector3 } from 'three';
 import type { GroomSpec, SingularitySpec } from '@/lib/groom/spec/spec';
-import { featureLabel, formatIndex, type FeatureRef, type Vec3 } from '@/lib/studio-client/features';
-import type { EditorActions } from './Workspace';
+import { featureLabel, formatIndex, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
+import type { EditorActions } from './editor-actions';
 
 /** Inside the canvas: keeps `element` next to the screen position of `point`. */
 export function ScreenAnchor({ point, element }: { point: Vec3 | null; element: RefObject<HTMLDivElement | null> }) {

@@ -5,7 +5,7 @@ import { useMemo } from 'react';
 import { Notice } from '@/components/ui/Notice';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { parseGroomSpec } from '@/lib/groom/spec/spec';
-import type { SurfaceSource } from '@/lib/studio-client/protocol';
+import type { SurfaceSource } from '@/lib/studio/client/protocol';
 import { Workspace } from './Workspace';
 
 /** The editor on one of the demo characters, built in the browser: for trying things out, nothing saved. */

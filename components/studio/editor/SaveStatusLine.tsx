@@ -1,7 +1,7 @@
 'use client';
 // Where the groom stands with the server: saved (and which revision), waiting, saving, not saved
 // (with the reason and a way to try again), or saved elsewhere meanwhile (with the choice).
-import type { SaveStatus } from '@/lib/studio-client/autosave';
+import type { SaveStatus } from '@/lib/studio/client/autosave';
 
 export function SaveStatusLine({ status, practice, onRetry, onKeepMine }: { status: SaveStatus | null; practice: boolean; onRetry: () => void; onKeepMine: () => void }) {
   if (practice) {

@@ -3,9 +3,9 @@
 import { NumberField } from '../ui/NumberField';
 import { COLOURS } from './EditorScene';
 import { PinAttributeSelect } from './PinAttributeSelect';
-import { TOOLS, type Tool, type ToolOptions } from './tools';
+import { RAIL_TOOLS, TOOLS, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
 
-const SWATCH: Partial<Record<Tool, string>> = {
+const SWATCH: Partial<Record<ToolId, string>> = {
   whorl: COLOURS.whorl,
   saddle: COLOURS.saddle,
   singularity: COLOURS.other,
@@ -26,8 +26,8 @@ export function ToolRail({
   onCancel,
   onFrameAll,
 }: {
-  tool: Tool;
-  onTool: (tool: Tool) => void;
+  tool: ToolId;
+  onTool: (tool: ToolId) => void;
   options: ToolOptions;
   onOptions: (options: ToolOptions) => void;
   order: number;
@@ -36,17 +36,16 @@ export function ToolRail({
   onCancel: () => void;
   onFrameAll: () => void;
 }) {
-  const active = TOOLS.find((t) => t.id === tool);
-  const hint = tool === 'remainder' ? 'Click the surface where what remains of the index budget should go.' : active?.hint;
+  const hint = TOOLS[tool].hint;
   return (
     <>
       <div role="toolbar" aria-label="Tools" aria-orientation="vertical" className="absolute left-3 top-3 z-10 flex w-36 flex-col gap-1 rounded-2xl bg-tarn/90 p-1.5 shadow-lg">
-        {TOOLS.map((t) => (
+        {RAIL_TOOLS.map((t) => (
           <button
             key={t.id}
             type="button"
             aria-pressed={tool === t.id}
-            title={`${t.label} (${t.key})`}
+            title={`${t.label} (${t.shortcut})`}
             onClick={() => onTool(t.id)}
             className={`flex items-center gap-2 rounded-xl px-2.5 py-1.5 text-left text-sm font-semibold ${tool === t.id ? 'bg-chalk text-tarn-deep' : 'text-chalk hover:bg-tarn-deep'}`}
           >

@@ -4,7 +4,8 @@
 import { useState, type FormEvent } from 'react';
 import useSWR from 'swr';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import { fetchStudio, studioApi, type GroomVersion, type StudioRequestError } from '@/lib/studio-client/api';
+import { fetchData, type ApiRequestError } from '@/lib/http/client';
+import { studioApi, type GroomVersion } from '@/lib/studio/client/api';
 import { Notice } from '@/components/ui/Notice';
 import { ConfirmDialog } from '../ui/ConfirmDialog';
 
@@ -17,7 +18,7 @@ export interface VersionsApi {
 }
 
 export function VersionPanel({ api, initial }: { api: VersionsApi; initial: readonly GroomVersion[] }) {
-  const { data, error, mutate } = useSWR<{ versions: GroomVersion[] }, StudioRequestError>(studioApi.versionsUrl(api.groomId), fetchStudio, {
+  const { data, error, mutate } = useSWR<{ versions: GroomVersion[] }, ApiRequestError>(studioApi.versionsUrl(api.groomId), fetchData, {
     fallbackData: { versions: [...initial] },
   });
   const [name, setName] = useState('');

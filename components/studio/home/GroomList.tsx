@@ -5,8 +5,8 @@ import Link from 'next/link';
 import { useState } from 'react';
 import { Notice } from '@/components/ui/Notice';
 import { renameGroomSchema } from '@/lib/studio/validation';
-import { studioApi, type GroomSummary } from '@/lib/studio-client/api';
-import { timeAgo } from '@/lib/studio-client/format';
+import { studioApi, type GroomSummary } from '@/lib/studio/client/api';
+import { timeAgo } from '@/lib/studio/client/format';
 import { ConfirmDialog } from '../ui/ConfirmDialog';
 import { NameForm } from './NameForm';
 

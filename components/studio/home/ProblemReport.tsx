@@ -2,8 +2,8 @@
 // Why a surface was refused: each problem lib/field found, in its words, how many and where —
 // and, when the file can still be drawn, a 3D view with the first bad faces marked.
 import dynamic from 'next/dynamic';
-import type { SurfaceProblem } from '@/lib/studio-client/api';
-import { plural } from '@/lib/studio-client/format';
+import type { SurfaceProblem } from '@/lib/studio/client/api';
+import { plural } from '@/lib/studio/client/format';
 
 const ProblemView = dynamic(() => import('./ProblemView').then((m) => m.ProblemView), { ssr: false });
 

@@ -4,10 +4,10 @@
 // faces, edges and vertices of each problem marked.
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Mesh } from 'three';
-import type { SurfaceProblem } from '@/lib/studio-client/api';
-import { startFieldWorker } from '@/lib/studio-client/field-client';
-import type { InspectedSurface } from '@/lib/studio-client/protocol';
-import { problemMarks } from '@/lib/studio-client/surface-geometry';
+import type { SurfaceProblem } from '@/lib/studio/client/api';
+import { startFieldWorker } from '@/lib/studio/client/field-client';
+import type { InspectedSurface } from '@/lib/studio/client/protocol';
+import { problemMarks } from '@/lib/studio/client/surface-geometry';
 import { LineLayer } from '../scene/LineLayer';
 import { Stage, type StageApi } from '../scene/Stage';
 import { SurfaceMesh } from '../scene/SurfaceMesh';

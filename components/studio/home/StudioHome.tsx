@@ -6,7 +6,8 @@ import Link from 'next/link';
 import useSWR from 'swr';
 import { Notice } from '@/components/ui/Notice';
 import type { GroomListResponse, SurfaceListResponse } from '@/lib/studio/types';
-import { fetchStudio, studioApi, type StudioRequestError } from '@/lib/studio-client/api';
+import { fetchData, type ApiRequestError } from '@/lib/http/client';
+import { studioApi } from '@/lib/studio/client/api';
 import { GroomList } from './GroomList';
 import { SurfaceList } from './SurfaceList';
 import { SurfaceUpload } from './SurfaceUpload';
@@ -22,8 +23,8 @@ export function StudioHome({
   initialSurfaces: SurfaceListResponse;
   practice: readonly { id: string; character: string; description: string }[];
 }) {
-  const grooms = useSWR<GroomListResponse, StudioRequestError>(studioApi.groomsUrl, fetchStudio, { fallbackData: initialGrooms });
-  const surfaces = useSWR<SurfaceListResponse, StudioRequestError>(studioApi.surfacesUrl, fetchStudio, { fallbackData: initialSurfaces });
+  const grooms = useSWR<GroomListResponse, ApiRequestError>(studioApi.groomsUrl, fetchData, { fallbackData: initialGrooms });
+  const surfaces = useSWR<SurfaceListResponse, ApiRequestError>(studioApi.surfacesUrl, fetchData, { fallbackData: initialSurfaces });
   const refresh = () => {
     void grooms.mutate();
     void surfaces.mutate();

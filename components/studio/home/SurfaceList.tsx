@@ -6,9 +6,9 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { Notice } from '@/components/ui/Notice';
 import { createGroomSchema } from '@/lib/studio/validation';
-import { formatIndex } from '@/lib/studio-client/features';
-import { studioApi, type SurfaceSummary } from '@/lib/studio-client/api';
-import { plural, timeAgo } from '@/lib/studio-client/format';
+import { formatIndex } from '@/lib/studio/client/features';
+import { studioApi, type SurfaceSummary } from '@/lib/studio/client/api';
+import { plural, timeAgo } from '@/lib/studio/client/format';
 import { ConfirmDialog } from '../ui/ConfirmDialog';
 import { NameForm } from './NameForm';
 

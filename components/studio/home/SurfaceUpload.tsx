@@ -4,8 +4,8 @@
 // A refused file is reported problem by problem, with its bad faces shown when it can be drawn.
 import { useRef, useState, type FormEvent } from 'react';
 import { Notice } from '@/components/ui/Notice';
-import { SURFACE_FORMATS, SURFACE_UNITS, extensionOf, formatBytes, studioApi, uploadFile, type SurfaceProblem, type SurfaceSummary, type SurfaceUnits } from '@/lib/studio-client/api';
-import { nameFromFile } from '@/lib/studio-client/format';
+import { SURFACE_FORMATS, SURFACE_UNITS, extensionOf, formatBytes, studioApi, uploadFile, type SurfaceProblem, type SurfaceSummary, type SurfaceUnits } from '@/lib/studio/client/api';
+import { nameFromFile } from '@/lib/studio/client/format';
 import { ProgressBar } from '../ui/ProgressBar';
 import { ProblemReport } from './ProblemReport';
 

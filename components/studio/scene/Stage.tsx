@@ -7,7 +7,7 @@ import { Canvas, useThree } from '@react-three/fiber';
 import { useEffect, useMemo, type ReactNode, type RefObject } from 'react';
 import { DirectionalLight, MOUSE, Raycaster, Vector2, Vector3, type Object3D, type PerspectiveCamera } from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
-import type { Vec3 } from '@/lib/studio-client/features';
+import type { Vec3 } from '@/lib/studio/client/features';
 
 export const STAGE_BACKGROUND = '#173236';
 

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
-import type { Outcome } from '@/lib/studio-client/api';
-import { Autosaver, type SaveStatus } from '@/lib/studio-client/autosave';
+import type { ApiOutcome as Outcome } from '@/lib/http/client';
+import { Autosaver, type SaveStatus } from '@/lib/studio/client/autosave';
 
 type Answer = Outcome<{ revision: number; savedAt: string }>;
 

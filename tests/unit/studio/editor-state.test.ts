@@ -14,9 +14,9 @@ import {
   select,
   undo,
   undoLabel,
-} from '@/lib/studio-client/editor-state';
-import { featureLabel, featureOfPath, formatIndex, listFeatures, pathOfFeature, roundPoint } from '@/lib/studio-client/features';
-import { applySpecEdit, checkedSpecEdit } from '@/lib/studio-client/spec-edits';
+} from '@/lib/studio/client/editor-state';
+import { featureLabel, featureOfPath, formatIndex, listFeatures, pathOfFeature, roundPoint } from '@/lib/studio/client/features';
+import { applySpecEdit, checkedSpecEdit } from '@/lib/studio/client/spec-edits';
 
 const bramble = (): GroomSpec => parseGroomSpec(DEMO_GROOMS[0].spec);
 const whorlAt = (x: number) => ({ point: [x, 0, 0] as [number, number, number], index: 1, handedness: 'counterclockwise' as const });

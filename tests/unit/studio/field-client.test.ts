@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { FieldClient, SUPERSEDED, WorkerFailure, type WorkerLike } from '@/lib/studio-client/field-client';
-import type { WorkerReply, WorkerRequest } from '@/lib/studio-client/protocol';
+import { FieldClient, SUPERSEDED, WorkerFailure, type WorkerLike } from '@/lib/studio/client/field-client';
+import type { WorkerReply, WorkerRequest } from '@/lib/studio/client/protocol';
 
 /** A worker that holds every request until the test answers it. */
 class FakeWorker implements WorkerLike {

@@ -3,8 +3,8 @@ import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
 import { fieldRequestFromSpec } from '@/lib/groom/place/request';
 import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
-import { FieldEngine } from '@/lib/studio-client/field-engine';
-import type { OpenedSurface, ProgressReport } from '@/lib/studio-client/protocol';
+import { FieldEngine } from '@/lib/studio/client/field-engine';
+import type { OpenedSurface, ProgressReport } from '@/lib/studio/client/protocol';
 
 const display = { drawing: 'strokes', density: 2000 } as const;
 

@@ -1,9 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { checkSurfaceFile, readSurface } from '@/lib/field';
-import { guideSegments, nearestCorner, neighbourOf, problemMarks } from '@/lib/studio-client/surface-geometry';
-import { nameFromFile, timeAgo } from '@/lib/studio-client/format';
-import { formatBytes, extensionOf } from '@/lib/studio-client/api';
+import { guideSegments, nearestCorner, neighbourOf, problemMarks } from '@/lib/studio/client/surface-geometry';
+import { nameFromFile, timeAgo } from '@/lib/studio/client/format';
+import { formatBytes, extensionOf } from '@/lib/studio/client/api';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(`tests/fixtures/surfaces/${name}`));
 

@@ -3,7 +3,7 @@
 // become one history entry when the pointer is let go). Every function returns a new state.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { featureExists, sameFeature, type FeatureRef } from './features';
-import { applySpecEdit, describeSpecEdit, type SpecEdit } from './spec-edits';
+import { applySpecEdit, checkedSpecEdit, describeSpecEdit, refusalText, type SpecEdit } from './spec-edits';
 
 export interface HistoryEntry {
   readonly spec: GroomSpec;
@@ -59,6 +59,24 @@ export function applyEdit(state: EditorState, edit: SpecEdit, spec?: GroomSpec):
     selection: selectionAfter(next, base.selection, edit),
     gestureBase: null,
   };
+}
+
+/** A state after an edit that was checked first: unchanged, with the reason in words, when it was refused. */
+export interface CheckedStep {
+  readonly state: EditorState;
+  readonly refused: string | null;
+}
+
+/** Applies an edit as one undoable step if the groom schema accepts the result (see `checkedSpecEdit`). */
+export function applyCheckedEdit(state: EditorState, edit: SpecEdit): CheckedStep {
+  const checked = checkedSpecEdit(state.present.spec, edit);
+  return checked.ok ? { state: applyEdit(state, edit, checked.spec), refused: null } : { state, refused: refusalText(checked.problems) };
+}
+
+/** Shows a step of a gesture if the groom schema accepts the result. */
+export function previewCheckedEdit(state: EditorState, edit: SpecEdit): CheckedStep {
+  const checked = checkedSpecEdit(state.present.spec, edit);
+  return checked.ok ? { state: previewEdit(state, edit, checked.spec), refused: null } : { state, refused: refusalText(checked.problems) };
 }
 
 /**

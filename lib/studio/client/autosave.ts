@@ -4,7 +4,7 @@
 // somewhere else in the meantime. No timers of its own beyond the one delay; no React.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import type { FieldErrors } from '@/lib/http/field-errors';
-import type { Outcome } from './api';
+import type { ApiOutcome } from '@/lib/http/client';
 
 export type SaveStatus =
   | { readonly state: 'saved'; readonly revision: number; readonly savedAt: string | null }
@@ -14,7 +14,7 @@ export type SaveStatus =
   | { readonly state: 'conflict'; readonly revision: number; readonly serverRevision: number | null; readonly message: string };
 
 export interface AutosaveOptions {
-  readonly save: (spec: GroomSpec, baseRevision: number) => Promise<Outcome<{ revision: number; savedAt: string }>>;
+  readonly save: (spec: GroomSpec, baseRevision: number) => Promise<ApiOutcome<{ revision: number; savedAt: string }>>;
   readonly onStatus: (status: SaveStatus) => void;
   /** Milliseconds after the last edit before saving. */
   readonly delay?: number;

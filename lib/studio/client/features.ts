@@ -2,6 +2,7 @@
 // singularities, partings, crests, flow strokes and pins. Plain data helpers, no React.
 import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec } from '@/lib/groom/spec/spec';
 
+/** A point or direction in the surface's space, as the spec writes it. */
 export type Vec3 = [number, number, number];
 
 /** Where a feature lives in the spec. Curves are kept apart by kind, as the spec keeps them. */

@@ -1,6 +1,7 @@
 // Small geometry the page needs on top of what the worker sends: the vertex a click lands on,
 // guides as line segments, and the faces, edges and vertices a surface check points at.
 import type { SurfaceProblem } from './api';
+import { roundPoint, type Vec3 } from './features';
 import type { GrownGuides } from './protocol';
 
 /** The corner of a face nearest a point on it: where a click on the surface puts a singularity. */
@@ -16,6 +17,11 @@ export function nearestCorner(positions: ArrayLike<number>, triangles: ArrayLike
     }
   }
   return best;
+}
+
+/** A vertex's place, rounded for the spec. */
+export function vertexPoint(positions: ArrayLike<number>, vertex: number): Vec3 {
+  return roundPoint([positions[3 * vertex], positions[3 * vertex + 1], positions[3 * vertex + 2]]);
 }
 
 /** Another vertex of a face that uses `vertex` (a neighbour), or `vertex` itself when none does. */

@@ -2,7 +2,7 @@
 // named in words for the undo history, checked with the groom library's own schema before it
 // is accepted. The spec is never changed in place.
 import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec/spec';
-import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureRef } from './features';
+import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureRef, type Vec3 } from './features';
 
 export type CurveKind = 'parting' | 'crest';
 export type FieldSettings = Pick<GroomSpec['field'], 'order' | 'boundary' | 'rotation' | 'referenceDirection'>;
@@ -20,6 +20,32 @@ export type SpecEdit =
   | { readonly type: 'set-guides'; readonly guides: GuideSettings }
   | { readonly type: 'set-field'; readonly settings: Partial<FieldSettings> }
   | { readonly type: 'replace'; readonly spec: GroomSpec; readonly label: string };
+
+/** The index of a whorl and of a saddle, the two singularities the tools and the side list add by name. */
+export const WHORL_INDEX = 1;
+export const SADDLE_INDEX = -1;
+
+/** The edit that adds a singularity of an index at a point, turning counterclockwise as every new one does. */
+export function addSingularity(point: Vec3, index: number): SpecEdit {
+  return { type: 'add-singularity', singularity: { point, index, handedness: 'counterclockwise' } };
+}
+
+/** The edit that moves a singularity or a pin to a point (a place by file vertex becomes a place by point); null for other features. */
+export function moveFeature(spec: GroomSpec, feature: FeatureRef, point: Vec3): SpecEdit | null {
+  if (feature.kind === 'singularity') {
+    const s = spec.field.singularities[feature.index];
+    if (!s) return null;
+    const { vertex: _vertex, ...rest } = s;
+    return { type: 'update-singularity', index: feature.index, singularity: { ...rest, point }, moved: true };
+  }
+  if (feature.kind === 'pin') {
+    const pin = spec.pins[feature.index];
+    if (!pin) return null;
+    const { vertex: _vertex, ...rest } = pin;
+    return { type: 'update-pin', index: feature.index, pin: { ...rest, point }, moved: true };
+  }
+  return null;
+}
 
 function replaced<T>(list: readonly T[], index: number, item: T): T[] {
   if (index < 0 || index >= list.length) throw new RangeError(`no item ${index} in a list of ${list.length}`);
@@ -132,4 +158,10 @@ export function checkedSpecEdit(spec: GroomSpec, edit: SpecEdit): CheckedEdit {
   }
   const result = validateGroomSpec(next);
   return result.spec ? { ok: true, spec: result.spec } : { ok: false, problems: result.problems };
+}
+
+/** Why an edit was refused, in the groomer's words: the first problem, with the schema's bounds said plainly. */
+export function refusalText(problems: readonly { path: string; message: string }[]): string {
+  const first = problems[0];
+  return first ? first.message.replace(/^Too (big|small): expected number to be ([<>]=?)(.*)$/, (_, __, op, n) => `Use a value ${op.startsWith('<') ? 'up to' : 'from'} ${n}.`) : 'This change was refused.';
 }

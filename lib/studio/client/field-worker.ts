@@ -1,7 +1,8 @@
 // The studio's field worker: one FieldEngine per page, answering the protocol of protocol.ts.
 // Requests are answered one at a time, in order; the page (field-client.ts) makes sure that
 // only the newest solve of a burst is sent, so a drag never queues up stale work here.
-import { FieldEngine, errorOf } from './field-engine';
+import { FieldEngine } from './field-engine';
+import { errorOf } from './field-reports';
 import type { WorkerReply, WorkerRequest } from './protocol';
 
 // The worker's global scope, typed by hand: the project compiles against the DOM's types, which

@@ -3,8 +3,7 @@
 // lib/groom — the same code the server runs for exports — so the page never waits on them.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import type { BoundaryMode } from '@/lib/field';
-
-export type Vec3 = [number, number, number];
+import type { Vec3 } from './features';
 
 /** Where the worker gets the surface's bytes. */
 export type SurfaceSource =

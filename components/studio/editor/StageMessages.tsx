@@ -1,0 +1,63 @@
+'use client';
+// What the stage says over the surface: the opening's progress or why it failed, why the field
+// cannot be solved as placed, a notice about the last action, and the guides' progress.
+import type { GroomSpec } from '@/lib/groom/spec/spec';
+import { featureExists, featureLabel, type FeatureRef } from '@/lib/studio/client/features';
+import type { WorkerError } from '@/lib/studio/client/protocol';
+import { ProgressBar } from '../ui/ProgressBar';
+import type { Task } from './hooks/useTask';
+
+function capitaliseFirst(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+export function StageMessages({ opened, opening, openError, fieldError, errorFeature, spec, notice, onCloseNotice, guideTask }: {
+  opened: boolean;
+  opening: Task | null;
+  openError: string | null;
+  fieldError: WorkerError | null;
+  errorFeature: FeatureRef | null;
+  spec: GroomSpec;
+  notice: string | null;
+  onCloseNotice: () => void;
+  /** The guides' growth while it runs and they are shown. */
+  guideTask: Task | null;
+}) {
+  return (
+    <>
+      {(opening || (!opened && !openError)) && (
+        <div className="absolute inset-0 flex items-center justify-center p-8">
+          <div className="w-full max-w-md rounded-2xl bg-tarn/90 p-5 shadow-xl" data-testid="opening-progress">
+            <ProgressBar tone="dark" label={opening ? capitaliseFirst(opening.progress.stage) : 'Starting the field worker'} fraction={opening?.progress.fraction ?? null} expectedMilliseconds={opening?.progress.expectedMilliseconds} startedAt={opening?.startedAt} />
+          </div>
+        </div>
+      )}
+      {openError && (
+        <div className="absolute inset-0 flex items-center justify-center p-8">
+          <div role="alert" className="max-w-lg rounded-2xl border-l-4 border-hawthorn bg-hawthorn-pale p-5 text-hawthorn">
+            <p className="font-bold">The surface could not be opened.</p>
+            <p className="text-sm">{openError}</p>
+          </div>
+        </div>
+      )}
+      {fieldError && opened && (
+        <div role="alert" className="absolute inset-x-3 top-3 z-10 ml-auto max-w-xl rounded-xl border-l-4 border-hawthorn bg-hawthorn-pale/95 px-4 py-2.5 text-sm text-hawthorn shadow" data-testid="field-error">
+          <strong>The field cannot be solved as placed{errorFeature && featureExists(spec, errorFeature) ? ` (${featureLabel(spec, errorFeature)})` : ''}.</strong> {fieldError.message}
+        </div>
+      )}
+      {notice && (
+        <div role="status" className="absolute bottom-16 left-1/2 z-10 flex max-w-lg -translate-x-1/2 items-start gap-3 rounded-xl bg-chalk px-4 py-2.5 text-sm text-loam shadow-lg">
+          <span>{notice}</span>
+          <button type="button" className="font-semibold text-tarn underline" onClick={onCloseNotice}>
+            Close
+          </button>
+        </div>
+      )}
+      {opened && guideTask && (
+        <div className="absolute bottom-3 right-3 w-72 rounded-xl bg-tarn/90 p-3 shadow" data-testid="guide-progress">
+          <ProgressBar tone="dark" label={capitaliseFirst(guideTask.progress.stage)} fraction={guideTask.progress.fraction} expectedMilliseconds={guideTask.progress.expectedMilliseconds} startedAt={guideTask.startedAt} />
+        </div>
+      )}
+    </>
+  );
+}

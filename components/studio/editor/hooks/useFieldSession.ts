@@ -1,0 +1,119 @@
+'use client';
+// The editor's field worker: started with the page, the surface opened once (with progress), the
+// field solved again on every change of the spec or the display (quickly while a drag runs), and
+// the moments a groomer waits on marked for the browser benchmarks.
+import { useCallback, useEffect, useRef, useState } from 'react';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
+import { SUPERSEDED, WorkerFailure, startFieldWorker, type FieldClient } from '@/lib/studio/client/field-client';
+import type { DisplayOptions, OpenedSurface, SolveReport, SurfaceSource } from '@/lib/studio/client/protocol';
+import { useLatest } from './useLiveState';
+import { useTask, type Task } from './useTask';
+
+export interface FieldSession {
+  readonly client: FieldClient | null;
+  readonly surface: OpenedSurface | null;
+  readonly openError: string | null;
+  /** The opening of the surface while it runs. */
+  readonly task: Task | null;
+  readonly solve: SolveReport | null;
+  /** The newest field drawing: the last solve's, or the one before while a solve brings none. */
+  readonly drawing: { readonly lines: Float32Array; readonly shade: Float32Array | null } | null;
+  /** For the stage to call when it has drawn the field. */
+  readonly onFieldDrawn: () => void;
+}
+
+/**
+ * Runs the worker for one page. `onFailure` hears a solve that failed for a reason other than the
+ * page closing; a spec that cannot be solved is no failure (its reason is in `solve.error`).
+ */
+export function useFieldSession({ source, initialSpec, spec, display, quick, onFailure }: {
+  source: SurfaceSource;
+  initialSpec: GroomSpec;
+  spec: GroomSpec;
+  display: DisplayOptions;
+  quick: boolean;
+  onFailure: (message: string) => void;
+}): FieldSession {
+  const [client, setClient] = useState<FieldClient | null>(null);
+  const [surface, setSurface] = useState<OpenedSurface | null>(null);
+  const [openError, setOpenError] = useState<string | null>(null);
+  const [task, reportOpening, clearOpening] = useTask();
+  const [solve, setSolve] = useState<SolveReport | null>(null);
+  const [lastDrawing, setLastDrawing] = useState<FieldSession['drawing']>(null);
+  const failure = useLatest(onFailure);
+  const firstDisplay = useLatest(display);
+
+  // What was last sent, so that a render with nothing new sends nothing; and the first solve's mark.
+  const sent = useRef<{ spec: GroomSpec; display: DisplayOptions; quick: boolean } | null>(null);
+  const solvedOnce = useRef(false);
+  const requestSolve = useCallback(
+    (worker: FieldClient, next: GroomSpec, shown: DisplayOptions, fast: boolean) => {
+      const last = sent.current;
+      if (last && last.spec === next && last.display === shown && last.quick === fast) return;
+      sent.current = { spec: next, display: shown, quick: fast };
+      worker
+        .latest('field', 0, { type: 'solve', spec: next, display: shown, quick: fast })
+        .then((report) => {
+          if (report === SUPERSEDED) return;
+          performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick } });
+          if (!solvedOnce.current) {
+            solvedOnce.current = true;
+            performance.mark('whorlwind:first-solve', { detail: { milliseconds: report.milliseconds } });
+          }
+          setSolve(report);
+          if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade });
+        })
+        .catch((error: unknown) => {
+          if (error instanceof WorkerFailure && (error.error.code === 'closed' || error.error.code === 'no-surface')) return;
+          failure.current(error instanceof Error ? error.message : 'The field could not be solved.');
+        });
+    },
+    [failure],
+  );
+
+  useEffect(() => {
+    performance.mark('whorlwind:editor-mounted');
+    const worker = startFieldWorker();
+    setClient(worker);
+    performance.mark('whorlwind:worker-starting');
+    let heard = false;
+    const opening = worker.request({ type: 'open', source, boundary: initialSpec.field.boundary }, (progress) => {
+      // The worker's first word: its code is loaded and it has started on the surface.
+      if (!heard) performance.mark('whorlwind:worker-working');
+      heard = true;
+      reportOpening(progress);
+    });
+    // The first solve waits in the worker right behind the opening, so it runs while this page
+    // builds its own copy of the surface for drawing.
+    sent.current = null;
+    requestSolve(worker, initialSpec, firstDisplay.current, false);
+    opening
+      .then((opened) => {
+        performance.mark('whorlwind:surface-opened', { detail: opened.timings });
+        setSurface(opened);
+        clearOpening();
+      })
+      .catch((error: unknown) => {
+        if (error instanceof WorkerFailure && error.error.code === 'closed') return;
+        clearOpening();
+        setOpenError(error instanceof Error ? error.message : 'The surface could not be opened.');
+      });
+    return () => {
+      worker.terminate();
+      setClient(null);
+    };
+  }, [clearOpening, firstDisplay, initialSpec, reportOpening, requestSolve, source]);
+
+  useEffect(() => {
+    if (surface && client) requestSolve(client, spec, display, quick);
+  }, [client, display, quick, requestSolve, spec, surface]);
+
+  const drawnCount = useRef(0);
+  const onFieldDrawn = useCallback(() => {
+    performance.mark('whorlwind:field-drawn');
+    if (drawnCount.current++ === 0) performance.mark('whorlwind:first-field');
+  }, []);
+
+  const drawing = solve?.lines ? { lines: solve.lines, shade: solve.lineShade } : lastDrawing;
+  return { client, surface, openError, task, solve, drawing, onFieldDrawn };
+}

@@ -1,0 +1,51 @@
+'use client';
+// Guides grown in the field worker once the field settles: 300 ms after the last change of what
+// they depend on, never while a marker is dragged or while they are hidden. The last grown guides
+// stay shown (faded) until the new ones come.
+import { useEffect, useMemo, useState } from 'react';
+import type { GroomSpec } from '@/lib/groom/spec/spec';
+import { SUPERSEDED, WorkerFailure, type FieldClient } from '@/lib/studio/client/field-client';
+import type { GrownGuides, OpenedSurface } from '@/lib/studio/client/protocol';
+import { useLatest } from './useLiveState';
+import { useTask, type Task } from './useTask';
+
+/** How long the spec must rest before guides are grown for it. */
+const SETTLE_MILLISECONDS = 300;
+
+export interface Guides {
+  readonly grown: GrownGuides | null;
+  /** Whether the grown guides belong to the spec as it is now. */
+  readonly current: boolean;
+  readonly error: string | null;
+  readonly task: Task | null;
+}
+
+export function useGuides({ client, surface, spec, show, paused }: { client: FieldClient | null; surface: OpenedSurface | null; spec: GroomSpec; show: boolean; paused: boolean }): Guides {
+  const [guides, setGuides] = useState<{ grown: GrownGuides; key: string } | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [task, report, clear] = useTask();
+  const latestSpec = useLatest(spec);
+  const key = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.pins, spec.units, spec.upAxis]), [spec]);
+
+  useEffect(() => {
+    if (!surface || !client || !show || paused || guides?.key === key) return;
+    const timer = setTimeout(() => {
+      client
+        .latest('guides', 1, { type: 'grow', spec: latestSpec.current }, report)
+        .then((grown) => {
+          if (grown === SUPERSEDED) return;
+          setGuides({ grown, key });
+          setError(null);
+          clear();
+        })
+        .catch((failure: unknown) => {
+          if (failure instanceof WorkerFailure && failure.error.code === 'closed') return;
+          clear();
+          setError(failure instanceof Error ? failure.message : 'The guides could not be grown.');
+        });
+    }, SETTLE_MILLISECONDS);
+    return () => clearTimeout(timer);
+  }, [clear, client, guides?.key, key, latestSpec, paused, report, show, surface]);
+
+  return { grown: guides?.grown ?? null, current: guides?.key === key, error, task };
+}

@@ -1,0 +1,14 @@
+// Placing what remains of the index budget: one click puts a singularity of the remainder of the
+// piece of surface clicked, then the editor goes back to looking. Picked from the budget card.
+import { clickTool } from './clicks';
+import { placeSingularity } from './singularities';
+
+export const remainderTool = clickTool(
+  { id: 'remainder', label: 'Remainder', shortcut: null, hint: 'Click the surface where what remains of the index budget should go.' },
+  (hit, context) => {
+    const component = context.surface.componentOfVertex[hit.vertex];
+    const remainder = context.solve?.budget?.components.find((c) => c.component === component)?.remainder ?? null;
+    if (remainder === null || remainder === 0) return { notice: 'Nothing remains to be placed on this piece of the surface.', then: 'look' };
+    return { ...placeSingularity(hit, remainder), then: 'look' };
+  },
+);
