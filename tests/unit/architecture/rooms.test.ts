@@ -150,6 +150,18 @@ describe('rooms', () => {
     expect(breaches).toEqual([]);
   });
 
+  it("the editor's browser side (lib/studio/client) imports only the pure libraries, the HTTP client and the studio's shared shapes", () => {
+    const allowed = (target: string) =>
+      target.startsWith('lib/studio/client/') ||
+      target.startsWith('lib/field/') ||
+      target.startsWith('lib/groom/') ||
+      ['lib/http/client.ts', 'lib/http/types.ts', 'lib/http/field-errors.ts', 'lib/studio/types.ts', 'lib/studio/validation.ts'].includes(target);
+    const breaches = files
+      .filter((file) => file.path.startsWith('lib/studio/client/'))
+      .flatMap((file) => file.projectImports.filter((target) => !allowed(target)).map((target) => `${file.path} → ${target}`));
+    expect(breaches).toEqual([]);
+  });
+
   it('components never import app/, and lib/ never imports components/ or app/', () => {
     const breaches = files
       .filter((file) => file.path.startsWith('components/') || file.path.startsWith('lib/'))
