@@ -3,12 +3,12 @@
 // back with a reason the seller reads (they are e-mailed either way).
 import Link from 'next/link';
 import { useId, useState } from 'react';
-import useSWR from 'swr';
 import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import { postJson } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { AdminListingsResponse, DecisionResponse, ListingSummary } from '@/lib/market/types';
 import { decisionSchema } from '@/lib/market/validation';
 import { formatPrice } from '@/lib/market/vocabulary';
@@ -24,8 +24,7 @@ const rejectionSchema = z.object({ reason: z.string() }).superRefine((value, con
 const QUEUE = '/api/admin/listings?state=submitted';
 
 export function ModerationQueue({ initial }: { initial: AdminListingsResponse }) {
-  const { data, error, mutate } = useSWR<AdminListingsResponse, ApiRequestError>(QUEUE, fetchData, {
-    fallbackData: initial,
+  const { data, error, mutate } = useServerSeededSWR<AdminListingsResponse>(QUEUE, initial, {
     refreshInterval: 10_000,
   });
   const [done, setDone] = useState<string | null>(null);

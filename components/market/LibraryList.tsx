@@ -4,10 +4,10 @@
 // checkout the list is read again until the new purchase has arrived.
 import Link from 'next/link';
 import { useEffect, useState } from 'react';
-import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import { postJson } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { DownloadResponse, LibraryItem, LibraryResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDate } from './format';
@@ -31,8 +31,7 @@ export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; j
     if (justPaid) setArrival({ state: 'waiting', checkout: pendingCheckout(), since: Date.now() });
   }, [justPaid]);
   const waiting = arrival?.state === 'waiting';
-  const { data, error, mutate } = useSWR<LibraryResponse, ApiRequestError>('/api/library', fetchData, {
-    fallbackData: initial,
+  const { data, error, mutate } = useServerSeededSWR<LibraryResponse>('/api/library', initial, {
     refreshInterval: waiting ? 1_500 : 0,
   });
 

@@ -3,17 +3,17 @@
 // with a "pay out" action that transfers it through the payment provider, and the history.
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import { postJson } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import { formatPrice, type Currency } from '@/lib/market/vocabulary';
 import { formatDateTime } from '@/components/market/format';
 import type { PayoutResponse, PayoutsResponse, SalesResponse } from '@/lib/market/types';
 
 export function Payouts({ initialPayouts, balance }: { initialPayouts: PayoutsResponse; balance: SalesResponse['balance'] }) {
   const router = useRouter();
-  const { data, mutate } = useSWR<PayoutsResponse, ApiRequestError>('/api/sales/payouts', fetchData, { fallbackData: initialPayouts });
+  const { data, mutate } = useServerSeededSWR<PayoutsResponse>('/api/sales/payouts', initialPayouts);
   const [busy, setBusy] = useState<Currency | null>(null);
   const [message, setMessage] = useState<{ tone: 'success' | 'error'; text: string } | null>(null);
   const payable = balance.filter((b) => b.availableCents > 0);

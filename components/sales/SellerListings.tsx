@@ -3,18 +3,17 @@
 // (with the admin's reason), taken off the market — with what can be done to each.
 import Link from 'next/link';
 import { useState } from 'react';
-import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import { postJson } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { ListingSummary, OwnListingsResponse, UpdateListingResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDate } from '@/components/market/format';
 import { StateBadge } from '@/components/market/StateBadge';
 
 export function SellerListings({ initial, highlight }: { initial: OwnListingsResponse; highlight: string | null }) {
-  const { data, error, mutate } = useSWR<OwnListingsResponse, ApiRequestError>('/api/market/listings', fetchData, {
-    fallbackData: initial,
+  const { data, error, mutate } = useServerSeededSWR<OwnListingsResponse>('/api/market/listings', initial, {
     // While pictures are being made, look again now and then.
     refreshInterval: (latest) => (latest?.listings.some((l) => l.assets.status === 'pending') ? 4_000 : 0),
   });

@@ -1,10 +1,9 @@
 'use client';
 // Named versions of a groom: keep the saved spec under a name, and bring any version back
 // (it becomes the saved spec, and one undo takes the editor back to what it was before).
-import { useState, type FormEvent } from 'react';
-import useSWR from 'swr';
+import { useMemo, useState, type FormEvent } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import { fetchData, type ApiRequestError } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import { studioApi, type GroomVersion } from '@/lib/studio/client/api';
 import { Notice } from '@/components/ui/Notice';
 import { ConfirmDialog } from '../ui/ConfirmDialog';
@@ -18,9 +17,8 @@ export interface VersionsApi {
 }
 
 export function VersionPanel({ api, initial }: { api: VersionsApi; initial: readonly GroomVersion[] }) {
-  const { data, error, mutate } = useSWR<{ versions: GroomVersion[] }, ApiRequestError>(studioApi.versionsUrl(api.groomId), fetchData, {
-    fallbackData: { versions: [...initial] },
-  });
+  const serverCopy = useMemo(() => ({ versions: [...initial] }), [initial]);
+  const { data, error, mutate } = useServerSeededSWR<{ versions: GroomVersion[] }>(studioApi.versionsUrl(api.groomId), serverCopy);
   const [name, setName] = useState('');
   const [nameError, setNameError] = useState<string | null>(null);
   const [failure, setFailure] = useState<string | null>(null);

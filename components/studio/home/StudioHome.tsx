@@ -3,10 +3,9 @@
 // demo characters to practise on. Lists come from the studio API (SWR), starting from what the
 // server read for the first paint.
 import Link from 'next/link';
-import useSWR from 'swr';
 import { Notice } from '@/components/ui/Notice';
 import type { GroomListResponse, SurfaceListResponse } from '@/lib/studio/types';
-import { fetchData, type ApiRequestError } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import { studioApi } from '@/lib/studio/client/api';
 import { GroomList } from './GroomList';
 import { SurfaceList } from './SurfaceList';
@@ -23,8 +22,8 @@ export function StudioHome({
   initialSurfaces: SurfaceListResponse;
   practice: readonly { id: string; character: string; description: string }[];
 }) {
-  const grooms = useSWR<GroomListResponse, ApiRequestError>(studioApi.groomsUrl, fetchData, { fallbackData: initialGrooms });
-  const surfaces = useSWR<SurfaceListResponse, ApiRequestError>(studioApi.surfacesUrl, fetchData, { fallbackData: initialSurfaces });
+  const grooms = useServerSeededSWR<GroomListResponse>(studioApi.groomsUrl, initialGrooms);
+  const surfaces = useServerSeededSWR<SurfaceListResponse>(studioApi.surfacesUrl, initialSurfaces);
   const refresh = () => {
     void grooms.mutate();
     void surfaces.mutate();
