@@ -8,7 +8,7 @@ export { now } from './clock';
 
 // The surface: mesh, errors, halfedges, geometry, frames, reading and checking files.
 export { FieldError } from './mesh/errors';
-export type { TriangleMesh, FaceGroups } from './mesh/mesh';
+export type { TriangleMesh, FaceGroups, Vec3 } from './mesh/mesh';
 export { buildTopology, nextHalfedge, prevHalfedge, nextAroundVertex, type Topology } from './mesh/topology';
 export { cornerAngles, angleDefects, faceAreas, faceNormals, vertexNormals, surfaceArea, boundingBox, eulerCharacteristic, componentFacts, genus, type ComponentFacts, type BoundingBox } from './mesh/geometry';
 export { buildFaceFrames, type FaceFrames } from './mesh/transport';

@@ -4,6 +4,9 @@
  * Faces are counter-clockwise seen from the side the coat grows on, so a face normal
  * (right-hand rule) points out of the skin.
  */
+/** A point or a direction in space: x, y, z in the surface's units. */
+export type Vec3 = [number, number, number];
+
 export interface TriangleMesh {
   /** x, y, z of each vertex, in the surface's declared units. */
   readonly positions: Float64Array;

@@ -1,13 +1,11 @@
 import { icosphere, torus, uvSphere } from './primitives';
-import type { TriangleMesh } from '../../field';
+import type { TriangleMesh, Vec3 } from '../../field';
 
 /**
  * Growth surfaces of the demo studio's characters, made by code: each is a sphere or torus
  * pushed into shape vertex by vertex, so it stays manifold and keeps its faces wound outward,
  * with OBJ-style face groups for growth regions.
  */
-
-type Vec3 = [number, number, number];
 
 const normalize = (v: readonly number[]): Vec3 => {
   const l = Math.hypot(v[0], v[1], v[2]);

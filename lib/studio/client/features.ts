@@ -1,9 +1,10 @@
 // The features of a groom spec as the studio names and lists them: whorls, saddles and other
 // singularities, partings, crests, flow strokes and pins. Plain data helpers, no React.
+import type { Vec3 } from '@/lib/field';
 import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec } from '@/lib/groom/spec/spec';
 
-/** A point or direction in the surface's space, as the spec writes it. */
-export type Vec3 = [number, number, number];
+/** Points as the spec writes them (lib/field's Vec3), named here for the studio's helpers. */
+export type { Vec3 };
 
 /** Where a feature lives in the spec. Curves are kept apart by kind, as the spec keeps them. */
 export type FeatureKind = 'singularity' | 'parting' | 'crest' | 'stroke' | 'pin';

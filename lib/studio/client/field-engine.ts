@@ -7,6 +7,7 @@ import {
   FieldError,
   buildDirectionField,
   indexBudget,
+  now,
   readSurface,
   solveConnection,
   type BoundaryMode,
@@ -33,7 +34,6 @@ import { errorOf, proofOf } from './field-reports';
 import type { DisplayOptions, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes } from './surface-opening';
 
-const now = () => performance.now();
 
 /** Milliseconds per face for preparing a surface (topology, generators, factorization), for the progress estimate. */
 const PREPARE_MS_PER_FACE = 0.03;
