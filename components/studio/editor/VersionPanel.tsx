@@ -1,7 +1,7 @@
 'use client';
 // Named versions of a groom: keep the saved spec under a name, and bring any version back
 // (it becomes the saved spec, and one undo takes the editor back to what it was before).
-import { useMemo, useState, type FormEvent } from 'react';
+import { useState, type FormEvent } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import { studioApi, type GroomVersion } from '@/lib/studio/client/api';
@@ -16,8 +16,16 @@ export interface VersionsApi {
   adopt(spec: GroomSpec, revision: number, label: string): void;
 }
 
+/** One list object per server copy of the versions, so the panel shown again is not a new server copy. */
+const versionLists = new WeakMap<readonly GroomVersion[], { versions: GroomVersion[] }>();
+function versionListOf(initial: readonly GroomVersion[]) {
+  let list = versionLists.get(initial);
+  if (!list) versionLists.set(initial, (list = { versions: [...initial] }));
+  return list;
+}
+
 export function VersionPanel({ api, initial }: { api: VersionsApi; initial: readonly GroomVersion[] }) {
-  const serverCopy = useMemo(() => ({ versions: [...initial] }), [initial]);
+  const serverCopy = versionListOf(initial);
   const { data, error, mutate } = useServerSeededSWR<{ versions: GroomVersion[] }>(studioApi.versionsUrl(api.groomId), serverCopy);
   const [name, setName] = useState('');
   const [nameError, setNameError] = useState<string | null>(null);
