@@ -198,6 +198,7 @@ async function makeCastAndThings() {
   const upload = (await uploadFile(owner, 'matrix-later.obj', ringBytes)).uploadId;
   const groom = await newGroom(owner, surface.id, 'Matrix coat');
   const spareGroom = await newGroom(owner, surface.id, 'Matrix spare coat');
+  const specGroom = await newGroom(owner, surface.id, 'Matrix autosaved coat');
   const version = (await post<{ version: { id: string } }>(owner, '/api/studio/grooms/[groomId]/versions', `/api/studio/grooms/${groom.id}/versions`, { name: 'First' }, 201, { groomId: groom.id })).version;
   const exported = (await post<{ export: { id: string } }>(owner, '/api/studio/grooms/[groomId]/exports', `/api/studio/grooms/${groom.id}/exports`, { format: 'json' }, 202, { groomId: groom.id })).export;
 
@@ -230,8 +231,9 @@ async function makeCastAndThings() {
     spareGroom: spareGroom.id,
     version: version.id,
     export: exported.id,
-    spec: groom.spec,
-    revision: groom.revision,
+    specGroom: specGroom.id,
+    spec: specGroom.spec,
+    revision: specGroom.revision,
     listing,
     boughtListing,
     draftListing,

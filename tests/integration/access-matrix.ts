@@ -13,7 +13,9 @@
 // { params: { thingId: 'groom' }, body: { hard: true } })`. `params` maps a path parameter to one
 // of the Things made for the run (or a literal value); `body` may read the Things too.
 // The people are called in the order anonymous, buyer, other, admin and last the owner, so a row
-// whose owner call changes or deletes the thing (DELETE, submit, refund) can use the thing itself.
+// whose owner call changes or deletes the thing (DELETE, submit, refund) can use the thing itself;
+// a thing one row changes is used by no other row whose answer the change would alter, so the
+// rows hold in any order (vitest --sequence.shuffle).
 
 export const WHO = ['anonymous', 'buyer', 'owner', 'other', 'admin'] as const;
 export type Who = (typeof WHO)[number];
@@ -27,7 +29,8 @@ export type Things = {
   spareGroom: string; // for DELETE
   version: string;
   export: string;
-  spec: unknown; // the groom's saved spec and its revision, for the autosave row
+  specGroom: string; // a groom of its own for the autosave row, whose revision no other row moves
+  spec: unknown; // its saved spec and revision
   revision: number;
   listing: string; // published, with a picture, not bought by anyone in the rows
   boughtListing: string; // published, bought by the buyer, its package made
@@ -113,7 +116,7 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('GET', '/api/studio/grooms/[groomId]', '401 403 404 404 403', { params: { groomId: 'missing' }, note: 'no such groom' }),
   route('PATCH', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: groom, body: { name: 'Matrix groom, renamed' } }),
   route('DELETE', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: { groomId: 'spareGroom' } }),
-  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 200 404 403', { params: groom, body: (t) => ({ spec: t.spec, baseRevision: t.revision }) }),
+  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 200 404 403', { params: { groomId: 'specGroom' }, body: (t) => ({ spec: t.spec, baseRevision: t.revision }) }),
   route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 400 400 403', { params: groom, body: { baseRevision: 0 }, note: 'bad input' }),
   route('POST', '/api/studio/grooms/[groomId]/duplicate', '401 403 201 404 403', { params: groom, body: {} }),
   route('POST', '/api/studio/grooms/[groomId]/exports', '401 403 202 404 403', { params: groom, body: { format: 'json' } }),
