@@ -25,6 +25,7 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import type { Actor } from '@/lib/accounts/actor';
 import { startCheckout } from '@/lib/market/payments/checkout';
 import type { GroomDetail, SurfaceSummary } from '@/lib/studio/types';
+import { uniqueEmail } from './helpers';
 import { deliver, eventsAbout, insertListing, payOnHostedPage, ringSurfaceKey } from './market-helpers';
 import { PAGE_ROWS, ROUTE_ROWS, type Method, type PageRow, type PageStatus, type RouteRow, type Things, type Who } from './access-matrix';
 
@@ -220,6 +221,10 @@ async function makeCastAndThings() {
   const packageKey = `tests/matrix/${boughtListing}/package.zip`;
   await putObject(packageKey, new Uint8Array([0x50, 0x4b, 0x05, 0x06]), 'application/zip');
   await db()('listing_packages').insert({ listing_id: boughtListing, groom_version_id: randomUUID(), object_key: packageKey, file_name: 'matrix.zip', byte_size: 4 });
+  const [account] = await db()('users')
+    .insert({ email: uniqueEmail('matrix-bystander'), display_name: 'Matrix bystander', password_hash: 'not-used', email_verified_at: db().fn.now() })
+    .returning('id');
+  await db()('user_roles').insert({ user_id: account.id, role: 'buyer' });
   const purchase = await buy(buyerActor, boughtListing);
   const refundPurchase = await buy(buyerActor, refundListing);
 
@@ -242,6 +247,7 @@ async function makeCastAndThings() {
     submittedListing,
     purchase,
     refundPurchase,
+    account: account.id,
     missing: randomUUID(),
     demo: DEMO_GROOMS[0].id,
   };

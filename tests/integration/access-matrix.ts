@@ -40,6 +40,7 @@ export type Things = {
   submittedListing: string; // waiting for an admin's decision
   purchase: string; // the buyer's purchase of boughtListing
   refundPurchase: string; // another purchase of the buyer, which the admin refunds
+  account: string; // a buyer's account nobody in the rows signs in with, for the admins' account rows
   missing: string; // an id nothing has
   demo: string; // a practice groom's id
 };
