@@ -23,10 +23,9 @@ import { putObject } from '@/lib/platform/storage';
 import { stopJobs } from '@/lib/platform/jobs';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import type { Actor } from '@/lib/accounts/actor';
-import { startCheckout } from '@/lib/market/payments/checkout';
 import type { GroomDetail, SurfaceSummary } from '@/lib/studio/types';
 import { uniqueEmail } from './helpers';
-import { deliver, eventsAbout, insertListing, payOnHostedPage, ringSurfaceKey } from './market-helpers';
+import { buyListing as buy, insertListing, ringSurfaceKey } from './market-helpers';
 import { PAGE_ROWS, ROUTE_ROWS, type Method, type PageRow, type PageStatus, type RouteRow, type Things, type Who } from './access-matrix';
 
 // Next sets this from next.config's experimental.authInterrupts when it builds; forbidden()
@@ -170,15 +169,6 @@ async function post<T>(account: TestAccount, routePath: string, url: string, bod
 
 async function newGroom(owner: TestAccount, surfaceId: string, name: string): Promise<GroomDetail> {
   return (await post<{ groom: GroomDetail }>(owner, '/api/studio/grooms', '/api/studio/grooms', { surfaceId, name }, 201)).groom;
-}
-
-/** Buys a listing as a buyer does: checkout, the test card on the fake's page, the signed event. */
-async function buy(buyer: Actor, listingId: string): Promise<string> {
-  const checkout = await startCheckout(buyer, listingId);
-  expect((await payOnHostedPage(checkout.url, '4242424242424242')).status).toBe(303);
-  const [completed] = await eventsAbout({ id: checkout.sessionId }, ['checkout.session.completed']);
-  expect((await deliver(completed)).status).toBe(200);
-  return (await db()('purchases').where({ checkout_session_id: checkout.sessionId }).first('id')).id;
 }
 
 async function makeCastAndThings() {
