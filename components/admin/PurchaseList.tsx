@@ -3,24 +3,30 @@
 // downloads stop at once; the provider's webhook marks it refunded), and reconcile the payments
 // whose webhook never arrived.
 import { useState, type FormEvent } from 'react';
-import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import { postJson } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { AdminPurchase, AdminPurchasesResponse, ReconcileResponse, RefundResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDateTime } from '@/components/market/format';
 
 const HEADINGS = ['When', 'Preset', 'Buyer', 'Paid', 'Status'];
+const ALL_PURCHASES = '/api/admin/purchases';
 
 export function PurchaseList({ initial }: { initial: AdminPurchasesResponse }) {
   const [email, setEmail] = useState('');
-  const key = email ? `/api/admin/purchases?email=${encodeURIComponent(email)}` : '/api/admin/purchases';
-  const { data, error, mutate } = useSWR<AdminPurchasesResponse, ApiRequestError>(key, fetchData, {
-    fallbackData: email ? undefined : initial,
-    // While a refund waits for the provider's confirmation, look again.
-    refreshInterval: (latest) => (latest?.purchases.some((p) => p.refundPending) ? 2_000 : 0),
-  });
+  const key = email ? `/api/admin/purchases?email=${encodeURIComponent(email)}` : ALL_PURCHASES;
+  // The page's server copy is the unfiltered list; a filter by e-mail is read from the API.
+  const { data, error, mutate } = useServerSeededSWR<AdminPurchasesResponse>(
+    key,
+    initial,
+    {
+      // While a refund waits for the provider's confirmation, look again.
+      refreshInterval: (latest) => (latest?.purchases.some((p) => p.refundPending) ? 2_000 : 0),
+    },
+    ALL_PURCHASES,
+  );
   const purchases = data?.purchases ?? [];
 
   function filter(event: FormEvent<HTMLFormElement>) {

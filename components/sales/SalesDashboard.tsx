@@ -4,12 +4,11 @@
 // the same figures as CSV. Money stays in its own currency; a seller paid in several sees one at
 // a time.
 import { useMemo, useState } from 'react';
-import useSWR from 'swr';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
-import { fetchData, type ApiRequestError } from '@/lib/http/client';
+import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { SalesFigures, SalesResponse } from '@/lib/market/types';
 import { salesQuerySchema } from '@/lib/market/validation';
 import { formatPrice, SALES_BUCKETS, type Currency, type SalesBucket } from '@/lib/market/vocabulary';
@@ -56,10 +55,8 @@ export function SalesDashboard({ initial }: { initial: SalesResponse }) {
   const [range, setRange] = useState<Range>({ from: initial.from, to: initial.to, bucket: initial.bucket });
   const key = salesUrl('/api/sales', range);
   const initialKey = salesUrl('/api/sales', { from: initial.from, to: initial.to, bucket: initial.bucket });
-  const { data, error, isValidating } = useSWR<SalesResponse, ApiRequestError>(key, fetchData, {
-    fallbackData: key === initialKey ? initial : undefined,
-    keepPreviousData: true,
-  });
+  // The server copy answers the page's own period; another period is read from the API.
+  const { data, error, isValidating } = useServerSeededSWR<SalesResponse>(key, initial, { keepPreviousData: true }, initialKey);
   const report = data ?? initial;
   const currencies = useMemo(() => {
     const found = new Set<Currency>([...report.totals.map((t) => t.currency), ...report.listings.map((l) => l.currency)]);

@@ -4,8 +4,8 @@
 // visit (an empty listings table, say) would be shown over the fresh server copy until the next
 // revalidation, which SWR's de-duplication can hold back for seconds. Here the server's copy is
 // written into the cache whenever the page brings a new one (each server render is a new object),
-// and SWR's own polling and revalidation go on from there. A component that mounts again on the same
-// page (a panel shown again) keeps what the cache has learnt since: its server copy is not new.
+// and SWR's own polling and revalidation go on from there. Coming back to the server's key (a
+// filter cleared, a period chosen again) keeps what the cache has learnt since: the copy is not new.
 import { useEffect } from 'react';
 import useSWR, { type SWRConfiguration } from 'swr';
 import { fetchData, type ApiRequestError } from '@/lib/http/client';
@@ -14,16 +14,24 @@ import { fetchData, type ApiRequestError } from '@/lib/http/client';
 const seeded = new Map<string, unknown>();
 
 /**
- * Guarantee: the data shown is never older than `serverCopy`, the copy this page's server render
- * brought (pass the object the server component gave, so that its identity tells a new render).
+ * Guarantee: the data shown is never older than `serverCopy`, the copy this render of the page brought.
+ *
+ * `serverUrl` is the key the server copy answers, for a list that can also be asked for with other
+ * keys (a filter, a period): under another key there is no server copy, and SWR reads it as usual.
  */
-export function useServerSeededSWR<T extends object>(url: string | null, serverCopy: T, options: Omit<SWRConfiguration<T, ApiRequestError>, 'fallbackData'> = {}) {
-  const result = useSWR<T, ApiRequestError>(url, fetchData, { ...options, fallbackData: serverCopy });
+export function useServerSeededSWR<T>(
+  url: string | null,
+  serverCopy: T,
+  options: Omit<SWRConfiguration<T, ApiRequestError>, 'fallbackData'> = {},
+  serverUrl: string | null = url,
+) {
+  const seeds = url !== null && url === serverUrl;
+  const result = useSWR<T, ApiRequestError>(url, fetchData, { ...options, fallbackData: seeds ? serverCopy : undefined });
   const { mutate } = result;
   useEffect(() => {
-    if (url === null || seeded.get(url) === serverCopy) return;
+    if (!seeds || seeded.get(url) === serverCopy) return;
     seeded.set(url, serverCopy);
     void mutate(serverCopy, { revalidate: false });
-  }, [url, serverCopy, mutate]);
+  }, [seeds, url, serverCopy, mutate]);
   return result;
 }

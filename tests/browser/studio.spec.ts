@@ -69,9 +69,11 @@ test('growth surfaces: an upload with progress and the limit shown; a refused fi
   // The file is drawn from the browser's own reading of it, the bad edges marked.
   const view = rejected.getByTestId('problem-view');
   await expect(view.locator('canvas')).toBeVisible({ timeout: 30_000 });
-  await page.waitForTimeout(1000);
-  const stats = await pixelStats(await view.screenshot(), STAGE_BACKGROUND);
-  expect(stats.differingShare).toBeGreaterThan(0.01);
+  // The canvas appears before its first frame is drawn: wait until the mesh is on it (no fixed
+  // pause, which would be too short on a slow machine and waste time on a fast one).
+  await expect
+    .poll(async () => (await pixelStats(await view.screenshot(), STAGE_BACKGROUND)).differingShare, { timeout: 30_000, message: 'the refused surface is drawn' })
+    .toBeGreaterThan(0.01);
   await expect(page.getByTestId('surface-card').filter({ hasText: 'misoriented' })).toHaveCount(0);
 });
 

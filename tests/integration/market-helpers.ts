@@ -13,6 +13,8 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import type { Actor } from '@/lib/accounts/actor';
 import type { Role } from '@/lib/accounts/roles';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
+import { startCheckout } from '@/lib/market/payments/checkout';
+import { expect } from 'vitest';
 import { uniqueEmail } from './helpers';
 
 export async function makePerson(label: string, roles: Role[]): Promise<Actor> {
@@ -185,4 +187,13 @@ export function shuffle<T>(items: T[], seed = 7): T[] {
     [out[i], out[j]] = [out[j], out[i]];
   }
   return out;
+}
+
+/** Buys a listing as a buyer does: checkout, the test card on the fake's page, the signed event delivered; the purchase id. */
+export async function buyListing(buyer: Actor, listingId: string): Promise<string> {
+  const checkout = await startCheckout(buyer, listingId);
+  expect((await payOnHostedPage(checkout.url, '4242424242424242')).status).toBe(303);
+  const [completed] = await eventsAbout({ id: checkout.sessionId }, ['checkout.session.completed']);
+  expect((await deliver(completed)).status).toBe(200);
+  return (await db()('purchases').where({ checkout_session_id: checkout.sessionId }).first('id')).id;
 }

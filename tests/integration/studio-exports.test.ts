@@ -27,16 +27,23 @@ let wren: TestAccount;
 let rival: TestAccount;
 let buyer: TestAccount;
 let groom: GroomDetail;
+let surfaceId: string;
 
 beforeAll(async () => {
   worker = await startJobsWorker();
   ({ owner: wren, rival, buyer } = await studioCast('export'));
-  const surface = await createSurface(wren, 'ottoline.obj', catObj, 'Ottoline body');
-  const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId: surface.id, name: 'Ottoline — short velvet' } });
+  surfaceId = (await createSurface(wren, 'ottoline.obj', catObj, 'Ottoline body')).id;
+  // Only read from here on: a test that changes or deletes a groom makes its own.
+  groom = await ottoline('Ottoline — short velvet');
+});
+
+/** A groom of the cat's spec, saved once (revision 2). */
+async function ottoline(name: string): Promise<GroomDetail> {
+  const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId, name } });
   const { id } = (await expectJson(created, 201)).data.groom;
   await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${id}/spec`, { cookie: wren.cookie, body: { spec: cat.spec, baseRevision: 1 }, params: { groomId: id } }), 200);
-  groom = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${id}`, { cookie: wren.cookie, params: { groomId: id } }), 200)).data.groom;
-});
+  return (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${id}`, { cookie: wren.cookie, params: { groomId: id } }), 200)).data.groom;
+}
 
 afterAll(async () => {
   await worker.stop();
@@ -160,11 +167,12 @@ describe('each format', () => {
 
 describe('what the file is made from', () => {
   it('is the spec saved when the export was asked for, even if it changes before the job runs', async () => {
+    const changing = await ottoline('Ottoline — changing');
     await worker.stop();
-    const queued: ExportJob = (await expectJson(await requestExport(wren, groom.id, 'json'), 202)).data.export;
-    const current = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${groom.id}`, { cookie: wren.cookie, params: { groomId: groom.id } }), 200)).data.groom;
+    const queued: ExportJob = (await expectJson(await requestExport(wren, changing.id, 'json'), 202)).data.export;
+    const current = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${changing.id}`, { cookie: wren.cookie, params: { groomId: changing.id } }), 200)).data.groom;
     const later = { ...current.spec, guides: { ...current.spec.guides, length: 9 } };
-    await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${groom.id}/spec`, { cookie: wren.cookie, body: { spec: later, baseRevision: current.revision }, params: { groomId: groom.id } }), 200);
+    await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${changing.id}/spec`, { cookie: wren.cookie, body: { spec: later, baseRevision: current.revision }, params: { groomId: changing.id } }), 200);
     worker = await startJobsWorker();
     const job = await finished(queued.id);
     expect(job.specRevision).toBe(current.revision);
@@ -192,8 +200,10 @@ describe('what the file is made from', () => {
 
 describe('who may export and download', () => {
   let done: ExportJob;
+  let groom: GroomDetail; // this block's own: its last test deletes it
 
   beforeAll(async () => {
+    groom = await ottoline('Ottoline — guarded');
     done = await finished((await expectJson(await requestExport(wren, groom.id, 'json'), 202)).data.export.id);
   });
 

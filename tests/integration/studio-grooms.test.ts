@@ -168,13 +168,11 @@ describe('renaming, duplicating, deleting', () => {
 });
 
 describe('autosave', () => {
-  let groom: GroomDetail;
-
-  beforeAll(async () => {
-    groom = await createGroom(wren, foxSurface.id, 'Autosaved coat');
-  });
+  // Each test saves on a groom of its own, so the revisions it expects are its own doing.
+  const fresh = (name: string) => createGroom(wren, foxSurface.id, name);
 
   it('saves a spec on the revision it was loaded at, and counts revisions', async () => {
+    const groom = await fresh('Autosaved coat');
     const spec = { ...fox.spec };
     const first = (await expectJson(await saveSpec(wren, groom.id, spec, 1), 200)).data;
     expect(first).toEqual({ revision: 2, savedAt: expect.any(String) });
@@ -187,20 +185,23 @@ describe('autosave', () => {
   });
 
   it('refuses a save from a stale revision with 409 and the current revision', async () => {
-    const response = await saveSpec(wren, groom.id, fox.spec, 2);
+    const groom = await fresh('Coat saved in another tab');
+    await expectJson(await saveSpec(wren, groom.id, fox.spec, 1), 200);
+    const response = await saveSpec(wren, groom.id, { ...fox.spec, guides: { ...fox.spec.guides, lift: 30 } }, 1);
     const { error } = await expectJson(response, 409);
-    expect(error).toMatchObject({ code: 'stale-revision', details: { revision: 3 } });
-    expect(error.message).toMatch(/since revision 2 .* revision 3/);
-    expect((await getGroom(wren, groom.id)).revision).toBe(3);
+    expect(error).toMatchObject({ code: 'stale-revision', details: { revision: 2 } });
+    expect(error.message).toMatch(/since revision 1 .* revision 2/);
+    expect(await getGroom(wren, groom.id)).toMatchObject({ revision: 2, spec: parseGroomSpec(fox.spec) });
   });
 
   it('refuses an invalid spec with 400 and a message per spec path, saving nothing', async () => {
+    const groom = await fresh('Coat with a bad spec');
     const bad = {
       ...fox.spec,
       field: { singularities: [{ vertex: 3, index: 0 }, { point: [0, 0, 0], vertex: 1, index: 1 }] },
       guides: { colour: 'russet' },
     };
-    const { error } = await expectJson(await saveSpec(wren, groom.id, bad, 3), 400);
+    const { error } = await expectJson(await saveSpec(wren, groom.id, bad, 1), 400);
     expect(error.code).toBe('invalid-spec');
     expect(error.fields).toEqual({
       'field.singularities[0].index': 'an index of 0 is no singularity',
@@ -208,28 +209,37 @@ describe('autosave', () => {
       'guides.colour': 'is not a field of the groom spec',
     });
     expect(error.message).toMatch(/^The groom spec was not saved: field\.singularities\[0\]\.index an index of 0 is no singularity \(and 2 more\)\.$/);
-    expect((await getGroom(wren, groom.id)).revision).toBe(3);
+    expect((await getGroom(wren, groom.id)).revision).toBe(1);
   });
 
   it('refuses a spec in other units than the surface’s', async () => {
-    const { error } = await expectJson(await saveSpec(wren, groom.id, { ...fox.spec, units: 'mm' }, 3), 400);
+    const groom = await fresh('Coat in millimetres');
+    const { error } = await expectJson(await saveSpec(wren, groom.id, { ...fox.spec, units: 'mm' }, 1), 400);
     expect(error).toMatchObject({ code: 'invalid-spec', fields: { units: 'must be "cm", the units the growth surface was uploaded in' } });
+    expect((await getGroom(wren, groom.id)).revision).toBe(1);
   });
 
   it('asks for the revision and the spec', async () => {
+    const groom = await fresh('Coat sent nothing');
     const { error } = await expectJson(await callRoute(specRoute, 'PUT', `${groomPath(groom.id)}/spec`, as(wren, groom.id, {})), 400);
     expect(Object.keys(error.fields).sort()).toEqual(['baseRevision', 'spec']);
   });
 });
 
 describe('versions', () => {
+  /** A groom with the fox's spec saved (revision 2) and kept as version 1, “Autumn”. */
+  async function groomWithVersion(name: string): Promise<{ groom: GroomDetail; first: Version }> {
+    const groom = await createGroom(wren, foxSurface.id, name);
+    await expectJson(await saveSpec(wren, groom.id, fox.spec, 1), 200);
+    const first = (await expectJson(await callRoute(versionsRoute, 'POST', `${groomPath(groom.id)}/versions`, as(wren, groom.id, { name: 'Autumn' })), 201)).data.version;
+    return { groom, first };
+  }
+  // Read by the tests that change nothing; the others make their own.
   let groom: GroomDetail;
   let first: Version;
 
   beforeAll(async () => {
-    groom = await createGroom(wren, foxSurface.id, 'Versioned coat');
-    await expectJson(await saveSpec(wren, groom.id, fox.spec, 1), 200);
-    first = (await expectJson(await callRoute(versionsRoute, 'POST', `${groomPath(groom.id)}/versions`, as(wren, groom.id, { name: 'Autumn' })), 201)).data.version;
+    ({ groom, first } = await groomWithVersion('Versioned coat'));
   });
 
   it('keeps the saved spec under a number and a name', async () => {
@@ -241,12 +251,13 @@ describe('versions', () => {
   it('renders the version’s thumbnail through the job queue', async () => {
     await eventually(async () => (await db()('groom_versions').where({ id: first.id }).first('thumbnail_key')).thumbnail_key, 'the version thumbnail');
     const { versions } = (await expectJson(await callRoute(versionsRoute, 'GET', `${groomPath(groom.id)}/versions`, as(wren, groom.id)), 200)).data;
-    const image = await fetch(versions[0].thumbnailUrl);
+    const image = await fetch(versions.find((v: Version) => v.id === first.id).thumbnailUrl);
     expect(image.status).toBe(200);
     expect(image.headers.get('content-type')).toBe('image/webp');
   });
 
   it('lists versions newest first, and the groom shows its latest', async () => {
+    const { groom } = await groomWithVersion('Coat kept twice');
     const shorter = { ...fox.spec, guides: { ...fox.spec.guides, length: 0.8 } };
     await expectJson(await saveSpec(wren, groom.id, shorter, 2), 200);
     await expectJson(await callRoute(versionsRoute, 'POST', `${groomPath(groom.id)}/versions`, as(wren, groom.id, { name: 'Summer trim' })), 201);
@@ -257,6 +268,8 @@ describe('versions', () => {
   });
 
   it('restores a version as a new revision of the saved spec', async () => {
+    const { groom, first } = await groomWithVersion('Coat restored');
+    await expectJson(await saveSpec(wren, groom.id, { ...fox.spec, guides: { ...fox.spec.guides, length: 0.8 } }, 2), 200);
     const response = await callRoute(restoreRoute, 'POST', `${groomPath(groom.id)}/versions/${first.id}/restore`, as(wren, groom.id, undefined, { versionId: first.id }));
     const restored = (await expectJson(response, 200)).data;
     expect(restored).toMatchObject({ revision: 4, spec: parseGroomSpec(fox.spec) });

@@ -54,12 +54,18 @@ export async function callRoute(routeModule: object, method: Method, path: strin
     body = typeof options.body === 'string' ? options.body : JSON.stringify(options.body);
   }
   const request = new NextRequest(new URL(path, process.env.NEXTAUTH_URL), { method, headers, body });
+  return withinRequest(request, () => handler(request, { params: Promise.resolve(options.params ?? {}) }));
+}
+
+/**
+ * Runs `work` inside Next's work and request stores for the request, as Next.js does for route
+ * handlers and pages: `cookies()`, `headers()` and with them `getServerSession` read this request.
+ */
+export function withinRequest<T>(request: NextRequest, work: () => Promise<T>): Promise<T> {
   const implicitTags = { tags: [], expirationsByCacheKind: new Map() };
   const requestStore = createRequestStoreForAPI(request, request.nextUrl, implicitTags, undefined, PREVIEW_PROPS, undefined);
-  const workStore = createWorkStore({ page: path, renderOpts: { experimental: {} }, buildId: 'studio-tests', previouslyRevalidatedTags: [] } as unknown as Parameters<typeof createWorkStore>[0]);
-  return workUnitAsyncStorage.run(requestStore, () =>
-    workAsyncStorage.run(workStore, () => handler(request, { params: Promise.resolve(options.params ?? {}) })),
-  );
+  const workStore = createWorkStore({ page: request.nextUrl.pathname, renderOpts: { experimental: {} }, buildId: 'studio-tests', previouslyRevalidatedTags: [] } as unknown as Parameters<typeof createWorkStore>[0]);
+  return workUnitAsyncStorage.run(requestStore, () => workAsyncStorage.run(workStore, work));
 }
 
 /** The body of a JSON answer with the expected status, failing the test with the body otherwise. */

@@ -89,9 +89,13 @@ describe('registering an uploaded surface', () => {
   });
 
   it('lists the groomer’s surfaces newest first, with thumbnails that are images', async () => {
-    const { data } = await expectJson<{ data: { surfaces: SurfaceSummary[] } }>(await callRoute(surfacesRoute, 'GET', '/api/studio/surfaces', { cookie: wren.cookie }), 200);
-    expect(data.surfaces.map((surface) => surface.name)).toEqual(['Two pieces', 'Open sheet', 'Test tetrahedron', 'Test cube', 'Bramble head', 'Loop — plush ring']);
-    const thumbnail = await fetch(data.surfaces[5].thumbnailUrl!);
+    // A groomer of its own: the list holds exactly what this test made, whatever ran before.
+    const lister = await signedInAccount('groomer', 'surface-lister');
+    await createSurface(lister, 'loop-ring.obj', ringBytes, 'Older ring', 'mm');
+    await createSurface(lister, 'two-pieces.obj', new TextEncoder().encode('v 0 0 0\nv 1 0 0\nv 0 1 0\nf 1 2 3\n'), 'Newer triangle');
+    const { data } = await expectJson<{ data: { surfaces: SurfaceSummary[] } }>(await callRoute(surfacesRoute, 'GET', '/api/studio/surfaces', { cookie: lister.cookie }), 200);
+    expect(data.surfaces.map((surface) => surface.name)).toEqual(['Newer triangle', 'Older ring']);
+    const thumbnail = await fetch(data.surfaces[1].thumbnailUrl!);
     expect(thumbnail.status).toBe(200);
     const metadata = await sharp(new Uint8Array(await thumbnail.arrayBuffer())).metadata();
     expect(metadata).toMatchObject({ format: 'webp', width: 512, height: 512 });

@@ -1,9 +1,19 @@
 // Words and figures for the studio's lists.
 
-const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium' });
+/**
+ * The day of an instant in a time zone ("1 Jan 2026"; the same instant is 2 Jan in Auckland).
+ * Made per call: a format kept from module load would keep the zone of that moment.
+ */
+function dayIn(timeZone: string | undefined, instant: number): string {
+  return new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeZone }).format(new Date(instant));
+}
 
-/** "just now", "4 minutes ago", "3 hours ago", "yesterday", "5 days ago", then the date. */
-export function timeAgo(iso: string, now = Date.now()): string {
+/**
+ * "just now", "4 minutes ago", "3 hours ago", "yesterday", "5 days ago", then the date: the day
+ * it was in `timeZone` (an IANA name), by default the viewer's own — the lists are read by the
+ * person in front of them, whose "yesterday" and dates are their own calendar's.
+ */
+export function timeAgo(iso: string, now = Date.now(), timeZone?: string): string {
   const then = new Date(iso).getTime();
   if (!Number.isFinite(then)) return '';
   const seconds = Math.max(0, Math.round((now - then) / 1000));
@@ -15,7 +25,7 @@ export function timeAgo(iso: string, now = Date.now()): string {
   const days = Math.round(hours / 24);
   if (days === 1) return 'yesterday';
   if (days < 14) return `${days} days ago`;
-  return dateFormat.format(new Date(then));
+  return dayIn(timeZone, then);
 }
 
 /** A surface's name from its file name: "bramble_head-v3.obj" → "bramble head v3". */

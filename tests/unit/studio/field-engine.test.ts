@@ -1,7 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
-import { fieldRequestFromSpec } from '@/lib/groom/place/request';
 import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
 import { FieldEngine } from '@/lib/studio/client/field-engine';
 import type { OpenedSurface, ProgressReport } from '@/lib/studio/client/protocol';
@@ -27,15 +26,46 @@ describe('the field engine on Bramble the fox', () => {
     expect(progress.map((p) => p.stage)).toEqual(expect.arrayContaining(['reading the surface file', expect.stringMatching(/^preparing the field solver/)]));
   });
 
-  it('assembles the same field request as the groom library, feature by feature', () => {
-    const surface = engine.prepared!;
-    const withCurve: GroomSpec = parseGroomSpec({
+  it('assembles the field request the spec asks for, feature by feature, in the surface’s own vertices and faces', () => {
+    // Places given as file vertices and a stroke inside one face, so the request can be written
+    // out by hand from the spec and the fox's mesh (not from the groom library the engine calls).
+    const mesh = demo.surface();
+    const [a, b, c] = mesh.triangles.subarray(0, 3);
+    const far = mesh.triangles[3 * 200];
+    const face = 5;
+    const corner = (k: number) => Array.from(mesh.positions.subarray(3 * mesh.triangles[3 * face + k], 3 * mesh.triangles[3 * face + k] + 3));
+    const centroid = [0, 1, 2].map((axis) => (corner(0)[axis] + corner(1)[axis] + corner(2)[axis]) / 3) as [number, number, number];
+    const handMade: GroomSpec = parseGroomSpec({
       ...demo.spec,
-      field: { ...demo.spec.field, crests: [{ points: [spec.field.singularities[0].point!, spec.field.singularities[3].point!] }], singularities: demo.spec.field.singularities!.slice(1) },
+      upAxis: 'z',
+      field: {
+        ...demo.spec.field,
+        rotation: 90,
+        referenceDirection: undefined,
+        singularities: [
+          { vertex: a, index: 1 },
+          { vertex: far, index: -1, twist: 30, handedness: 'clockwise' },
+        ],
+        partings: [{ vertices: [b, c] }],
+        crests: [{ vertices: [a, b] }],
+        // One sample: the stroke is far shorter than the sampling step (two mean edges).
+        strokes: [{ points: [centroid, [centroid[0] + 1e-4, centroid[1], centroid[2]]] }],
+      },
     });
-    for (const s of [spec, withCurve]) {
-      expect(JSON.parse(JSON.stringify(engine.requestFor(s)))).toEqual(JSON.parse(JSON.stringify(fieldRequestFromSpec(s, surface))));
-    }
+    expect(engine.requestFor(handMade)).toEqual({
+      order: 1,
+      rotation: Math.PI / 2,
+      referenceDirection: [0, 0, -1], // straight down when z is up
+      singularities: [
+        { vertex: a, index: 1 },
+        { vertex: far, index: -1, orientation: -Math.PI / 6 }, // 30° clockwise
+      ],
+      curves: [
+        { kind: 'parting', vertices: [b, c] },
+        { kind: 'crest', vertices: [a, b] },
+      ],
+      strokes: [[{ face, direction: [1, 0, 0] }]],
+    });
   });
 
   it('a full solve proves the field has exactly the placed singularities', () => {

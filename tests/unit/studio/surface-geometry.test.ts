@@ -65,6 +65,23 @@ describe('small helpers', () => {
     expect(timeAgo('2026-03-01T11:59:40Z', now)).toBe('just now');
     expect(timeAgo('2026-03-01T11:55:00Z', now)).toBe('5 minutes ago');
     expect(timeAgo('2026-02-28T11:00:00Z', now)).toBe('yesterday');
-    expect(timeAgo('2026-01-01T11:00:00Z', now)).toBe('1 Jan 2026');
+  });
+
+  it('dates an older instant by the day it was in the given time zone, and by default in the viewer’s', () => {
+    const now = Date.parse('2026-03-01T12:00:00Z');
+    // 11:00 UTC on 1 January is already midnight of 2 January in Auckland (UTC+13 in summer).
+    expect(timeAgo('2026-01-01T11:00:00Z', now, 'UTC')).toBe('1 Jan 2026');
+    expect(timeAgo('2026-01-01T11:00:00Z', now, 'Pacific/Auckland')).toBe('2 Jan 2026');
+    expect(timeAgo('2026-01-01T10:59:00Z', now, 'Pacific/Auckland')).toBe('1 Jan 2026');
+    const viewers = process.env.TZ;
+    try {
+      for (const [zone, day] of [['Pacific/Auckland', '2 Jan 2026'], ['UTC', '1 Jan 2026']]) {
+        process.env.TZ = zone; // Node re-reads TZ when it is assigned
+        expect(timeAgo('2026-01-01T11:00:00Z', now), zone).toBe(day);
+      }
+    } finally {
+      if (viewers === undefined) delete process.env.TZ;
+      else process.env.TZ = viewers;
+    }
   });
 });

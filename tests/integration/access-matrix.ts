@@ -1,0 +1,204 @@
+// Who may do what, for every route handler and page of app/: one row each (more where one
+// route answers differently for different things). access-matrix.test.ts lists app/ from the file
+// tree and fails on a route or page without a row, or on a row whose route is gone, then plays
+// every row for every person against the test stack.
+//
+// A row's expected statuses are one string, in the order of WHO:
+//   anonymous · buyer · owner (the groomer who owns the thing; for a purchase, see the row) ·
+//   other (another groomer) · admin.
+// Routes answer a status (401 signed out, 403 wrong role, 404 someone else's thing, 2xx, 4xx for
+// bad input); pages answer 200, `signin` (a redirect to /signin that comes back), 403 or 404.
+//
+// Adding a route is one line: `route('POST', '/api/things/[thingId]/poke', '401 403 200 404 403',
+// { params: { thingId: 'groom' }, body: { hard: true } })`. `params` maps a path parameter to one
+// of the Things made for the run (or a literal value); `body` may read the Things too.
+// The people are called in the order anonymous, buyer, other, admin and last the owner, so a row
+// whose owner call changes or deletes the thing (DELETE, submit, refund) can use the thing itself;
+// a thing one row changes is used by no other row whose answer the change would alter, so the
+// rows hold in any order (vitest --sequence.shuffle).
+
+export const WHO = ['anonymous', 'buyer', 'owner', 'other', 'admin'] as const;
+export type Who = (typeof WHO)[number];
+
+/** What each run makes for the rows: ids of things owned by the owner (or bought by the buyer). */
+export type Things = {
+  upload: string; // an uploaded file not yet registered as a surface
+  surface: string;
+  spareSurface: string; // for DELETE
+  groom: string;
+  spareGroom: string; // for DELETE
+  version: string;
+  export: string;
+  specGroom: string; // a groom of its own for the autosave row, whose revision no other row moves
+  spec: unknown; // its saved spec and revision
+  revision: number;
+  listing: string; // published, with a picture, not bought by anyone in the rows
+  boughtListing: string; // published, bought by the buyer, its package made
+  draftListing: string;
+  submitListing: string; // a draft the owner submits
+  unlistListing: string; // published; the owner takes it off the market
+  submittedListing: string; // waiting for an admin's decision
+  purchase: string; // the buyer's purchase of boughtListing
+  refundPurchase: string; // another purchase of the buyer, which the admin refunds
+  account: string; // a buyer's account nobody in the rows signs in with, for the admins' account rows
+  missing: string; // an id nothing has
+  demo: string; // a practice groom's id
+};
+type IdOf = { [K in keyof Things]: Things[K] extends string ? K : never }[keyof Things];
+
+export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+export type PageStatus = 200 | 'signin' | 403 | 404;
+
+export type RouteRow = {
+  kind: 'route';
+  method: Method;
+  path: string;
+  expected: Record<Who, number>;
+  params?: Record<string, IdOf | string[]>;
+  body?: ((things: Things) => unknown) | Record<string, unknown>;
+  query?: string;
+  note?: string;
+};
+export type PageRow = { kind: 'page'; path: string; expected: Record<Who, PageStatus>; params?: Record<string, IdOf>; note?: string };
+
+function statuses<T>(line: string, read: (word: string) => T): Record<Who, T> {
+  const words = line.trim().split(/\s+/);
+  if (words.length !== WHO.length) throw new Error(`"${line}" needs ${WHO.length} statuses: ${WHO.join(', ')}`);
+  return Object.fromEntries(WHO.map((who, i) => [who, read(words[i])])) as Record<Who, T>;
+}
+
+function route(method: Method, path: string, expected: string, options: Omit<RouteRow, 'kind' | 'method' | 'path' | 'expected'> = {}): RouteRow {
+  return { kind: 'route', method, path, expected: statuses(expected, Number), ...options };
+}
+
+function page(path: string, expected: string, options: Omit<PageRow, 'kind' | 'path' | 'expected'> = {}): PageRow {
+  return {
+    kind: 'page',
+    path,
+    expected: statuses(expected, (word) => {
+      if (word === 'signin') return word;
+      const status = Number(word);
+      if (status !== 200 && status !== 403 && status !== 404) throw new Error(`a page answers 200, signin, 403 or 404, not ${word}`);
+      return status;
+    }),
+    ...options,
+  };
+}
+
+const all = (status: number | 'signin') => Array(WHO.length).fill(status).join(' ');
+const surface = { surfaceId: 'surface' } as const;
+const groom = { groomId: 'groom' } as const;
+const listing = { id: 'listing' } as const;
+
+//                                                              anon buyer owner other admin
+export const ROUTE_ROWS: RouteRow[] = [
+  route('GET', '/api/health', all(200)),
+  route('GET', '/api/auth/[...nextauth]', all(200), { params: { nextauth: ['session'] } }),
+  // next-auth sends a sign-in without its CSRF token back to the sign-in page (302 to /signin?csrf=true).
+  route('POST', '/api/auth/[...nextauth]', all(302), { params: { nextauth: ['callback', 'credentials'] }, note: 'no CSRF token' }),
+  route('POST', '/api/account/sign-up', all(400), { body: { email: 'not-an-address' }, note: 'bad input' }),
+  route('POST', '/api/account/verification', all(400), { body: {}, note: 'bad input' }),
+  route('POST', '/api/account/password-reset', all(400), { body: {}, note: 'bad input' }),
+  route('POST', '/api/account/password-reset/confirm', all(400), { body: { token: 'x' }, note: 'bad input' }),
+  route('POST', '/api/payments/webhook', all(400), { body: { type: 'checkout.session.completed' }, note: 'unsigned' }),
+
+  // The studio: groomers only, and only their own things.
+  route('POST', '/api/studio/uploads', '401 403 201 201 403', { body: { fileName: 'coat.obj', byteSize: 1024 } }),
+  route('POST', '/api/studio/uploads', '401 403 400 400 403', { body: { fileName: 'coat.obj', byteSize: 0 }, note: 'bad input' }),
+  route('GET', '/api/studio/surfaces', '401 403 200 200 403'),
+  route('POST', '/api/studio/surfaces', '401 403 201 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
+  route('GET', '/api/studio/surfaces/[surfaceId]', '401 403 200 404 403', { params: surface }),
+  route('GET', '/api/studio/surfaces/[surfaceId]', '401 403 404 404 403', { params: { surfaceId: ['not-an-id'] }, note: 'malformed id' }),
+  route('DELETE', '/api/studio/surfaces/[surfaceId]', '401 403 200 404 403', { params: { surfaceId: 'spareSurface' } }),
+  route('GET', '/api/studio/grooms', '401 403 200 200 403'),
+  route('POST', '/api/studio/grooms', '401 403 201 404 403', { body: (t) => ({ surfaceId: t.surface, name: 'Matrix groom' }) }),
+  route('POST', '/api/studio/grooms', '401 403 400 400 403', { body: { surfaceId: 'nope' }, note: 'bad input' }),
+  route('GET', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: groom }),
+  route('GET', '/api/studio/grooms/[groomId]', '401 403 404 404 403', { params: { groomId: 'missing' }, note: 'no such groom' }),
+  route('PATCH', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: groom, body: { name: 'Matrix groom, renamed' } }),
+  route('DELETE', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: { groomId: 'spareGroom' } }),
+  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 200 404 403', { params: { groomId: 'specGroom' }, body: (t) => ({ spec: t.spec, baseRevision: t.revision }) }),
+  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 400 400 403', { params: groom, body: { baseRevision: 0 }, note: 'bad input' }),
+  route('POST', '/api/studio/grooms/[groomId]/duplicate', '401 403 201 404 403', { params: groom, body: {} }),
+  route('POST', '/api/studio/grooms/[groomId]/exports', '401 403 202 404 403', { params: groom, body: { format: 'json' } }),
+  route('POST', '/api/studio/grooms/[groomId]/exports', '401 403 400 400 403', { params: groom, body: { format: 'docx' }, note: 'bad input' }),
+  route('GET', '/api/studio/exports/[exportId]', '401 403 200 404 403', { params: { exportId: 'export' } }),
+  route('GET', '/api/studio/grooms/[groomId]/versions', '401 403 200 404 403', { params: groom }),
+  route('POST', '/api/studio/grooms/[groomId]/versions', '401 403 201 404 403', { params: groom, body: { name: 'Matrix version' } }),
+  route('POST', '/api/studio/grooms/[groomId]/versions/[versionId]/restore', '401 403 200 404 403', { params: { groomId: 'groom', versionId: 'version' } }),
+
+  // The market. The seller is the owner; the buyer bought `boughtListing`.
+  route('GET', '/api/market/licences', all(200)),
+  route('GET', '/api/market/search', all(200), { query: 'q=coat' }),
+  route('GET', '/api/market/search', all(400), { query: 'page=0', note: 'bad input' }),
+  route('GET', '/api/market/listings', '401 403 200 200 403'),
+  route('POST', '/api/market/listings', '401 403 201 404 403', {
+    body: (t) => ({
+      groomId: t.groom,
+      versionId: t.version,
+      title: 'Matrix coat listing',
+      description: 'A coat made by the access matrix, to check who may list what.',
+      tags: { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body' },
+      priceCents: 900,
+      currency: 'eur',
+      licenceSlug: 'personal',
+      formats: ['json'],
+    }),
+  }),
+  route('GET', '/api/market/listings/[id]', all(200), { params: listing, note: 'published' }),
+  route('GET', '/api/market/listings/[id]', '404 404 200 404 200', { params: { id: 'draftListing' }, note: 'draft' }),
+  route('PATCH', '/api/market/listings/[id]', '401 403 200 404 403', { params: { id: 'draftListing' }, body: { title: 'Matrix draft, retitled' } }),
+  route('PATCH', '/api/market/listings/[id]', '401 403 400 400 403', { params: { id: 'draftListing' }, body: { priceCents: -5 }, note: 'bad input' }),
+  route('POST', '/api/market/listings/[id]/submit', '401 403 200 404 403', { params: { id: 'submitListing' } }),
+  route('POST', '/api/market/listings/[id]/unlist', '401 403 200 404 403', { params: { id: 'unlistListing' } }),
+  route('GET', '/api/market/listings/[id]/pictures/[name]', all(302), { params: { id: 'listing', name: ['front-256'] } }),
+  route('GET', '/api/market/listings/[id]/pictures/[name]', '404 404 404 404 404', { params: { id: 'draftListing', name: ['front-256'] }, note: 'draft without pictures' }),
+  route('POST', '/api/market/listings/[id]/checkout', '401 200 403 200 403', { params: listing }),
+  route('POST', '/api/market/listings/[id]/checkout', '401 409 403 200 403', { params: { id: 'boughtListing' }, note: 'the buyer owns it' }),
+  route('PUT', '/api/market/listings/[id]/review', '401 200 403 403 403', { params: { id: 'boughtListing' }, body: { rating: 4, body: 'Lies well.' } }),
+  route('PUT', '/api/market/listings/[id]/review', '401 400 400 400 403', { params: { id: 'boughtListing' }, body: { rating: 9 }, note: 'bad input' }),
+  route('GET', '/api/library', '401 200 200 200 403'),
+  route('POST', '/api/library/[purchaseId]/download', '401 200 404 404 403', { params: { purchaseId: 'purchase' }, note: "the buyer's purchase" }),
+
+  // The seller's figures and payouts.
+  route('GET', '/api/sales', '401 403 200 200 403', { query: 'bucket=month' }),
+  route('GET', '/api/sales', '401 403 400 400 403', { query: 'bucket=century', note: 'bad input' }),
+  route('GET', '/api/sales/export.csv', '401 403 200 200 403'),
+  route('GET', '/api/sales/payouts', '401 403 200 200 403'),
+  route('POST', '/api/sales/payouts', '401 403 400 400 403', { body: { currency: 'doubloons' }, note: 'bad input' }),
+  route('POST', '/api/sales/payouts', '401 403 409 409 403', { body: { currency: 'gbp' }, note: 'nothing to pay out in GBP' }),
+
+  // Admins.
+  route('GET', '/api/admin/listings', '401 403 403 403 200'),
+  route('GET', '/api/admin/listings', '401 403 403 403 400', { query: 'state=lost', note: 'bad input' }),
+  route('POST', '/api/admin/listings/[id]/decision', '401 403 403 403 400', { params: { id: 'submittedListing' }, body: { approve: false }, note: 'no reason' }),
+  route('POST', '/api/admin/listings/[id]/decision', '401 403 403 403 200', { params: { id: 'submittedListing' }, body: { approve: true } }),
+  route('GET', '/api/admin/purchases', '401 403 403 403 200'),
+  route('POST', '/api/admin/purchases/[id]/refund', '401 403 403 403 404', { params: { id: 'missing' }, body: {}, note: 'no such purchase' }),
+  route('POST', '/api/admin/purchases/[id]/refund', '401 403 403 403 200', { params: { id: 'refundPurchase' }, body: { reason: 'Matrix refund.' } }),
+  route('POST', '/api/admin/reconcile', '401 403 403 403 200'),
+  route('GET', '/api/admin/mail', '401 403 403 403 200'),
+];
+
+//                                                              anon buyer owner other admin
+export const PAGE_ROWS: PageRow[] = [
+  page('/', all(200)),
+  page('/signin', all(200)),
+  page('/signup', all(200)),
+  page('/forgot-password', all(200)),
+  page('/reset-password', all(200)),
+  page('/verify-email', all(200)),
+  page('/market', all(200)),
+  page('/market/[id]', all(200), { params: listing, note: 'published' }),
+  page('/market/[id]', '404 404 200 404 200', { params: { id: 'draftListing' }, note: 'draft' }),
+  page('/market/[id]', all(404), { params: { id: 'missing' }, note: 'no such listing' }),
+  page('/library', 'signin 200 200 200 403'),
+  page('/studio', 'signin 403 200 200 403'),
+  page('/studio/grooms/[groomId]', 'signin 403 200 404 403', { params: groom }),
+  page('/studio/practice/[demoId]', 'signin 403 200 200 403', { params: { demoId: 'demo' } }),
+  page('/sales', 'signin 403 200 200 403'),
+  page('/sales/new', 'signin 403 200 200 403'),
+  page('/sales/listings/[id]/edit', 'signin 403 200 404 403', { params: { id: 'draftListing' } }),
+  page('/admin', 'signin 403 403 403 200'),
+  page('/admin/mail', 'signin 403 403 403 200'),
+];
