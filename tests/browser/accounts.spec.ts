@@ -133,3 +133,39 @@ test('password reset: an expired link is refused, a fresh one works', async ({ p
   await signInThroughForm(page, account.email, 'remembered-this-time');
   await expectSignedInAs(page, account.displayName);
 });
+
+test('an admin takes a role away and switches an account off: it applies at the next request', async ({ page, browser, baseURL }) => {
+  const groomer = await confirmedAccount('demoted', 'groomer', 'soon-a-buyer-only');
+  await signInThroughForm(page, groomer.email, groomer.password);
+  await expectSignedInAs(page, groomer.displayName);
+  expect((await page.goto('/studio'))?.status()).toBe(200);
+
+  const adminContext = await browser.newContext({ baseURL });
+  const adminPage = await adminContext.newPage();
+  const admin = DEMO_ACCOUNTS.find((account) => account.roles.includes('admin'))!;
+  await signInThroughForm(adminPage, admin.email, admin.password);
+  await expectSignedInAs(adminPage, admin.displayName);
+  await adminPage.goto('/admin');
+  await adminPage.getByRole('link', { name: /Accounts/ }).click();
+  await adminPage.getByLabel('E-mail contains').fill(groomer.email);
+  await adminPage.getByRole('button', { name: 'Find' }).click();
+  const row = adminPage.getByTestId('admin-account').filter({ hasText: groomer.email });
+  await expect(row).toHaveCount(1);
+  await row.getByLabel('Groomer').uncheck();
+  await row.getByLabel('Buyer').check();
+  await row.getByRole('button', { name: 'Save roles' }).click();
+  await expect(row.getByLabel('Buyer')).toBeChecked();
+
+  // The same session, without signing in again: the studio is closed to it now.
+  expect((await page.goto('/studio'))?.status()).toBe(403);
+  expect((await page.goto('/library'))?.status()).toBe(200);
+
+  adminPage.once('dialog', (dialog) => dialog.accept());
+  await row.getByRole('button', { name: 'Switch off' }).click();
+  await expect(row).toContainText('switched off');
+  await page.goto('/library');
+  expect(new URL(page.url()).pathname).toBe('/signin');
+  await signInThroughForm(page, groomer.email, groomer.password);
+  await expect(pageAlert(page)).toHaveText(/switched off by an administrator/);
+  await adminContext.close();
+});
