@@ -51,7 +51,8 @@ test('the market, a listing with its guide preview and the editor with its field
   }).toPass({ timeout: 90_000 });
   // Pictures come from the object store: a picture the policy blocked has no natural width.
   await expect.poll(broken).toBe(0);
-  await page.getByRole('main').getByRole('link').filter({ has: page.locator('img') }).first().click();
+  // A listing whose picture is there: the tile's title is its link.
+  await page.getByTestId('listing-tile').filter({ has: page.locator('img') }).first().getByRole('heading').getByRole('link').click();
   const preview = page.getByTestId('guide-preview');
   await expect(async () => {
     await page.reload();
