@@ -53,6 +53,8 @@ test('the market, a listing with its guide preview and the editor with its field
   await expect.poll(broken).toBe(0);
   // A listing whose picture is there: the tile's title is its link.
   await page.getByTestId('listing-tile').filter({ has: page.locator('img') }).first().getByRole('heading').getByRole('link').click();
+  // The title link navigates on the client: be on the listing's page before reloading it.
+  await page.waitForURL(/\/market\/[0-9a-f-]{36}$/);
   const preview = page.getByTestId('guide-preview');
   await expect(async () => {
     await page.reload();
