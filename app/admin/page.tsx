@@ -18,10 +18,16 @@ export default async function AdminPage() {
           <h1 className="text-4xl font-extrabold tracking-tight">Admin</h1>
           <p className="max-w-2xl text-lg text-loam-soft">Keep the market clean: look at presets before they go on sale, and put right what went wrong with a payment.</p>
         </div>
-        <Link href="/admin/mail" className="flex flex-col rounded-3xl bg-vellum px-5 py-3 no-underline hover:bg-lichen-pale">
-          <span className="font-bold text-loam">Outgoing mail</span>
-          <span className="text-sm text-loam-soft">Every e-mail Whorlwind sent</span>
-        </Link>
+        <div className="flex flex-wrap gap-3">
+          <Link href="/admin/accounts" className="flex flex-col rounded-3xl bg-vellum px-5 py-3 no-underline hover:bg-lichen-pale">
+            <span className="font-bold text-loam">Accounts</span>
+            <span className="text-sm text-loam-soft">Roles, and switching accounts off</span>
+          </Link>
+          <Link href="/admin/mail" className="flex flex-col rounded-3xl bg-vellum px-5 py-3 no-underline hover:bg-lichen-pale">
+            <span className="font-bold text-loam">Outgoing mail</span>
+            <span className="text-sm text-loam-soft">Every e-mail Whorlwind sent</span>
+          </Link>
+        </div>
       </div>
       <section aria-labelledby="queue-heading" className="flex flex-col gap-4">
         <h2 id="queue-heading" className="text-2xl font-bold">

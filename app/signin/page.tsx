@@ -4,11 +4,12 @@ import { AccountPanel } from '@/components/account/AccountPanel';
 import { SignInForm } from '@/components/account/SignInForm';
 import { currentSession } from '@/lib/accounts/session';
 import { safeCallbackPath } from '@/lib/accounts/safe-callback';
+import { env } from '@/lib/platform/env';
 
 export const metadata: Metadata = { title: 'Sign in' };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const callbackUrl = safeCallbackPath((await searchParams).callbackUrl);
+  const callbackUrl = safeCallbackPath((await searchParams).callbackUrl, new URL(env().NEXTAUTH_URL).origin);
   const session = await currentSession();
   if (session) {
     return (

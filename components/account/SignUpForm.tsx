@@ -21,7 +21,7 @@ export function SignUpForm() {
   if (sentTo) {
     return (
       <Notice tone="success">
-        Almost there: we sent a confirmation link to <strong>{sentTo}</strong>. Open it to confirm your address, then sign in.
+        Almost there: we sent an e-mail to <strong>{sentTo}</strong>. Open the link in it to confirm your address, then sign in.
       </Notice>
     );
   }

@@ -5,7 +5,7 @@ import type { SignedInSession } from './session';
 
 export type Actor = { userId: string; roles: readonly Role[]; email: string | null };
 
-/** The signed-in person of a session, with the roles the session was issued with. */
+/** The signed-in person of a session, with their roles as the database holds them now (session.ts). */
 export function actorOf(session: SignedInSession): Actor {
   return { userId: session.user.id, roles: session.user.roles, email: session.user.email ?? null };
 }

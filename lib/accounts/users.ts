@@ -1,11 +1,15 @@
-// Accounts: sign-up, e-mail verification and password reset. Each operation runs in one
-// transaction; the e-mail is sent before the transaction commits, so a message that cannot
-// be sent leaves no account or token behind.
+// Accounts: sign-up, e-mail verification and password reset. The database work of each runs in
+// one short transaction; the e-mail is sent after it commits, so no pool connection waits on the
+// mail service (up to its 10 s timeout). A message that cannot be sent is undone instead: the
+// token it carried is deleted, and an account made by the same sign-up with it, so nothing is
+// left that the person cannot redo by asking again. (No outbox with retries: a link's token is
+// stored only as its SHA-256, so only the request that made it can mail it.)
 import { createHash, randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
-import { db, isUniqueViolation } from '../platform/db';
-import { sendMail } from '../platform/mail';
-import { passwordResetMail, verificationMail } from './mail-texts';
+import { db } from '../platform/db';
+import { sendMail, type OutgoingMail } from '../platform/mail';
+import { admitMailRequest, lockAddress, type MailAction } from './mail-limits';
+import { passwordResetMail, signUpAttemptMail, verificationMail } from './mail-texts';
 import { hashPassword } from './passwords';
 import { isRole, type Role } from './roles';
 import type { ResetPasswordInput, SignUpInput } from './schemas';
@@ -64,24 +68,81 @@ async function claimToken(trx: Knex.Transaction, token: string, purpose: TokenPu
   return row;
 }
 
-export type SignUpResult = { ok: true; userId: string; email: string } | { ok: false; problem: 'email-taken' };
+/** Refused by the limits of mail-limits.ts: nothing was recorded or sent. */
+export type MailLimited = { ok: false; problem: 'too-many-requests' };
 
-export async function signUp(input: SignUpInput): Promise<SignUpResult> {
-  const passwordHash = await hashPassword(input.password);
+/** What a transaction decided to mail, and how to undo its rows when the mail cannot be sent. */
+type PlannedMail = { mail: OutgoingMail; undo: (trx: Knex.Transaction) => Promise<unknown> } | null;
+
+/** Sends the planned mail after the commit; when it cannot go, undoes its rows and rethrows. */
+async function sendOrUndo(planned: PlannedMail): Promise<void> {
+  if (!planned) return;
   try {
-    return await db().transaction(async (trx) => {
-      const [user] = await trx('users')
-        .insert({ email: input.email, display_name: input.displayName, password_hash: passwordHash })
-        .returning(['id', 'email']);
-      await trx('user_roles').insert({ user_id: user.id, role: input.role });
-      const token = await issueToken(trx, user.id, 'verify-email');
-      await sendMail(verificationMail(user.email, input.displayName, token));
-      return { ok: true as const, userId: user.id as string, email: user.email as string };
-    });
+    await sendMail(planned.mail);
   } catch (error) {
-    if (isUniqueViolation(error, 'users_email_unique')) return { ok: false, problem: 'email-taken' };
+    await db().transaction((trx) => planned.undo(trx));
     throw error;
   }
+}
+
+/** Runs `plan` for a request within the limits (under the address's lock), then mails. */
+async function limitedMailRequest(
+  action: MailAction,
+  email: string,
+  clientAddress: string | null,
+  plan: (trx: Knex.Transaction) => Promise<PlannedMail>,
+): Promise<{ ok: true } | MailLimited> {
+  const planned = await db().transaction(async (trx) => {
+    await lockAddress(trx, email);
+    if (!(await admitMailRequest(trx, action, email, clientAddress))) return 'limited' as const;
+    return plan(trx);
+  });
+  if (planned === 'limited') return { ok: false, problem: 'too-many-requests' };
+  await sendOrUndo(planned);
+  return { ok: true };
+}
+
+function deleteToken(token: string) {
+  return (trx: Knex.Transaction) => trx('account_tokens').where({ token_hash: hashToken(token) }).delete();
+}
+
+export type SignUpResult = { ok: true; email: string } | MailLimited;
+
+/**
+ * Signs up, answering the same whether or not the address has an account, so the form cannot be
+ * used to find out who has one: a new address gets an unconfirmed account and its confirmation
+ * link; an unconfirmed account gets a new link (its first mail may have been lost); a confirmed
+ * one gets a note that someone tried to sign up with it. Only the new account takes the form's
+ * name, password and role. The password is hashed in every case, so the time does not tell either.
+ */
+export async function signUp(input: SignUpInput, clientAddress: string | null = null): Promise<SignUpResult> {
+  const passwordHash = await hashPassword(input.password);
+  const result = await limitedMailRequest('sign-up', input.email, clientAddress, async (trx) => {
+    const existing = await findUserByEmail(trx, input.email);
+    if (existing?.email_verified_at) return { mail: signUpAttemptMail(existing.email, existing.display_name), undo: async () => {} };
+    if (existing) {
+      const token = await issueToken(trx, existing.id, 'verify-email');
+      return { mail: verificationMail(existing.email, existing.display_name, token), undo: deleteToken(token) };
+    }
+    const [user] = await trx('users')
+      .insert({ email: input.email, display_name: input.displayName, password_hash: passwordHash })
+      .returning(['id', 'email']);
+    await trx('user_roles').insert({ user_id: user.id, role: input.role });
+    const token = await issueToken(trx, user.id, 'verify-email');
+    return {
+      mail: verificationMail(user.email, input.displayName, token),
+      // The account goes with its link, unless a sign-up since (after this commit) sent another link for it.
+      undo: async (undoTrx: Knex.Transaction) => {
+        await deleteToken(token)(undoTrx);
+        await undoTrx('users')
+          .where({ id: user.id })
+          .whereNull('email_verified_at')
+          .whereNotExists(undoTrx('account_tokens').whereRaw('account_tokens.user_id = users.id'))
+          .delete();
+      },
+    };
+  });
+  return result.ok ? { ok: true, email: input.email } : result;
 }
 
 export type VerifyEmailResult = { ok: true; email: string } | { ok: false; problem: TokenProblem };
@@ -108,22 +169,22 @@ async function findUserByEmail(trx: Knex.Transaction, email: string): Promise<Us
  * Sends a new confirmation link when an unconfirmed account has this address. Says nothing
  * about whether one does, so the form cannot be used to find out who has an account.
  */
-export async function resendVerification(email: string): Promise<void> {
-  await db().transaction(async (trx) => {
+export async function resendVerification(email: string, clientAddress: string | null = null): Promise<{ ok: true } | MailLimited> {
+  return limitedMailRequest('verify-email', email, clientAddress, async (trx) => {
     const user = await findUserByEmail(trx, email);
-    if (!user || user.email_verified_at) return;
+    if (!user || user.email_verified_at) return null;
     const token = await issueToken(trx, user.id, 'verify-email');
-    await sendMail(verificationMail(user.email, user.display_name, token));
+    return { mail: verificationMail(user.email, user.display_name, token), undo: deleteToken(token) };
   });
 }
 
 /** Sends a reset link when an account has this address; silent otherwise, like above. */
-export async function requestPasswordReset(email: string): Promise<void> {
-  await db().transaction(async (trx) => {
+export async function requestPasswordReset(email: string, clientAddress: string | null = null): Promise<{ ok: true } | MailLimited> {
+  return limitedMailRequest('reset-password', email, clientAddress, async (trx) => {
     const user = await findUserByEmail(trx, email);
-    if (!user) return;
+    if (!user) return null;
     const token = await issueToken(trx, user.id, 'reset-password');
-    await sendMail(passwordResetMail(user.email, user.display_name, token));
+    return { mail: passwordResetMail(user.email, user.display_name, token), undo: deleteToken(token) };
   });
 }
 
@@ -137,7 +198,13 @@ export async function resetPassword(input: ResetPasswordInput): Promise<ResetPas
     // Opening the link proved the address is theirs, so it counts as confirmed too.
     const [user] = await trx('users')
       .where({ id: claimed.user_id })
-      .update({ password_hash: passwordHash, email_verified_at: trx.raw('coalesce(email_verified_at, now())') })
+      // A new session version ends every session signed in before (session.ts): whoever knew the old
+      // password is signed out everywhere.
+      .update({
+        password_hash: passwordHash,
+        email_verified_at: trx.raw('coalesce(email_verified_at, now())'),
+        session_version: trx.raw('session_version + 1'),
+      })
       .returning(['email']);
     // Other reset links sent earlier stop working once the password has changed.
     await trx('account_tokens')

@@ -1,6 +1,7 @@
 // The one way a route handler under app/api answers: `handler` checks who may call (401 / 403),
 // hands the work the signed-in Actor, and turns an HttpError into the JSON envelope; ids from the
 // path, the JSON body and the query are read here too, failing as HttpErrors.
+import { randomUUID } from 'node:crypto';
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
 import { actorOf, type Actor } from '../accounts/actor';
@@ -29,7 +30,7 @@ async function signedInActor(roles: readonly Role[]): Promise<Actor> {
 
 /**
  * Runs a route handler's work for those who may call it, and answers an HttpError it throws in
- * the envelope (other errors stay server errors):
+ * the envelope (any other error is a 500 with a plain message, see unexpectedFailure):
  * - roles: signed in with one of them (401 signed out, 403 without), the work gets the Actor;
  * - 'public': anyone, the work gets the Actor or null when nobody is signed in;
  * - 'none': no session is read at all (sign-up, the payment provider's webhook, the search).
@@ -47,8 +48,23 @@ export async function handler(access: readonly Role[] | 'public' | 'none', work:
     return await work(await signedInActor(access));
   } catch (error) {
     if (error instanceof HttpError) return errorResponse(error);
-    throw error;
+    return unexpectedFailure(error);
   }
+}
+
+/**
+ * Anything but an HttpError: a 500 with a plain message. The error's own text (a database's, a
+ * provider's, a stack) goes to the server's log only; it names tables, hosts and values that are
+ * of no use to the person and of use to an attacker.
+ */
+function unexpectedFailure(error: unknown): Response {
+  const reference = randomUUID();
+  console.error(`[whorlwind] unexpected failure ${reference} in a route handler:`, error);
+  return errorResponse(
+    new HttpError(500, 'server-error', 'Something went wrong on our side. Try again in a moment; if it keeps happening, tell us this reference.', {
+      details: { reference },
+    }),
+  );
 }
 
 const uuid = z.uuid();

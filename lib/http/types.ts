@@ -10,6 +10,8 @@ export type ApiErrorCode =
   | 'not-found'
   | 'mail-failed'
   | 'service-unavailable'
+  | 'too-many-requests'
+  | 'server-error'
   // accounts
   | 'email-taken'
   | 'invalid-token'

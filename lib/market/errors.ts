@@ -11,6 +11,7 @@ export function notFound(thing: MarketThing): HttpError {
 
 /** A request the payment provider refused or could not answer. */
 export function providerFailed(what: string, error: unknown): HttpError {
-  const message = (error as { message?: string })?.message ?? String(error);
-  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}: ${message}`);
+  // The provider's own text (request ids, account details, its wording) is for the server's log only.
+  console.error(`[whorlwind] the payment provider could not ${what}:`, error);
+  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}. Try again in a moment.`);
 }

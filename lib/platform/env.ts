@@ -44,6 +44,14 @@ function schemaFor(defaults: Record<string, string>) {
     MARKET_PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(100).default(15),
     /** Largest growth surface file the studio accepts, in bytes (default 200 MB). */
     SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200_000_000),
+    /**
+     * Addresses of the proxies in front of the app, comma-separated. X-Forwarded-For is believed only
+     * as far as these wrote it (lib/accounts/client-address.ts); empty: it is not believed at all.
+     */
+    TRUSTED_PROXIES: z
+      .string()
+      .default('')
+      .transform((value) => value.split(',').map((entry) => entry.trim()).filter((entry) => entry !== '')),
   });
 }
 

@@ -6,6 +6,7 @@ import { POST as resendPost } from '@/app/api/account/verification/route';
 import { POST as resetRequestPost } from '@/app/api/account/password-reset/route';
 import { POST as resetConfirmPost } from '@/app/api/account/password-reset/confirm/route';
 import { GET as healthGet } from '@/app/api/health/route';
+import { MAIL_REQUESTS_PER_ADDRESS, TOO_MANY_MAIL_REQUESTS } from '@/lib/accounts/mail-limits';
 import { jsonRequest, mailTo, uniqueEmail } from './helpers';
 
 afterAll(closeDb);
@@ -20,14 +21,25 @@ describe('POST /api/account/sign-up', () => {
     expect(await response.json()).toEqual({ data: { email } });
   });
 
-  it('answers 409 on the e-mail field for a taken address', async () => {
-    const email = uniqueEmail('route-taken');
-    await signUpPost(jsonRequest('/api/account/sign-up', form(email)));
-    const response = await signUpPost(jsonRequest('/api/account/sign-up', form(email.toUpperCase())));
-    expect(response.status).toBe(409);
-    const { error } = await response.json();
-    expect(error.code).toBe('email-taken');
-    expect(error.fields.email).toMatch(/already uses this e-mail address/);
+  it('answers a taken address exactly as a new one, so the form does not tell who has an account', async () => {
+    const taken = uniqueEmail('route-taken');
+    await signUpPost(jsonRequest('/api/account/sign-up', form(taken)));
+    const again = await signUpPost(jsonRequest('/api/account/sign-up', form(taken.toUpperCase())));
+    const fresh = await signUpPost(jsonRequest('/api/account/sign-up', form(uniqueEmail('route-fresh'))));
+    expect(again.status).toBe(fresh.status);
+    expect(Object.keys((await again.json()).data)).toEqual(Object.keys((await fresh.json()).data));
+    expect(await db()('users').where({ email: taken })).toHaveLength(1);
+  });
+
+  it('answers 429 once an address has asked for too many e-mails', async () => {
+    const email = uniqueEmail('route-flood');
+    let response = await signUpPost(jsonRequest('/api/account/sign-up', form(email)));
+    for (let request = 1; request <= MAIL_REQUESTS_PER_ADDRESS && response.ok; request += 1) {
+      response = await resetRequestPost(jsonRequest('/api/account/password-reset', { email }));
+    }
+    expect(response.status).toBe(429);
+    expect((await response.json()).error).toEqual({ code: 'too-many-requests', message: TOO_MANY_MAIL_REQUESTS });
+    expect(await mailTo(email)).toHaveLength(MAIL_REQUESTS_PER_ADDRESS);
   });
 
   it('answers 400 with a message per field and creates nothing', async () => {

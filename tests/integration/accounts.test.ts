@@ -1,4 +1,6 @@
+import { randomUUID } from 'node:crypto';
 import { afterAll, describe, expect, it } from 'vitest';
+import { MAIL_REQUESTS_PER_ADDRESS, MAIL_REQUESTS_PER_CLIENT, MAIL_WINDOW_MINUTES } from '@/lib/accounts/mail-limits';
 import { db, closeDb } from '@/lib/platform/db';
 import { requestPasswordReset, resetPassword, resendVerification, signUp, verifyEmail } from '@/lib/accounts/users';
 import { checkCredentials } from '@/lib/accounts/sign-in';
@@ -35,17 +37,30 @@ describe('sign-up and e-mail confirmation', () => {
     expect(await verifyEmail(token)).toEqual({ ok: false, problem: 'used-token' });
   });
 
-  it('refuses a taken e-mail address, whatever its case, and changes nothing', async () => {
-    const email = uniqueEmail('taken');
-    await signUp({ displayName: 'First Owner', email, password, role: 'groomer' });
-    const usersBefore = await db()('users').count<{ count: string }[]>('* as count');
+  it('answers a taken address as a new one, changes nothing, and mails its owner instead', async () => {
+    const email = await confirmedAccount('taken');
+    const again = await signUp({ displayName: 'Second Try', email: email, password: 'another-password', role: 'buyer' });
+    expect(again).toEqual({ ok: true, email });
 
-    const again = await signUp({ displayName: 'Second Try', email, password: 'another-password', role: 'buyer' });
-    expect(again).toEqual({ ok: false, problem: 'email-taken' });
+    const owners = await db()('users').where({ email });
+    expect(owners).toHaveLength(1);
+    expect(owners[0].display_name).toBe('Juniper Vale');
+    expect(await db()('user_roles').where({ user_id: owners[0].id }).pluck('role')).toEqual(['groomer']);
+    const [notice] = await mailTo(email);
+    expect(notice.subject).toBe('Someone tried to sign up to Whorlwind with your address');
+    expect(notice.text).toMatch(/No new account was made/);
+    expect(notice.text).not.toMatch(/token=/);
+    expect((await checkCredentials({ email, password }, null)).ok).toBe(true);
+  });
 
-    expect(await db()('users').count('* as count')).toEqual(usersBefore);
-    expect((await db()('users').where({ email }).first()).display_name).toBe('First Owner');
-    expect(await mailTo(email)).toHaveLength(1);
+  it('sends an unconfirmed address a new confirmation link when someone signs up with it again', async () => {
+    const email = uniqueEmail('again');
+    await signUp({ displayName: 'First Try', email, password, role: 'groomer' });
+    expect(await signUp({ displayName: 'Second Try', email, password: 'another-password', role: 'buyer' })).toEqual({ ok: true, email });
+    const [newest] = await mailTo(email);
+    expect(await verifyEmail(tokenFromLink(newest, '/verify-email'))).toEqual({ ok: true, email });
+    // The account is the first one: the second form changed nothing.
+    expect((await checkCredentials({ email, password }, null)).ok).toBe(true);
   });
 
   it('refuses a wrong verification token', async () => {
@@ -125,5 +140,39 @@ describe('password reset', () => {
     const nobody = uniqueEmail('unknown');
     await requestPasswordReset(nobody);
     expect(await mailTo(nobody)).toHaveLength(0);
+  });
+});
+
+describe('limits on account mail', () => {
+  it(`sends at most ${MAIL_REQUESTS_PER_ADDRESS} account e-mails to one address within ${MAIL_WINDOW_MINUTES} minutes, counted whether or not it has an account`, async () => {
+    for (const email of [await confirmedAccount('flooded'), uniqueEmail('flooded-nobody')]) {
+      const before = (await db()('account_requests').where({ email })).length;
+      for (let request = before; request < MAIL_REQUESTS_PER_ADDRESS; request += 1) {
+        expect(await requestPasswordReset(email)).toEqual({ ok: true });
+      }
+      expect(await requestPasswordReset(email)).toEqual({ ok: false, problem: 'too-many-requests' });
+      expect(await resendVerification(email)).toEqual({ ok: false, problem: 'too-many-requests' });
+      expect(await signUp({ displayName: 'Flood', email, password, role: 'buyer' })).toEqual({ ok: false, problem: 'too-many-requests' });
+    }
+  });
+
+  it('lifts the limit when the window has passed', async () => {
+    const email = await confirmedAccount('patient');
+    for (let request = 1; request < MAIL_REQUESTS_PER_ADDRESS; request += 1) await requestPasswordReset(email);
+    expect(await requestPasswordReset(email)).toEqual({ ok: false, problem: 'too-many-requests' });
+    // As if the hour had passed (no waiting in tests).
+    await db()('account_requests')
+      .where({ email })
+      .update({ requested_at: db().raw(`requested_at - make_interval(mins => ?)`, [MAIL_WINDOW_MINUTES]) });
+    expect(await requestPasswordReset(email)).toEqual({ ok: true });
+  });
+
+  it(`sends at most ${MAIL_REQUESTS_PER_CLIENT} account e-mails for one client, whatever the addresses`, async () => {
+    const client = `2001:db8::${randomUUID().slice(0, 4)}:${randomUUID().slice(0, 4)}`;
+    for (let request = 0; request < MAIL_REQUESTS_PER_CLIENT; request += 1) {
+      expect(await resendVerification(uniqueEmail('client-spray'), client)).toEqual({ ok: true });
+    }
+    expect(await requestPasswordReset(uniqueEmail('client-spray'), client)).toEqual({ ok: false, problem: 'too-many-requests' });
+    expect(await requestPasswordReset(uniqueEmail('client-spray'), '192.0.2.200')).toEqual({ ok: true });
   });
 });

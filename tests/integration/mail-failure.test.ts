@@ -54,4 +54,14 @@ describe('sign-up while mail cannot be sent', () => {
     expect((await response.json()).error).toMatchObject({ code: 'mail-failed', message: expect.stringMatching(/no account was created/) });
     expect(await modules.db.db()('users').where({ email })).toHaveLength(0);
   });
+
+  it('leaves no usable link behind when a reset or a new confirmation link cannot be sent', async () => {
+    const email = uniqueEmail('nomail-reset');
+    const [user] = await modules.db.db()('users').insert({ email, display_name: 'Unlucky', password_hash: 'not-a-hash' }).returning('id');
+    await expect(modules.accounts.requestPasswordReset(email)).rejects.toThrow(modules.mail.MailNotSent);
+    await expect(modules.accounts.resendVerification(email)).rejects.toThrow(modules.mail.MailNotSent);
+    expect(await modules.db.db()('account_tokens').where({ user_id: user.id })).toHaveLength(0);
+    // The account itself was not made by these requests and stays.
+    expect(await modules.db.db()('users').where({ email })).toHaveLength(1);
+  });
 });

@@ -1,7 +1,8 @@
+import { randomUUID } from 'node:crypto';
 import { afterAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { requestPasswordReset, resetPassword, signUp, verifyEmail } from '@/lib/accounts/users';
-import { checkCredentials, MAX_FAILURES_PER_CLIENT, MAX_FAILURES_PER_EMAIL } from '@/lib/accounts/sign-in';
+import { backOffMinutes, checkCredentials, FREE_FAILURES_PER_PAIR, MAX_FAILURES_PER_CLIENT } from '@/lib/accounts/sign-in';
 import { DEMO_ACCOUNTS } from '@/db/demo-scenario';
 import { mailTo, onlyMailTo, tokenFromLink, uniqueEmail } from './helpers';
 
@@ -42,32 +43,64 @@ describe('checking a sign-in', () => {
   });
 
   it('refuses malformed input without touching the attempt log', async () => {
-    const before = await db()('sign_in_attempts').count('* as count');
-    expect(await checkCredentials({ email: 'not an address', password: '' }, null)).toEqual({ ok: false, problem: 'invalid-input' });
-    expect(await db()('sign_in_attempts').count('* as count')).toEqual(before);
+    // Counted for this test's own client address only: other test files write attempts at the same time.
+    const client = `2001:db8::${randomUUID().slice(0, 4)}:${randomUUID().slice(0, 4)}`;
+    expect(await checkCredentials({ email: 'not an address', password: '' }, client)).toEqual({ ok: false, problem: 'invalid-input' });
+    expect(await db()('sign_in_attempts').where({ client_address: client })).toHaveLength(0);
+  });
+
+  it('refuses a disabled account even with the right password, without saying so to others', async () => {
+    const email = await account('disabled', { confirmed: true });
+    await db()('users').where({ email }).update({ disabled_at: db().fn.now() });
+    expect(await checkCredentials({ email, password: 'a-wrong-guess' }, null)).toEqual({ ok: false, problem: 'invalid-credentials' });
+    expect(await checkCredentials({ email, password }, null)).toEqual({ ok: false, problem: 'account-disabled' });
   });
 });
 
+/** Moves the pair's attempts back in time, as if the minutes had passed (no waiting in tests). */
+async function minutesPass(email: string, minutes: number) {
+  await db()('sign_in_attempts').where({ email }).update({ attempted_at: db().raw(`attempted_at - ? * interval '1 minute'`, [minutes]) });
+}
+
+async function fail(email: string, client: string | null, times: number) {
+  for (let attempt = 0; attempt < times; attempt += 1) {
+    expect(await checkCredentials({ email, password: `guess-number-${attempt}` }, client)).toEqual({ ok: false, problem: 'invalid-credentials' });
+  }
+}
+
 describe('sign-in attempt limits', () => {
-  it(`locks an address after ${MAX_FAILURES_PER_EMAIL} failures, even for the right password`, async () => {
+  it(`locks the address and client pair after ${FREE_FAILURES_PER_PAIR} failures, even for the right password`, async () => {
     const email = await account('locked', { confirmed: true });
-    for (let attempt = 0; attempt < MAX_FAILURES_PER_EMAIL; attempt += 1) {
-      expect(await checkCredentials({ email, password: `guess-number-${attempt}` }, null)).toEqual({
-        ok: false,
-        problem: 'invalid-credentials',
-      });
-    }
+    await fail(email, '203.0.113.9', FREE_FAILURES_PER_PAIR);
+    expect(await checkCredentials({ email, password }, '203.0.113.9')).toEqual({ ok: false, problem: 'too-many-attempts' });
+    // The refused try is not recorded: only the failures count.
+    expect(await db()('sign_in_attempts').where({ email, succeeded: false })).toHaveLength(FREE_FAILURES_PER_PAIR);
+  });
+
+  it('does not lock the owner out from another client', async () => {
+    const email = await account('not-locked-elsewhere', { confirmed: true });
+    await fail(email, '203.0.113.10', FREE_FAILURES_PER_PAIR);
+    expect(await checkCredentials({ email, password }, '203.0.113.10')).toEqual({ ok: false, problem: 'too-many-attempts' });
+    expect((await checkCredentials({ email, password }, '198.51.100.20')).ok).toBe(true);
+  });
+
+  it('backs off exponentially: each failure past the free ones doubles the wait', async () => {
+    expect([4, 5, 6, 7, 8, 20].map(backOffMinutes)).toEqual([0, 1, 2, 4, 8, 60]);
+    const email = await account('back-off', { confirmed: true });
+    await fail(email, null, FREE_FAILURES_PER_PAIR);
+    await minutesPass(email, 1.1);
+    // The one-minute wait is over: one more try is allowed, and its failure makes the wait two minutes.
+    await fail(email, null, 1);
     expect(await checkCredentials({ email, password }, null)).toEqual({ ok: false, problem: 'too-many-attempts' });
-    expect(await db()('sign_in_attempts').where({ email, succeeded: false }).count('* as count')).toEqual([
-      { count: String(MAX_FAILURES_PER_EMAIL) },
-    ]);
+    await minutesPass(email, 1.1);
+    expect(await checkCredentials({ email, password }, null)).toEqual({ ok: false, problem: 'too-many-attempts' });
+    await minutesPass(email, 1);
+    expect((await checkCredentials({ email, password }, null)).ok).toBe(true);
   });
 
   it('starts counting again after a successful sign-in', async () => {
     const email = await account('reset-count', { confirmed: true });
-    for (let attempt = 0; attempt < MAX_FAILURES_PER_EMAIL - 1; attempt += 1) {
-      await checkCredentials({ email, password: `guess-number-${attempt}` }, null);
-    }
+    await fail(email, null, FREE_FAILURES_PER_PAIR - 1);
     expect((await checkCredentials({ email, password }, null)).ok).toBe(true);
     expect(await checkCredentials({ email, password: 'one-more-guess' }, null)).toEqual({ ok: false, problem: 'invalid-credentials' });
     expect((await checkCredentials({ email, password }, null)).ok).toBe(true);
@@ -75,9 +108,7 @@ describe('sign-in attempt limits', () => {
 
   it('lifts the lock when the password is reset', async () => {
     const email = await account('unlock', { confirmed: true });
-    for (let attempt = 0; attempt < MAX_FAILURES_PER_EMAIL; attempt += 1) {
-      await checkCredentials({ email, password: `guess-number-${attempt}` }, null);
-    }
+    await fail(email, null, FREE_FAILURES_PER_PAIR);
     await requestPasswordReset(email);
     const token = tokenFromLink((await mailTo(email))[0], '/reset-password');
     await resetPassword({ token, password: 'fresh-start-pass' });
@@ -85,7 +116,8 @@ describe('sign-in attempt limits', () => {
   });
 
   it(`locks a client address after ${MAX_FAILURES_PER_CLIENT} failures across addresses`, async () => {
-    const client = '192.0.2.77';
+    // An address of its own (from 2001:db8::/32, for documentation, RFC 3849), so no other test adds to its count.
+    const client = `2001:db8::${randomUUID().slice(0, 4)}:${randomUUID().slice(0, 4)}`;
     const email = await account('sprayed', { confirmed: true });
     for (let attempt = 0; attempt < MAX_FAILURES_PER_CLIENT; attempt += 1) {
       await checkCredentials({ email: uniqueEmail('spray'), password: 'common-password' }, client);

@@ -109,7 +109,8 @@ export async function signedInAccount(role: Extract<Role, 'groomer' | 'buyer'>, 
   if (!created.ok) throw new Error(`could not sign up ${email}: ${created.problem}`);
   const confirmed = await verifyEmail(tokenFromLink(await onlyMailTo(email), '/verify-email'));
   if (!confirmed.ok) throw new Error(`could not confirm ${email}: ${confirmed.problem}`);
-  return { userId: created.userId, email, cookie: await signIn(email, password) };
+  const { id: userId } = await db()('users').where({ email }).select('id').first();
+  return { userId, email, cookie: await signIn(email, password) };
 }
 
 /** Who the ownership tests need: a groomer who owns things, a second groomer, and a buyer. */
