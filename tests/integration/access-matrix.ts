@@ -178,6 +178,9 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('POST', '/api/admin/purchases/[id]/refund', '401 403 403 403 200', { params: { id: 'refundPurchase' }, body: { reason: 'Matrix refund.' } }),
   route('POST', '/api/admin/reconcile', '401 403 403 403 200'),
   route('GET', '/api/admin/mail', '401 403 403 403 200'),
+  route('GET', '/api/admin/accounts', '401 403 403 403 200'),
+  route('PATCH', '/api/admin/accounts/[id]', '401 403 403 403 200', { params: { id: 'account' }, body: { roles: ['buyer', 'groomer'] } }),
+  route('PATCH', '/api/admin/accounts/[id]', '401 403 403 403 404', { params: { id: 'missing' }, body: { disabled: true }, note: 'no such account' }),
 ];
 
 //                                                              anon buyer owner other admin
@@ -201,4 +204,5 @@ export const PAGE_ROWS: PageRow[] = [
   page('/sales/listings/[id]/edit', 'signin 403 200 404 403', { params: { id: 'draftListing' } }),
   page('/admin', 'signin 403 403 403 200'),
   page('/admin/mail', 'signin 403 403 403 200'),
+  page('/admin/accounts', 'signin 403 403 403 200'),
 ];
