@@ -9,8 +9,24 @@ export function notFound(thing: MarketThing): HttpError {
   return new HttpError(404, 'not-found', `There is no such ${thing}.`);
 }
 
-/** A request the payment provider refused or could not answer. */
+/** Plain words for the provider's refusals people can act on; anything else is said generally. */
+const PROVIDER_REASONS: Record<string, string> = {
+  balance_insufficient: 'the market’s account does not hold enough money for it yet',
+  charge_already_refunded: 'the payment was already refunded',
+  amount_too_small: 'the amount is below the provider’s minimum',
+};
+
+/**
+ * A request the payment provider refused or could not answer. People get plain words (the
+ * provider's own text can be technical or name internals); the server log keeps the provider's.
+ */
 export function providerFailed(what: string, error: unknown): HttpError {
-  const message = (error as { message?: string })?.message ?? String(error);
-  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}: ${message}`);
+  const { message, code, type } = (error ?? {}) as { message?: string; code?: string; type?: string };
+  console.error(`[market] the payment provider could not ${what}: ${code ? `${code}: ` : ''}${message ?? String(error)}`);
+  const reason =
+    (code && PROVIDER_REASONS[code]) ??
+    (type === 'StripeConnectionError' ? 'it could not be reached' : type === 'StripeRateLimitError' ? 'it is busy' : 'it refused the request');
+  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}: ${reason}. Try again in a few minutes.`, {
+    ...(code && { details: { providerCode: code } }),
+  });
 }

@@ -17,6 +17,7 @@ export function startMarketWorkers(): Promise<void> {
     await boss.work(RECONCILE_QUEUE, { batchSize: 1, pollingIntervalSeconds: 5 }, async () => {
       const result = await reconcilePayments();
       if (result.recovered > 0) console.log(`[market] reconciliation recorded ${result.recovered} purchase(s) whose webhook had not arrived`);
+      if (result.refundsRecovered > 0) console.log(`[market] reconciliation recorded ${result.refundsRecovered} refund(s) whose webhook had not arrived`);
     });
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
     // Listings whose pictures were never queued (made by the seed, or a queue that was down).

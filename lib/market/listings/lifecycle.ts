@@ -158,6 +158,10 @@ export async function decideListing(actor: Actor, id: string, decision: { approv
       const row: ListingRow | undefined = await trx('listings').where({ id }).forUpdate().first();
       if (!row) throw notFound('listing');
       const state = nextState(row.state, decision.approve ? 'approve' : 'reject');
+      // Four eyes: nobody puts their own preset on sale (or turns it down) by themselves.
+      if (row.seller_id === actor.userId) {
+        throw new HttpError(403, 'own-listing', 'This is your own listing: another admin must approve or reject it.');
+      }
       if (decision.approve && row.assets_status !== 'ready') {
         requeue = row.assets_status === 'pending';
         throw new HttpError(
