@@ -33,6 +33,19 @@ export async function up(knex: Knex) {
     table.index(['payout_id']);
   });
   await knex.raw(`ALTER TABLE payout_items ADD CONSTRAINT payout_items_kind CHECK (kind IN ('sale', 'clawback'))`);
+  // Payouts made before items existed paid the balance of their day: the sales made before them
+  // and not refunded by then. Record those, so they are not paid again.
+  for (const payout of await knex('payouts').orderBy('created_at').select('id', 'seller_id', 'currency', 'created_at')) {
+    const paid = await knex('purchases')
+      .where({ seller_id: payout.seller_id, currency: payout.currency })
+      .where('created_at', '<', payout.created_at)
+      .where((query) => query.whereNull('refunded_at').orWhere('refunded_at', '>', payout.created_at))
+      .whereNotExists(knex('payout_items').whereRaw('payout_items.purchase_id = purchases.id'))
+      .select('id', knex.raw('amount_cents - platform_fee_cents AS net'));
+    if (paid.length > 0) {
+      await knex('payout_items').insert(paid.map((row: { id: string; net: number }) => ({ payout_id: payout.id, purchase_id: row.id, kind: 'sale', amount_cents: row.net })));
+    }
+  }
 
   await knex.raw(`ALTER TABLE payment_events ADD COLUMN outcome text`);
   await knex.raw(`ALTER TABLE listings ADD COLUMN revision integer NOT NULL DEFAULT 1`);
