@@ -118,6 +118,8 @@ export async function updateListing(actor: Actor, id: string, patch: ListingPatc
       }
       await trx('listing_packages').where({ listing_id: id }).delete();
       changes.assets_status = 'pending';
+      // A build running now sees the revision move on and builds again (lib/market/assets.ts).
+      changes.revision = trx.raw('revision + 1');
     }
     await trx('listings').where({ id }).update(changes);
     return packageChanges;
