@@ -23,10 +23,9 @@ const PROVIDER_REASONS: Record<string, string> = {
 export function providerFailed(what: string, error: unknown): HttpError {
   const { message, code, type } = (error ?? {}) as { message?: string; code?: string; type?: string };
   console.error(`[market] the payment provider could not ${what}: ${code ? `${code}: ` : ''}${message ?? String(error)}`);
-  const reason =
-    (code && PROVIDER_REASONS[code]) ??
-    (type === 'StripeConnectionError' ? 'it could not be reached' : type === 'StripeRateLimitError' ? 'it is busy' : 'it refused the request');
-  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}: ${reason}. Try again in a few minutes.`, {
+  const known = code ? PROVIDER_REASONS[code] : undefined;
+  const reason = known ?? (type === 'StripeConnectionError' ? 'it could not be reached' : type === 'StripeRateLimitError' ? 'it is busy' : 'it refused the request');
+  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}: ${reason}.${known ? '' : ' Try again in a few minutes.'}`, {
     ...(code && { details: { providerCode: code } }),
   });
 }

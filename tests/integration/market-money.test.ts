@@ -156,3 +156,16 @@ describe('reconciliation of refunds', () => {
     expect(await mailTo(payee.email!)).toHaveLength(2); // the sale notice and one refund notice
   });
 });
+
+describe('the provider’s refusals in plain words', () => {
+  it('tells the admin the payment was already refunded, without the provider’s own text', async () => {
+    const bought = await sale(await makePerson('money-payee', ['groomer']));
+    await payments().refunds.create({ payment_intent: bought.payment_intent_id });
+    const error = (await refundPurchase(await makePerson('money-admin', ['admin']), bought.id).catch((caught: unknown) => caught)) as HttpError;
+    expect(error).toBeInstanceOf(HttpError);
+    expect(error).toMatchObject({ status: 502, code: 'payment-provider', message: 'The payment provider could not refund the payment: the payment was already refunded.' });
+    expect(error.extra.details).toEqual({ providerCode: 'charge_already_refunded' });
+    // Nothing half-written: the purchase is not marked as a refund asked by the market.
+    expect((await db()('purchases').where({ id: bought.id }).first('refund_id')).refund_id).toBeNull();
+  });
+});
