@@ -53,6 +53,7 @@ type App = {
 };
 
 const baseUrl = process.env.DATABASE_URL!;
+const baseHoldDays = process.env.MARKET_PAYOUT_HOLD_DAYS;
 const holder = globalThis as typeof globalThis & { whorlwindDb?: Knex };
 let killer: Knex;
 
@@ -119,6 +120,10 @@ beforeAll(async () => {
 afterAll(async () => {
   await killer?.destroy();
   await closeDb();
+  // Other files in this process keep the stack's settings.
+  process.env.DATABASE_URL = baseUrl;
+  if (baseHoldDays === undefined) delete process.env.MARKET_PAYOUT_HOLD_DAYS;
+  else process.env.MARKET_PAYOUT_HOLD_DAYS = baseHoldDays;
 });
 
 describe('payments chaos', () => {
