@@ -79,7 +79,14 @@ export function Payouts({ initialPayouts, balance, holdDays }: { initialPayouts:
               <tr key={payout.id} className="border-t border-vellum" data-status={payout.status}>
                 <td className="py-1.5">{formatDateTime(payout.createdAt)}</td>
                 <td className="py-1.5 text-right tabular-nums">{formatPrice(payout.amountCents, payout.currency)}</td>
-                <td className="py-1.5 pl-4 font-mono text-xs text-loam-soft">{payout.transferId ?? 'in progress: press Pay out again to finish it'}</td>
+                <td className="py-1.5 pl-4 font-mono text-xs text-loam-soft">
+                  {payout.transferId ??
+                    (payout.status === 'pending' && (
+                      <Button look="quiet" onClick={() => payOut(payout.currency)} disabled={busy !== null} className="px-3 py-1 font-sans">
+                        {busy === payout.currency ? 'Finishing…' : 'In progress: finish it now'}
+                      </Button>
+                    ))}
+                </td>
               </tr>
             ))}
           </tbody>

@@ -228,3 +228,27 @@ async function completePayout(row: PayoutRow): Promise<Payout> {
   const [done] = await db()('payouts').where({ id: row.id }).update({ status: 'paid', transfer_id: transferId, completed_at: db().fn.now() }).returning('*');
   return payoutOf(done);
 }
+
+/**
+ * Finishes payouts left pending (a crash or a failed recording after the row was written) that
+ * nobody resumed for a while: the reconciliation job calls it, so a payout does not wait for the
+ * seller to press the button again. Same key, so the provider answers with the transfer it made.
+ */
+export async function resumePendingPayouts(options: { olderThanSeconds?: number } = {}): Promise<{ resumed: number; failed: number }> {
+  const rows: PayoutRow[] = await db()('payouts')
+    .where({ status: 'pending' })
+    .where('created_at', '<=', db().raw(`now() - interval '1 second' * ?`, [options.olderThanSeconds ?? 300]))
+    .orderBy('created_at')
+    .limit(100);
+  let resumed = 0;
+  let failed = 0;
+  for (const row of rows) {
+    try {
+      await completePayout(row);
+      resumed += 1;
+    } catch {
+      failed += 1; // logged by providerFailed; tried again at the next run
+    }
+  }
+  return { resumed, failed };
+}

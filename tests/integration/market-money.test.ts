@@ -6,7 +6,7 @@ import { closeDb, db } from '@/lib/platform/db';
 import { payments } from '@/lib/platform/payments';
 import { stopJobs } from '@/lib/platform/jobs';
 import { startCheckout } from '@/lib/market/payments/checkout';
-import { balances, requestPayout } from '@/lib/market/payouts';
+import { balances, requestPayout, resumePendingPayouts } from '@/lib/market/payouts';
 import type { Actor } from '@/lib/accounts/actor';
 import { reconcilePayments } from '@/lib/market/payments/reconcile';
 import { refundPurchase } from '@/lib/market/payments/refunds';
@@ -72,36 +72,49 @@ describe('the webhook’s amount check (probe: the free purchase)', () => {
 
 describe('payouts', () => {
   it('never pays twice when recording the transfer fails and the seller tries again (probe: the double payout)', async () => {
-    const payee = await makePerson('money-payee', ['groomer']);
-    // Other sellers' money on the platform's balance, so a second transfer would go through.
-    await sale(seller, { priceCents: 5000 });
-    const bought = await sale(payee, { priceCents: 2000, daysAgo: 30 });
-    // A fault in the database: the first write that records a transfer for this seller fails
-    // (a sequence, because it does not roll back with the failing transaction).
-    const tag = payee.userId.replace(/-/g, '');
-    await db().raw(`CREATE SEQUENCE fault_${tag}`);
-    await db().raw(`
-      CREATE FUNCTION fault_${tag}() RETURNS trigger LANGUAGE plpgsql AS $$
-      BEGIN
-        IF NEW.seller_id = '${payee.userId}' AND NEW.transfer_id IS NOT NULL AND nextval('fault_${tag}') = 1 THEN
-          RAISE EXCEPTION 'injected fault: the payout could not be recorded';
-        END IF;
-        RETURN NEW;
-      END $$`);
-    await db().raw(`CREATE TRIGGER fault_${tag} BEFORE INSERT OR UPDATE ON payouts FOR EACH ROW EXECUTE FUNCTION fault_${tag}()`);
-    try {
-      await expect(requestPayout(payee)).rejects.toThrow();
-      const payout = await requestPayout(payee);
-      expect(payout).toMatchObject({ amountCents: 1700, currency: 'eur' });
-    } finally {
-      await db().raw(`DROP TRIGGER fault_${tag} ON payouts`);
-      await db().raw(`DROP FUNCTION fault_${tag}()`);
-      await db().raw(`DROP SEQUENCE fault_${tag}`);
-    }
-    const transfers = await transfersTo(payee.userId);
-    expect(transfers.map((t) => t.amount)).toEqual([bought.amount_cents - bought.platform_fee_cents]);
+    await doublePayoutProbe('seller');
+  });
+
+  it('finishes a payout left pending by the reconciliation job, with the same transfer', async () => {
+    await doublePayoutProbe('job');
   });
 });
+
+/** A seller's payout whose recording fails once; then the seller or the job finishes it. Exactly one transfer. */
+async function doublePayoutProbe(finisher: 'seller' | 'job') {
+  const payee = await makePerson('money-payee', ['groomer']);
+  // Other sellers' money on the platform's balance, so a second transfer would go through.
+  await sale(seller, { priceCents: 5000 });
+  const bought = await sale(payee, { priceCents: 2000, daysAgo: 30 });
+  // A fault in the database: the first write that records a transfer for this seller fails
+  // (a sequence, because it does not roll back with the failing transaction).
+  const tag = payee.userId.replace(/-/g, '');
+  await db().raw(`CREATE SEQUENCE fault_${tag}`);
+  await db().raw(`
+    CREATE FUNCTION fault_${tag}() RETURNS trigger LANGUAGE plpgsql AS $$
+    BEGIN
+      IF NEW.seller_id = '${payee.userId}' AND NEW.transfer_id IS NOT NULL AND nextval('fault_${tag}') = 1 THEN
+        RAISE EXCEPTION 'injected fault: the payout could not be recorded';
+      END IF;
+      RETURN NEW;
+    END $$`);
+  await db().raw(`CREATE TRIGGER fault_${tag} BEFORE INSERT OR UPDATE ON payouts FOR EACH ROW EXECUTE FUNCTION fault_${tag}()`);
+  try {
+    await expect(requestPayout(payee)).rejects.toThrow();
+    if (finisher === 'seller') {
+      expect(await requestPayout(payee)).toMatchObject({ amountCents: 1700, currency: 'eur', status: 'paid' });
+    } else {
+      expect((await resumePendingPayouts({ olderThanSeconds: 0 })).resumed).toBeGreaterThanOrEqual(1);
+      expect(await db()('payouts').where({ seller_id: payee.userId }).select('status', 'amount_cents')).toEqual([{ status: 'paid', amount_cents: 1700 }]);
+    }
+  } finally {
+    await db().raw(`DROP TRIGGER fault_${tag} ON payouts`);
+    await db().raw(`DROP FUNCTION fault_${tag}()`);
+    await db().raw(`DROP SEQUENCE fault_${tag}`);
+  }
+  const transfers = await transfersTo(payee.userId);
+  expect(transfers.map((t) => t.amount)).toEqual([bought.amount_cents - bought.platform_fee_cents]);
+}
 
 describe('what a payout pays', () => {
   it('pays only sales past the holding period and without an asked refund, and says what waits', async () => {
