@@ -7,7 +7,8 @@ import { Notice } from '@/components/ui/Notice';
 import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
 import { listOwnListings } from '@/lib/market/listings';
-import { listPayouts, salesReport } from '@/lib/market/sales';
+import { salesReport } from '@/lib/market/sales';
+import { listPayouts } from '@/lib/market/payouts';
 
 export const metadata: Metadata = { title: 'Sales' };
 
@@ -58,7 +59,7 @@ export default async function SalesPage({ searchParams }: Props) {
         <h2 id="payouts-heading" className="text-2xl font-bold">
           Payouts
         </h2>
-        <Payouts initialPayouts={{ payouts }} balance={report.balance} />
+        <Payouts initialPayouts={{ payouts }} balance={report.balance} holdDays={report.payoutHoldDays} />
       </section>
     </div>
   );

@@ -118,6 +118,14 @@ function PurchaseRow({ purchase, onChanged }: { purchase: AdminPurchase; onChang
           <span className="font-semibold text-loam-soft">Refund asked; waiting for the provider</span>
         ) : confirming ? (
           <form onSubmit={refund} aria-label={`Refund ${purchase.listing.title} to ${purchase.buyer.email}`} className="flex flex-col gap-2">
+            {purchase.paidOutAt ? (
+              <p className="max-w-xs text-xs text-hawthorn" data-testid="paid-out-warning">
+                Already paid out to the seller on {formatDateTime(purchase.paidOutAt)}: the refund leaves the seller owing{' '}
+                {formatPrice(purchase.sellerNetCents, purchase.currency)}, kept back from their later sales.
+              </p>
+            ) : (
+              <p className="max-w-xs text-xs text-loam-soft">Not paid out to the seller yet: the sale simply leaves their balance.</p>
+            )}
             <label className="flex flex-col gap-1 text-xs font-semibold">
               Reason (optional, kept with the refund)
               <input name="reason" maxLength={500} className="rounded-lg border-2 border-vellum bg-white px-2 py-1 text-sm font-normal" />
@@ -161,10 +169,13 @@ function ReconcileButton({ onDone }: { onDone: () => void }) {
       setResult({ tone: 'error', text: outcome.error.message });
       return;
     }
-    const { checked, recovered } = outcome.data;
+    const { checked, recovered, refundsChecked, refundsRecovered } = outcome.data;
+    const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
     setResult({
       tone: 'success',
-      text: `Checked ${checked} completed checkout${checked === 1 ? '' : 's'}; ${recovered === 0 ? 'none was missing' : `recorded ${recovered} missing purchase${recovered === 1 ? '' : 's'}`}.`,
+      text:
+        `Checked ${plural(checked, 'completed checkout')}; ${recovered === 0 ? 'none was missing' : `recorded ${plural(recovered, 'missing purchase')}`}. ` +
+        `Checked ${plural(refundsChecked, 'refund')}; ${refundsRecovered === 0 ? 'none was missing' : `recorded ${plural(refundsRecovered, 'missing refund')}`}.`,
     });
     onDone();
   }

@@ -9,9 +9,23 @@ export function notFound(thing: MarketThing): HttpError {
   return new HttpError(404, 'not-found', `There is no such ${thing}.`);
 }
 
-/** A request the payment provider refused or could not answer. */
+/** Plain words for the provider's refusals people can act on; anything else is said generally. */
+const PROVIDER_REASONS: Record<string, string> = {
+  balance_insufficient: 'the market’s account does not hold enough money for it yet',
+  charge_already_refunded: 'the payment was already refunded',
+  amount_too_small: 'the amount is below the provider’s minimum',
+};
+
+/**
+ * A request the payment provider refused or could not answer. People get plain words (the
+ * provider's own text can be technical or name internals); the server log keeps the provider's.
+ */
 export function providerFailed(what: string, error: unknown): HttpError {
-  // The provider's own text (request ids, account details, its wording) is for the server's log only.
-  console.error(`[whorlwind] the payment provider could not ${what}:`, error);
-  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}. Try again in a moment.`);
+  const { message, code, type } = (error ?? {}) as { message?: string; code?: string; type?: string };
+  console.error(`[market] the payment provider could not ${what}: ${code ? `${code}: ` : ''}${message ?? String(error)}`);
+  const known = code ? PROVIDER_REASONS[code] : undefined;
+  const reason = known ?? (type === 'StripeConnectionError' ? 'it could not be reached' : type === 'StripeRateLimitError' ? 'it is busy' : 'it refused the request');
+  return new HttpError(502, 'payment-provider', `The payment provider could not ${what}: ${reason}.${known ? '' : ' Try again in a few minutes.'}`, {
+    ...(code && { details: { providerCode: code } }),
+  });
 }

@@ -13,6 +13,7 @@ export * from './licences';
 export * from './library';
 export * from './reviews';
 export * from './sales';
+export * from './payouts';
 export * from './payments/checkout';
 export * from './payments/purchases';
 export * from './payments/refunds';

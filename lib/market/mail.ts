@@ -1,5 +1,5 @@
 // The market's e-mails: listing approved or rejected (to the seller), receipt (to the buyer),
-// sale notice (to the seller), refund notice (to the buyer). Plain text with a simple HTML twin.
+// sale notice (to the seller), refund notices (to the buyer and to the seller). Plain text with a simple HTML twin.
 import { env } from '../platform/env';
 import { escapeHtml } from '../platform/html';
 import { sendMail, type OutgoingMail } from '../platform/mail';
@@ -54,6 +54,19 @@ export function refundMail(to: string, sale: { title: string; amountCents: numbe
   return mail(to, `Refund: ${sale.title}`, [
     `Your purchase of “${sale.title}” was refunded: ${formatPrice(sale.amountCents, sale.currency)} go back to the card you paid with.`,
     `The preset's licence ends with the refund, and its files are no longer in your library.`,
+  ]);
+}
+
+/** The seller is told of every refund, and what it does to their balance. */
+export function saleRefundedMail(to: string, sale: SaleFacts & { paidOut: boolean }) {
+  const net = formatPrice(sale.amountCents - sale.feeCents, sale.currency);
+  return mail(to, `A sale of “${sale.title}” was refunded`, [
+    `The purchase of “${sale.title}” (${formatPrice(sale.amountCents, sale.currency)}, purchase ${sale.purchaseId}) was refunded to the buyer. The market gives back its fee; your share of ${net} comes off your balance.`,
+    sale.paidOut
+      ? `This sale was already paid out to you, so your balance shows ${net} owed. Nothing is taken from your bank account: the amount is kept back from your next sales before anything more is paid out.`
+      : `It had not been paid out yet, so nothing is owed: it simply leaves your balance.`,
+    `Your balance and payouts: ${link('/sales')}`,
+    TAX_NOTE,
   ]);
 }
 

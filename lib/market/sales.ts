@@ -1,18 +1,15 @@
 // A seller's figures: revenue, the market's fee, refunds, net, units and downloads — in total,
 // per period (day, week or month, UTC) and per listing, each per currency; the same as CSV; the
-// balance not yet paid out; payouts through the payment provider's transfers, with history.
+// balance as it is (payouts.ts, which also makes the payouts).
 //
 // A sale counts on the day it was paid, a refund on the day it was refunded (so a period's net
 // can be negative). The fee is kept on sales and given back on refunds:
 //   net = revenue − refunds − (fee on sales − fee on refunds).
-import { randomUUID } from 'node:crypto';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
-import { payments } from '../platform/payments';
-import { HttpError } from '../http/errors';
-import { providerFailed } from './errors';
+import { balances, payoutHoldDays } from './payouts';
 import type { Actor } from '../accounts/actor';
-import type { Payout, SalesFigures, SalesReport } from './types';
+import type { SalesFigures, SalesReport } from './types';
 import type { SalesQuery } from './validation';
 import { TAX_NOTE, type Currency } from './vocabulary';
 
@@ -119,6 +116,7 @@ export async function salesReport(actor: Actor, query: SalesQuery): Promise<Sale
     series: [...series.values()].sort((a, b) => a.periodStart.localeCompare(b.periodStart) || a.currency.localeCompare(b.currency)),
     listings: [...perListing.values()],
     balance,
+    payoutHoldDays: payoutHoldDays(),
     taxNote: TAX_NOTE,
   };
 }
@@ -151,82 +149,4 @@ export async function salesCsv(actor: Actor, query: SalesQuery): Promise<{ fileN
   }
   for (const total of totals.values()) lines.push(line('total', '', '', total));
   return { fileName: `whorlwind-sales-${from}-to-${to}.csv`, text: `${lines.join('\r\n')}\r\n` };
-}
-
-/** What the market owes the seller per currency: net of kept sales minus payouts made. */
-export async function balances(sellerId: string): Promise<{ currency: Currency; availableCents: number }[]> {
-  const { rows } = await db().raw<{ rows: { currency: Currency; available: string }[] }>(
-    `SELECT currency, sum(amount) AS available FROM (
-       SELECT currency, amount_cents - platform_fee_cents AS amount FROM purchases WHERE seller_id = ? AND status = 'paid'
-       UNION ALL
-       SELECT currency, -amount_cents FROM payouts WHERE seller_id = ?
-     ) t GROUP BY currency ORDER BY currency`,
-    [sellerId, sellerId],
-  );
-  return rows.map((row) => ({ currency: row.currency, availableCents: Number(row.available) }));
-}
-
-function payoutOf(row: { id: string; amount_cents: number; currency: Currency; transfer_id: string; created_at: Date }): Payout {
-  return { id: row.id, amountCents: row.amount_cents, currency: row.currency, transferId: row.transfer_id, createdAt: row.created_at.toISOString() };
-}
-
-export async function listPayouts(actor: Actor): Promise<Payout[]> {
-  const rows = await db()('payouts').where({ seller_id: actor.userId }).orderBy('created_at', 'desc').limit(500);
-  return rows.map(payoutOf);
-}
-
-/**
- * Pays the seller's whole available balance in one currency to their connected account (made at
- * the first payout). One payout at a time per seller (an advisory lock), so two clicks cannot pay
- * the same money twice; the transfer's idempotency key is the payout's id.
- */
-export async function requestPayout(actor: Actor, currency?: Currency): Promise<Payout> {
-  return db().transaction(async (trx) => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`payout:${actor.userId}`]);
-    const available = (await balances(actor.userId)).filter((b) => b.availableCents > 0);
-    const chosen = currency ? available.find((b) => b.currency === currency) : available[0];
-    if (!currency && available.length > 1) {
-      throw new HttpError(400, 'choose-currency', `You have money to pay out in ${available.map((b) => b.currency.toUpperCase()).join(' and ')}: choose one.`, {
-        details: { currencies: available.map((b) => b.currency) },
-      });
-    }
-    if (!chosen) {
-      throw new HttpError(409, 'nothing-to-pay-out', currency ? `There is nothing to pay out in ${currency.toUpperCase()}.` : 'There is nothing to pay out yet.');
-    }
-    let account = await trx('seller_accounts').where({ user_id: actor.userId }).first('account_id');
-    if (!account) {
-      const user = await trx('users').where({ id: actor.userId }).first('email');
-      try {
-        const created = await payments().accounts.create(
-          { type: 'express', email: user?.email, metadata: { user_id: actor.userId } },
-          { idempotencyKey: `seller-account-${actor.userId}` },
-        );
-        account = { account_id: created.id };
-      } catch (error) {
-        throw providerFailed('open your payout account', error);
-      }
-      await trx('seller_accounts').insert({ user_id: actor.userId, account_id: account.account_id }).onConflict('user_id').ignore();
-    }
-    const id = randomUUID();
-    let transferId: string;
-    try {
-      const transfer = await payments().transfers.create(
-        {
-          amount: chosen.availableCents,
-          currency: chosen.currency,
-          destination: account.account_id,
-          transfer_group: `payout-${id}`,
-          metadata: { payout_id: id, seller_id: actor.userId },
-        },
-        { idempotencyKey: `payout-${id}` },
-      );
-      transferId = transfer.id;
-    } catch (error) {
-      throw providerFailed('transfer the payout', error);
-    }
-    const [row] = await trx('payouts')
-      .insert({ id, seller_id: actor.userId, amount_cents: chosen.availableCents, currency: chosen.currency, transfer_id: transferId })
-      .returning('*');
-    return payoutOf(row);
-  });
 }

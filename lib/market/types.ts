@@ -96,11 +96,34 @@ export type SalesReport = {
   totals: SalesFigures[];
   series: (SalesFigures & { periodStart: string })[];
   listings: (SalesFigures & { listingId: string; title: string })[];
-  balance: { currency: Currency; availableCents: number }[];
+  balance: Balance[];
+  /** Days a sale is held before it can be paid out. */
+  payoutHoldDays: number;
   taxNote: string;
 };
 
-export type Payout = { id: string; amountCents: number; currency: Currency; transferId: string; createdAt: string };
+/**
+ * A seller's balance in one currency, as it is: balanceCents = clearedCents + heldCents +
+ * refundPendingCents − owedCents (negative when refunds of sales already paid out exceed the
+ * sales not paid out yet). payableCents is what a payout would transfer now.
+ */
+export type Balance = {
+  currency: Currency;
+  balanceCents: number;
+  payableCents: number;
+  /** Sales past the holding period, not paid out yet. */
+  clearedCents: number;
+  /** Sales still in the holding period; heldUntil: when the first of them clears (ISO). */
+  heldCents: number;
+  heldUntil: string | null;
+  /** Sales whose refund was asked and not yet confirmed by the provider. */
+  refundPendingCents: number;
+  /** Refunds of sales already paid out, kept back from later sales. */
+  owedCents: number;
+};
+
+/** A payout: pending from the moment its row is written until the provider's transfer is recorded. */
+export type Payout = { id: string; amountCents: number; currency: Currency; transferId: string | null; status: 'pending' | 'paid' | 'failed'; createdAt: string };
 
 export type AdminPurchase = {
   id: string;
@@ -112,6 +135,10 @@ export type AdminPurchase = {
   refundPending: boolean;
   createdAt: string;
   refundedAt: string | null;
+  /** The seller's share of the sale (price − the market's fee). */
+  sellerNetCents: number;
+  /** When the sale was paid out to the seller; a refund then leaves the seller owing their share. */
+  paidOutAt: string | null;
 };
 
 export type Licence = { id: string; slug: string; title: string; summary: string; body: string };
@@ -153,6 +180,6 @@ export type AdminPurchasesResponse = { purchases: AdminPurchase[] };
 /** POST /api/admin/purchases/[id]/refund */
 export type RefundResponse = { purchase: AdminPurchase };
 /** POST /api/admin/reconcile */
-export type ReconcileResponse = { recovered: number; checked: number };
+export type ReconcileResponse = { recovered: number; checked: number; refundsChecked: number; refundsRecovered: number };
 /** POST /api/payments/webhook */
-export type WebhookResponse = { received: true; id: string; type: string; outcome: 'handled' | 'duplicate' | 'ignored' };
+export type WebhookResponse = { received: true; id: string; type: string; outcome: 'handled' | 'duplicate' | 'ignored' | 'refused' };

@@ -6,6 +6,7 @@ import { startWorkers } from '../platform/jobs';
 import { buildListingAssets } from './assets';
 import { LISTING_ASSETS_QUEUE, marketBoss, RECONCILE_CRON, RECONCILE_QUEUE, type ListingAssetsJobData } from './jobs';
 import { reconcilePayments } from './payments/reconcile';
+import { resumePendingPayouts } from './payouts';
 
 /** Starts this process's workers for the market's queues and the reconciliation schedule (once). */
 export function startMarketWorkers(): Promise<void> {
@@ -17,6 +18,9 @@ export function startMarketWorkers(): Promise<void> {
     await boss.work(RECONCILE_QUEUE, { batchSize: 1, pollingIntervalSeconds: 5 }, async () => {
       const result = await reconcilePayments();
       if (result.recovered > 0) console.log(`[market] reconciliation recorded ${result.recovered} purchase(s) whose webhook had not arrived`);
+      if (result.refundsRecovered > 0) console.log(`[market] reconciliation recorded ${result.refundsRecovered} refund(s) whose webhook had not arrived`);
+      const payouts = await resumePendingPayouts();
+      if (payouts.resumed > 0) console.log(`[market] finished ${payouts.resumed} payout(s) left pending`);
     });
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
     // Listings whose pictures were never queued (made by the seed, or a queue that was down).

@@ -42,6 +42,8 @@ function schemaFor(defaults: Record<string, string>) {
     STRIPE_WEBHOOK_SECRET: z.string().startsWith('whsec_', 'must be a webhook signing secret (whsec_…)').default(defaults.STRIPE_WEBHOOK_SECRET),
     /** The market's share of each sale, in percent of the price (whole or decimal). */
     MARKET_PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(100).default(15),
+    /** Days a sale is held before it can be paid out (common marketplace practice; no single source sets it). */
+    MARKET_PAYOUT_HOLD_DAYS: z.coerce.number().min(0).max(365).default(14),
     /** Largest growth surface file the studio accepts, in bytes (default 200 MB). */
     SURFACE_MAX_BYTES: z.coerce.number().int().positive().default(200_000_000),
     /**

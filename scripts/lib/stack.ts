@@ -142,13 +142,20 @@ export async function startStack(profile: StackProfile) {
   const sink = await startSmtpSink({ smtpPort: ports.smtp, httpPort: ports.mailSink });
   onShutdown('the SMTP sink', sink.close);
 
+  const paymentsDirectory = join(profile.dataDir, 'payments');
+  if (profile.throwaway) await rm(paymentsDirectory, { recursive: true, force: true });
   const paymentsFake = await startPaymentsFake({
     port: ports.payments,
     secretKey: LOCAL_STRIPE_SECRET_KEY,
     webhookUrl: localWebhookUrl(ports),
     webhookSecret: LOCAL_STRIPE_WEBHOOK_SECRET,
+    // Kept across restarts (the demo's payouts need the balance of its earlier sales).
+    dataDir: paymentsDirectory,
   });
-  onShutdown('the payments fake', paymentsFake.close);
+  onShutdown('the payments fake', async () => {
+    await paymentsFake.close();
+    if (profile.throwaway) await rm(paymentsDirectory, { recursive: true, force: true });
+  });
 
   log(
     `services up: S3 ${s3.endpoint} (bucket ${LOCAL_S3.bucket}), SMTP 127.0.0.1:${ports.smtp} ` +

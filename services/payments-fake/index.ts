@@ -5,15 +5,16 @@
 // page and test cards (checkout.ts, checkout-page.ts); payment intents and charges behind them;
 // refunds (refunds.ts); connected accounts and transfers to them, and the balance
 // (transfers.ts); events, each delivered as a signed webhook to one endpoint, retried a few
-// times when the endpoint does not answer 2xx (webhooks.ts). Everything lives in memory in one
-// state object (state.ts): a restart forgets it. This file is the HTTP server: the hosted page,
+// times when the endpoint does not answer 2xx (webhooks.ts). Everything lives in one state
+// object (state.ts), kept in a JSON file when a data folder is given, so a restart remembers it
+// (each POST is written before it is answered). This file is the HTTP server: the hosted page,
 // the API key, `Idempotency-Key` replays, and the router (router.ts) for the rest.
 import { createServer, type IncomingMessage, type ServerResponse } from 'node:http';
 import { answerPayPage } from './checkout-page';
 import { FakeError } from './errors';
 import { decodeForm } from './form';
 import { answerApi, type ApiAnswer } from './router';
-import { createState, type PaymentsFakeOptions, type PaymentsFakeState } from './state';
+import { createState, saveObjects, type PaymentsFakeOptions, type PaymentsFakeState } from './state';
 
 function readBody(request: IncomingMessage): Promise<string> {
   return new Promise((resolve, reject) => {
@@ -39,6 +40,7 @@ async function handle(state: PaymentsFakeState, request: IncomingMessage, respon
   const payPage = url.pathname.match(/^\/pay\/([A-Za-z0-9_]+)$/);
   if (payPage) {
     const answer = answerPayPage(state, method, payPage[1], body);
+    if (method === 'POST') saveObjects(state);
     if ('redirect' in answer) {
       response.writeHead(303, { location: answer.redirect });
       return response.end();
@@ -65,6 +67,8 @@ async function handle(state: PaymentsFakeState, request: IncomingMessage, respon
     result = { status: error.status, body: error.body };
   }
   if (idempotencyKey && result.status < 500) state.idempotent.set(idempotencyKey, result);
+  // What the SDK was told is on disk before it is told (a GET may expire a session: kept too, lazily, with the next POST).
+  if (method === 'POST') saveObjects(state);
   return send(result.status, result.body);
 }
 
@@ -86,6 +90,7 @@ export function startPaymentsFake(options: PaymentsFakeOptions) {
         close: async () => {
           for (const timer of state.pendingTimers) clearTimeout(timer);
           state.pendingTimers.clear();
+          saveObjects(state);
           server.closeAllConnections();
           await new Promise<void>((done) => server.close(() => done()));
         },

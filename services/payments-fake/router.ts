@@ -37,7 +37,12 @@ export function answerApi(state: PaymentsFakeState, method: string, path: string
   if (resource === 'refunds') {
     if (method === 'POST' && !id) return { status: 200, body: createRefund(state, form) };
     if (method === 'GET' && id) return { status: 200, body: one(state.refunds, 'refund', id) };
-    if (method === 'GET') return { status: 200, body: listOf([...state.refunds.values()], query, '/v1/refunds') };
+    if (method === 'GET') {
+      const intent = query.get('payment_intent');
+      const created = createdFilter(query);
+      const all = [...state.refunds.values()].filter((r) => (!intent || r.payment_intent === intent) && created(r.created));
+      return { status: 200, body: listOf(all, query, '/v1/refunds') };
+    }
   }
   if (resource === 'accounts') {
     if (method === 'POST' && !id) return { status: 200, body: createAccount(state, form) };

@@ -6,7 +6,7 @@ import { randomBytes } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
 import { expect, test, type Browser, type Page } from '@playwright/test';
 import { unzipSync, strFromU8 } from 'fflate';
-import { closeDb } from '../../lib/platform/db';
+import { closeDb, db } from '../../lib/platform/db';
 import { DEMO_GROOMS, surfaceToObj } from '../../lib/groom/demo';
 import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
 import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
@@ -49,7 +49,7 @@ async function groomWithSavedVersion(page: Page, name: string) {
   return groom.id;
 }
 
-test('a preset is listed, approved, found, bought, downloaded, reviewed, counted and refunded', async ({ browser }) => {
+test('a preset is listed, approved, found, bought, downloaded, reviewed, counted, paid out and refunded', async ({ browser }) => {
   test.setTimeout(300_000);
   const token = `zq${randomBytes(4).toString('hex')}`;
   const title = `Badger ruff ${token}`;
@@ -178,10 +178,29 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   expect(csvLine).toBeDefined();
   expect(csvLine).toContain('EUR,1,19.50');
 
-  // An admin refunds it; the buyer's download is refused.
+  // The seller's share (19.50 − 15 % = 19.50 − 2.93 = 16.57 EUR) is held for 14 days after the sale.
+  const card = seller.getByTestId('balance-card');
+  await expect(card.getByTestId('balance')).toHaveText('16.57 EUR');
+  await expect(card).toContainText('paid out 14 days after the sale');
+  await expect(card.getByRole('button', { name: /Pay out/ })).toHaveCount(0);
+  // Fifteen days later (time moved through the purchase's row): "Pay out" asks before it pays.
+  await db()('purchases')
+    .whereIn('listing_id', db()('listings').where({ title }).select('id'))
+    .update({ created_at: db().raw(`now() - interval '15 days'`) });
+  await seller.reload();
+  await card.getByRole('button', { name: 'Pay out EUR…' }).click();
+  const confirm = card.getByRole('group', { name: /Confirm the payout of 16\.57 EUR/ });
+  await expect(confirm).toContainText('Transfer 16.57 EUR to your payout account now?');
+  await confirm.getByRole('button', { name: 'Yes, pay out 16.57 EUR' }).click();
+  await expect(seller.getByText('16.57 EUR is on its way to your account.')).toBeVisible();
+  await expect(seller.getByTestId('payout-history')).toContainText('16.57 EUR');
+  await expect(card.getByTestId('balance')).toHaveText('0.00 EUR');
+
+  // An admin refunds it, told first that it was paid out; the buyer's download is refused.
   await admin.goto('/admin');
   const purchase = admin.getByTestId('admin-purchase').filter({ hasText: buyerAccount.email });
   await purchase.getByRole('button', { name: 'Refund…' }).click();
+  await expect(purchase.getByTestId('paid-out-warning')).toContainText('the refund leaves the seller owing 16.57 EUR');
   await purchase.getByLabel(/Reason/).fill('Bought by mistake');
   await purchase.getByRole('button', { name: 'Refund 19.50 EUR' }).click();
   await expect(purchase).toHaveAttribute('data-status', 'refunded', { timeout: 30_000 });
@@ -194,4 +213,9 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   const refused = await buyer.request.post(`/api/library/${purchaseId}/download`);
   expect(refused.status()).toBe(403);
   expect((await refused.json()).error.code).toBe('refunded');
+
+  // The seller's balance is shown as it is: owed, to be kept back from later sales.
+  await seller.reload();
+  await expect(card.getByTestId('balance')).toHaveText('−16.57 EUR');
+  await expect(card).toContainText('You owe the market 16.57 EUR: it is settled from your later sales.');
 });

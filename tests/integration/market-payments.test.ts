@@ -49,8 +49,25 @@ describe('checkout', () => {
     const listingId = await insertListing(seller, { priceCents: 2450, currency: 'gbp' });
     const { session, paid } = await paidSession(buyer, listingId);
     expect(session).toMatchObject({ amount_total: 2450, currency: 'gbp', status: 'complete', payment_status: 'paid' });
-    expect(session.metadata).toMatchObject({ listing_id: listingId, buyer_id: buyer.userId, platform_fee_cents: String(Math.round(2450 * 0.15)) });
+    // The fee (MARKET_PLATFORM_FEE_PERCENT, 15 in tests) in whole cents, rounded half up: 24.50 × 15 % = 3.675 → 3.68.
+    expect(session.metadata).toMatchObject({ listing_id: listingId, buyer_id: buyer.userId, platform_fee_cents: '368' });
     expect(paid.location).toBe(`${process.env.NEXTAUTH_URL}/library?checkout=success&session_id=${session.id}`);
+  });
+
+  it('quotes the market’s fee in whole cents, rounded half up (worked examples at 15 %)', async () => {
+    const buyer = await makePerson('buyer', ['buyer']);
+    // price → 15 % → fee: 10.01 → 1.5015 → 1.50; 12.90 → 1.935 → 1.94; 1.00 → 0.15 → 0.15; 99.99 → 14.9985 → 15.00.
+    const examples = [
+      [1001, '150'],
+      [1290, '194'],
+      [100, '15'],
+      [9999, '1500'],
+    ] as const;
+    for (const [priceCents, fee] of examples) {
+      const checkout = await startCheckout(buyer, await insertListing(seller, { priceCents }));
+      const session = await payments().checkout.sessions.retrieve(checkout.sessionId);
+      expect({ priceCents, fee: session.metadata?.platform_fee_cents }).toEqual({ priceCents, fee });
+    }
   });
 
   it('gives the same open checkout to a second click', async () => {
@@ -86,12 +103,21 @@ describe('checkout', () => {
     const buyer = await makePerson('buyer', ['buyer']);
     const listingId = await insertListing(seller);
     const first = await paidSession(buyer, listingId);
-    // A second checkout opened behind the market's back (e.g. an old tab); the fake pays it too.
+    // A second checkout the market opened earlier (e.g. in an old tab, before the first one); the fake pays it too.
     const secondSession = await payments().checkout.sessions.create({
       mode: 'payment',
       line_items: [{ quantity: 1, price_data: { currency: 'eur', unit_amount: 1200, product_data: { name: 'again' } } }],
       metadata: { listing_id: listingId, buyer_id: buyer.userId, seller_id: seller.userId, platform_fee_cents: '180' },
       success_url: 'http://127.0.0.1/ok',
+    });
+    await db()('checkout_sessions').insert({
+      session_id: secondSession.id,
+      listing_id: listingId,
+      buyer_id: buyer.userId,
+      amount_cents: 1200,
+      currency: 'eur',
+      url: secondSession.url,
+      expires_at: new Date(secondSession.expires_at * 1000),
     });
     await payOnHostedPage(secondSession.url!, '4242424242424242');
     const events = [

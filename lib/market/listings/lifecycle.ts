@@ -118,6 +118,8 @@ export async function updateListing(actor: Actor, id: string, patch: ListingPatc
       }
       await trx('listing_packages').where({ listing_id: id }).delete();
       changes.assets_status = 'pending';
+      // A build running now sees the revision move on and builds again (lib/market/assets.ts).
+      changes.revision = trx.raw('revision + 1');
     }
     await trx('listings').where({ id }).update(changes);
     return packageChanges;
@@ -158,6 +160,10 @@ export async function decideListing(actor: Actor, id: string, decision: { approv
       const row: ListingRow | undefined = await trx('listings').where({ id }).forUpdate().first();
       if (!row) throw notFound('listing');
       const state = nextState(row.state, decision.approve ? 'approve' : 'reject');
+      // Four eyes: nobody puts their own preset on sale (or turns it down) by themselves.
+      if (row.seller_id === actor.userId) {
+        throw new HttpError(403, 'own-listing', 'This is your own listing: another admin must approve or reject it.');
+      }
       if (decision.approve && row.assets_status !== 'ready') {
         requeue = row.assets_status === 'pending';
         throw new HttpError(

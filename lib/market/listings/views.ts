@@ -175,6 +175,7 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     db()('reviews as r')
       .join('users as u', 'u.id', 'r.buyer_id')
       .where('r.listing_id', id)
+      .whereNull('r.withdrawn_at')
       .orderBy('r.updated_at', 'desc')
       .limit(50)
       .select('r.id', 'r.rating', 'r.body', 'r.created_at', 'r.updated_at', 'r.buyer_id', 'u.display_name'),

@@ -13,10 +13,17 @@ export async function adminPurchase(id: string): Promise<AdminPurchase> {
     .join('listings as l', 'l.id', 'p.listing_id')
     .join('users as b', 'b.id', 'p.buyer_id')
     .where('p.id', id)
-    .first('p.*', 'l.title', 'b.email as buyer_email', 'b.display_name as buyer_name');
+    .first('p.*', 'l.title', 'b.email as buyer_email', 'b.display_name as buyer_name', paidOutAt());
   if (!row) throw notFound('purchase');
   return adminPurchaseOf(row);
 }
+
+/** When the sale was paid out to the seller (a payout that did not fail; a pending one counts, with its start). */
+const paidOutAt = () =>
+  db().raw(
+    `(SELECT coalesce(o.completed_at, o.created_at) FROM payout_items i JOIN payouts o ON o.id = i.payout_id
+       WHERE i.purchase_id = p.id AND i.kind = 'sale' AND o.status <> 'failed' LIMIT 1) AS paid_out_at`,
+  );
 
 type AdminPurchaseRow = {
   id: string;
@@ -31,6 +38,8 @@ type AdminPurchaseRow = {
   refund_id: string | null;
   created_at: Date;
   refunded_at: Date | null;
+  platform_fee_cents: number;
+  paid_out_at: Date | null;
 };
 
 function adminPurchaseOf(row: AdminPurchaseRow): AdminPurchase {
@@ -44,6 +53,8 @@ function adminPurchaseOf(row: AdminPurchaseRow): AdminPurchase {
     refundPending: row.status === 'paid' && row.refund_id !== null,
     createdAt: row.created_at.toISOString(),
     refundedAt: row.refunded_at?.toISOString() ?? null,
+    sellerNetCents: row.amount_cents - row.platform_fee_cents,
+    paidOutAt: row.paid_out_at?.toISOString() ?? null,
   };
 }
 
@@ -54,7 +65,7 @@ export async function listPurchasesForAdmin(filter: { listingId?: string; email?
     .join('users as b', 'b.id', 'p.buyer_id')
     .orderBy('p.created_at', 'desc')
     .limit(200)
-    .select('p.*', 'l.title', 'b.email as buyer_email', 'b.display_name as buyer_name');
+    .select('p.*', 'l.title', 'b.email as buyer_email', 'b.display_name as buyer_name', paidOutAt());
   if (filter.listingId) query.where('p.listing_id', filter.listingId);
   if (filter.email) query.where('b.email', filter.email.toLowerCase());
   return (await query).map(adminPurchaseOf);

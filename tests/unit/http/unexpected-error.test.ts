@@ -27,6 +27,7 @@ describe('unexpected errors in a route handler', () => {
     vi.spyOn(console, 'error').mockImplementation(() => {});
     const error = providerFailed('refund the payment', new Error('No such charge: ch_3Pq; request req_8xK (acct_1Ab)'));
     expect(error.status).toBe(502);
-    expect(error.message).toBe('The payment provider could not refund the payment. Try again in a moment.');
+    expect(error.message).toBe('The payment provider could not refund the payment: it refused the request. Try again in a few minutes.');
+    expect(JSON.stringify({ message: error.message, extra: error.extra })).not.toMatch(/ch_3Pq|req_8xK|acct_1Ab/);
   });
 });

@@ -169,3 +169,46 @@ describe('the payments fake', () => {
     expect((await stripe.events.retrieve(completed.id)).pending_webhooks).toBe(0);
   });
 });
+
+describe('the payments fake with a data folder', () => {
+  it('remembers sessions, charges, accounts, transfers, the balance and idempotent answers across a restart', async () => {
+    const { mkdtemp, readdir, rm } = await import('node:fs/promises');
+    const { tmpdir } = await import('node:os');
+    const { join } = await import('node:path');
+    const dataDir = await mkdtemp(join(tmpdir(), 'payments-fake-'));
+    const port = await freePort();
+    const client = new Stripe(SECRET_KEY, { telemetry: false, maxNetworkRetries: 0, host: '127.0.0.1', port, protocol: 'http' });
+    try {
+      let running = await startPaymentsFake({ port, secretKey: SECRET_KEY, dataDir });
+      const session = await client.checkout.sessions.create({
+        mode: 'payment',
+        success_url: 'http://127.0.0.1/paid',
+        line_items: [{ quantity: 1, price_data: { currency: 'eur', unit_amount: 3000, product_data: { name: 'Kept coat' } } }],
+      });
+      expect((await fetch(session.url!, { method: 'POST', body: new URLSearchParams({ card: '4242424242424242', expiry: '12/34', cvc: '123' }), redirect: 'manual' })).status).toBe(303);
+      const account = await client.accounts.create({ type: 'express' });
+      const transfer = await client.transfers.create({ amount: 1000, currency: 'eur', destination: account.id }, { idempotencyKey: 'kept-payout' });
+      const before = await client.balance.retrieve();
+      await running.close();
+
+      running = await startPaymentsFake({ port, secretKey: SECRET_KEY, dataDir });
+      try {
+        expect(await client.checkout.sessions.retrieve(session.id)).toMatchObject({ status: 'complete', payment_status: 'paid', amount_total: 3000 });
+        expect((await client.balance.retrieve()).available).toEqual(before.available);
+        expect((await client.transfers.list({ destination: account.id })).data.map((t) => t.id)).toEqual([transfer.id]);
+        // The same payout asked again after the restart gets the same transfer, not a second one.
+        const again = await client.transfers.create({ amount: 1000, currency: 'eur', destination: account.id }, { idempotencyKey: 'kept-payout' });
+        expect(again.id).toBe(transfer.id);
+        // And new work goes on from there: the rest of the balance can be paid.
+        expect((await client.transfers.create({ amount: 2000, currency: 'eur', destination: account.id })).amount).toBe(2000);
+        expect((await client.balance.retrieve()).available).toEqual([{ amount: 0, currency: 'eur', source_types: { card: 0 } }]);
+      } finally {
+        await running.close();
+      }
+      // Written whole and renamed into place: no temporary file is left behind.
+      expect(await readdir(dataDir)).toEqual(['state.json']);
+    } finally {
+      await rm(dataDir, { recursive: true, force: true });
+    }
+  });
+});

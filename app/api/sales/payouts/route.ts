@@ -1,7 +1,7 @@
 // POST { currency? }: pays the seller's available balance (in one currency) to their account
 // through the payment provider's transfers. GET: the payout history, newest first.
 import { handler, jsonData, readBody } from '@/lib/http/server';
-import { listPayouts, requestPayout } from '@/lib/market/sales';
+import { listPayouts, requestPayout } from '@/lib/market/payouts';
 import type { PayoutResponse, PayoutsResponse } from '@/lib/market/types';
 import { payoutSchema } from '@/lib/market/validation';
 
