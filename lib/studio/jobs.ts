@@ -1,7 +1,7 @@
 // The studio's background work on the process's job queue (lib/platform/jobs.ts): exports, thumbnails,
 // and the hourly sweep of abandoned uploads; its workers are in lib/studio/workers.ts.
 import type PgBoss from 'pg-boss';
-import { jobQueue } from '../platform/jobs';
+import { expiryOf, jobQueue, type JobBudget } from '../platform/jobs';
 
 export const EXPORT_QUEUE = 'studio-export';
 export const THUMBNAIL_QUEUE = 'studio-thumbnail';
@@ -13,11 +13,20 @@ export type ExportJobData = { exportId: string };
 /** Without `versionId`, the groom's saved spec is rendered; with it, that version's spec. */
 export type ThumbnailJobData = { groomId: string; versionId?: string };
 
+/**
+ * Time and memory each heavy job may use (the worker runs it in a child process and stops it
+ * past either). The heaviest spec the groom spec allows (lib/groom/README.md, "Budgets") grows
+ * and writes in well under both on one core; the memory is what that spec's typed arrays, the
+ * surface and the written file need, with Node's own ~100 MB on top.
+ */
+export const EXPORT_BUDGET: JobBudget = { seconds: 10 * 60, memoryMb: 1536 };
+export const THUMBNAIL_BUDGET: JobBudget = { seconds: 3 * 60, memoryMb: 768 };
+
 // A job is only tried again when its worker vanished (the job expired): the handlers record every
 // failure they meet on the export itself and end the job.
 const STUDIO_QUEUES: PgBoss.Queue[] = [
-  { name: EXPORT_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: 30 * 60 },
-  { name: THUMBNAIL_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: 10 * 60 },
+  { name: EXPORT_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: expiryOf(EXPORT_BUDGET) },
+  { name: THUMBNAIL_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: expiryOf(THUMBNAIL_BUDGET) },
   { name: UPLOAD_SWEEP_QUEUE, retryLimit: 0, expireInSeconds: 10 * 60 },
 ];
 

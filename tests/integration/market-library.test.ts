@@ -10,7 +10,7 @@ import { HttpError } from '@/lib/http/errors';
 import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { enqueueListingAssets } from '@/lib/market/jobs';
-import { startMarketWorkers } from '@/lib/market/workers';
+import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import { listLibrary, requestDownload } from '@/lib/market/library';
 import { decideListing, getListingDetail, submitListing, updateListing } from '@/lib/market/listings';
 import { refundPurchase } from '@/lib/market/payments/refunds';
@@ -19,7 +19,10 @@ import { listPayouts, requestPayout, salesCsv, salesReport } from '@/lib/market/
 import { mailTo } from './helpers';
 import { deliver, eventsAbout, insertListing, makePerson, payOnHostedPage, ringSurfaceKey, waitFor } from './market-helpers';
 
+let worker: JobsWorkerProcess;
+
 afterAll(async () => {
+  await worker?.stop();
   await stopJobs();
   await closeDb();
 });
@@ -49,9 +52,9 @@ let listingId: string;
 beforeAll(async () => {
   seller = await makePerson('library-seller', ['groomer']);
   admin = await makePerson('library-admin', ['admin']);
-  // A draft made from the demo ring, its pictures and package made by the job's worker, started
-  // here as the server starts it (instrumentation.ts).
-  await startMarketWorkers();
+  // A draft made from the demo ring, its pictures and package made by a job-worker process,
+  // started here as the test stack starts it.
+  worker = await startJobsWorkerProcess();
   listingId = await insertListing(
     seller,
     { title: 'Loop plush nap', state: 'draft', assetsStatus: 'pending', guideCount: null, formats: ['usda', 'usda-bspline', 'glb', 'obj', 'json', 'ply'], priceCents: 2000, licence: 'studio' },
