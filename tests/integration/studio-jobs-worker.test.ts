@@ -7,6 +7,7 @@ import { readFile } from 'node:fs/promises';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { stopJobs } from '@/lib/platform/jobs';
+import { MAX_GUIDE_POINTS } from '@/lib/groom';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
@@ -63,7 +64,7 @@ describe('the heaviest export the budget allows', () => {
     groomId = (await expectJson(created, 201)).data.groom.id;
     // 250,000 guides × 16 points: exactly the budget (lib/groom/README.md, "Budgets").
     const { density: _density, ...guides } = cat.spec.guides as Record<string, unknown>;
-    const spec = { ...cat.spec, guides: { ...guides, count: 250_000, pointsPerGuide: 16 } };
+    const spec = { ...cat.spec, guides: { ...guides, count: MAX_GUIDE_POINTS / 16, pointsPerGuide: 16 } };
     await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${groomId}/spec`, { cookie: groomer.cookie, body: { spec, baseRevision: 1 }, params: { groomId } }), 200);
   });
 
