@@ -3,7 +3,8 @@
 // no jobs; `npm run demo`, `npm run dev` and `npm test` start one of these beside the app
 // (WORKERS / TEST_WORKERS start more), and any number on any number of machines share the queues:
 //   node --import tsx services/jobs-worker.ts        (DATABASE_URL and S3_* as for the app)
-// Heavy jobs run in a child process each, within their time and memory budgets (services/jobs/sandbox.ts).
+// Heavy jobs run in a child process per queue, each job within its time and memory budgets
+// (services/jobs/sandbox.ts).
 // SIGTERM or SIGINT drains: no new jobs are taken, a running job gets WHORLWIND_DRAIN_SECONDS
 // (default 6, under the scripts' 10 s before they kill) to finish, is then stopped and marked
 // failed with a message saying so, and the process exits 0.
@@ -12,7 +13,7 @@ import type PgBoss from 'pg-boss';
 import { closeDb } from '../lib/platform/db';
 import { stopJobs, type JobKind } from '../lib/platform/jobs';
 import { AREAS } from './jobs/areas';
-import { effectiveBudget, runInChild } from './jobs/sandbox';
+import { effectiveBudget, releaseChildren, runInChild } from './jobs/sandbox';
 import { JOBS_WORKER_READY } from './jobs/ready';
 
 const DEFAULT_DRAIN_SECONDS = 6;
@@ -65,6 +66,7 @@ export async function drainWorker(worker: Worker, graceSeconds: number): Promise
   const grace = setTimeout(() => worker.stopNow.abort(), graceSeconds * 1000);
   await settled;
   clearTimeout(grace);
+  await releaseChildren();
   await stopJobs(5_000);
 }
 

@@ -1,20 +1,23 @@
-// Runs one heavy job in a child process (services/jobs/child.ts) and stops it past its budget:
-// time by a timer, memory by V8's heap limit (--max-old-space-size) and by the child's resident
-// size, read from /proc (lib/field and lib/groom keep their data in typed arrays, which live
-// outside the heap the flag limits). The web server never runs this: only job-worker processes.
-import { spawn } from 'node:child_process';
+// Runs heavy jobs in a child process per queue (services/jobs/child.ts) and stops a job past its
+// budget: time by a timer, memory by V8's heap limit (--max-old-space-size) and by the child's
+// resident size, read from /proc (lib/field and lib/groom keep their data in typed arrays, which
+// live outside the heap the flag limits). A child stopped that way is replaced at the next job.
+// The web server never runs this: only job-worker processes.
+import { fork, type ChildProcess } from 'node:child_process';
 import { readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import type { JobBudget, JobKind } from '../../lib/platform/jobs';
+import type { JobMessage, JobReply } from './child';
 
 const CHILD = fileURLToPath(new URL('./child.ts', import.meta.url));
-/** How often the child's resident size is read. */
+/** How often the child's resident size is read while a job runs. */
 const MEMORY_SAMPLE_MS = 100;
 const PAGE_BYTES = 4096;
+/** A child left larger than this share of its budget after a job is replaced, so the next job starts with the budget free. */
+const RECYCLE_SHARE = 0.5;
 
-export type ChildOutcome =
-  | { ok: true }
-  | { ok: false; reason: 'time' | 'memory' | 'stopped' | 'crashed'; message: string };
+export type FailureReason = 'time' | 'memory' | 'stopped' | 'crashed';
+export type ChildOutcome = { ok: true } | { ok: false; reason: FailureReason; message: string };
 
 /** Budgets from the code, or the same for every kind from WHORLWIND_JOB_SECONDS / WHORLWIND_JOB_MEMORY_MB (small machines, tests). */
 export function effectiveBudget(budget: JobBudget, environment: NodeJS.ProcessEnv = process.env): JobBudget {
@@ -28,15 +31,15 @@ export function effectiveBudget(budget: JobBudget, environment: NodeJS.ProcessEn
 
 const LIGHTER = 'Fewer guides or fewer points per guide make it lighter.';
 
-function describeMinutes(seconds: number): string {
+function describeDuration(seconds: number): string {
   return seconds >= 120 ? `${Math.round(seconds / 60)} minutes` : `${seconds} seconds`;
 }
 
 /** The messages a groomer or seller reads on the failed row. */
-export function outcomeMessage(what: string, reason: Exclude<ChildOutcome, { ok: true }>['reason'], budget: JobBudget): string {
+export function outcomeMessage(what: string, reason: FailureReason, budget: JobBudget): string {
   switch (reason) {
     case 'time':
-      return `${what} took longer than the ${describeMinutes(budget.seconds)} a job may run, so it was stopped. ${LIGHTER}`;
+      return `${what} took longer than the ${describeDuration(budget.seconds)} a job may run, so it was stopped. ${LIGHTER}`;
     case 'memory':
       return `${what} needed more than the ${budget.memoryMb} MB of memory a job may use, so it was stopped. ${LIGHTER}`;
     case 'stopped':
@@ -55,30 +58,53 @@ async function residentBytes(pid: number): Promise<number | null> {
   }
 }
 
+type Slot = { child: ChildProcess; stderrTail: string; exited: Promise<void> };
+const slots = new Map<string, Slot>();
+let nextJob = 1;
+
+function childFor(kind: JobKind, budget: JobBudget): Slot {
+  const existing = slots.get(kind.queue);
+  if (existing && existing.child.exitCode === null && existing.child.signalCode === null && existing.child.connected) return existing;
+  const child = fork(CHILD, [kind.queue], {
+    execArgv: ['--import', 'tsx', `--max-old-space-size=${budget.memoryMb}`],
+    env: process.env,
+    stdio: ['ignore', 'inherit', 'pipe', 'ipc'],
+  });
+  const slot: Slot = { child, stderrTail: '', exited: new Promise((resolve) => child.once('exit', () => resolve())) };
+  child.stderr?.on('data', (chunk: Buffer) => {
+    process.stderr.write(chunk);
+    slot.stderrTail = (slot.stderrTail + chunk.toString('utf8')).slice(-4000);
+  });
+  child.on('error', () => {}); // reported through 'exit'
+  slots.set(kind.queue, slot);
+  void slot.exited.then(() => {
+    if (slots.get(kind.queue) === slot) slots.delete(kind.queue);
+  });
+  return slot;
+}
+
+/** Lets go of every idle child (the worker is stopping); each ends when it sees the channel close. */
+export async function releaseChildren(): Promise<void> {
+  const all = [...slots.values()];
+  for (const { child } of all) if (child.connected) child.disconnect();
+  await Promise.all(all.map((slot) => slot.exited));
+}
+
 /**
- * Runs the job in a child and resolves when the child has ended. `stop` (the worker draining)
- * ends the child at once; the job is then reported 'stopped'.
+ * Runs one job in its queue's child and resolves when the job has ended. `stop` (the worker
+ * draining) ends the child at once; the job is then reported 'stopped'.
  */
 export function runInChild(kind: JobKind, data: unknown, budget: JobBudget, stop: AbortSignal): Promise<ChildOutcome> {
+  const slot = childFor(kind, budget);
+  const { child } = slot;
+  const job = nextJob++;
   return new Promise((resolve) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', `--max-old-space-size=${budget.memoryMb}`, CHILD, kind.queue], {
-      env: process.env,
-      stdio: ['pipe', 'inherit', 'pipe'],
-    });
-    let stderrTail = '';
-    let ended: 'time' | 'memory' | 'stopped' | null = null;
+    let killedFor: 'time' | 'memory' | 'stopped' | null = null;
     const kill = (reason: 'time' | 'memory' | 'stopped') => {
-      if (ended || child.exitCode !== null) return;
-      ended = reason;
+      if (killedFor || child.exitCode !== null) return;
+      killedFor = reason;
       child.kill('SIGKILL');
     };
-    child.stderr.on('data', (chunk: Buffer) => {
-      process.stderr.write(chunk);
-      stderrTail = (stderrTail + chunk.toString('utf8')).slice(-4000);
-    });
-    child.stdin.on('error', () => {}); // a child that dies before reading its data
-    child.stdin.end(JSON.stringify(data ?? null));
-
     const timer = setTimeout(() => kill('time'), budget.seconds * 1000);
     let sampling = false;
     const sampler = setInterval(async () => {
@@ -89,21 +115,38 @@ export function runInChild(kind: JobKind, data: unknown, budget: JobBudget, stop
       if (bytes !== null && bytes > budget.memoryMb * 1024 * 1024) kill('memory');
     }, MEMORY_SAMPLE_MS);
     const onStop = () => kill('stopped');
-    if (stop.aborted) onStop();
-    else stop.addEventListener('abort', onStop, { once: true });
 
+    let settled = false;
     const finish = (outcome: ChildOutcome) => {
+      if (settled) return;
+      settled = true;
       clearTimeout(timer);
       clearInterval(sampler);
       stop.removeEventListener('abort', onStop);
+      child.off('message', onReply);
+      child.off('exit', onExit);
       resolve(outcome);
     };
-    child.on('error', () => finish({ ok: false, reason: 'crashed', message: outcomeMessage(kind.what, 'crashed', budget) }));
-    child.on('exit', (code) => {
-      if (code === 0 && !ended) return finish({ ok: true });
+    const onReply = async (reply: JobReply) => {
+      if (reply.job !== job) return;
+      const resident = child.pid === undefined ? null : await residentBytes(child.pid);
+      if (resident !== null && resident > RECYCLE_SHARE * budget.memoryMb * 1024 * 1024 && child.connected) child.disconnect();
+      finish(reply.ok ? { ok: true } : { ok: false, reason: 'crashed', message: outcomeMessage(kind.what, 'crashed', budget) });
+    };
+    const onExit = () => {
       // V8 aborts with this line when the heap limit is reached.
-      const reason = ended ?? (/heap out of memory|Allocation failed/i.test(stderrTail) ? 'memory' : 'crashed');
+      const reason: FailureReason = killedFor ?? (/heap out of memory|Allocation failed/i.test(slot.stderrTail) ? 'memory' : 'crashed');
       finish({ ok: false, reason, message: outcomeMessage(kind.what, reason, budget) });
+    };
+    child.on('message', onReply);
+    child.once('exit', onExit);
+    if (stop.aborted) onStop();
+    else stop.addEventListener('abort', onStop, { once: true });
+    child.send({ job, data: data ?? null } satisfies JobMessage, (error) => {
+      // The child died before taking the job: reported as a crash by its exit.
+      if (!error) return;
+      if (child.exitCode !== null || child.signalCode !== null) onExit();
+      else child.kill('SIGKILL');
     });
   });
 }
