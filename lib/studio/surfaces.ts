@@ -1,13 +1,14 @@
 // Growth surfaces: a presigned upload straight to object storage, then registration — the file is
-// read back, checked by lib/field, measured, and given a thumbnail — or rejected with its problems
-// and removed. A groomer only ever sees their own surfaces.
+// copied to a key of its own (no upload URL names it, so a still-valid upload URL cannot swap the
+// checked file), read back, checked by lib/field, measured, and given a thumbnail — or rejected
+// with its problems and removed. A groomer only ever sees their own surfaces.
 import { randomUUID } from 'node:crypto';
 import { checkSurfaceFile, type ComponentFacts, type Problem, type TriangleMesh } from '../field';
 import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
 import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
-import { getObjectBytes, putObject } from '../platform/storage';
+import { copyObject, getObjectBytes, putObject } from '../platform/storage';
 import type { SurfaceDetail, SurfaceFileFormat, SurfaceSummary, SurfaceUnits, UploadTicket } from './types';
 import { SURFACE_FORMATS } from './types';
 import { HttpError } from '../http/errors';
@@ -150,14 +151,22 @@ export async function registerSurface(groomer: Groomer, input: { uploadId: strin
   const upload: UploadRow | undefined = await db()('surface_uploads').where({ id: input.uploadId, owner_id: groomer.userId }).first();
   if (!upload) throw notFound('upload');
 
-  const storedSize = await storedObjectSize(upload.object_key);
-  if (storedSize === null) {
+  if ((await storedObjectSize(upload.object_key)) === null) {
     throw new HttpError(409, 'upload-missing', `Nothing has been uploaded for ${upload.file_name} yet: send the file to its upload URL first.`);
   }
+  // From here on only the copy is read: whatever is PUT to the upload URL later is never used.
+  const surfaceId = randomUUID();
+  const objectKey = `surfaces/${groomer.userId}/${surfaceId}/${keySafe(upload.file_name)}`;
+  await copyObject(upload.object_key, objectKey);
+  const refuse = async (problems: readonly Problem[]) => {
+    await deleteOrphanedObjects([objectKey]);
+    await discardUpload(upload);
+    return rejection(upload.file_name, problems);
+  };
+  const storedSize = (await storedObjectSize(objectKey)) ?? 0;
   const maxBytes = env().SURFACE_MAX_BYTES;
   if (storedSize > maxBytes) {
-    await discardUpload(upload);
-    throw rejection(upload.file_name, [
+    throw await refuse([
       {
         code: 'file-too-large',
         severity: 'error',
@@ -169,23 +178,19 @@ export async function registerSurface(groomer: Groomer, input: { uploadId: strin
     ]);
   }
 
-  const { read, report } = checkSurfaceFile(await getObjectBytes(upload.object_key), upload.file_name);
-  if (!report.ok || !read || !report.facts?.components) {
-    await discardUpload(upload);
-    throw rejection(upload.file_name, report.problems);
-  }
+  const { read, report } = checkSurfaceFile(await getObjectBytes(objectKey), upload.file_name);
+  if (!report.ok || !read || !report.facts?.components) throw await refuse(report.problems);
 
   const facts = report.facts;
-  const folder = upload.object_key.slice(0, upload.object_key.lastIndexOf('/'));
-  const thumbnailKey = await storeSurfaceThumbnail(read.mesh, folder);
+  const thumbnailKey = await storeSurfaceThumbnail(read.mesh, `surfaces/${groomer.userId}/${surfaceId}`);
   const row = {
-    id: randomUUID(),
+    id: surfaceId,
     owner_id: groomer.userId,
     name: input.name,
     file_name: upload.file_name,
     format: read.format,
     units: input.units,
-    object_key: upload.object_key,
+    object_key: objectKey,
     byte_size: storedSize,
     vertex_count: facts.vertexCount,
     face_count: facts.faceCount,
@@ -209,9 +214,12 @@ export async function registerSurface(groomer: Groomer, input: { uploadId: strin
       return inserted;
     });
   } catch (error) {
-    await deleteOrphanedObjects([thumbnailKey]);
+    await deleteOrphanedObjects([thumbnailKey, objectKey]);
     throw error;
   }
+  // The upload's own object is not needed any more (a later PUT to its URL makes an object no
+  // row names, which is all it can do).
+  await deleteOrphanedObjects([upload.object_key]);
   rememberSurfaceMesh({ id: stored.id, objectKey: stored.object_key, fileName: stored.file_name }, read.mesh);
   return surfaceSummary(stored);
 }
