@@ -5,6 +5,7 @@ import type { FieldErrors } from './field-errors';
 /** Every error code a route handler may answer with, the accounts', the studio's and the market's. */
 export type ApiErrorCode =
   | 'invalid-input'
+  | 'too-large'
   | 'not-signed-in'
   | 'forbidden'
   | 'not-found'

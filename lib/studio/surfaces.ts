@@ -178,6 +178,21 @@ export async function registerSurface(groomer: Groomer, input: { uploadId: strin
     ]);
   }
 
+  // The upload URL signs the declared length, which a store that checks signatures (S3) enforces;
+  // this check holds with any store (the local stand-in does not verify signed headers).
+  const declared = Number(upload.byte_size);
+  if (storedSize !== declared) {
+    throw await refuse([
+      {
+        code: 'size-mismatch',
+        severity: 'error',
+        message: `The stored file is ${storedSize.toLocaleString('en-US')} bytes, but ${declared.toLocaleString('en-US')} were declared when the upload began. Upload the file again.`,
+        count: 1,
+        examples: [],
+        where: 'file',
+      },
+    ]);
+  }
   const { read, report } = checkSurfaceFile(await getObjectBytes(objectKey), upload.file_name);
   if (!report.ok || !read || !report.facts?.components) throw await refuse(report.problems);
 
