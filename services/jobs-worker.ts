@@ -22,7 +22,17 @@ function log(message: string) {
   console.log(`[jobs-worker] ${message}`);
 }
 
-type Worker = { boss: PgBoss; queues: string[]; running: Set<Promise<void>>; stopNow: AbortController };
+type Worker = {
+  boss: PgBoss;
+  queues: string[];
+  /** One loop per queue; each ends when the worker drains. */
+  loops: Promise<void>[];
+  running: Set<Promise<void>>;
+  /** Aborted when the worker drains: loops stop taking jobs. */
+  draining: AbortController;
+  /** Aborted when the drain's grace is over: running heavy jobs are stopped. */
+  stopNow: AbortController;
+};
 
 async function handle(worker: Worker, kind: JobKind, job: PgBoss.Job<unknown>): Promise<void> {
   if (!kind.budget) {
@@ -36,35 +46,77 @@ async function handle(worker: Worker, kind: JobKind, job: PgBoss.Job<unknown>): 
   await kind.fail?.(job.data as never, outcome.message);
 }
 
+/** Waits `ms`, or less when the signal aborts. */
+function pause(ms: number, signal: AbortSignal): Promise<void> {
+  return new Promise((resolve) => {
+    const timer = setTimeout(done, ms);
+    function done() {
+      clearTimeout(timer);
+      signal.removeEventListener('abort', done);
+      resolve();
+    }
+    signal.addEventListener('abort', done, { once: true });
+  });
+}
+
+/**
+ * Takes a queue's jobs one at a time, the next as soon as one ends, and looks again after
+ * `pollingSeconds` only when the queue is empty. (pg-boss's own `work` waits its polling interval
+ * after every job, which caps a queue at one job a second per worker.) Each job is completed or
+ * failed here, awaited, so a drain never leaves a finished job active.
+ */
+async function workQueue(worker: Worker, kind: JobKind): Promise<void> {
+  const { boss, draining } = worker;
+  while (!draining.signal.aborted) {
+    let job: PgBoss.Job<unknown> | undefined;
+    try {
+      [job] = await boss.fetch<unknown>(kind.queue, { batchSize: 1 });
+    } catch (error) {
+      console.error(`[jobs-worker] ${kind.queue}: could not fetch a job: ${(error as Error).message}`);
+    }
+    if (!job) {
+      await pause(kind.pollingSeconds * 1000, draining.signal);
+      continue;
+    }
+    const run = handle(worker, kind, job);
+    worker.running.add(run);
+    try {
+      await run;
+      await boss.complete(kind.queue, job.id);
+    } catch (error) {
+      console.error(`[jobs-worker] ${kind.queue} job ${job.id} failed:`, error);
+      await boss.fail(kind.queue, job.id, { message: (error as Error).message }).catch(() => {});
+    } finally {
+      worker.running.delete(run);
+    }
+  }
+}
+
 /** Starts working on every queue; resolves once the worker takes jobs. */
 export async function startWorker(): Promise<Worker> {
-  const worker: Worker = { boss: undefined as unknown as PgBoss, queues: [], running: new Set(), stopNow: new AbortController() };
+  const worker: Worker = {
+    boss: undefined as unknown as PgBoss,
+    queues: [],
+    loops: [],
+    running: new Set(),
+    draining: new AbortController(),
+    stopNow: new AbortController(),
+  };
   for (const area of AREAS) {
     const boss = await area.boss();
     worker.boss = boss;
-    for (const kind of area.kinds) {
-      await boss.work(kind.queue, { batchSize: 1, pollingIntervalSeconds: kind.pollingSeconds }, async ([job]) => {
-        const run = handle(worker, kind, job);
-        worker.running.add(run);
-        try {
-          await run;
-        } finally {
-          worker.running.delete(run);
-        }
-      });
-      worker.queues.push(kind.queue);
-    }
     await area.onStart?.(boss);
   }
+  for (const area of AREAS) for (const kind of area.kinds) worker.queues.push(kind.queue);
+  for (const area of AREAS) for (const kind of area.kinds) worker.loops.push(workQueue(worker, kind));
   return worker;
 }
 
 /** Stops taking jobs, gives the running ones `graceSeconds`, stops what is left (marked failed), and stops the queue. */
 export async function drainWorker(worker: Worker, graceSeconds: number): Promise<void> {
-  for (const queue of worker.queues) await worker.boss.offWork(queue);
-  const settled = Promise.allSettled([...worker.running]);
+  worker.draining.abort();
   const grace = setTimeout(() => worker.stopNow.abort(), graceSeconds * 1000);
-  await settled;
+  await Promise.allSettled(worker.loops);
   clearTimeout(grace);
   await releaseChildren();
   await stopJobs(5_000);
@@ -72,8 +124,6 @@ export async function drainWorker(worker: Worker, graceSeconds: number): Promise
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const drainSeconds = Number(process.env.WHORLWIND_DRAIN_SECONDS ?? DEFAULT_DRAIN_SECONDS);
-  // pg-boss completes a job without waiting; a completion cut short by the stop is logged, not fatal.
-  process.on('unhandledRejection', (error) => console.error('[jobs-worker] unhandled:', error));
   const worker = await startWorker();
   log(`${JOBS_WORKER_READY}: working on ${worker.queues.join(', ')} (pid ${process.pid}); SIGTERM drains and stops`);
   let stopping = false;

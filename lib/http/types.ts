@@ -20,6 +20,7 @@ export type ApiErrorCode =
   | 'upload-missing'
   | 'surface-rejected'
   | 'surface-in-use'
+  | 'surface-not-ready'
   | 'invalid-spec'
   | 'stale-revision'
   // market

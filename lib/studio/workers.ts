@@ -1,13 +1,23 @@
-// The studio's jobs as a job-worker process (services/jobs-worker.ts) runs them: exports and
-// thumbnails are heavy (each in a child process with a time and memory budget, one at a time per
+// The studio's jobs as a job-worker process (services/jobs-worker.ts) runs them: surface checks,
+// exports and thumbnails are heavy (each in a child process with a time and memory budget, one at a time per
 // queue and worker), the hourly sweep of abandoned uploads is light.
 import type { AreaJobs, JobKind } from '../platform/jobs';
 import { db } from '../platform/db';
-import type { ExportJobData, ThumbnailJobData } from './jobs';
-import { EXPORT_BUDGET, EXPORT_QUEUE, studioBoss, THUMBNAIL_BUDGET, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
+import type { ExportJobData, SurfaceCheckJobData, ThumbnailJobData } from './jobs';
+import { EXPORT_BUDGET, EXPORT_QUEUE, studioBoss, SURFACE_CHECK_BUDGET, SURFACE_CHECK_QUEUE, THUMBNAIL_BUDGET, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
 import { runExport } from './exports';
 import { sweepAbandonedUploads } from './surfaces';
 import { renderGroomThumbnail } from './thumbnails';
+import { checkRegisteredSurface, refuseSurface } from './surface-check';
+
+const surfaceCheckKind: JobKind<SurfaceCheckJobData> = {
+  queue: SURFACE_CHECK_QUEUE,
+  what: 'The check of the surface',
+  pollingSeconds: 1,
+  budget: SURFACE_CHECK_BUDGET,
+  run: checkRegisteredSurface,
+  fail: ({ surfaceId }, message) => refuseSurface(surfaceId, [{ code: 'check-stopped', severity: 'error', message, count: 1, examples: [], where: 'file' }]),
+};
 
 const exportKind: JobKind<ExportJobData> = {
   queue: EXPORT_QUEUE,
@@ -46,7 +56,7 @@ const sweepKind: JobKind<unknown> = {
 export const STUDIO_JOBS: AreaJobs = {
   area: 'studio',
   boss: studioBoss,
-  kinds: [exportKind, thumbnailKind, sweepKind],
+  kinds: [surfaceCheckKind, exportKind, thumbnailKind, sweepKind],
   // One schedule for all processes: pg-boss keeps it by queue name and sends each slot once.
   onStart: async (boss) => {
     await boss.schedule(UPLOAD_SWEEP_QUEUE, UPLOAD_SWEEP_CRON);

@@ -72,7 +72,10 @@ test('growth surfaces: an upload with progress and the limit shown; a refused fi
   await page.waitForTimeout(1000);
   const stats = await pixelStats(await view.screenshot(), STAGE_BACKGROUND);
   expect(stats.differingShare).toBeGreaterThan(0.01);
-  await expect(page.getByTestId('surface-card').filter({ hasText: 'misoriented' })).toHaveCount(0);
+  // The list keeps the refused surface with its reason (checked by a job), and offers no groom on it.
+  const refusedCard = page.getByTestId('surface-card').filter({ hasText: 'misoriented' });
+  await expect(refusedCard.getByTestId('surface-refused')).toContainText(/Refused: .*orient/i);
+  await expect(refusedCard.getByRole('button', { name: /Start a groom/ })).toHaveCount(0);
 });
 
 test('grooms: start one on a surface, rename, duplicate and delete it with a confirmation', async ({ page }) => {

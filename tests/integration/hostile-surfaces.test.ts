@@ -1,12 +1,16 @@
 // Hostile files through the upload API (issue 11): 225 generated bad meshes (tests/fixtures/
 // hostile-meshes.ts: truncated, lying headers, huge counts, NaN/Inf, non-manifold, zip-bomb-like
 // glTF buffers, deep and cyclic node graphs, garbage) are uploaded and registered as a groomer
-// would: each is refused with 422 and a reason in words, nothing of it is kept, and the memory of
-// the process that checks them stays bounded.
-import { callRoute, expectJson, signedInAccount, uploadFile, type TestAccount } from './studio-helpers';
+// would and checked by the check job's function: each surface ends refused with a reason in words,
+// none of the files is kept, and the memory of the process that checks them stays bounded.
+// (That a crashing or over-budget check is marked refused is studio-jobs-worker.test.ts's.)
+import { registerAndCheck, signedInAccount, type TestAccount } from './studio-helpers';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
-import * as surfacesRoute from '@/app/api/studio/surfaces/route';
+import type { UncheckedSurface } from '@/lib/studio/types';
+import { ListObjectsV2Command } from '@aws-sdk/client-s3';
+import { env } from '@/lib/platform/env';
+import { storageClient } from '@/lib/platform/storage';
 import { hostileMeshes } from '@/tests/fixtures/hostile-meshes';
 
 /** Growth of this process's resident size over the run that counts as bounded. */
@@ -29,15 +33,12 @@ describe('hostile growth surfaces', () => {
     const reasons = new Map<string, Map<string, number>>();
     const accepted: string[] = [];
     for (const file of files) {
-      const ticket = await uploadFile(groomer, file.fileName, file.bytes);
-      const response = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: groomer.cookie, body: { uploadId: ticket.uploadId, name: file.fileName, units: 'cm' } });
-      if (response.status !== 422) {
-        accepted.push(`${file.category}: ${file.fileName} answered ${response.status}`);
+      const surface = await registerAndCheck(groomer, file.fileName, file.bytes, file.fileName);
+      if (surface.state !== 'refused') {
+        accepted.push(`${file.category}: ${file.fileName} ended ${surface.state}`);
         continue;
       }
-      const { error } = await expectJson(response, 422);
-      expect(error.code, file.fileName).toBe('surface-rejected');
-      const errors = (error.details.problems as { code: string; severity: string; message: string }[]).filter((problem) => problem.severity === 'error');
+      const errors = (surface as UncheckedSurface).problems.filter((problem) => problem.severity === 'error');
       expect(errors.length, file.fileName).toBeGreaterThan(0);
       for (const problem of errors) expect(problem.message.length, `${file.fileName}: ${problem.code}`).toBeGreaterThan(20);
       const byCode = reasons.get(file.category) ?? new Map<string, number>();
@@ -46,9 +47,11 @@ describe('hostile growth surfaces', () => {
       peak = Math.max(peak, process.memoryUsage().rss);
     }
     expect(accepted).toEqual([]);
-    // Nothing of a refused file is kept: no surface, no upload record.
-    expect(await db()('growth_surfaces').where({ owner_id: groomer.userId })).toHaveLength(0);
+    // Nothing of a refused file is kept: every surface refused, no upload record, no object.
+    expect(await db()('growth_surfaces').where({ owner_id: groomer.userId }).whereNot({ state: 'refused' })).toHaveLength(0);
     expect(await db()('surface_uploads').where({ owner_id: groomer.userId })).toHaveLength(0);
+    const listing = await storageClient().send(new ListObjectsV2Command({ Bucket: env().S3_BUCKET, Prefix: `surfaces/${groomer.userId}/` }));
+    expect(listing.Contents ?? []).toEqual([]);
     const grownMb = (peak - baseline) / 2 ** 20;
     console.log(`[hostile] ${files.length} files refused; resident size grew at most ${grownMb.toFixed(0)} MB`);
     for (const [category, byCode] of reasons) console.log(`[hostile]   ${category.padEnd(13)} ${[...byCode].map(([code, n]) => `${code} ×${n}`).join(', ')}`);

@@ -15,7 +15,7 @@ import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
 import * as versionsRoute from '@/app/api/studio/grooms/[groomId]/versions/route';
 import * as restoreRoute from '@/app/api/studio/grooms/[groomId]/versions/[versionId]/restore/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
-import type { GroomDetail, GroomSummary, SurfaceSummary, Version } from '@/lib/studio/types';
+import type { GroomDetail, GroomSummary, ReadySurface, Version } from '@/lib/studio/types';
 
 const [fox, , ring] = DEMO_GROOMS;
 const foxObj = new TextEncoder().encode(surfaceToObj(fox.surface(), 'fox head'));
@@ -25,7 +25,7 @@ let worker: JobsWorkerProcess;
 let wren: TestAccount;
 let rival: TestAccount;
 let buyer: TestAccount;
-let foxSurface: SurfaceSummary;
+let foxSurface: ReadySurface;
 
 beforeAll(async () => {
   worker = await startJobsWorkerProcess();

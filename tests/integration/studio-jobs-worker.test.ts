@@ -1,8 +1,8 @@
 // services/jobs-worker.ts run as a process of its own, as the task scripts run it beside the app:
-// it takes queued jobs; SIGTERM drains it (a running export is stopped and marked failed, never
+// it takes queued jobs (a surface's check, a groom's thumbnail); SIGTERM drains it (a running export is stopped and marked failed, never
 // left "running"); a heavy job past its time or memory budget is stopped and its export marked
 // failed in words a groomer understands.
-import { callRoute, createSurface, expectJson, signedInAccount, type TestAccount } from './studio-helpers';
+import { callRoute, createSurface, expectJson, signedInAccount, uploadFile, type TestAccount } from './studio-helpers';
 import { readFile } from 'node:fs/promises';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
@@ -11,6 +11,7 @@ import { MAX_GUIDE_POINTS } from '@/lib/groom';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
+import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
 import * as exportsRoute from '@/app/api/studio/grooms/[groomId]/exports/route';
 import type { ExportJob } from '@/lib/studio/types';
@@ -34,21 +35,26 @@ async function until<T>(read: () => Promise<T>, done: (value: T) => boolean, wha
 const exportRow = (id: string) => db()('groom_exports').where({ id }).first('status', 'stage', 'error');
 
 describe('the stand-alone job worker', () => {
-  it('renders a queued thumbnail and exits 0 on SIGTERM', async () => {
+  it('checks a registered surface (checking → ready), renders the queued thumbnail of a groom on it, and exits 0 on SIGTERM', async () => {
     const groomer = await signedInAccount('groomer', 'worker-process');
     const cube = new Uint8Array(await readFile(new URL('../fixtures/surfaces/uv-split-cube.obj', import.meta.url)));
-    const surface = await createSurface(groomer, 'cube.obj', cube, 'Cube');
-    const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: groomer.cookie, body: { surfaceId: surface.id, name: 'Cube coat' } });
-    const groom = (await expectJson(created, 201)).data.groom;
+    const ticket = await uploadFile(groomer, 'cube.obj', cube);
+    const registered = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: groomer.cookie, body: { uploadId: ticket.uploadId, name: 'Cube', units: 'cm' } });
+    const surface = (await expectJson(registered, 202)).data.surface;
+    expect(surface.state).toBe('checking');
 
     const worker = await startJobsWorkerProcess();
     try {
+      const checked = await until(() => db()('growth_surfaces').where({ id: surface.id }).first('state', 'face_count', 'check_progress'), (r) => r.state !== 'checking', 'the check', 45);
+      expect(checked, worker.output()).toEqual({ state: 'ready', face_count: 12, check_progress: 1 });
+      const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: groomer.cookie, body: { surfaceId: surface.id, name: 'Cube coat' } });
+      const groom = (await expectJson(created, 201)).data.groom;
       const row = await until(() => db()('grooms').where({ id: groom.id }).first('thumbnail_key'), (r) => r.thumbnail_key !== null, 'the thumbnail', 45);
       expect(row.thumbnail_key, worker.output()).toMatch(new RegExp(`^grooms/${groom.id}/thumbnail-`));
     } finally {
       expect(await worker.stop(), worker.output()).toBe(0);
     }
-    expect(worker.output()).toMatch(/\[jobs-worker\] ready: working on .*studio-export.*studio-thumbnail.*market-listing-assets/);
+    expect(worker.output()).toMatch(/\[jobs-worker\] ready: working on .*studio-surface-check.*studio-export.*studio-thumbnail.*market-listing-assets/);
   });
 });
 
