@@ -5,6 +5,7 @@
 // The web server never runs this: only job-worker processes.
 import { fork, type ChildProcess } from 'node:child_process';
 import { readFile } from 'node:fs/promises';
+import { setPriority } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import type { JobBudget, JobKind } from '../../lib/platform/jobs';
 import type { JobMessage, JobReply } from './child';
@@ -13,6 +14,12 @@ const CHILD = fileURLToPath(new URL('./child.ts', import.meta.url));
 /** How often the child's resident size is read while a job runs. */
 const MEMORY_SAMPLE_MS = 100;
 const PAGE_BYTES = 4096;
+/**
+ * The scheduling priority of job children (nice 10): on a machine the web server shares, a busy
+ * core gives the server's requests about nine tenths of its time (Linux's CFS weighs nice 0 against
+ * nice 10 as 1024 to 110, sched(7)), so heavy jobs take longer instead of requests waiting.
+ */
+const JOB_NICENESS = 10;
 /** A child left larger than this share of its budget after a job is replaced, so the next job starts with the budget free. */
 const RECYCLE_SHARE = 0.5;
 
@@ -71,6 +78,11 @@ function childFor(kind: JobKind, budget: JobBudget): Slot {
     stdio: ['ignore', 'inherit', 'pipe', 'ipc'],
   });
   const slot: Slot = { child, stderrTail: '', exited: new Promise((resolve) => child.once('exit', () => resolve())) };
+  try {
+    if (child.pid !== undefined) setPriority(child.pid, JOB_NICENESS);
+  } catch (error) {
+    console.error(`[jobs-worker] could not lower the priority of the ${kind.queue} child: ${(error as Error).message}`);
+  }
   child.stderr?.on('data', (chunk: Buffer) => {
     process.stderr.write(chunk);
     slot.stderrTail = (slot.stderrTail + chunk.toString('utf8')).slice(-4000);
