@@ -74,7 +74,7 @@ test('growth surfaces: an upload with progress and the limit shown; a refused fi
   expect(stats.differingShare).toBeGreaterThan(0.01);
   // The list keeps the refused surface with its reason (checked by a job), and offers no groom on it.
   const refusedCard = page.getByTestId('surface-card').filter({ hasText: 'misoriented' });
-  await expect(refusedCard.getByTestId('surface-refused')).toContainText(/Refused: .*orient/i);
+  await expect(refusedCard.getByTestId('surface-refused')).toContainText(/^Refused: .*faces that face opposite ways/);
   await expect(refusedCard.getByRole('button', { name: /Start a groom/ })).toHaveCount(0);
 });
 
