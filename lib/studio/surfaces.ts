@@ -131,7 +131,7 @@ async function discardUpload(upload: UploadRow): Promise<void> {
   await db()('surface_uploads').where({ id: upload.id }).delete();
 }
 
-export function rejection(fileName: string, problems: readonly Problem[]): HttpError {
+function rejection(fileName: string, problems: readonly Problem[]): HttpError {
   const errors = problems.filter((problem) => problem.severity === 'error');
   const message = `${fileName} cannot be used as a growth surface: ${errors.map((problem) => problem.message).join(' ')}`;
   return new HttpError(422, 'surface-rejected', message, { details: { problems } });
