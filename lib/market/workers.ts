@@ -10,6 +10,7 @@ import { reconcilePayments } from './payments/reconcile';
 const listingAssetsKind: JobKind<ListingAssetsJobData> = {
   queue: LISTING_ASSETS_QUEUE,
   what: 'Making the pictures and package',
+  lighter: 'Fewer guides or fewer points per guide make it lighter.',
   pollingSeconds: 1,
   budget: LISTING_ASSETS_BUDGET,
   run: ({ listingId }) => buildListingAssets(listingId),

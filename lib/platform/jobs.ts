@@ -67,6 +67,8 @@ export type JobKind<Data = never> = {
   queue: string;
   /** The work in a person's words, as the subject of a sentence: "The export". */
   what: string;
+  /** What makes the work lighter, said after a stop past its budget: "Fewer guides … make it lighter." */
+  lighter?: string;
   pollingSeconds: number;
   run: (data: Data) => Promise<void>;
   budget?: JobBudget;

@@ -13,6 +13,7 @@ import { checkRegisteredSurface, refuseSurface } from './surface-check';
 const surfaceCheckKind: JobKind<SurfaceCheckJobData> = {
   queue: SURFACE_CHECK_QUEUE,
   what: 'The check of the surface',
+  lighter: 'A surface with fewer faces (decimated) is lighter to check.',
   pollingSeconds: 1,
   budget: SURFACE_CHECK_BUDGET,
   run: checkRegisteredSurface,
@@ -22,6 +23,7 @@ const surfaceCheckKind: JobKind<SurfaceCheckJobData> = {
 const exportKind: JobKind<ExportJobData> = {
   queue: EXPORT_QUEUE,
   what: 'The export',
+  lighter: 'Fewer guides or fewer points per guide make it lighter.',
   pollingSeconds: 1,
   budget: EXPORT_BUDGET,
   run: runExport,
@@ -38,6 +40,7 @@ const exportKind: JobKind<ExportJobData> = {
 const thumbnailKind: JobKind<ThumbnailJobData> = {
   queue: THUMBNAIL_QUEUE,
   what: 'The thumbnail',
+  lighter: 'Fewer guides or fewer points per guide make it lighter.',
   pollingSeconds: 1,
   budget: THUMBNAIL_BUDGET,
   run: renderGroomThumbnail,

@@ -36,19 +36,20 @@ export function effectiveBudget(budget: JobBudget, environment: NodeJS.ProcessEn
   };
 }
 
-const LIGHTER = 'Fewer guides or fewer points per guide make it lighter.';
 
 function describeDuration(seconds: number): string {
   return seconds >= 120 ? `${Math.round(seconds / 60)} minutes` : `${seconds} seconds`;
 }
 
 /** The messages a groomer or seller reads on the failed row. */
-export function outcomeMessage(what: string, reason: FailureReason, budget: JobBudget): string {
+export function outcomeMessage(kind: Pick<JobKind, 'what' | 'lighter'>, reason: FailureReason, budget: JobBudget): string {
+  const { what } = kind;
+  const lighter = kind.lighter ? ` ${kind.lighter}` : '';
   switch (reason) {
     case 'time':
-      return `${what} took longer than the ${describeDuration(budget.seconds)} a job may run, so it was stopped. ${LIGHTER}`;
+      return `${what} took longer than the ${describeDuration(budget.seconds)} a job may run, so it was stopped.${lighter}`;
     case 'memory':
-      return `${what} needed more than the ${budget.memoryMb} MB of memory a job may use, so it was stopped. ${LIGHTER}`;
+      return `${what} needed more than the ${budget.memoryMb} MB of memory a job may use, so it was stopped.${lighter}`;
     case 'stopped':
       return `${what} was stopped because the server running it shut down. Ask for it again.`;
     case 'crashed':
@@ -143,12 +144,12 @@ export function runInChild(kind: JobKind, data: unknown, budget: JobBudget, stop
       if (reply.job !== job) return;
       const resident = child.pid === undefined ? null : await residentBytes(child.pid);
       if (resident !== null && resident > RECYCLE_SHARE * budget.memoryMb * 1024 * 1024 && child.connected) child.disconnect();
-      finish(reply.ok ? { ok: true } : { ok: false, reason: 'crashed', message: outcomeMessage(kind.what, 'crashed', budget) });
+      finish(reply.ok ? { ok: true } : { ok: false, reason: 'crashed', message: outcomeMessage(kind, 'crashed', budget) });
     };
     const onExit = () => {
       // V8 aborts with this line when the heap limit is reached.
       const reason: FailureReason = killedFor ?? (/heap out of memory|Allocation failed/i.test(slot.stderrTail) ? 'memory' : 'crashed');
-      finish({ ok: false, reason, message: outcomeMessage(kind.what, reason, budget) });
+      finish({ ok: false, reason, message: outcomeMessage(kind, reason, budget) });
     };
     child.on('message', onReply);
     child.once('exit', onExit);

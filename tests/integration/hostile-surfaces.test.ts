@@ -4,7 +4,9 @@
 // would and checked by the check job's function: each surface ends refused with a reason in words,
 // none of the files is kept, and the memory of the process that checks them stays bounded.
 // (That a crashing or over-budget check is marked refused is studio-jobs-worker.test.ts's.)
-import { registerAndCheck, signedInAccount, type TestAccount } from './studio-helpers';
+import { callRoute, expectJson, registerAndCheck, signedInAccount, uploadFile, type TestAccount } from './studio-helpers';
+import * as surfacesRoute from '@/app/api/studio/surfaces/route';
+import { startJobsWorkerProcess } from '@/services/jobs-worker-process';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import type { UncheckedSurface } from '@/lib/studio/types';
@@ -56,5 +58,29 @@ describe('hostile growth surfaces', () => {
     console.log(`[hostile] ${files.length} files refused; resident size grew at most ${grownMb.toFixed(0)} MB`);
     for (const [category, byCode] of reasons) console.log(`[hostile]   ${category.padEnd(13)} ${[...byCode].map(([code, n]) => `${code} ×${n}`).join(', ')}`);
     expect(grownMb).toBeLessThan(MEMORY_HEADROOM_MB);
+  });
+
+  it('are refused by a job-worker process too, one of each kind, and a check past its memory budget is refused in those words', async () => {
+    const worker = await startJobsWorkerProcess({ ...process.env, WHORLWIND_JOB_MEMORY_MB: '400' });
+    try {
+      const firstOfEach = [...new Map(hostileMeshes().map((file) => [file.category, file])).values()];
+      const ids: string[] = [];
+      for (const file of firstOfEach) {
+        const ticket = await uploadFile(groomer, file.fileName, file.bytes);
+        const registered = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: groomer.cookie, body: { uploadId: ticket.uploadId, name: `worker ${file.fileName}`, units: 'cm' } });
+        ids.push((await expectJson(registered, 202)).data.surface.id);
+      }
+      const deadline = Date.now() + 120_000;
+      let rows: { state: string; problems: { severity: string; message: string }[] }[] = [];
+      for (;;) {
+        rows = await db()('growth_surfaces').whereIn('id', ids).select('state', 'problems');
+        if (rows.every((row) => row.state !== 'checking') || Date.now() > deadline) break;
+        await new Promise((resolve) => setTimeout(resolve, 200));
+      }
+      expect(rows.map((row) => row.state), worker.output()).toEqual(ids.map(() => 'refused'));
+      for (const row of rows) expect(row.problems.some((problem) => problem.severity === 'error' && problem.message.length > 20)).toBe(true);
+    } finally {
+      expect(await worker.stop(), worker.output()).toBe(0);
+    }
   });
 });

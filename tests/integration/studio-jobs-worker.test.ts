@@ -116,4 +116,21 @@ describe('the heaviest export the budget allows', () => {
       expect(await worker.stop()).toBe(0);
     }
   });
+
+  it('refuses a surface whose check needs more memory than its budget, in words, and the worker lives on', async () => {
+    // Node with tsx alone needs more than 60 MB: the check's child is stopped as soon as it starts.
+    const worker = await startJobsWorkerProcess({ ...process.env, WHORLWIND_JOB_MEMORY_MB: '60' });
+    try {
+      const ticket = await uploadFile(groomer, 'cube.obj', new Uint8Array(await readFile(new URL('../fixtures/surfaces/uv-split-cube.obj', import.meta.url))));
+      const registered = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: groomer.cookie, body: { uploadId: ticket.uploadId, name: 'Starved cube', units: 'cm' } });
+      const { id } = (await expectJson(registered, 202)).data.surface;
+      const row = await until(() => db()('growth_surfaces').where({ id }).first('state', 'problems'), (r) => r.state !== 'checking', 'the check to end');
+      expect(row, worker.output()).toEqual({
+        state: 'refused',
+        problems: [expect.objectContaining({ code: 'check-stopped', severity: 'error', message: 'The check of the surface needed more than the 60 MB of memory a job may use, so it was stopped. A surface with fewer faces (decimated) is lighter to check.' })],
+      });
+    } finally {
+      expect(await worker.stop()).toBe(0);
+    }
+  });
 });
