@@ -1,6 +1,7 @@
 // `npm test`: everything against a throwaway stack (TEST_* ports, .data/test), so it can run
 // while the demo runs. Phases: tsc (type check of the whole project), vitest (tests/unit and
-// tests/integration), then one `next build` and Playwright (tests/browser) against `next start`.
+// tests/integration; the tests that need jobs start a job-worker process as this script does),
+// then one `next build` and Playwright (tests/browser) against `next start` with job worker(s).
 // Every phase runs even when an earlier one failed (except the browser tests when the build
 // failed); the exit code is non-zero if any failed.
 //   npm test                      all phases
@@ -11,6 +12,7 @@ import { mkdir, readFile, rm } from 'node:fs/promises';
 import { join } from 'node:path';
 import { migrateAndSeed, projectRoot, stackEnvironment, startStack, testProfile, type StackProfile } from './lib/stack';
 import { buildApp, startApp } from './lib/next-app';
+import { startJobWorkers } from './lib/job-workers';
 import { aptInstall } from './lib/postgres';
 import { CommandFailed, log, runCommand, shutdown, stopEverythingOnSignals } from './lib/processes';
 
@@ -63,6 +65,9 @@ async function runVitest(profile: StackProfile, args: string[]): Promise<Tally> 
 async function runBrowserTests(profile: StackProfile, args: string[]): Promise<Tally> {
   await ensureChromium();
   await buildApp(profile);
+  // The browser tests meet the app as people do: the server answers, job workers beside it make
+  // exports, thumbnails and listing pictures (TEST_WORKERS=n for more).
+  startJobWorkers(profile);
   await startApp(profile);
   const report = join(reportDir, 'playwright.json');
   await rm(report, { force: true });

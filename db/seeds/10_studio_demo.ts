@@ -1,6 +1,6 @@
 // The demo groomer's studio: the three characters of lib/groom's demo (Bramble, Ottoline, Loop)
-// as growth surfaces — uploaded to object storage through a presigned PUT and registered exactly
-// as the studio does it — and a groom on each with its spec and a first named version (which the
+// as growth surfaces — uploaded to object storage through a presigned PUT, registered exactly as
+// the studio does it and checked — and a groom on each with its spec and a first named version (which the
 // market's seed lists). Runs after the accounts seed and before the market's (names sort so).
 // Idempotent: a surface or groom of that name that Wren already has is left as it is. Thumbnails
 // of the grooms are queued; the app's job workers render them when it starts.
@@ -13,6 +13,7 @@ import { createGroom, createVersion, saveSpec } from '../../lib/studio/grooms';
 import type { Groomer } from '../../lib/accounts/actor';
 import { stopJobs } from '../../lib/platform/jobs';
 import { createSurfaceUpload, registerSurface } from '../../lib/studio/surfaces';
+import { checkRegisteredSurface } from '../../lib/studio/surface-check';
 
 const FIRST_VERSION = 'First pass';
 
@@ -30,6 +31,9 @@ async function demoSurface(knex: Knex, groomer: Groomer, demo: DemoGroom): Promi
   const upload = await fetch(ticket.url, { method: ticket.method, body: new Blob([bytes]) });
   if (!upload.ok) throw new Error(`object storage refused the demo surface ${demo.id}: ${upload.status} ${await upload.text()}`);
   const surface = await registerSurface(groomer, { uploadId: ticket.uploadId, name, units: demo.spec.units as SurfaceUnits });
+  // The seed needs the surface ready for its grooms now, so it runs the check itself; the queued
+  // job then finds it checked and leaves it.
+  await checkRegisteredSurface({ surfaceId: surface.id });
   return surface.id;
 }
 

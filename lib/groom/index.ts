@@ -15,6 +15,9 @@ export {
   parseGroomSpecJson,
   validateGroomSpec,
   specToJson,
+  MAX_GUIDE_POINTS,
+  MAX_GUIDES,
+  guidePointsProblem,
   type GroomSpec,
   type GroomSpecInput,
   type GuideSettings,
@@ -34,7 +37,7 @@ export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
 export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
 export { blendPins, type PinnedFactors } from './place/pins';
 export { growthMask } from './place/regions';
-export { growGuides, MAX_GUIDES, type Guides, type GrowResult } from './grow/guides';
+export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
 export { sampleRoots, type Roots, type RootRequest } from './grow/roots';
 export { createTracer, STOP, type StopReason, type Tracer } from './grow/trace';
 export { shapeGuide, type ShapeParameters } from './grow/shape';

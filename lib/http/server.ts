@@ -87,11 +87,53 @@ export function parseInput<Schema extends z.ZodType>(schema: Schema, value: unkn
 }
 
 /**
- * The JSON body, validated with the schema (400 invalid-input when it is not JSON, or with a
- * message per field). An empty body counts as `{}`, for calls whose fields are all optional.
+ * Most bytes a JSON body may have: 1 MB, far above any form or spec of the app (a spec's lists are
+ * bounded by its schema; the largest demo spec is a few kB). Common practice, no standard.
+ */
+export const JSON_BODY_LIMIT = 1_000_000;
+/**
+ * Most bytes of a payment provider's event: 1 MB. The provider documents no maximum; its events
+ * carry one object each and are a few kB. Common practice, no standard.
+ */
+export const WEBHOOK_BODY_LIMIT = 1_000_000;
+
+function bodyTooLarge(limit: number): HttpError {
+  return new HttpError(413, 'too-large', `The request body is larger than ${limit / 1_000_000} MB, the most this address accepts.`);
+}
+
+/**
+ * The body as text, read as a stream and given up past `limit` bytes (413 too-large): the read
+ * stops there, so a sender cannot make the server hold more. A declared Content-Length over the
+ * limit is refused before reading; a smaller one is not trusted (it can lie, or be absent with
+ * chunked transfer), the bytes are counted.
+ */
+export async function readLimitedText(request: Request, limit = JSON_BODY_LIMIT): Promise<string> {
+  const declared = Number(request.headers.get('content-length') ?? '');
+  if (Number.isFinite(declared) && declared > limit) throw bodyTooLarge(limit);
+  if (!request.body) return '';
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await reader.cancel().catch(() => {});
+      throw bodyTooLarge(limit);
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks).toString('utf8');
+}
+
+/**
+ * The JSON body (at most JSON_BODY_LIMIT bytes, else 413 too-large), validated with the schema
+ * (400 invalid-input when it is not JSON, or with a message per field). An empty body counts as
+ * `{}`, for calls whose fields are all optional.
  */
 export async function readBody<Schema extends z.ZodType>(request: Request, schema: Schema): Promise<z.infer<Schema>> {
-  const raw = await request.text();
+  const raw = await readLimitedText(request, JSON_BODY_LIMIT);
   let body: unknown = {};
   if (raw.trim() !== '') {
     try {

@@ -5,6 +5,7 @@ import type { FieldErrors } from './field-errors';
 /** Every error code a route handler may answer with, the accounts', the studio's and the market's. */
 export type ApiErrorCode =
   | 'invalid-input'
+  | 'too-large'
   | 'not-signed-in'
   | 'forbidden'
   | 'not-found'
@@ -21,6 +22,7 @@ export type ApiErrorCode =
   | 'upload-missing'
   | 'surface-rejected'
   | 'surface-in-use'
+  | 'surface-not-ready'
   | 'invalid-spec'
   | 'stale-revision'
   // market

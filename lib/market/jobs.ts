@@ -1,8 +1,8 @@
 // The market's queues on the process's job queue (lib/platform/jobs.ts): pictures and packages of
 // listings, and the periodic reconciliation of payments. Queueing only; what runs the jobs is in
-// lib/market/workers.ts, started with the server (instrumentation.ts).
+// lib/market/workers.ts, run by the job-worker processes (services/jobs-worker.ts).
 import type PgBoss from 'pg-boss';
-import { jobQueue } from '../platform/jobs';
+import { expiryOf, jobQueue, type JobBudget } from '../platform/jobs';
 
 export const LISTING_ASSETS_QUEUE = 'market-listing-assets';
 export const RECONCILE_QUEUE = 'market-reconcile';
@@ -11,7 +11,13 @@ export const RECONCILE_CRON = '*/10 * * * *';
 
 export type ListingAssetsJobData = { listingId: string };
 
-const MARKET_QUEUES: PgBoss.Queue[] = [LISTING_ASSETS_QUEUE, RECONCILE_QUEUE].map((name) => ({ name, retryLimit: 3, retryDelay: 30, retryBackoff: true }));
+/** Growing the guides once, six pictures, a preview and a package of every format (see lib/studio/jobs.ts). */
+export const LISTING_ASSETS_BUDGET: JobBudget = { seconds: 10 * 60, memoryMb: 1536 };
+
+const MARKET_QUEUES: PgBoss.Queue[] = [
+  { name: LISTING_ASSETS_QUEUE, retryLimit: 3, retryDelay: 30, retryBackoff: true, expireInSeconds: expiryOf(LISTING_ASSETS_BUDGET) },
+  { name: RECONCILE_QUEUE, retryLimit: 3, retryDelay: 30, retryBackoff: true },
+];
 
 /** The job queue of this process, with the market's queues made. */
 export function marketBoss(): Promise<PgBoss> {

@@ -13,10 +13,7 @@ export const PICTURE_URL_SECONDS = 10 * 60;
 export const listingPrefix = (listingId: string) => `market/listings/${listingId}`;
 
 /** Copies an object inside the bucket (the frozen surface of a listing). */
-export async function copyObject(fromKey: string, toKey: string): Promise<void> {
-  const bucket = env().S3_BUCKET;
-  await storageClient().send(new CopyObjectCommand({ Bucket: bucket, Key: toKey, CopySource: `${bucket}/${encodeURI(fromKey)}` }));
-}
+export { copyObject } from '../platform/storage';
 
 /** Deletes objects that no row names any more; a failure is logged, not thrown. */
 export async function deleteMarketObjects(keys: readonly string[]): Promise<void> {

@@ -1,11 +1,11 @@
 // The background work of this process: one pg-boss on the app's PostgreSQL (schema pgboss) for
-// every area, the studio's queues and the market's alike. Any process may queue; workers run
-// inside the Next.js server (instrumentation.ts) or in a worker process of their own
-// (services/jobs-worker.ts), and any number of them share the queues.
+// every area, the studio's queues and the market's alike. Any process may queue; jobs run only in
+// job-worker processes (services/jobs-worker.ts), never in the web server, and any number of
+// them, on any number of machines, share the queues.
 import PgBoss from 'pg-boss';
 import { env } from './env';
 
-type Jobs = { boss: Promise<PgBoss>; queues: Map<string, Promise<void>>; workers: Map<string, Promise<void>> };
+type Jobs = { boss: Promise<PgBoss>; queues: Map<string, Promise<void>> };
 type Holder = typeof globalThis & { whorlwindJobs?: Jobs };
 const holder = globalThis as Holder;
 
@@ -19,7 +19,7 @@ async function startBoss(): Promise<PgBoss> {
 /** This process's jobs, started on first use; a start that failed is tried again next time. */
 function jobs(): Jobs {
   if (!holder.whorlwindJobs) {
-    const started: Jobs = { boss: startBoss(), queues: new Map(), workers: new Map() };
+    const started: Jobs = { boss: startBoss(), queues: new Map() };
     started.boss.catch(() => {
       if (holder.whorlwindJobs === started) holder.whorlwindJobs = undefined;
     });
@@ -41,30 +41,64 @@ function once(map: Map<string, Promise<void>>, area: string, work: () => Promise
   return done;
 }
 
-/** The job queue with an area's queues made (once per process; pg-boss keeps them in the database). */
+/**
+ * The job queue with an area's queues made (once per process; pg-boss keeps them in the database).
+ * A queue that exists gets the options of this code (its time budget may have changed since).
+ */
 export async function jobQueue(area: string, queues: readonly PgBoss.Queue[]): Promise<PgBoss> {
   const { boss, queues: made } = jobs();
   const started = await boss;
   await once(made, area, async () => {
     for (const queue of queues) {
       if (!(await started.getQueue(queue.name))) await started.createQueue(queue.name, queue);
+      else await started.updateQueue(queue.name, queue);
     }
   });
   return started;
 }
 
-/** Starts an area's workers once per process (later calls wait for the first start). */
-export function startWorkers(area: string, start: () => Promise<void>): Promise<void> {
-  return once(jobs().workers, area, start);
+/**
+ * What a job-worker process needs to know about one queue. A job with a `budget` is heavy: the
+ * worker runs it in a child process of its own, stops it past its time or memory budget, and then
+ * calls `fail` so that the row the person watches says why (lib/groom's typed arrays live outside
+ * the JavaScript heap, so the memory budget is checked on the child's resident size too).
+ */
+export type JobKind<Data = never> = {
+  queue: string;
+  /** The work in a person's words, as the subject of a sentence: "The export". */
+  what: string;
+  /** What makes the work lighter, said after a stop past its budget: "Fewer guides … make it lighter." */
+  lighter?: string;
+  pollingSeconds: number;
+  run: (data: Data) => Promise<void>;
+  budget?: JobBudget;
+  /** Marks the job's row failed with a message for the person who asked for it. */
+  fail?: (data: Data, message: string) => Promise<void>;
+};
+
+export type JobBudget = { seconds: number; memoryMb: number };
+
+/** An area's jobs as a worker process starts them: its queue, its kinds, its schedules. */
+export type AreaJobs = {
+  area: string;
+  boss: () => Promise<PgBoss>;
+  // Each kind's Data is its own (JobKind<never> takes them all); the worker hands a job's data
+  // only to the kind of its queue.
+  kinds: JobKind[];
+  /** Schedules and catch-up work a worker does once when it starts. */
+  onStart?: (boss: PgBoss) => Promise<void>;
+};
+
+/** pg-boss gives a job up (and may try it again) a minute after its time budget: the worker stops it first. */
+export function expiryOf(budget: JobBudget): number {
+  return budget.seconds + 60;
 }
 
-/** Stops this process's queue and its workers, letting running jobs finish (scripts and tests that end). */
-export async function stopJobs(): Promise<void> {
+/** Stops this process's queue, letting running jobs finish (scripts, tests and worker processes that end). */
+export async function stopJobs(timeoutMs = 30_000): Promise<void> {
   const current = holder.whorlwindJobs;
   holder.whorlwindJobs = undefined;
   if (!current) return;
-  // A start under way finishes first, so that its workers are stopped too.
-  await Promise.allSettled(current.workers.values());
   const boss = await current.boss.catch(() => null);
-  await boss?.stop({ graceful: true, wait: true, timeout: 30_000 });
+  await boss?.stop({ graceful: true, wait: true, timeout: timeoutMs });
 }

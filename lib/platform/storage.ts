@@ -2,6 +2,7 @@
 // is s3rver (services/s3.ts); production points S3_* at a hosted bucket. The store is never
 // exposed directly: the app decides who may read or write, then hands out short-lived URLs.
 import {
+  CopyObjectCommand,
   GetObjectCommand,
   HeadBucketCommand,
   PutObjectCommand,
@@ -34,6 +35,12 @@ const PRESIGNED_URL_SECONDS = 5 * 60;
 
 export async function putObject(key: string, body: PutObjectCommandInput['Body'], contentType: string) {
   await storageClient().send(new PutObjectCommand({ Bucket: env().S3_BUCKET, Key: key, Body: body, ContentType: contentType }));
+}
+
+/** Copies an object inside the bucket (server side: the bytes never pass through this process). */
+export async function copyObject(fromKey: string, toKey: string): Promise<void> {
+  const bucket = env().S3_BUCKET;
+  await storageClient().send(new CopyObjectCommand({ Bucket: bucket, Key: toKey, CopySource: `${bucket}/${encodeURI(fromKey)}` }));
 }
 
 export async function getObjectBytes(key: string): Promise<Uint8Array> {

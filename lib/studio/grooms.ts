@@ -92,11 +92,14 @@ export async function getGroom(groomer: Groomer, groomId: string): Promise<Groom
   if (!row) throw notFound('groom');
   const surface: SurfaceRow = await db()('growth_surfaces').where({ id: row.surface_id }).first();
   const versions: VersionRow[] = await db()('groom_versions').where({ groom_id: groomId }).orderBy('number', 'desc');
+  // Grooms are made only on ready surfaces, and a surface never leaves that state.
+  const detail = await surfaceDetail(surface);
+  if (detail.state !== 'ready') throw new Error(`groom ${groomId} grows on surface ${surface.id}, which is ${detail.state}`);
   return {
     ...(await groomSummary(row)),
     spec: row.spec,
     savedAt: row.spec_saved_at.toISOString(),
-    surface: await surfaceDetail(surface),
+    surface: detail,
     versions: await Promise.all(versions.map(version)),
   };
 }
@@ -111,8 +114,15 @@ async function lockOwnGroom(trx: Knex.Transaction, groomer: Groomer, groomId: st
 /** Creates a groom on one of the groomer's surfaces, starting from a spec whose index budget is balanced. */
 export async function createGroom(groomer: Groomer, input: { surfaceId: string; name: string }): Promise<GroomDetail> {
   const surface = await ownSurfaceRow(groomer, input.surfaceId);
-  const mesh = await surfaceMesh({ id: surface.id, objectKey: surface.object_key, fileName: surface.file_name });
-  const spec = startingSpec(mesh, surface.units, surface.area_cm2);
+  if (surface.state !== 'ready') {
+    throw new HttpError(
+      409,
+      'surface-not-ready',
+      surface.state === 'checking' ? `${surface.name} is still being checked; start a groom on it once it is ready.` : `${surface.name} was refused by its check and cannot carry a groom.`,
+    );
+  }
+  // The check worked out the starting spec; only surfaces checked before it did are read again.
+  const spec = surface.starting_spec ?? startingSpec(await surfaceMesh({ id: surface.id, objectKey: surface.object_key, fileName: surface.file_name }), surface.units, surface.area_cm2 ?? 0);
   const [{ id }] = await db()('grooms')
     .insert({ owner_id: groomer.userId, surface_id: surface.id, name: input.name, spec: JSON.stringify(spec) })
     .returning('id');

@@ -2,7 +2,7 @@
 // the surface comes from this process's cache of prepared surfaces, and each long step is
 // announced first, so that a job can show where it is.
 import type { SolvedField } from '../field';
-import { growGuides, parseGroomSpec, solveGroomField, type GroomSpec, type GroomSurface, type Guides } from '../groom';
+import { growGuides, parseGroomSpec, solveGroomField, type GroomSpec, type GroomSurface, type GrowOptions, type Guides } from '../groom';
 import { isSurfacePrepared, preparedSurface, type StoredSurfaceFile } from './surface-cache';
 
 /** The steps, in plain words for the groomer, and how far along each starts (0–1). */
@@ -29,9 +29,9 @@ export async function solveStoredSpec(storedSpec: unknown, surfaceFile: StoredSu
   return { spec, surface, solved: solveGroomField(spec, surface) };
 }
 
-/** Solves a stored spec and grows its guides (see solveStoredSpec for the failures). */
-export async function growStoredSpec(storedSpec: unknown, surfaceFile: StoredSurfaceFile, report: StageReport): Promise<SolvedSpec & { guides: Guides }> {
+/** Solves a stored spec and grows its guides, or a sample of them (see solveStoredSpec for the failures). */
+export async function growStoredSpec(storedSpec: unknown, surfaceFile: StoredSurfaceFile, report: StageReport, options: GrowOptions = {}): Promise<SolvedSpec & { guides: Guides }> {
   const solved = await solveStoredSpec(storedSpec, surfaceFile, report);
   await report(GROW_STAGES.tracing);
-  return { ...solved, guides: growGuides(solved.surface, solved.solved, solved.spec).guides };
+  return { ...solved, guides: growGuides(solved.surface, solved.solved, solved.spec, options).guides };
 }

@@ -1,24 +1,21 @@
 // Growth surfaces: a presigned upload straight to object storage, then registration — the file is
-// read back, checked by lib/field, measured, and given a thumbnail — or rejected with its problems
-// and removed. A groomer only ever sees their own surfaces.
+// copied to a key of its own (no upload URL names it, so a still-valid upload URL cannot swap the
+// checked file), its size checked, and a surface row made in the state `checking`; the check by
+// lib/field (reading, measuring, the thumbnail) is a job (surface-check.ts) that makes the row
+// `ready` or `refused` with its problems. A groomer only ever sees their own surfaces.
 import { randomUUID } from 'node:crypto';
-import { checkSurfaceFile, type ComponentFacts, type Problem, type TriangleMesh } from '../field';
-import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
-import { encodeImage } from '../groom/render/encode-image';
+import type { ComponentFacts, Problem } from '../field';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
-import { getObjectBytes, putObject } from '../platform/storage';
-import type { SurfaceDetail, SurfaceFileFormat, SurfaceSummary, SurfaceUnits, UploadTicket } from './types';
+import { copyObject } from '../platform/storage';
+import type { SurfaceDetail, SurfaceFileFormat, SurfaceState, SurfaceSummary, SurfaceUnits, UncheckedSurface, UploadTicket } from './types';
 import { SURFACE_FORMATS } from './types';
 import { HttpError } from '../http/errors';
 import { notFound } from './errors';
 import type { Groomer } from '../accounts/actor';
 import { presignDownload } from '../platform/storage';
 import { deleteOrphanedObjects, deleteStoredObjects, presignSurfaceUpload, storedObjectSize, STUDIO_URL_SECONDS } from './storage';
-import { rememberSurfaceMesh } from './surface-cache';
-
-/** Edge length of the stored surface thumbnail, in pixels. */
-const SURFACE_THUMBNAIL_SIZE = 512;
+import { enqueueSurfaceCheck } from './jobs';
 
 export type SurfaceRow = {
   id: string;
@@ -29,15 +26,21 @@ export type SurfaceRow = {
   units: SurfaceUnits;
   object_key: string;
   byte_size: string;
-  vertex_count: number;
-  face_count: number;
-  component_count: number;
-  boundary_loop_count: number;
-  genus: number;
-  euler_characteristic: number;
-  area_cm2: number;
+  state: SurfaceState;
+  check_stage: string;
+  check_progress: number;
+  problems: Problem[];
+  starting_spec: unknown;
+  // The facts are null until the check has made the surface ready.
+  vertex_count: number | null;
+  face_count: number | null;
+  component_count: number | null;
+  boundary_loop_count: number | null;
+  genus: number | null;
+  euler_characteristic: number | null;
+  area_cm2: number | null;
   groups: string[];
-  components: ComponentFacts[];
+  components: ComponentFacts[] | null;
   warnings: Problem[];
   thumbnail_key: string | null;
   created_at: Date;
@@ -134,115 +137,122 @@ function rejection(fileName: string, problems: readonly Problem[]): HttpError {
   return new HttpError(422, 'surface-rejected', message, { details: { problems } });
 }
 
-async function storeSurfaceThumbnail(mesh: TriangleMesh, folder: string): Promise<string> {
-  const image = renderThumbnail(mesh, null, { size: SURFACE_THUMBNAIL_SIZE, view: 'front', upAxis: 'y' });
-  const key = `${folder}/thumbnail-${randomUUID()}.webp`;
-  await putObject(key, await encodeImage(image, 'webp'), 'image/webp');
-  return key;
-}
+/** The stage a registered surface waits in. */
+export const CHECK_QUEUED = { stage: 'waiting for its check', progress: 0 };
 
 /**
- * Turns an upload into a growth surface. The stored file is checked with lib/field; a file that
- * fails is deleted along with its upload record and answered with every problem found. A file
- * that passes gets its facts stored and a thumbnail rendered.
+ * Turns an upload into a growth surface being checked: the file is copied to the surface's own
+ * key, its size held to the one declared and to the limit (a 422 with the problem, file removed),
+ * and the check queued. The surface is answered in the state `checking`.
  */
 export async function registerSurface(groomer: Groomer, input: { uploadId: string; name: string; units: SurfaceUnits }): Promise<SurfaceSummary> {
   const upload: UploadRow | undefined = await db()('surface_uploads').where({ id: input.uploadId, owner_id: groomer.userId }).first();
   if (!upload) throw notFound('upload');
 
-  const storedSize = await storedObjectSize(upload.object_key);
-  if (storedSize === null) {
+  if ((await storedObjectSize(upload.object_key)) === null) {
     throw new HttpError(409, 'upload-missing', `Nothing has been uploaded for ${upload.file_name} yet: send the file to its upload URL first.`);
   }
-  const maxBytes = env().SURFACE_MAX_BYTES;
-  if (storedSize > maxBytes) {
+  // From here on only the copy is read: whatever is PUT to the upload URL later is never used.
+  const surfaceId = randomUUID();
+  const objectKey = `surfaces/${groomer.userId}/${surfaceId}/${keySafe(upload.file_name)}`;
+  await copyObject(upload.object_key, objectKey);
+  const refuse = async (problem: Pick<Problem, 'code' | 'message'>) => {
+    await deleteOrphanedObjects([objectKey]);
     await discardUpload(upload);
-    throw rejection(upload.file_name, [
-      {
-        code: 'file-too-large',
-        severity: 'error',
-        message: tooLarge(storedSize, maxBytes),
-        count: 1,
-        examples: [],
-        where: 'file',
-      },
-    ]);
-  }
-
-  const { read, report } = checkSurfaceFile(await getObjectBytes(upload.object_key), upload.file_name);
-  if (!report.ok || !read || !report.facts?.components) {
-    await discardUpload(upload);
-    throw rejection(upload.file_name, report.problems);
-  }
-
-  const facts = report.facts;
-  const folder = upload.object_key.slice(0, upload.object_key.lastIndexOf('/'));
-  const thumbnailKey = await storeSurfaceThumbnail(read.mesh, folder);
-  const row = {
-    id: randomUUID(),
-    owner_id: groomer.userId,
-    name: input.name,
-    file_name: upload.file_name,
-    format: read.format,
-    units: input.units,
-    object_key: upload.object_key,
-    byte_size: storedSize,
-    vertex_count: facts.vertexCount,
-    face_count: facts.faceCount,
-    component_count: facts.componentCount,
-    boundary_loop_count: facts.boundaryLoopCount ?? 0,
-    genus: facts.genus ?? 0,
-    euler_characteristic: facts.eulerCharacteristic,
-    area_cm2: facts.surfaceArea * CENTIMETRES_PER_UNIT[input.units] ** 2,
-    groups: JSON.stringify(read.mesh.groups?.names ?? []),
-    components: JSON.stringify(facts.components),
-    warnings: JSON.stringify(report.problems),
-    thumbnail_key: thumbnailKey,
+    return rejection(upload.file_name, [{ ...problem, severity: 'error', count: 1, examples: [], where: 'file' }]);
   };
+  const storedSize = (await storedObjectSize(objectKey)) ?? 0;
+  const maxBytes = env().SURFACE_MAX_BYTES;
+  if (storedSize > maxBytes) throw await refuse({ code: 'file-too-large', message: tooLarge(storedSize, maxBytes) });
+  // The upload URL signs the declared length, which a store that checks signatures (S3) enforces;
+  // this check holds with any store (the local stand-in does not verify signed headers).
+  const declared = Number(upload.byte_size);
+  if (storedSize !== declared) {
+    throw await refuse({
+      code: 'size-mismatch',
+      message: `The stored file is ${storedSize.toLocaleString('en-US')} bytes, but ${declared.toLocaleString('en-US')} were declared when the upload began. Upload the file again.`,
+    });
+  }
+
   let stored: SurfaceRow;
   try {
     stored = await db().transaction(async (trx) => {
       // Deleting the upload first makes a second, concurrent registration of it find nothing.
       const consumed = await trx('surface_uploads').where({ id: upload.id }).delete();
       if (consumed === 0) throw notFound('upload');
-      const [inserted] = await trx('growth_surfaces').insert(row).returning('*');
+      const [inserted] = await trx('growth_surfaces')
+        .insert({
+          id: surfaceId,
+          owner_id: groomer.userId,
+          name: input.name,
+          file_name: upload.file_name,
+          format: upload.format,
+          units: input.units,
+          object_key: objectKey,
+          byte_size: storedSize,
+          state: 'checking',
+          check_stage: CHECK_QUEUED.stage,
+          check_progress: CHECK_QUEUED.progress,
+        })
+        .returning('*');
       return inserted;
     });
   } catch (error) {
-    await deleteOrphanedObjects([thumbnailKey]);
+    await deleteOrphanedObjects([objectKey]);
     throw error;
   }
-  rememberSurfaceMesh({ id: stored.id, objectKey: stored.object_key, fileName: stored.file_name }, read.mesh);
+  // Queued after the commit, so that the job always finds the row; a queue that cannot be reached
+  // takes the surface back out rather than leaving one that is never checked.
+  try {
+    await enqueueSurfaceCheck({ surfaceId });
+  } catch (error) {
+    console.error(`[studio] check of surface ${surfaceId} not queued: ${(error as Error).message}`);
+    await db()('growth_surfaces').where({ id: surfaceId }).delete();
+    await deleteOrphanedObjects([objectKey, upload.object_key]);
+    throw new HttpError(503, 'service-unavailable', 'The surface could not be queued for its check: the job queue is not reachable. Upload it again in a moment.');
+  }
+  // The upload's own object is not needed any more (a later PUT to its URL makes an object no
+  // row names, which is all it can do).
+  await deleteOrphanedObjects([upload.object_key]);
   return surfaceSummary(stored);
 }
 
 export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
-  return {
+  const base = {
     id: row.id,
     name: row.name,
     fileName: row.file_name,
     format: row.format,
     units: row.units,
-    vertexCount: row.vertex_count,
-    faceCount: row.face_count,
-    componentCount: row.component_count,
-    boundaryLoopCount: row.boundary_loop_count,
-    genus: row.genus,
-    eulerCharacteristic: row.euler_characteristic,
-    areaCm2: row.area_cm2,
-    groups: row.groups,
-    warnings: row.warnings,
     thumbnailUrl: row.thumbnail_key ? await presignDownload(row.thumbnail_key, STUDIO_URL_SECONDS) : null,
     createdAt: row.created_at.toISOString(),
+    check: { stage: row.check_stage, progress: row.check_progress },
+  };
+  if (row.state !== 'ready') return { ...base, state: row.state, problems: row.problems };
+  return {
+    ...base,
+    state: 'ready',
+    vertexCount: row.vertex_count ?? 0,
+    faceCount: row.face_count ?? 0,
+    componentCount: row.component_count ?? 0,
+    boundaryLoopCount: row.boundary_loop_count ?? 0,
+    genus: row.genus ?? 0,
+    eulerCharacteristic: row.euler_characteristic ?? 0,
+    areaCm2: row.area_cm2 ?? 0,
+    groups: row.groups,
+    warnings: row.warnings,
   };
 }
 
-export async function surfaceDetail(row: SurfaceRow): Promise<SurfaceDetail> {
+/** A ready surface with its file and pieces; a surface still checking (or refused) as it is. */
+export async function surfaceDetail(row: SurfaceRow): Promise<SurfaceDetail | UncheckedSurface> {
+  const summary = await surfaceSummary(row);
+  if (summary.state !== 'ready') return summary;
   return {
-    ...(await surfaceSummary(row)),
+    ...summary,
     fileUrl: await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name),
     byteSize: Number(row.byte_size),
-    components: row.components,
+    components: row.components ?? [],
   };
 }
 
@@ -261,11 +271,11 @@ export async function listSurfaces(groomer: Groomer): Promise<SurfaceSummary[]> 
   return Promise.all(rows.map(surfaceSummary));
 }
 
-export async function getSurface(groomer: Groomer, surfaceId: string): Promise<SurfaceDetail> {
+export async function getSurface(groomer: Groomer, surfaceId: string): Promise<SurfaceDetail | UncheckedSurface> {
   return surfaceDetail(await ownSurfaceRow(groomer, surfaceId));
 }
 
-/** Deletes a surface no groom uses, with its file and thumbnail. */
+/** Deletes a surface no groom uses, with its file and thumbnail (a surface still being checked too: its check then finds nothing). */
 export async function deleteSurface(groomer: Groomer, surfaceId: string): Promise<void> {
   const removed = await db().transaction(async (trx) => {
     const row: SurfaceRow | undefined = await trx('growth_surfaces').where({ id: surfaceId, owner_id: groomer.userId }).forUpdate().first();

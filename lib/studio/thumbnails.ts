@@ -13,6 +13,11 @@ import { surfaceMesh, type StoredSurfaceFile } from './surface-cache';
 
 /** Edge length of groom thumbnails, in pixels. */
 export const GROOM_THUMBNAIL_SIZE = 512;
+/**
+ * Most guides a thumbnail grows: at 512 px more guides only darken the picture, and a thumbnail
+ * is queued on every create, duplicate, version and restore, so it must stay cheap.
+ */
+export const THUMBNAIL_GUIDES = 20_000;
 
 type ThumbnailSource = { spec: unknown; surface: StoredSurfaceFile };
 
@@ -52,7 +57,7 @@ export async function renderGroomThumbnail(data: ThumbnailJobData): Promise<void
   let guides: Guides | null = null;
   let upAxis: 'y' | 'z' = 'y';
   try {
-    const grown = await growStoredSpec(source.spec, source.surface, async () => {});
+    const grown = await growStoredSpec(source.spec, source.surface, async () => {}, { sampleOf: THUMBNAIL_GUIDES });
     guides = grown.guides;
     upAxis = grown.spec.upAxis;
   } catch (error) {

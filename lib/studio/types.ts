@@ -27,12 +27,25 @@ export type UploadTicket = {
   maxBytes: number;
 };
 
-export type SurfaceSummary = {
+/** A surface is checked by a job after registration: `checking`, then `ready` or `refused`. */
+export type SurfaceState = 'checking' | 'ready' | 'refused';
+
+type SurfaceBase = {
   id: string;
   name: string;
   fileName: string;
   format: SurfaceFileFormat;
   units: SurfaceUnits;
+  /** Presigned GET of a front view (WebP), valid 10 minutes; null while none is stored. */
+  thumbnailUrl: string | null;
+  createdAt: IsoDate;
+  /** Where the check is, in plain words, and how far along (0–1); "checked" and 1 once it ended. */
+  check: { stage: string; progress: number };
+};
+
+/** A surface that passed the check, with the facts that matter for grooming. */
+export type ReadySurface = SurfaceBase & {
+  state: 'ready';
   vertexCount: number;
   faceCount: number;
   componentCount: number;
@@ -43,12 +56,14 @@ export type SurfaceSummary = {
   groups: string[];
   /** Problems of severity `warning` that did not stop the surface from being accepted. */
   warnings: Problem[];
-  /** Presigned GET of a front view (WebP), valid 10 minutes; null while none is stored. */
-  thumbnailUrl: string | null;
-  createdAt: IsoDate;
 };
 
-export type SurfaceDetail = SurfaceSummary & {
+/** A surface still being checked, or refused with the problems found (errors first). */
+export type UncheckedSurface = SurfaceBase & { state: 'checking' | 'refused'; problems: Problem[] };
+
+export type SurfaceSummary = ReadySurface | UncheckedSurface;
+
+export type SurfaceDetail = ReadySurface & {
   /** Presigned GET of the surface file as uploaded, valid 10 minutes. */
   fileUrl: string;
   byteSize: number;
@@ -111,7 +126,7 @@ export type ExportJob = {
 export type UploadResponse = UploadTicket;
 export type SurfaceResponse = { surface: SurfaceSummary };
 export type SurfaceListResponse = { surfaces: SurfaceSummary[] };
-export type SurfaceDetailResponse = { surface: SurfaceDetail };
+export type SurfaceDetailResponse = { surface: SurfaceDetail | UncheckedSurface };
 export type DeletedResponse = { deleted: true };
 export type GroomResponse = { groom: GroomDetail };
 export type GroomListResponse = { grooms: GroomSummary[] };

@@ -1,31 +1,67 @@
-// Workers for the studio's queues: each job is handed to its plain function in lib/studio, one
-// job at a time per queue and process (exports and thumbnails are CPU-bound), and the schedule
-// of the upload sweep.
-import type { ExportJobData, ThumbnailJobData } from './jobs';
-import { startWorkers } from '../platform/jobs';
-import { EXPORT_QUEUE, studioBoss, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
+// The studio's jobs as a job-worker process (services/jobs-worker.ts) runs them: surface checks,
+// exports and thumbnails are heavy (each in a child process with a time and memory budget, one at a time per
+// queue and worker), the hourly sweep of abandoned uploads is light.
+import type { AreaJobs, JobKind } from '../platform/jobs';
+import { db } from '../platform/db';
+import type { ExportJobData, SurfaceCheckJobData, ThumbnailJobData } from './jobs';
+import { EXPORT_BUDGET, EXPORT_QUEUE, studioBoss, SURFACE_CHECK_BUDGET, SURFACE_CHECK_QUEUE, THUMBNAIL_BUDGET, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
 import { runExport } from './exports';
 import { sweepAbandonedUploads } from './surfaces';
 import { renderGroomThumbnail } from './thumbnails';
+import { checkRegisteredSurface, refuseSurface } from './surface-check';
 
-/** Seconds between looks at an empty queue. */
-const POLLING_SECONDS = 1;
+const surfaceCheckKind: JobKind<SurfaceCheckJobData> = {
+  queue: SURFACE_CHECK_QUEUE,
+  what: 'The check of the surface',
+  lighter: 'A surface with fewer faces (decimated) is lighter to check.',
+  pollingSeconds: 1,
+  budget: SURFACE_CHECK_BUDGET,
+  run: checkRegisteredSurface,
+  fail: ({ surfaceId }, message) => refuseSurface(surfaceId, [{ code: 'check-stopped', severity: 'error', message, count: 1, examples: [], where: 'file' }]),
+};
 
-/** Starts this process's workers (once; later calls wait for the first). */
-export function startStudioWorkers(): Promise<void> {
-  return startWorkers('studio', async () => {
-    const boss = await studioBoss();
-    await boss.work<ExportJobData>(EXPORT_QUEUE, { batchSize: 1, pollingIntervalSeconds: POLLING_SECONDS }, async ([job]) => {
-      await runExport(job.data);
-    });
-    await boss.work<ThumbnailJobData>(THUMBNAIL_QUEUE, { batchSize: 1, pollingIntervalSeconds: POLLING_SECONDS }, async ([job]) => {
-      await renderGroomThumbnail(job.data);
-    });
-    await boss.work(UPLOAD_SWEEP_QUEUE, { batchSize: 1, pollingIntervalSeconds: 60 }, async () => {
-      const swept = await sweepAbandonedUploads();
-      if (swept > 0) console.log(`[studio] removed ${swept} upload(s) that were never registered`);
-    });
-    // One schedule for all processes: pg-boss keeps it by queue name and sends each slot once.
+const exportKind: JobKind<ExportJobData> = {
+  queue: EXPORT_QUEUE,
+  what: 'The export',
+  lighter: 'Fewer guides or fewer points per guide make it lighter.',
+  pollingSeconds: 1,
+  budget: EXPORT_BUDGET,
+  run: runExport,
+  // Only an export still under way is marked: one that finished before the stop keeps its file.
+  fail: async ({ exportId }, message) => {
+    await db()('groom_exports')
+      .where({ id: exportId })
+      .whereIn('status', ['queued', 'running'])
+      .update({ status: 'failed', stage: 'failed', error: message, updated_at: db().fn.now() });
+  },
+};
+
+// A thumbnail has no row of its own to mark: the groom keeps its previous picture.
+const thumbnailKind: JobKind<ThumbnailJobData> = {
+  queue: THUMBNAIL_QUEUE,
+  what: 'The thumbnail',
+  lighter: 'Fewer guides or fewer points per guide make it lighter.',
+  pollingSeconds: 1,
+  budget: THUMBNAIL_BUDGET,
+  run: renderGroomThumbnail,
+};
+
+const sweepKind: JobKind<unknown> = {
+  queue: UPLOAD_SWEEP_QUEUE,
+  what: 'The sweep of abandoned uploads',
+  pollingSeconds: 60,
+  run: async () => {
+    const swept = await sweepAbandonedUploads();
+    if (swept > 0) console.log(`[studio] removed ${swept} upload(s) that were never registered`);
+  },
+};
+
+export const STUDIO_JOBS: AreaJobs = {
+  area: 'studio',
+  boss: studioBoss,
+  kinds: [surfaceCheckKind, exportKind, thumbnailKind, sweepKind],
+  // One schedule for all processes: pg-boss keeps it by queue name and sends each slot once.
+  onStart: async (boss) => {
     await boss.schedule(UPLOAD_SWEEP_QUEUE, UPLOAD_SWEEP_CRON);
-  });
-}
+  },
+};

@@ -74,7 +74,10 @@ test('growth surfaces: an upload with progress and the limit shown; a refused fi
   await expect
     .poll(async () => (await pixelStats(await view.screenshot(), STAGE_BACKGROUND)).differingShare, { timeout: 30_000, message: 'the refused surface is drawn' })
     .toBeGreaterThan(0.01);
-  await expect(page.getByTestId('surface-card').filter({ hasText: 'misoriented' })).toHaveCount(0);
+  // The list keeps the refused surface with its reason (checked by a job), and offers no groom on it.
+  const refusedCard = page.getByTestId('surface-card').filter({ hasText: 'misoriented' });
+  await expect(refusedCard.getByTestId('surface-refused')).toContainText(/^Refused: .*faces that face opposite ways/);
+  await expect(refusedCard.getByRole('button', { name: /Start a groom/ })).toHaveCount(0);
 });
 
 test('grooms: start one on a surface, rename, duplicate and delete it with a confirmation', async ({ page }) => {

@@ -11,7 +11,7 @@ import { HttpError } from '@/lib/http/errors';
 import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { enqueueListingAssets } from '@/lib/market/jobs';
-import { startMarketWorkers } from '@/lib/market/workers';
+import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import { listLibrary, requestDownload } from '@/lib/market/library';
 import { decideListing, getListingDetail, submitListing, updateListing } from '@/lib/market/listings';
 import { refundPurchase } from '@/lib/market/payments/refunds';
@@ -21,7 +21,10 @@ import { listPayouts, requestPayout } from '@/lib/market/payouts';
 import { mailTo } from './helpers';
 import { deliver, eventsAbout, insertListing, makePerson, payOnHostedPage, ringSurfaceKey, waitFor, type ListingOptions } from './market-helpers';
 
+let worker: JobsWorkerProcess;
+
 afterAll(async () => {
+  await worker?.stop();
   await stopJobs();
   await closeDb();
 });
@@ -65,10 +68,10 @@ async function listingOf(seller: Actor, options: ListingOptions = {}): Promise<s
 }
 
 beforeAll(async () => {
-  // A draft made from the demo ring, its pictures and package made by the job's worker (started
-  // here as a worker process starts it).
+  // A draft made from the demo ring, its pictures and package made by a job-worker process,
+  // started here as the test stack starts it.
   const owner = await makePerson('library-maker', ['groomer']);
-  await startMarketWorkers();
+  worker = await startJobsWorkerProcess();
   const surfaceKey = await ringSurfaceKey();
   const id = await insertListing(owner, { ...NAP, state: 'draft', assetsStatus: 'pending', guideCount: null }, surfaceKey);
   await enqueueListingAssets(id);

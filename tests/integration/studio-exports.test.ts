@@ -1,4 +1,4 @@
-// Exports made by the job worker (started in this process) from the saved spec, stored in the S3
+// Exports made by a job-worker process (started as the test stack starts it) from the saved spec, stored in the S3
 // stand-in and downloaded through presigned URLs; each file is read back by an independent reader.
 import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
 import { validateBytes } from 'gltf-validator';
@@ -10,7 +10,7 @@ import { closeDb, db } from '@/lib/platform/db';
 import { readSurface } from '@/lib/field';
 import { parseGroomSpec, parseGroomSpecJson } from '@/lib/groom';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
-import { startJobsWorker, type JobsWorker } from '@/services/jobs-worker';
+import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
 import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
@@ -22,7 +22,7 @@ const cat = DEMO_GROOMS[1];
 const catMesh = cat.surface();
 const catObj = new TextEncoder().encode(surfaceToObj(catMesh, 'long cat'));
 
-let worker: JobsWorker;
+let worker: JobsWorkerProcess;
 let wren: TestAccount;
 let rival: TestAccount;
 let buyer: TestAccount;
@@ -30,7 +30,7 @@ let groom: GroomDetail;
 let surfaceId: string;
 
 beforeAll(async () => {
-  worker = await startJobsWorker();
+  worker = await startJobsWorkerProcess();
   ({ owner: wren, rival, buyer } = await studioCast('export'));
   surfaceId = (await createSurface(wren, 'ottoline.obj', catObj, 'Ottoline body')).id;
   // Only read from here on: a test that changes or deletes a groom makes its own.
@@ -173,7 +173,7 @@ describe('what the file is made from', () => {
     const current = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${changing.id}`, { cookie: wren.cookie, params: { groomId: changing.id } }), 200)).data.groom;
     const later = { ...current.spec, guides: { ...current.spec.guides, length: 9 } };
     await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${changing.id}/spec`, { cookie: wren.cookie, body: { spec: later, baseRevision: current.revision }, params: { groomId: changing.id } }), 200);
-    worker = await startJobsWorker();
+    worker = await startJobsWorkerProcess();
     const job = await finished(queued.id);
     expect(job.specRevision).toBe(current.revision);
     const { bytes } = await download(job);

@@ -7,7 +7,7 @@ import { closeDb, db } from '@/lib/platform/db';
 import { indexBudget, readSurface } from '@/lib/field';
 import { fieldRequestFromSpec, parseGroomSpec, prepareGroomSurface, solveGroomField, type GroomSpec } from '@/lib/groom';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
-import { startJobsWorker, type JobsWorker } from '@/services/jobs-worker';
+import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
 import * as duplicateRoute from '@/app/api/studio/grooms/[groomId]/duplicate/route';
@@ -15,20 +15,20 @@ import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
 import * as versionsRoute from '@/app/api/studio/grooms/[groomId]/versions/route';
 import * as restoreRoute from '@/app/api/studio/grooms/[groomId]/versions/[versionId]/restore/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
-import type { GroomDetail, GroomSummary, SurfaceSummary, Version } from '@/lib/studio/types';
+import type { GroomDetail, GroomSummary, ReadySurface, Version } from '@/lib/studio/types';
 
 const [fox, , ring] = DEMO_GROOMS;
 const foxObj = new TextEncoder().encode(surfaceToObj(fox.surface(), 'fox head'));
 const ringObj = new TextEncoder().encode(surfaceToObj(ring.surface(), 'plush ring'));
 
-let worker: JobsWorker;
+let worker: JobsWorkerProcess;
 let wren: TestAccount;
 let rival: TestAccount;
 let buyer: TestAccount;
-let foxSurface: SurfaceSummary;
+let foxSurface: ReadySurface;
 
 beforeAll(async () => {
-  worker = await startJobsWorker();
+  worker = await startJobsWorkerProcess();
   ({ owner: wren, rival, buyer } = await studioCast('groom'));
   foxSurface = await createSurface(wren, 'bramble.obj', foxObj, 'Bramble head');
 });

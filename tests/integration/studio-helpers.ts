@@ -18,7 +18,9 @@ import type { Role } from '@/lib/accounts/roles';
 import * as authRoute from '@/app/api/auth/[...nextauth]/route';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
-import type { SurfaceSummary, UploadTicket } from '@/lib/studio/types';
+import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
+import { checkRegisteredSurface } from '@/lib/studio/surface-check';
+import type { ReadySurface, SurfaceSummary, UploadTicket } from '@/lib/studio/types';
 import { onlyMailTo, tokenFromLink, uniqueEmail } from './helpers';
 
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -154,8 +156,22 @@ export async function uploadAndRegister(account: TestAccount, fileName: string, 
   return callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: account.cookie, body: { uploadId: ticket.uploadId, name, units } });
 }
 
-/** Uploads and registers a surface that must be accepted. */
-export async function createSurface(account: TestAccount, fileName: string, bytes: Uint8Array, name: string, units = 'cm'): Promise<SurfaceSummary> {
-  const answer = await expectJson<{ data: { surface: SurfaceSummary } }>(await uploadAndRegister(account, fileName, bytes, name, units), 201);
-  return answer.data.surface;
+/**
+ * Uploads and registers a surface (202, state `checking`), runs its check — the job's own
+ * function, in this process, as the demo seed does; tests of the job queue itself start a worker
+ * process — and answers the surface as the studio's route then shows it (ready or refused).
+ */
+export async function registerAndCheck(account: TestAccount, fileName: string, bytes: Uint8Array, name: string, units = 'cm'): Promise<SurfaceSummary> {
+  const registered = (await expectJson<{ data: { surface: SurfaceSummary } }>(await uploadAndRegister(account, fileName, bytes, name, units), 202)).data.surface;
+  expect(registered).toMatchObject({ state: 'checking', check: { stage: 'waiting for its check', progress: 0 } });
+  await checkRegisteredSurface({ surfaceId: registered.id });
+  const response = await callRoute(surfaceRoute, 'GET', `/api/studio/surfaces/${registered.id}`, { cookie: account.cookie, params: { surfaceId: registered.id } });
+  return (await expectJson<{ data: { surface: SurfaceSummary } }>(response, 200)).data.surface;
+}
+
+/** Uploads, registers and checks a surface that must be accepted. */
+export async function createSurface(account: TestAccount, fileName: string, bytes: Uint8Array, name: string, units = 'cm'): Promise<ReadySurface> {
+  const surface = await registerAndCheck(account, fileName, bytes, name, units);
+  expect(surface.state, JSON.stringify(surface)).toBe('ready');
+  return surface as ReadySurface;
 }

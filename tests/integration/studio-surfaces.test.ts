@@ -1,7 +1,7 @@
 // Growth surfaces through the studio's route handlers, against the real PostgreSQL and the S3
 // stand-in: presigned upload, registration with the check of lib/field, rejection that leaves
 // nothing behind, and who may see what.
-import { callRoute, createSurface, expectJson, signedInAccount, signedInAdmin, studioCast, uploadAndRegister, uploadFile, type TestAccount } from './studio-helpers';
+import { callRoute, createSurface, expectJson, registerAndCheck, signedInAccount, signedInAdmin, studioCast, uploadFile, type TestAccount } from './studio-helpers';
 import { readFile } from 'node:fs/promises';
 import { ListObjectsV2Command } from '@aws-sdk/client-s3';
 import sharp from 'sharp';
@@ -14,7 +14,8 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
-import type { SurfaceDetail, SurfaceSummary } from '@/lib/studio/types';
+import * as groomsRoute from '@/app/api/studio/grooms/route';
+import type { ReadySurface, SurfaceDetail, SurfaceSummary, UncheckedSurface } from '@/lib/studio/types';
 
 afterAll(closeDb);
 
@@ -36,7 +37,7 @@ beforeAll(async () => {
 });
 
 describe('registering an uploaded surface', () => {
-  let ringSurface: SurfaceSummary;
+  let ringSurface: ReadySurface;
   const ringBytes = objBytes(ring.surface());
 
   beforeAll(async () => {
@@ -123,33 +124,43 @@ describe('registering an uploaded surface', () => {
 });
 
 describe('a surface that fails the checks', () => {
-  it('is answered with its problems, and leaves no row and no object', async () => {
+  it('is refused by its check with its problems: the row says why, the file is gone, no groom can grow on it', async () => {
     const groomer = await signedInAccount('groomer', 'bowtie');
-    const response = await uploadAndRegister(groomer, 'bowtie.obj', await fixture('bowtie.obj'), 'Bowtie', 'cm');
-    const { error } = await expectJson(response, 422);
-    expect(error.code).toBe('surface-rejected');
-    expect(error.message).toMatch(/^bowtie\.obj cannot be used as a growth surface: .*touch at a single point/);
-    expect(error.details.problems).toEqual([
-      expect.objectContaining({ code: 'non-manifold-vertex', severity: 'error', count: 1, examples: [2], where: 'vertex' }),
+    const surface = (await registerAndCheck(groomer, 'bowtie.obj', await fixture('bowtie.obj'), 'Bowtie', 'cm')) as UncheckedSurface;
+    expect(surface).toMatchObject({ state: 'refused', check: { stage: 'checked', progress: 1 }, thumbnailUrl: null });
+    expect(surface.problems).toEqual([
+      expect.objectContaining({ code: 'non-manifold-vertex', severity: 'error', count: 1, examples: [2], where: 'vertex', message: expect.stringMatching(/touch at a single point/) }),
       expect.objectContaining({ code: 'several-components', severity: 'warning' }),
     ]);
-    expect(await db()('growth_surfaces').where({ owner_id: groomer.userId })).toHaveLength(0);
     expect(await db()('surface_uploads').where({ owner_id: groomer.userId })).toHaveLength(0);
     expect(await storedKeys(`surfaces/${groomer.userId}/`)).toEqual([]);
+    const groom = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: groomer.cookie, body: { surfaceId: surface.id, name: 'On a bowtie' } });
+    expect((await expectJson(groom, 409)).error).toEqual({ code: 'surface-not-ready', message: 'Bowtie was refused by its check and cannot carry a groom.' });
   });
 
   it('names every problem with counts and first examples', async () => {
-    const response = await uploadAndRegister(wren, 'strip.obj', await fixture('misoriented-strip.obj'), 'Strip', 'cm');
-    const { error } = await expectJson(response, 422);
-    expect(error.details.problems).toEqual([
+    const surface = (await registerAndCheck(wren, 'strip.obj', await fixture('misoriented-strip.obj'), 'Strip', 'cm')) as UncheckedSurface;
+    expect(surface.problems).toEqual([
       expect.objectContaining({ code: 'inconsistent-orientation', count: 2, examples: [2, 3, 3, 4], where: 'edge' }),
     ]);
   });
 
   it('says so when the file cannot be read at all', async () => {
-    const response = await uploadAndRegister(wren, 'truncated.stl', await fixture('truncated-binary.stl'), 'Truncated', 'cm');
-    const { error } = await expectJson(response, 422);
-    expect(error.details.problems).toEqual([expect.objectContaining({ code: 'truncated-file', severity: 'error', where: 'file' })]);
+    const surface = (await registerAndCheck(wren, 'truncated.stl', await fixture('truncated-binary.stl'), 'Truncated', 'cm')) as UncheckedSurface;
+    expect(surface.problems).toEqual([expect.objectContaining({ code: 'truncated-file', severity: 'error', where: 'file' })]);
+  });
+});
+
+describe('a surface being checked', () => {
+  it('is listed as checking, and no groom can be started on it yet', async () => {
+    const groomer = await signedInAccount('groomer', 'checking');
+    const ticket = await uploadFile(groomer, 'cube.obj', await fixture('uv-split-cube.obj'));
+    const registered = await callRoute(surfacesRoute, 'POST', '/api/studio/surfaces', { cookie: groomer.cookie, body: { uploadId: ticket.uploadId, name: 'Cube', units: 'cm' } });
+    const { surface } = (await expectJson(registered, 202)).data;
+    const { data } = await expectJson<{ data: { surfaces: SurfaceSummary[] } }>(await callRoute(surfacesRoute, 'GET', '/api/studio/surfaces', { cookie: groomer.cookie }), 200);
+    expect(data.surfaces).toEqual([expect.objectContaining({ id: surface.id, state: 'checking', problems: [], check: { stage: 'waiting for its check', progress: 0 } })]);
+    const groom = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: groomer.cookie, body: { surfaceId: surface.id, name: 'Too soon' } });
+    expect((await expectJson(groom, 409)).error).toEqual({ code: 'surface-not-ready', message: 'Cube is still being checked; start a groom on it once it is ready.' });
   });
 });
 

@@ -2,6 +2,7 @@
 // Guide settings, applied as they are changed: the field worker grows the guides again with
 // lib/groom's growGuides — the same guides an export writes — and the stage shows them.
 import type { GroomSpec, GuideSettings } from '@/lib/groom/spec/spec';
+import { MAX_GUIDES } from '@/lib/groom/spec/spec';
 import type { GrownGuides } from '@/lib/studio/client/protocol';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './editor-actions';
@@ -88,7 +89,7 @@ export function GuidePanel({
           </label>
         </div>
         {byCount ? (
-          <NumberField label="Guides" value={g.count} min={1} max={5_000_000} integer onCommit={(count) => actions.edit({ type: 'set-guides', guides: { ...rest, count } as GuideSettings })} />
+          <NumberField label="Guides" value={g.count} min={1} max={MAX_GUIDES} integer onCommit={(count) => actions.edit({ type: 'set-guides', guides: { ...rest, count } as GuideSettings })} />
         ) : (
           <NumberField label="Guides per cm²" value={g.density} min={0.0001} max={10_000} onCommit={(density) => actions.edit({ type: 'set-guides', guides: { ...rest, density } as GuideSettings })} />
         )}

@@ -35,7 +35,7 @@ export function ProblemReport({ fileName, problems, file, message }: { fileName:
         <h3 id="rejected-heading" className="text-lg font-extrabold text-hawthorn">
           {fileName} cannot be a growth surface yet
         </h3>
-        <p className="text-sm text-loam">{message} Nothing was kept; fix the file in your modelling program and upload it again.</p>
+        <p className="text-sm text-loam">{message} The file was not kept; fix it in your modelling program and upload it again.</p>
       </div>
       <ul className="flex flex-col gap-2" aria-label="Problems found">
         {[...errors, ...warnings].map((problem, i) => (

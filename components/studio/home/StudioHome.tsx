@@ -23,7 +23,10 @@ export function StudioHome({
   practice: readonly { id: string; character: string; description: string }[];
 }) {
   const grooms = useServerSeededSWR<GroomListResponse>(studioApi.groomsUrl, initialGrooms);
-  const surfaces = useServerSeededSWR<SurfaceListResponse>(studioApi.surfacesUrl, initialSurfaces);
+  // While a surface is being checked (a job), the list looks again every second for its progress.
+  const surfaces = useServerSeededSWR<SurfaceListResponse>(studioApi.surfacesUrl, initialSurfaces, {
+    refreshInterval: (latest) => (latest?.surfaces.some((surface) => surface.state === 'checking') ? 1000 : 0),
+  });
   const refresh = () => {
     void grooms.mutate();
     void surfaces.mutate();

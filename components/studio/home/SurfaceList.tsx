@@ -1,7 +1,8 @@
 'use client';
 // The groomer's growth surfaces with the facts that matter for grooming (faces, pieces, genus,
 // border loops, Euler characteristic — what the index budget will ask), starting a groom on one,
-// and deleting one no groom uses.
+// and deleting one no groom uses. A surface still being checked shows the check's stage and
+// progress; a refused one its reason, until it is deleted.
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { Notice } from '@/components/ui/Notice';
@@ -10,6 +11,7 @@ import { formatIndex } from '@/lib/studio/client/features';
 import { studioApi, type SurfaceSummary } from '@/lib/studio/client/api';
 import { plural, timeAgo } from '@/lib/studio/client/format';
 import { ConfirmDialog } from '../ui/ConfirmDialog';
+import { ProgressBar } from '../ui/ProgressBar';
 import { NameForm } from './NameForm';
 
 const nameSchema = createGroomSchema.pick({ name: true });
@@ -50,20 +52,34 @@ export function SurfaceList({ surfaces, onChanged }: { surfaces: SurfaceSummary[
               <p className="text-sm text-loam-soft">
                 {surface.fileName} · {surface.units} · uploaded {timeAgo(surface.createdAt)}
               </p>
-              <p className="text-sm text-loam">
-                {plural(surface.faceCount, 'face')} · {plural(surface.componentCount, 'piece')} · genus {surface.genus} · {plural(surface.boundaryLoopCount, 'border loop')} · χ = {surface.eulerCharacteristic}
-                {surface.boundaryLoopCount === 0 ? ` (indices must sum to ${formatIndex(surface.eulerCharacteristic)})` : ''} · {surface.areaCm2.toLocaleString('en-GB', { maximumFractionDigits: 0 })} cm²
-              </p>
-              {surface.groups.length > 0 && <p className="text-xs text-loam-soft">Groups: {surface.groups.join(', ')}</p>}
-              {surface.warnings.length > 0 && (
-                <details className="text-xs text-loam-soft">
-                  <summary className="cursor-pointer font-semibold text-bracken-deep">{plural(surface.warnings.length, 'thing', 'things')} worth knowing</summary>
-                  <ul className="list-disc pl-5">
-                    {surface.warnings.map((w, i) => (
-                      <li key={i}>{w.message}</li>
-                    ))}
-                  </ul>
-                </details>
+              {surface.state === 'checking' && (
+                <div data-testid="surface-checking">
+                  <ProgressBar label={`Being checked: ${surface.check.stage}`} fraction={surface.check.progress > 0 ? surface.check.progress : null} />
+                </div>
+              )}
+              {surface.state === 'refused' && (
+                <p className="text-sm font-medium text-hawthorn" data-testid="surface-refused">
+                  Refused: {surface.problems.filter((problem) => problem.severity === 'error').map((problem) => problem.message).join(' ')}
+                </p>
+              )}
+              {surface.state === 'ready' && (
+                <>
+                  <p className="text-sm text-loam">
+                    {plural(surface.faceCount, 'face')} · {plural(surface.componentCount, 'piece')} · genus {surface.genus} · {plural(surface.boundaryLoopCount, 'border loop')} · χ = {surface.eulerCharacteristic}
+                    {surface.boundaryLoopCount === 0 ? ` (indices must sum to ${formatIndex(surface.eulerCharacteristic)})` : ''} · {surface.areaCm2.toLocaleString('en-GB', { maximumFractionDigits: 0 })} cm²
+                  </p>
+                  {surface.groups.length > 0 && <p className="text-xs text-loam-soft">Groups: {surface.groups.join(', ')}</p>}
+                  {surface.warnings.length > 0 && (
+                    <details className="text-xs text-loam-soft">
+                      <summary className="cursor-pointer font-semibold text-bracken-deep">{plural(surface.warnings.length, 'thing', 'things')} worth knowing</summary>
+                      <ul className="list-disc pl-5">
+                        {surface.warnings.map((w, i) => (
+                          <li key={i}>{w.message}</li>
+                        ))}
+                      </ul>
+                    </details>
+                  )}
+                </>
               )}
               {starting === surface.id ? (
                 <div className="pt-2">
@@ -83,9 +99,11 @@ export function SurfaceList({ surfaces, onChanged }: { surfaces: SurfaceSummary[
                 </div>
               ) : (
                 <div className="flex flex-wrap gap-1.5 pt-2">
+                  {surface.state === 'ready' && (
                   <button type="button" onClick={() => setStarting(surface.id)} className="rounded-full bg-tarn px-3.5 py-1.5 text-sm font-semibold text-chalk hover:bg-tarn-deep" aria-label={`Start a groom on ${surface.name}`}>
                     Start a groom
                   </button>
+                  )}
                   <button type="button" onClick={() => setDeleting(surface)} className="rounded-full px-3 py-1 text-sm font-semibold text-hawthorn hover:bg-hawthorn-pale" aria-label={`Delete ${surface.name}`}>
                     Delete
                   </button>

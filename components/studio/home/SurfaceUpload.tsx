@@ -1,7 +1,8 @@
 'use client';
 // Uploading a growth surface: the file goes straight to object storage through the presigned
-// link the studio API hands out (with its real progress), then the server checks it with lib/field.
-// A refused file is reported problem by problem, with its bad faces shown when it can be drawn.
+// link the studio API hands out (with its real progress), then a job on the server checks it with
+// lib/field, its stage and progress shown here and in the list. A refused file is reported problem
+// by problem, with its bad faces shown when it can be drawn.
 import { useRef, useState, type FormEvent } from 'react';
 import { Notice } from '@/components/ui/Notice';
 import { SURFACE_FORMATS, SURFACE_UNITS, extensionOf, formatBytes, studioApi, uploadFile, type SurfaceProblem, type SurfaceSummary, type SurfaceUnits } from '@/lib/studio/client/api';
@@ -10,7 +11,10 @@ import { ProgressBar } from '../ui/ProgressBar';
 import { ProblemReport } from './ProblemReport';
 
 type Errors = Partial<Record<'file' | 'name' | 'units', string>>;
-type Stage = { step: 'idle' } | { step: 'uploading'; fraction: number } | { step: 'checking' };
+type Stage = { step: 'idle' } | { step: 'uploading'; fraction: number } | { step: 'checking'; label: string; fraction: number | null };
+
+/** How often the check's progress is read while it runs. */
+const CHECK_POLL_MS = 500;
 
 const UNIT_WORDS: Record<SurfaceUnits, string> = { mm: 'millimetres', cm: 'centimetres', m: 'metres', in: 'inches' };
 
@@ -66,10 +70,10 @@ export function SurfaceUpload({ maxBytes, onUploaded }: { maxBytes: number; onUp
       setStage({ step: 'idle' });
       return setFailure(sent);
     }
-    setStage({ step: 'checking' });
+    setStage({ step: 'checking', label: 'Queued for its check…', fraction: null });
     const registered = await studioApi.createSurface({ uploadId: ticket.data.uploadId, name: name.trim(), units });
-    setStage({ step: 'idle' });
     if (!registered.ok) {
+      setStage({ step: 'idle' });
       const problems = registered.error.details?.problems;
       if (registered.error.code === 'surface-rejected' && Array.isArray(problems)) {
         return setRejected({ fileName: file.name, message: registered.error.message, problems: problems as SurfaceProblem[], file });
@@ -77,8 +81,28 @@ export function SurfaceUpload({ maxBytes, onUploaded }: { maxBytes: number; onUp
       if (registered.error.fields) return setErrors({ name: registered.error.fields.name, units: registered.error.fields.units });
       return setFailure(registered.error.message);
     }
-    setDone(`${registered.data.surface.name} is ready: ${registered.data.surface.faceCount.toLocaleString('en-GB')} faces.`);
     onUploaded(registered.data.surface);
+    // The check runs as a job: its stage is read until it has ended.
+    let surface = registered.data.surface;
+    while (surface.state === 'checking') {
+      setStage({ step: 'checking', label: `Checking the surface: ${surface.check.stage}…`, fraction: surface.check.progress > 0 ? surface.check.progress : null });
+      await new Promise((resolve) => setTimeout(resolve, CHECK_POLL_MS));
+      const latest = await studioApi.getSurface(surface.id);
+      if (!latest.ok) {
+        setStage({ step: 'idle' });
+        return setFailure(latest.error.message);
+      }
+      surface = latest.data.surface;
+    }
+    setStage({ step: 'idle' });
+    if (surface.state === 'refused') {
+      const errors = surface.problems.filter((problem) => problem.severity === 'error');
+      onUploaded(surface);
+      return setRejected({ fileName: file.name, message: `${file.name} cannot be used as a growth surface: ${errors.map((problem) => problem.message).join(' ')}`, problems: surface.problems, file });
+    }
+    if (surface.state !== 'ready') return;
+    setDone(`${surface.name} is ready: ${surface.faceCount.toLocaleString('en-GB')} faces.`);
+    onUploaded(surface);
     form.current?.reset();
     setFile(null);
     setName('');
@@ -172,7 +196,7 @@ export function SurfaceUpload({ maxBytes, onUploaded }: { maxBytes: number; onUp
           </button>
           <div className="min-w-64 flex-1" aria-live="polite">
             {stage.step === 'uploading' && <ProgressBar label={`Uploading ${file?.name ?? ''}`} fraction={stage.fraction} />}
-            {stage.step === 'checking' && <ProgressBar label="Checking the surface (manifold, orientation, faces)…" fraction={null} />}
+            {stage.step === 'checking' && <ProgressBar label={stage.label} fraction={stage.fraction} />}
           </div>
         </div>
       </form>

@@ -7,7 +7,7 @@ import { downOf } from '../place/request';
 import { sampleRoots } from './roots';
 import { shapeGuide } from './shape';
 import { SKIN_QUERY_SIZE } from '../place/skin';
-import { CENTIMETRES_PER_UNIT, type GroomSpec, type Unit } from '../spec/spec';
+import { CENTIMETRES_PER_UNIT, guidePointsProblem, type GroomSpec, type Unit } from '../spec/spec';
 import type { GroomSurface } from '../place/surface';
 import { createTracer } from './trace';
 
@@ -44,8 +44,14 @@ export interface GrowResult {
   readonly timings: { readonly rootsMilliseconds: number; readonly traceMilliseconds: number; readonly shapeMilliseconds: number };
 }
 
-/** Most guides one groom may have. */
-export const MAX_GUIDES = 5_000_000;
+export type GrowOptions = {
+  /**
+   * Grow at most this many guides, spread over the same area at the same relative density (a
+   * picture of the coat, as thumbnails draw it, need not hold every guide).
+   */
+  readonly sampleOf?: number;
+};
+
 /** Tip width as a fraction of the root width. */
 const TIP_TAPER = 0.2;
 /** At jitter 1, a guide's length varies by up to ±25 % and its tip leans sideways by up to 15 % of its length. */
@@ -78,7 +84,7 @@ function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y:
  * the skin or nearer to it than the clearance (1e-4 of the bounding box diagonal), as the skin's
  * spatial index finds; each guide's first segment leaves the root along the field (see shapeGuide).
  */
-export function growGuides(surface: GroomSurface, solved: SolvedField, spec: GroomSpec): GrowResult {
+export function growGuides(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, options: GrowOptions = {}): GrowResult {
   const settings = spec.guides;
   const { mesh } = surface;
   const p = mesh.positions;
@@ -94,10 +100,15 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
     area += surface.faceArea[f] * (d ? (d[tri[3 * f]] + d[tri[3 * f + 1]] + d[tri[3 * f + 2]]) / 3 : 1);
   }
   const areaSquareCm = area * cm2PerUnit2;
-  const wanted = settings.count ?? Math.round((settings.density ?? 0) * areaSquareCm);
-  if (wanted > MAX_GUIDES) {
-    throw new GroomError('too-many-guides', `guides.density: ${settings.density} guides per cm² over ${Math.round(areaSquareCm)} cm² makes ${wanted} guides; at most ${MAX_GUIDES} are allowed.`, 'guides.density');
+  const asked = settings.count ?? Math.round((settings.density ?? 0) * areaSquareCm);
+  // A count over budget never passes the schema; a density is checked here, where the area is known.
+  const problem = guidePointsProblem(asked, settings.pointsPerGuide);
+  if (problem) {
+    const path = settings.count === undefined ? 'guides.density' : 'guides.count';
+    const made = settings.count === undefined ? `guides.density: ${settings.density} guides per cm² over ${Math.round(areaSquareCm)} cm² makes ` : '';
+    throw new GroomError('too-many-guides', `${made}${problem}`, path);
   }
+  const wanted = options.sampleOf !== undefined ? Math.min(asked, options.sampleOf) : asked;
   const roots = sampleRoots({ positions: p, triangles: tri, faceArea: surface.faceArea, count: wanted, allowedFace: mask, vertexDensity: pins.density, seed: settings.seed });
   const t1 = now();
 

@@ -78,9 +78,29 @@ const fieldSchemaV2 = z.strictObject({
   strokes: z.array(strokeSchema).max(256).default([]),
 });
 
+/**
+ * The hard budget of a groom: guides × points per guide. 4,000,000 points (250,000 guides of 16
+ * points, 62,500 of 64) grow and write as USD text in about 650–850 MB, what a job worker with a
+ * 1.5 GB budget holds with room to spare; see lib/groom/README.md, "Budgets", for the measurement.
+ */
+export const MAX_GUIDE_POINTS = 4_000_000;
+/** Most guides, at the fewest points per guide (2). */
+export const MAX_GUIDES = MAX_GUIDE_POINTS / 2;
+
+/** The budget's words, shared by the schema (counts) and the grower (densities). */
+export function guidePointsProblem(guides: number, pointsPerGuide: number): string | null {
+  const points = guides * pointsPerGuide;
+  if (points <= MAX_GUIDE_POINTS) return null;
+  const fits = Math.floor(MAX_GUIDE_POINTS / pointsPerGuide);
+  return (
+    `${guides.toLocaleString('en')} guides × ${pointsPerGuide} points is ${points.toLocaleString('en')} points; a groom may have at most ` +
+    `${MAX_GUIDE_POINTS.toLocaleString('en')} (at ${pointsPerGuide} points per guide, ${fits.toLocaleString('en')} guides). Lower the guide count or the points per guide.`
+  );
+}
+
 const guideAmount = {
   density: z.number().positive().max(10_000).optional(),
-  count: z.int().min(1).max(5_000_000).optional(),
+  count: z.int().min(1).max(MAX_GUIDES).optional(),
 };
 
 function notBothAmounts(value: { density?: number; count?: number }, ctx: z.RefinementCtx): void {
@@ -103,7 +123,11 @@ const guidesSchemaV2 = z
     width: size.optional(),
     hairsPerGuide: z.int().min(1).max(100_000).default(100),
   })
-  .superRefine(notBothAmounts);
+  .superRefine(notBothAmounts)
+  .superRefine((value, ctx) => {
+    const problem = value.count === undefined ? null : guidePointsProblem(value.count, value.pointsPerGuide);
+    if (problem) ctx.addIssue({ code: 'custom', path: ['count'], message: problem });
+  });
 
 const specSchemaV2 = z
   .strictObject({

@@ -11,6 +11,6 @@ export function GET() {
 export function POST(request: Request) {
   return handler(['groomer'], async (groomer) => {
     const input = await readBody(request, registerSurfaceSchema);
-    return jsonData<SurfaceResponse>({ surface: await registerSurface(groomer, input) }, 201);
+    return jsonData<SurfaceResponse>({ surface: await registerSurface(groomer, input) }, 202);
   });
 }

@@ -6,7 +6,7 @@
  * @gltf-transform/core.
  */
 import { FieldError } from '../errors';
-import { assertFaceBudget, triangleStarts, type PolygonSoup } from './soup';
+import { assertFaceBudget, triangleStarts, vertexBudget, type PolygonSoup } from './soup';
 import { clip } from './text';
 
 const GLB_MAGIC = 0x46546c67; // "glTF"
@@ -381,7 +381,7 @@ export function readGltf(bytes: Uint8Array, binary: boolean, maxFaces: number): 
   }
   if (skipped > 0) notes.push(`${skipped} glTF primitives made of points or lines were ignored: only triangles make the surface.`);
 
-  const vertexLimit = 3 * maxFaces;
+  const vertexLimit = vertexBudget(maxFaces);
   let vertexTotal = 0;
   const positionBlocks: Float64Array[] = [];
   const corners = new Uint32Array(3 * triangles);

@@ -4,7 +4,7 @@
  */
 import { FieldError } from '../errors';
 import { GrowableFloat64, GrowableUint32 } from './growable';
-import { assertFaceBudget, type PolygonSoup } from './soup';
+import { assertFaceBudget, assertVertexBudget, type PolygonSoup } from './soup';
 import { TextCursor, clip, parseInteger, parseNumber } from './text';
 
 const IGNORED_GEOMETRY = new Set(['l', 'p', 'curv', 'curv2', 'surf']);
@@ -17,8 +17,8 @@ const MAX_GROUPS = 0xffff;
  * ignored; lines, points and curves are noted.
  *
  * Guarantees: returns the polygons as written, or throws a FieldError (`malformed-file` naming the
- * line, `vertex-out-of-range`, `too-many-faces` as soon as the budget is exceeded). Time and
- * memory are linear in the file size.
+ * line, `vertex-out-of-range`, `too-many-faces` or `too-many-vertices` as soon as a budget is
+ * exceeded). Time and memory are linear in the file size, and bounded by the budgets.
  */
 export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
   const cursor = new TextCursor(bytes);
@@ -61,6 +61,8 @@ export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
     const where = () => `line ${lineNumber}`;
     switch (tokens[0]) {
       case 'v':
+        // Checked before the position is stored, so a file of nothing but `v` lines stops at the budget.
+        assertVertexBudget(vertexCount + 1, maxFaces);
         positions.push(parseNumber(tokenCount > 1 ? tokens[1] : null, where));
         positions.push(parseNumber(tokenCount > 2 ? tokens[2] : null, where));
         positions.push(parseNumber(tokenCount > 3 ? tokens[3] : null, where));

@@ -4,7 +4,7 @@
  */
 import { FieldError } from '../errors';
 import { GrowableUint32 } from './growable';
-import { assertFaceBudget, type PolygonSoup } from './soup';
+import { assertFaceBudget, assertVertexBudget, type PolygonSoup } from './soup';
 import { TextCursor, clip, parseNumber } from './text';
 
 type Encoding = 'ascii' | 'binary_little_endian' | 'binary_big_endian';
@@ -82,6 +82,8 @@ export function readPly(bytes: Uint8Array, maxFaces: number): PlyRead {
     );
   }
   assertCountsFit(elements, bytes.length - bodyStart, encoding);
+  // A file may really hold that many vertices; still no more than the faces can use.
+  assertVertexBudget(vertexElement.count, maxFaces);
 
   const positions = new Float64Array(3 * vertexElement.count);
   const polygonStart = new Uint32Array((faceElement?.count ?? 0) + 1);

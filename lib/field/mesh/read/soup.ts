@@ -53,6 +53,26 @@ export function assertFaceBudget(triangles: number, maxFaces: number): void {
   }
 }
 
+/**
+ * Most vertices a file may declare or hold for at most `maxFaces` triangles: three per triangle,
+ * the count of a soup whose triangles share no vertex (welding then merges them). More are
+ * isolated points no face uses, and only memory to allocate.
+ */
+export function vertexBudget(maxFaces: number): number {
+  return 3 * maxFaces;
+}
+
+/** Throws the reader's `too-many-vertices` error when a file holds more vertices than its face budget can use. */
+export function assertVertexBudget(vertices: number, maxFaces: number): void {
+  const limit = vertexBudget(maxFaces);
+  if (vertices > limit) {
+    throw new FieldError(
+      'too-many-vertices',
+      `The surface has more than ${limit.toLocaleString('en-US')} vertices, three for each of the at most ${maxFaces.toLocaleString('en-US')} triangles allowed. Decimate the surface (or remove unused vertices) before uploading it.`,
+    );
+  }
+}
+
 /** Polygon starts for a soup of `count` triangles: 0, 3, 6, … */
 export function triangleStarts(count: number): Uint32Array {
   const starts = new Uint32Array(count + 1);
