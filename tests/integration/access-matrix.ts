@@ -106,7 +106,7 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('POST', '/api/studio/uploads', '401 403 201 201 403', { body: { fileName: 'coat.obj', byteSize: 1024 } }),
   route('POST', '/api/studio/uploads', '401 403 400 400 403', { body: { fileName: 'coat.obj', byteSize: 0 }, note: 'bad input' }),
   route('GET', '/api/studio/surfaces', '401 403 200 200 403'),
-  route('POST', '/api/studio/surfaces', '401 403 201 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
+  route('POST', '/api/studio/surfaces', '401 403 202 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
   route('GET', '/api/studio/surfaces/[surfaceId]', '401 403 200 404 403', { params: surface }),
   route('GET', '/api/studio/surfaces/[surfaceId]', '401 403 404 404 403', { params: { surfaceId: ['not-an-id'] }, note: 'malformed id' }),
   route('DELETE', '/api/studio/surfaces/[surfaceId]', '401 403 200 404 403', { params: { surfaceId: 'spareSurface' } }),
