@@ -37,10 +37,17 @@ async function groomWithSavedVersion(page: Page, name: string) {
   );
   const put = await page.request.put(ticket.url, { data: Buffer.from(obj) });
   expect(put.ok()).toBe(true);
+  // Registering answers at once; a job worker checks the file, and a groom starts on a ready surface.
   const { surface } = await apiJson<{ surface: { id: string } }>(
     await page.request.post('/api/studio/surfaces', { data: { uploadId: ticket.uploadId, name: 'Loop ring', units: 'cm' } }),
-    201,
+    202,
   );
+  await expect
+    .poll(async () => (await apiJson<{ surface: { state: string } }>(await page.request.get(`/api/studio/surfaces/${surface.id}`), 200)).surface.state, {
+      timeout: 60_000,
+      message: 'the surface is checked',
+    })
+    .toBe('ready');
   const { groom } = await apiJson<{ groom: { id: string } }>(
     await page.request.post('/api/studio/grooms', { data: { surfaceId: surface.id, name } }),
     201,

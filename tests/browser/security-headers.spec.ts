@@ -44,8 +44,9 @@ test('the market, a listing with its guide preview and the editor with its field
   const pictures = page.getByRole('main').locator('img');
   const broken = () =>
     pictures.evaluateAll((images) => images.filter((image) => (image as HTMLImageElement).complete && (image as HTMLImageElement).naturalWidth === 0).length);
+  // Only the demo's own listing: listings other tests made point at pictures they never stored.
   await expect(async () => {
-    await page.goto('/market');
+    await page.goto('/market?q=autumn');
     await expect(pictures.first()).toBeVisible({ timeout: 2_000 });
     await expect(pictures.first()).toHaveJSProperty('complete', true, { timeout: 5_000 });
   }).toPass({ timeout: 90_000 });
