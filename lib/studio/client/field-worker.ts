@@ -1,6 +1,8 @@
 // The studio's field worker: one FieldEngine per page, answering the protocol of protocol.ts.
 // Requests are answered one at a time, in order; the page (field-client.ts) makes sure that
 // only the newest solve of a burst is sent, so a drag never queues up stale work here.
+// First, before any schema is built in this worker: no code generation under the app's policy.
+import '@/lib/http/no-eval';
 import { FieldEngine } from './field-engine';
 import { errorOf } from './field-reports';
 import type { WorkerReply, WorkerRequest } from './protocol';
