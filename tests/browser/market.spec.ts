@@ -205,7 +205,14 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
 
   // An admin refunds it, told first that it was paid out; the buyer's download is refused.
   await admin.goto('/admin');
+  // The admin looks the buyer up (older purchases, moved past the hold, are not on the first page).
+  const byBuyer = admin.getByRole('search', { name: 'Purchases by buyer' });
   const purchase = admin.getByTestId('admin-purchase').filter({ hasText: buyerAccount.email });
+  await expect(async () => {
+    await byBuyer.getByLabel('Buyer’s e-mail').fill(buyerAccount.email);
+    await byBuyer.getByRole('button', { name: 'Find' }).click();
+    await expect(purchase).toBeVisible({ timeout: 5_000 });
+  }).toPass({ timeout: 30_000 });
   await purchase.getByRole('button', { name: 'Refund…' }).click();
   await expect(purchase.getByTestId('paid-out-warning')).toContainText('the refund leaves the seller owing 16.57 EUR');
   await purchase.getByLabel(/Reason/).fill('Bought by mistake');
