@@ -9,9 +9,8 @@
  * .next-bench (skip with --no-build to reuse an earlier build), serves it with `next start` beside
  * two job-worker processes (services/jobs-worker.ts, as `WORKERS=2 npm run demo` would), makes a
  * groom at the budget (lib/groom/README.md, "Budgets": 250,000 guides × 16 points on the demo cat)
- * and then measures, with autocannon at a steady rate in a worker thread of its own (bench/steady-load.ts;
- * requests arriving evenly over each second, answers of the first 3 s left out, and during an export
- * only until it ended):
+ * and then measures, with autocannon at a steady rate (requests arriving evenly over each second,
+ * answers of the first 3 s left out, and during an export only until it ended):
  *   1. GET /api/health alone (nothing else running);
  *   2. GET /api/health while one USD export of that groom runs (target p95 ≤ 100 ms);
  *   3. the market search at --search-rate req/s and /api/health together while two such exports
@@ -19,15 +18,20 @@
  * The search runs over the seeded listings only (bench/market.ts measures it over 10,000). Each
  * export's own time is printed too. Run it on a quiet machine: the two cores are the point.
  */
-import { Worker } from 'node:worker_threads';
+import { createRequire } from 'node:module';
 import { cpus, loadavg } from 'node:os';
 import { join } from 'node:path';
+import knex from 'knex';
 import { migrateAndSeed, projectRoot, stackEnvironment, startStack, testProfile, type StackProfile } from '../scripts/lib/stack';
 import { CommandFailed, log, runCommand, shutdown, startProcess, stopEverythingOnSignals, waitForHttp } from '../scripts/lib/processes';
+import { migrationConfig } from '../db/migration-config';
 import { JOBS_WORKER_ARGS } from '../services/jobs-worker-process';
 import { DEMO_ACCOUNTS } from '../db/demo-scenario';
-import type { SteadyLoad, SteadyResult } from './steady-load';
 
+type AutocannonClient = { on(event: 'response', listener: (status: number, bytes: number, ms: number) => void): void };
+type AutocannonResult = { errors: number; timeouts: number };
+// autocannon ships no type declarations.
+const autocannon = createRequire(import.meta.url)('autocannon') as (options: Record<string, unknown>) => Promise<AutocannonResult>;
 
 function option(name: string, fallback: number): number {
   const at = process.argv.indexOf(`--${name}`);
@@ -57,30 +61,39 @@ function percentile(sorted: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
 }
 
-/** Now, in ms since the epoch: the clock both threads share. */
-const wallNow = () => performance.timeOrigin + performance.now();
-
 /**
- * `rate` requests a second for WARM_UP + SECONDS s from the load worker (bench/steady-load.ts);
- * with `until`, answers count only until it resolves (the exports ended).
+ * `rate` requests a second for WARM_UP + SECONDS s, spread over the second (one-connection runs
+ * started in turn); with `until`, answers count only until it resolves (the exports ended).
  */
 async function steady(url: string, paths: readonly string[], rate: number, until?: Promise<unknown>): Promise<Tally> {
-  const tally: Tally = { from: wallNow() + WARM_UP_SECONDS * 1000, to: 0, latencies: [], non2xx: 0, errors: 0 };
+  const tally: Tally = { from: performance.now() + WARM_UP_SECONDS * 1000, to: 0, latencies: [], non2xx: 0, errors: 0 };
   tally.to = tally.from + SECONDS * 1000;
-  void until?.then(() => (tally.to = Math.min(tally.to, wallNow())));
-  const load: SteadyLoad = { url, paths, rate, seconds: WARM_UP_SECONDS + SECONDS + 1 };
-  const worker = new Worker(new URL('./steady-load.ts', import.meta.url), { workerData: load });
-  const result = await new Promise<SteadyResult>((resolve, reject) => {
-    worker.once('message', resolve);
-    worker.once('error', reject);
-  });
-  await worker.terminate();
-  for (const [at, ms, status] of result.samples) {
-    if (at < tally.from || at >= tally.to) continue;
-    tally.latencies.push(ms);
-    if (status < 200 || status >= 300) tally.non2xx++;
+  void until?.then(() => (tally.to = Math.min(tally.to, performance.now())));
+  let turn = 0;
+  const runs = Math.min(100, rate);
+  const started: Promise<void>[] = [];
+  for (let i = 0; i < runs; i++) {
+    const connections = Math.floor(rate / runs) + (i < rate % runs ? 1 : 0);
+    const run = async () => {
+      const result = await autocannon({
+        url,
+        duration: WARM_UP_SECONDS + SECONDS + 1,
+        connections,
+        connectionRate: 1,
+        requests: [{ method: 'GET', setupRequest: (request: Record<string, unknown>) => ({ ...request, path: paths[turn++ % paths.length] }) }],
+        setupClient: (client: AutocannonClient) =>
+          client.on('response', (status, _bytes, ms) => {
+            const now = performance.now();
+            if (now < tally.from || now >= tally.to) return;
+            tally.latencies.push(ms);
+            if (status < 200 || status >= 300) tally.non2xx++;
+          }),
+      });
+      tally.errors += result.errors + result.timeouts;
+    };
+    started.push(new Promise((resolve) => setTimeout(resolve, (i * 1000) / runs)).then(run));
   }
-  tally.errors = result.errors;
+  await Promise.all(started);
   return tally;
 }
 
