@@ -6,6 +6,7 @@
 // route handlers check in lib/http/server.ts; both go through currentSession.
 import type { NextAuthOptions, Session } from 'next-auth';
 import { getServerSession } from 'next-auth';
+import { cache } from 'react';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { cookies } from 'next/headers';
 import { forbidden, redirect } from 'next/navigation';
@@ -90,11 +91,15 @@ export async function sessionOfCookies(cookieValues: Record<string, string>): Pr
   return session as SignedInSession;
 }
 
-/** The session of the request being answered (pages, server components, route handlers). */
-export async function currentSession(): Promise<SignedInSession | null> {
+/**
+ * The session of the request being answered (pages, server components, route handlers). Each read
+ * checks the account in the database, so within one server render (the header, then the page's
+ * requireArea) React's cache() makes it one read.
+ */
+export const currentSession = cache(async (): Promise<SignedInSession | null> => {
   const jar = await cookies();
   return sessionOfCookies(Object.fromEntries(jar.getAll().map((cookie) => [cookie.name, cookie.value])));
-}
+});
 
 /**
  * For pages of an area: sends visitors who are not signed in to the sign-in page (and back here

@@ -29,7 +29,8 @@ import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { getObjectBytes, putObject } from '../platform/storage';
-import { copyObject, listingPrefix } from './storage';
+import { copyObject } from '../platform/storage';
+import { listingPrefix } from './storage';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
 
 export type Picture = { view: ThumbnailView; size: number; key: string };

@@ -1,7 +1,7 @@
 // Object storage as the market uses it: each listing's frozen surface, pictures, guide preview and
 // package under market/listings/<id>/; handed out only through short-lived presigned URLs
 // (presignDownload of lib/platform/storage.ts) after the market's own checks.
-import { CopyObjectCommand, DeleteObjectsCommand } from '@aws-sdk/client-s3';
+import { DeleteObjectsCommand } from '@aws-sdk/client-s3';
 import { env } from '../platform/env';
 import { storageClient } from '../platform/storage';
 
@@ -11,9 +11,6 @@ export const DOWNLOAD_URL_SECONDS = 5 * 60;
 export const PICTURE_URL_SECONDS = 10 * 60;
 
 export const listingPrefix = (listingId: string) => `market/listings/${listingId}`;
-
-/** Copies an object inside the bucket (the frozen surface of a listing). */
-export { copyObject } from '../platform/storage';
 
 /** Deletes objects that no row names any more; a failure is logged, not thrown. */
 export async function deleteMarketObjects(keys: readonly string[]): Promise<void> {
