@@ -4,8 +4,9 @@
  *
  *   npm run bench:reliability -- [--seconds 20] [--health-rate 50] [--search-rate 200] [--no-build]
  *
- * It starts a throwaway stack of its own (the BENCH ports of bench/market.ts, .data/bench), migrates
- * and seeds it (the demo groomer's surfaces and the market's demo listings), builds the app into
+ * It starts a throwaway stack of its own (the BENCH ports of bench/market.ts, .data/bench) in a
+ * process of its own (bench/stack-host.ts: the object store stand-in must not share the thread that
+ * times the answers), migrates and seeds it (the demo groomer's surfaces and the market's demo listings), builds the app into
  * .next-bench (skip with --no-build to reuse an earlier build), serves it with `next start` beside
  * two job-worker processes (services/jobs-worker.ts, as `WORKERS=2 npm run demo` would), makes a
  * groom at the budget (lib/groom/README.md, "Budgets": 250,000 guides × 16 points on the demo cat)
@@ -21,10 +22,8 @@
 import { createRequire } from 'node:module';
 import { cpus, loadavg } from 'node:os';
 import { join } from 'node:path';
-import knex from 'knex';
-import { migrateAndSeed, projectRoot, stackEnvironment, startStack, testProfile, type StackProfile } from '../scripts/lib/stack';
+import { migrateAndSeed, projectRoot, stackEnvironment, testProfile, type StackProfile } from '../scripts/lib/stack';
 import { CommandFailed, log, runCommand, shutdown, startProcess, stopEverythingOnSignals, waitForHttp } from '../scripts/lib/processes';
-import { migrationConfig } from '../db/migration-config';
 import { JOBS_WORKER_ARGS } from '../services/jobs-worker-process';
 import { DEMO_ACCOUNTS } from '../db/demo-scenario';
 
@@ -109,7 +108,9 @@ stopEverythingOnSignals();
 const profile: StackProfile = testProfile();
 let exitCode = 0;
 try {
-  await startStack(profile);
+  // The services run in a process of their own (bench/stack-host.ts); the payments fake starts last.
+  const services = startProcess(process.execPath, ['--import', 'tsx', join(projectRoot, 'bench', 'stack-host.ts')], { cwd: projectRoot });
+  await waitForHttp(`http://127.0.0.1:${profile.ports.payments}/`, services, 'the bench\'s services');
   await migrateAndSeed(profile);
   const environment = { ...stackEnvironment(profile), NEXT_DIST_DIR: DIST_DIR };
   // This process queues the exports through lib/studio, with the stack's configuration.

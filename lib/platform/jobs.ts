@@ -3,6 +3,7 @@
 // job-worker processes (services/jobs-worker.ts), never in the web server, and any number of
 // them, on any number of machines, share the queues.
 import PgBoss from 'pg-boss';
+import { db } from './db';
 import { env } from './env';
 
 type Jobs = { boss: Promise<PgBoss>; queues: Map<string, Promise<void>> };
@@ -42,18 +43,30 @@ function once(map: Map<string, Promise<void>>, area: string, work: () => Promise
 }
 
 /**
+ * Held while a process makes or updates queues: two job workers starting at once on a new database
+ * would both find a queue missing and create it together, and pg-boss's creation (a row and a
+ * partition table) then deadlocks one of them (PostgreSQL error 40P01, seen with `WORKERS=2`).
+ * The number is this project's own; any constant unique among its advisory locks would do.
+ */
+const QUEUE_SETUP_LOCK = 0x77_686f_726c;
+
+/**
  * The job queue with an area's queues made (once per process; pg-boss keeps them in the database).
  * A queue that exists gets the options of this code (its time budget may have changed since).
+ * Processes make queues one at a time (a transaction-level advisory lock, released at its end).
  */
 export async function jobQueue(area: string, queues: readonly PgBoss.Queue[]): Promise<PgBoss> {
   const { boss, queues: made } = jobs();
   const started = await boss;
-  await once(made, area, async () => {
-    for (const queue of queues) {
-      if (!(await started.getQueue(queue.name))) await started.createQueue(queue.name, queue);
-      else await started.updateQueue(queue.name, queue);
-    }
-  });
+  await once(made, area, () =>
+    db().transaction(async (lock) => {
+      await lock.raw('SELECT pg_advisory_xact_lock(?)', [QUEUE_SETUP_LOCK]);
+      for (const queue of queues) {
+        if (!(await started.getQueue(queue.name))) await started.createQueue(queue.name, queue);
+        else await started.updateQueue(queue.name, queue);
+      }
+    }),
+  );
   return started;
 }
 

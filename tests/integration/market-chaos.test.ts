@@ -1,24 +1,24 @@
 // Payments chaos: 1,000 webhook deliveries (real signatures) for 200 paid checkouts, shuffled with
-// a fixed seed, each event delivered 1–5 times, refunds interleaved, and the app's webhook
-// handling killed and restarted twice mid-stream; then reconciliation and payouts. Afterwards:
+// a fixed seed, each event delivered 1–5 times, refunds interleaved, and the app process that
+// answers them killed and restarted twice mid-stream; then reconciliation and payouts. Afterwards:
 // exactly one purchase per paid checkout, every refund applied, payouts equal to the sum of the
 // eligible purchases, nothing doubled, nothing lost.
 //
-// The webhook route runs in this process, so "the app" is one instance of its modules (route →
-// lib/market → lib/platform/db with its own connection pool, named chaos-<n> through the
-// connection's application_name). A kill terminates that pool's PostgreSQL connections while
-// deliveries are in flight (their transactions roll back; their answers are dropped, as a killed
-// process gives none), then the next deliveries meet a server that is down (60 of them each
-// time, never answered); a restart is a fresh instance of every module (vi.resetModules) with a
-// new pool. The provider does not retry what was lost: reconciliation must find it.
+// "The app" is a process of its own serving the real webhook route over HTTP
+// (tests/integration/webhook-process.ts, its PostgreSQL connections named chaos-<n> through
+// application_name). A kill is SIGKILL while deliveries are in flight: the operating system closes
+// its sockets, PostgreSQL rolls back its open transactions, the provider gets no answer. The next
+// 60 deliveries meet a closed port; then a new process starts. The provider does not retry what
+// was lost: reconciliation must find it.
 //
 // Deterministic: the order and repetition of deliveries, the refunds and the kill points follow a
 // fixed seed; only which in-flight deliveries a kill catches depends on timing, and the checks
 // below hold whatever it catches.
-import knex, { type Knex } from 'knex';
+import { fork, type ChildProcess } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
 import type Stripe from 'stripe';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { closeDb, db, knexConfig } from '@/lib/platform/db';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, db } from '@/lib/platform/db';
 import { payments } from '@/lib/platform/payments';
 import { startCheckout } from '@/lib/market/payments/checkout';
 import type { Actor } from '@/lib/accounts/actor';
@@ -45,49 +45,61 @@ function random(seed: number) {
   };
 }
 
-type App = {
-  name: string;
-  POST: (request: Request) => Promise<Response>;
-  reconcilePayments: typeof import('@/lib/market/payments/reconcile').reconcilePayments;
-  requestPayout: typeof import('@/lib/market/payouts').requestPayout;
-};
+const WEBHOOK_PROCESS = fileURLToPath(new URL('./webhook-process.ts', import.meta.url));
+const PROJECT_ROOT = fileURLToPath(new URL('../..', import.meta.url));
 
-const baseUrl = process.env.DATABASE_URL!;
-const baseHoldDays = process.env.MARKET_PAYOUT_HOLD_DAYS;
-const holder = globalThis as typeof globalThis & { whorlwindDb?: Knex };
-let killer: Knex;
+type App = { name: string; child: ChildProcess; url: string };
 
-/** A fresh instance of the app's modules with a pool of its own. */
+/** Starts the app: a process serving the webhook route, with connections named after it. */
 async function boot(n: number): Promise<App> {
   const name = `chaos-${n}`;
-  const url = new URL(baseUrl);
-  url.searchParams.set('application_name', name);
-  process.env.DATABASE_URL = url.toString();
-  // Sales are paid out at once in this run (the holding period is tested in market-money).
-  process.env.MARKET_PAYOUT_HOLD_DAYS = '0';
-  holder.whorlwindDb = undefined;
-  vi.resetModules();
-  const route = await import('@/app/api/payments/webhook/route');
-  const reconcile = await import('@/lib/market/payments/reconcile');
-  const payouts = await import('@/lib/market/payouts');
-  return { name, POST: route.POST, reconcilePayments: reconcile.reconcilePayments, requestPayout: payouts.requestPayout };
+  const databaseUrl = new URL(process.env.DATABASE_URL!);
+  databaseUrl.searchParams.set('application_name', name);
+  const child = fork(WEBHOOK_PROCESS, [], {
+    cwd: PROJECT_ROOT,
+    execArgv: ['--import', 'tsx'],
+    env: { ...process.env, DATABASE_URL: databaseUrl.toString() },
+    stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
+  });
+  const port = await new Promise<number>((resolve, reject) => {
+    child.once('message', (message) => resolve((message as { port: number }).port));
+    child.once('exit', (code) => reject(new Error(`the webhook process ${name} exited (code ${code}) before it listened`)));
+  });
+  return { name, child, url: `http://127.0.0.1:${port}/api/payments/webhook` };
 }
 
-/** Kills an instance: its connections end mid-transaction, its pool is dropped. */
-async function kill(app: App) {
-  const pool = holder.whorlwindDb;
-  const { rows } = await killer.raw<{ rows: unknown[] }>('SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE application_name = ?', [app.name]);
-  holder.whorlwindDb = undefined;
-  return { terminated: rows.length, pool };
+/** Kills the app process (SIGKILL); the number of its PostgreSQL connections open at that moment. */
+async function kill(app: App): Promise<number> {
+  const open = Number((await db()('pg_stat_activity').where({ application_name: app.name }).count({ n: '*' }))[0].n);
+  const exited = new Promise((resolve) => app.child.once('exit', resolve));
+  app.child.kill('SIGKILL');
+  await exited;
+  return open;
 }
 
+/** One delivery as the provider makes it: signed, POSTed; true when the app answered 200. */
+async function post(url: string, event: Stripe.Event): Promise<boolean> {
+  const payload = JSON.stringify(event);
+  const response = await fetch(url, { method: 'POST', headers: signedRequest(payload).headers, body: payload });
+  await response.arrayBuffer();
+  return response.status === 200;
+}
+
+const baseHoldDays = process.env.MARKET_PAYOUT_HOLD_DAYS;
+let reconcilePayments: typeof import('@/lib/market/payments/reconcile').reconcilePayments;
+let requestPayout: typeof import('@/lib/market/payouts').requestPayout;
+let live: App | undefined;
 let sellers: Actor[];
 let sessions: Stripe.Checkout.Session[];
 let refundedIntents: Set<string>;
 let events: Stripe.Event[];
 
 beforeAll(async () => {
-  killer = knex(knexConfig(baseUrl));
+  // Sales are paid out at once in this run (the holding period is tested in market-money); set
+  // before anything reads the settings.
+  process.env.MARKET_PAYOUT_HOLD_DAYS = '0';
+  ({ reconcilePayments } = await import('@/lib/market/payments/reconcile'));
+  ({ requestPayout } = await import('@/lib/market/payouts'));
   sellers = [];
   for (let i = 0; i < SELLERS; i++) sellers.push(await makePerson(`chaos-seller-${i}`, ['groomer']));
   const buyers: Actor[] = [];
@@ -118,10 +130,9 @@ beforeAll(async () => {
 }, 300_000);
 
 afterAll(async () => {
-  await killer?.destroy();
+  live?.child.kill('SIGKILL');
   await closeDb();
   // Other files in this process keep the stack's settings.
-  process.env.DATABASE_URL = baseUrl;
   if (baseHoldDays === undefined) delete process.env.MARKET_PAYOUT_HOLD_DAYS;
   else process.env.MARKET_PAYOUT_HOLD_DAYS = baseHoldDays;
 });
@@ -145,41 +156,35 @@ describe('payments chaos', () => {
     );
     expect(deliveries).toHaveLength(DELIVERIES);
 
-    const counts = { delivered: 0, acknowledged: 0, droppedByKill: 0, refusedWhileDown: 0, terminatedConnections: 0 };
+    const counts = { delivered: 0, acknowledged: 0, droppedByKill: 0, refusedWhileDown: 0, connectionsAtKill: 0 };
     const acknowledged = new Set<string>();
-    let app = await boot(1);
-    const oldPools: (Knex | undefined)[] = [];
+    let app = (live = await boot(1));
     let running = new Set<Promise<void>>();
     let generation = 0;
     for (let i = 0; i < deliveries.length; i++) {
       const kill_ = KILL_AT.indexOf(i);
       if (kill_ >= 0) {
-        // Killed mid-stream: whatever is in flight is dropped (no answer reaches the provider).
-        const killed = await kill(app);
-        counts.terminatedConnections += killed.terminated;
-        oldPools.push(killed.pool);
+        // Killed mid-stream: whatever is in flight gets no answer.
+        counts.connectionsAtKill += await kill(app);
         generation += 1;
         await Promise.allSettled([...running]);
         running = new Set();
-        // Down for a while: these deliveries meet no server.
+        // Down for a while: these deliveries meet a closed port.
         const end = Math.min(deliveries.length, i + DOWNTIME);
-        counts.refusedWhileDown += end - i;
-        i = end;
-        app = await boot(kill_ + 2);
+        for (; i < end; i++) {
+          counts.delivered += 1;
+          if (!(await post(app.url, deliveries[i]).catch(() => false))) counts.refusedWhileDown += 1;
+        }
+        app = live = await boot(kill_ + 2);
       }
       if (i >= deliveries.length) break;
       if (running.size >= CONCURRENCY) await Promise.race(running);
       const event = deliveries[i];
       const mine = generation;
-      const post = app.POST;
+      const url = app.url;
       counts.delivered += 1;
       const work: Promise<void> = (async () => {
-        let ok = false;
-        try {
-          ok = (await post(signedRequest(JSON.stringify(event)))).status === 200;
-        } catch {
-          ok = false;
-        }
+        const ok = await post(url, event).catch(() => false);
         if (mine !== generation) {
           counts.droppedByKill += 1;
           return;
@@ -193,11 +198,11 @@ describe('payments chaos', () => {
       void work.finally(() => running.delete(work));
     }
     await Promise.allSettled([...running]);
-    for (const pool of oldPools) await pool?.destroy().catch(() => undefined);
+    expect(counts.refusedWhileDown).toBe(KILL_AT.length * DOWNTIME);
 
     const lostEvents = events.filter((event) => !acknowledged.has(event.id));
     const beforeReconcile = Number((await db()('purchases').whereIn('checkout_session_id', sessions.map((s) => s.id)).count({ n: '*' }))[0].n);
-    const reconciled = await app.reconcilePayments();
+    const reconciled = await reconcilePayments();
 
     // The stream lost some events for good (all their deliveries met a dead or down app): reconciliation found them.
     expect(lostEvents.length).toBeGreaterThan(0);
@@ -221,7 +226,7 @@ describe('payments chaos', () => {
     let paidOut = 0;
     let earned = 0;
     for (const seller of sellers) {
-      const settled = await Promise.allSettled([app.requestPayout(seller), app.requestPayout(seller)]);
+      const settled = await Promise.allSettled([requestPayout(seller), requestPayout(seller)]);
       const ids = new Set(settled.filter((s) => s.status === 'fulfilled').map((s) => (s as PromiseFulfilledResult<{ id: string }>).value.id));
       expect(ids.size).toBe(1);
       const mine = rows.filter((r) => r.seller_id === seller.userId && r.status === 'paid');
@@ -238,7 +243,7 @@ describe('payments chaos', () => {
     console.log(
       [
         `payments chaos: ${CHECKOUTS} checkouts, ${events.length} events, ${DELIVERIES} deliveries planned`,
-        `  sent ${counts.delivered}, acknowledged ${counts.acknowledged}, dropped by the 2 kills ${counts.droppedByKill} (${counts.terminatedConnections} connections terminated), refused while down ${counts.refusedWhileDown}`,
+        `  sent ${counts.delivered}, acknowledged ${counts.acknowledged}, in flight at the 2 kills (SIGKILL) ${counts.droppedByKill} (${counts.connectionsAtKill} database connections open), refused while down ${counts.refusedWhileDown}`,
         `  events never acknowledged ${lostEvents.length} (completed checkouts ${lostEvents.filter((e) => e.type === 'checkout.session.completed').length}, refunds ${lostEvents.filter((e) => e.type === 'charge.refunded').length})`,
         `  purchases before reconciliation ${beforeReconcile}; reconciliation recorded ${reconciled.recovered} purchases and ${reconciled.refundsRecovered} refunds`,
         `  purchases ${rows.length} (paid ${rows.length - refunded}, refunded ${refunded} of ${REFUNDED} asked); payouts ${sellers.length}, ${(paidOut / 100).toFixed(2)} in all = the sellers' share of the kept sales`,

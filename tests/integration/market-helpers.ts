@@ -2,7 +2,6 @@
 // lib/groom, paying on the payments fake's hosted page, and delivering its signed events to the
 // webhook route. Everything goes through the real modules, PostgreSQL, storage and the fake.
 import { randomUUID } from 'node:crypto';
-import { createServer, type Server } from 'node:http';
 import type Stripe from 'stripe';
 import { db } from '@/lib/platform/db';
 import { env } from '@/lib/platform/env';
@@ -16,6 +15,7 @@ import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 import { startCheckout } from '@/lib/market/payments/checkout';
 import { expect } from 'vitest';
 import { uniqueEmail } from './helpers';
+import { serveRoute } from './route-server';
 
 export async function makePerson(label: string, roles: Role[]): Promise<Actor> {
   const email = uniqueEmail(label);
@@ -143,29 +143,8 @@ export function deliver(event: Stripe.Event | object, options: Parameters<typeof
  * deliveries (signed by the fake, retried by it) reach the real route handler over HTTP.
  */
 export async function serveWebhookRoute(): Promise<{ close: () => Promise<void>; delivered: () => number }> {
-  const port = Number(new URL(env().NEXTAUTH_URL).port);
-  let count = 0;
-  const server: Server = createServer(async (request, response) => {
-    const chunks: Buffer[] = [];
-    for await (const chunk of request) chunks.push(chunk as Buffer);
-    const headers = new Headers();
-    for (const [key, value] of Object.entries(request.headers)) if (typeof value === 'string') headers.set(key, value);
-    const answer = await webhookPost(new Request(`http://127.0.0.1:${port}${request.url}`, { method: 'POST', headers, body: Buffer.concat(chunks) }));
-    if (answer.ok) count += 1;
-    response.writeHead(answer.status, { 'content-type': 'application/json' });
-    response.end(await answer.text());
-  });
-  await new Promise<void>((resolve, reject) => {
-    server.once('error', reject);
-    server.listen(port, '127.0.0.1', () => resolve());
-  });
-  return {
-    delivered: () => count,
-    close: async () => {
-      server.closeAllConnections();
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-    },
-  };
+  const route = await serveRoute(webhookPost, Number(new URL(env().NEXTAUTH_URL).port));
+  return { delivered: route.served, close: route.close };
 }
 
 export async function waitFor<T>(what: string, probe: () => Promise<T | undefined | null | false>, timeoutMs = 20_000): Promise<T> {
