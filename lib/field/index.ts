@@ -37,3 +37,6 @@ export { prepareHarmonic, type HarmonicInterpolator, type Pin } from './harmonic
 // The sparse linear algebra underneath, for benchmarks that time its stages (bench/cholesky.ts).
 export { symmetricFromTriplets, multiplySymmetric, type SymmetricSparse } from './linalg/sparse';
 export { analyzeCholesky, computeOrdering, factorNumeric } from './linalg/cholesky';
+
+// A suggested layout: the smoothest field with free singularities, measured, as a starting point.
+export { suggestLayout, type SuggestOptions, type SuggestAlignment, type SuggestedLayout, type SuggestedSingularity } from './suggest';

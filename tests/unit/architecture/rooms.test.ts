@@ -37,6 +37,7 @@ const INNER_ROOMS: Record<string, string[]> = {
   'lib/field/linalg': [],
   'lib/field/clock.ts': [],
   'lib/field/connection': ['lib/field/mesh', 'lib/field/linalg', 'lib/field/clock.ts'],
+  'lib/field/suggest': ['lib/field/mesh', 'lib/field/linalg', 'lib/field/clock.ts', 'lib/field/connection', 'lib/field/indices.ts'],
   'lib/groom/errors.ts': [],
   'lib/groom/spec': ['lib/groom/errors.ts'],
   'lib/groom/place': ['lib/groom/spec', 'lib/groom/errors.ts'],
