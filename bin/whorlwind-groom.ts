@@ -4,6 +4,15 @@
  *
  *   whorlwind-groom --surface head.obj --spec coat.json --out guides.usda [--out guides.glb]
  *                   [--field flow.ply] [--thumbnail front.webp] [--stats]
+ *   whorlwind-groom --surface head.obj --suggest [--order 4] [--spec base.json] --out suggestion.json
+ *                   [--suggest-down x,y,z] [--suggest-follow-curvature] [--suggest-weight 1]
+ *
+ * --suggest lays out the singularities itself: the smoothest field of order --order (default 1, or
+ * the base spec's) with free singularities, optionally pulled toward a direction (--suggest-down,
+ * e.g. 0,-1,0 for fur that falls) or the directions of least bending (--suggest-follow-curvature,
+ * even orders), as strongly as --suggest-weight says. The spec it writes (the base spec's settings,
+ * or defaults in --units, with the suggested singularities by file vertex) solves to a field with
+ * exactly those singularities; the other outputs are made from it.
  *
  * Each --out's format comes from its extension: .usda (BasisCurves; --basis linear|bspline|catmullRom),
  * .gltf, .glb, .obj, .json (the resolved spec). --thumbnail writes .png or .webp (--view, --size,
@@ -13,7 +22,7 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
-import { FieldError, indexBudget, readSurface, solveField } from '../lib/field';
+import { FieldError, indexBudget, readSurface, solveField, type SuggestedLayout } from '../lib/field';
 import { encodeImage } from '../lib/groom/render/encode-image';
 import {
   EXPORT_EXTENSIONS,
@@ -25,7 +34,12 @@ import {
   parseGroomSpecJson,
   prepareGroomSurface,
   renderThumbnail,
+  SPEC_VERSION,
+  suggestGroomSpec,
   THUMBNAIL_VIEWS,
+  UNITS,
+  type GroomSpec,
+  type Unit,
   writeExport,
   type GuideColouring,
   type ThumbnailView,
@@ -33,6 +47,15 @@ import {
 } from '../lib/groom';
 
 class UsageError extends Error {}
+
+function describeSuggestion(layout: SuggestedLayout): string {
+  const byIndex = new Map<number, number>();
+  for (const s of layout.singularities) byIndex.set(s.index, (byIndex.get(s.index) ?? 0) + 1);
+  const order = layout.order;
+  const name = (index: number) => (order === 1 ? `${index > 0 ? '+' : ''}${index}` : `${index > 0 ? '+' : '−'}${Math.abs(Math.round(index * order))}/${order}`);
+  const parts = [...byIndex.entries()].sort((a, b) => b[0] - a[0]).map(([index, count]) => `${count} × ${name(index)}`);
+  return `${layout.singularities.length} singularities${parts.length ? ` (${parts.join(', ')})` : ''}, order ${order}, ${layout.iterations} inverse iterations`;
+}
 
 /** Extensions --out takes: every export format's but the field's, which has its own --field. */
 const OUT_FORMATS = EXPORT_EXTENSIONS.filter((extension) => EXPORT_FORMAT_FACTS[formatOfExtension(extension)!].source !== 'field');
@@ -50,6 +73,12 @@ function parseCommandLine(argv: string[]) {
       size: { type: 'string', default: '1024' },
       colour: { type: 'string', default: 'length' },
       basis: { type: 'string', default: 'linear' },
+      suggest: { type: 'boolean', default: false },
+      order: { type: 'string' },
+      units: { type: 'string', default: 'cm' },
+      'suggest-down': { type: 'string' },
+      'suggest-follow-curvature': { type: 'boolean', default: false },
+      'suggest-weight': { type: 'string' },
       stats: { type: 'boolean', default: false },
       help: { type: 'boolean', default: false },
     },
@@ -58,7 +87,11 @@ function parseCommandLine(argv: string[]) {
   });
   if (values.help) return null;
   if (!values.surface) throw new UsageError('--surface is required (the growth surface: .obj, .ply, .stl, .gltf or .glb)');
-  if (!values.spec) throw new UsageError('--spec is required (the groom spec, .json)');
+  if (!values.spec && !values.suggest) throw new UsageError('--spec is required (the groom spec, .json), unless --suggest lays the singularities out');
+  const suggest = values.suggest ? suggestOptions(values) : null;
+  if (!values.suggest && (values.order !== undefined || values['suggest-down'] !== undefined || values['suggest-follow-curvature'] || values['suggest-weight'] !== undefined)) {
+    throw new UsageError('--order, --suggest-down, --suggest-follow-curvature and --suggest-weight go with --suggest');
+  }
   for (const out of values.out ?? []) {
     if (!OUT_FORMATS.includes(extname(out).toLowerCase())) throw new UsageError(`--out ${out}: the extension must be one of ${OUT_FORMATS.join(', ')}`);
   }
@@ -82,7 +115,25 @@ function parseCommandLine(argv: string[]) {
     colour: values.colour as GuideColouring,
     basis: values.basis as UsdCurveBasis,
     stats: values.stats ?? false,
+    suggest,
   };
+}
+
+function suggestOptions(values: { order?: string; units?: string; 'suggest-down'?: string; 'suggest-follow-curvature'?: boolean; 'suggest-weight'?: string }) {
+  const order = values.order === undefined ? undefined : Number(values.order);
+  if (order !== undefined && (!Number.isInteger(order) || order < 1 || order > 12)) throw new UsageError('--order must be a whole number from 1 to 12 (1 hair direction, 2 lines, 4 crosses)');
+  if (!UNITS.includes(values.units as Unit)) throw new UsageError(`--units must be one of ${UNITS.join(', ')}`);
+  let direction: [number, number, number] | undefined;
+  if (values['suggest-down'] !== undefined) {
+    const parts = values['suggest-down'].split(',').map((x) => Number(x.trim()));
+    if (parts.length !== 3 || parts.some((x) => !Number.isFinite(x)) || Math.hypot(...parts) === 0) throw new UsageError('--suggest-down must be three numbers x,y,z, not all zero (e.g. 0,-1,0)');
+    direction = parts as [number, number, number];
+  }
+  const weight = values['suggest-weight'] === undefined ? undefined : Number(values['suggest-weight']);
+  if (weight !== undefined && (!Number.isFinite(weight) || weight < 0)) throw new UsageError('--suggest-weight must be a number of at least 0');
+  const curvature = values['suggest-follow-curvature'] ?? false;
+  if (weight !== undefined && !direction && !curvature) throw new UsageError('--suggest-weight needs --suggest-down or --suggest-follow-curvature');
+  return { order, units: values.units as Unit, align: direction || curvature ? { direction, curvature, weight } : undefined };
 }
 
 function readInput(path: string, what: string): Uint8Array {
@@ -106,26 +157,39 @@ async function main(argv: string[]): Promise<void> {
     seconds[name] = (performance.now() - t0) / 1000;
     return result;
   };
-  const spec = parseGroomSpecJson(new TextDecoder().decode(readInput(options.spec, 'spec')));
+  const base = options.spec ? parseGroomSpecJson(new TextDecoder().decode(readInput(options.spec, 'spec'))) : null;
   const read = time('read surface', () => readSurface(readInput(options.surface, 'surface'), options.surface));
-  const surface = time('prepare surface', () => prepareGroomSurface(read.mesh, { boundary: spec.field.boundary }));
+  const surface = time('prepare surface', () => prepareGroomSurface(read.mesh, { boundary: base?.field.boundary ?? 'free' }));
+  let spec: GroomSpec;
+  let suggested: SuggestedLayout | null = null;
+  if (options.suggest) {
+    const suggest = options.suggest;
+    const made = time('suggest layout', () =>
+      suggestGroomSpec(surface, base ?? { specVersion: SPEC_VERSION, units: suggest.units, field: {} }, { order: suggest.order ?? base?.field.order ?? 1, align: suggest.align }),
+    );
+    spec = made.spec;
+    suggested = made.layout;
+  } else {
+    spec = base!;
+  }
   const request = time('place features', () => fieldRequestFromSpec(spec, surface));
   const solved = time('solve field', () => solveField(surface.field, request));
-  const grown = time('grow guides', () => growGuides(surface, solved, spec));
-  const { guides } = grown;
-  const made = { spec, surface, solved, guides };
+  const needsGuides = options.out.some((out) => extname(out).toLowerCase() !== '.json') || options.thumbnails.length > 0 || options.stats;
+  const grown = needsGuides ? time('grow guides', () => growGuides(surface, solved, spec)) : null;
+  const made = { spec, surface, solved, guides: grown?.guides };
   for (const out of options.out) {
     const ext = extname(out).toLowerCase();
     time(`write ${ext}`, () => writeFileSync(out, writeExport(formatOfExtension(ext)!, made, { basis: options.basis })));
   }
   if (options.field) time('write field', () => writeFileSync(options.field!, writeExport('ply', made)));
   for (const path of options.thumbnails) {
-    const image = time(`render ${options.size}²`, () => renderThumbnail(read.mesh, guides, { size: options.size, view: options.view, upAxis: spec.upAxis, colourBy: options.colour }));
+    const image = time(`render ${options.size}²`, () => renderThumbnail(read.mesh, grown!.guides, { size: options.size, view: options.view, upAxis: spec.upAxis, colourBy: options.colour }));
     const t0 = performance.now();
     writeFileSync(path, await encodeImage(image, extname(path).toLowerCase() === '.png' ? 'png' : 'webp'));
     seconds[`encode ${extname(path)}`] = (performance.now() - t0) / 1000;
   }
-  if (options.stats) {
+  if (options.stats && grown) {
+    const { guides } = grown;
     const budget = indexBudget(surface.field, request);
     let checked = 0, mismatched = 0;
     solved.measuredIndex.forEach((measured, v) => {
@@ -134,6 +198,7 @@ async function main(argv: string[]): Promise<void> {
       if (Math.abs(measured - solved.connection.requestedIndex[v]) > 1e-6) mismatched++;
     });
     const lines = [
+      ...(suggested ? [`suggested   ${describeSuggestion(suggested)}`] : []),
       `surface     ${read.mesh.positions.length / 3} vertices, ${read.mesh.triangles.length / 3} faces (${read.format})`,
       `growth area ${grown.areaSquareCm.toFixed(2)} cm²`,
       `guides      ${guides.count} × ${guides.pointsPerGuide} points (${(guides.count / Math.max(grown.areaSquareCm, 1e-12)).toFixed(3)} per cm², ${guides.hairsPerGuide} hairs each)`,

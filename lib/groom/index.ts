@@ -35,6 +35,7 @@ export { prepareGroomSurface, type GroomSurface } from './place/surface';
 export { buildSkin, SKIN_QUERY_SIZE, type Skin } from './place/skin';
 export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
 export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
+export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './place/suggest';
 export { blendPins, type PinnedFactors } from './place/pins';
 export { growthMask } from './place/regions';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';

@@ -3,7 +3,8 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { icosphere } from '@/tests/fixtures/shapes';
+import { icosphere, roundedCube } from '@/tests/fixtures/shapes';
+import { readSurface } from '@/lib/field';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
 
 const launcher = join(process.cwd(), 'bin', 'whorlwind-groom.mjs');
@@ -17,6 +18,7 @@ function run(...args: string[]) {
 beforeAll(() => {
   folder = mkdtempSync(join(tmpdir(), 'whorlwind-cli-'));
   writeFileSync(join(folder, 'ball.obj'), surfaceToObj(icosphere(3, 5), 'test ball'));
+  writeFileSync(join(folder, 'box.obj'), surfaceToObj(roundedCube(10, 0.25), 'rounded box'));
   writeFileSync(
     join(folder, 'coat.json'),
     JSON.stringify({ specVersion: 2, units: 'cm', field: { singularities: [{ point: [0, 5, 0], index: 1 }, { point: [0, -5, 0], index: 1, twist: 180 }] }, guides: { density: 2, length: 1 } }),
@@ -55,5 +57,52 @@ describe('whorlwind-groom command line', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toEqual([expect.stringMatching(/--out guides\.fbx: the extension must be one of/)]);
     expect(run('--spec', 'coat.json').code).toBe(2);
+  });
+
+  // Source: a smooth cross field on a cube has eight index +1/4 singularities, one at each corner
+  // (the classic cross-field result; tests/unit/field/suggest.test.ts checks the engine itself).
+  it('--suggest writes a spec with the suggested singularities, and --spec of it solves to exactly those', () => {
+    const r = run('--surface', 'box.obj', '--suggest', '--order', '4', '--out', 'suggestion.json', '--stats');
+    expect(r.stderr).toEqual([]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/suggested\s+8 singularities \(8 × \+1\/4\), order 4/);
+    const spec = JSON.parse(readFileSync(join(folder, 'suggestion.json'), 'utf8'));
+    expect(spec.field.order).toBe(4);
+    expect(spec.field.singularities.map((s: { index: number }) => s.index)).toEqual(Array(8).fill(0.25));
+    const { mesh } = readSurface(readFileSync(join(folder, 'box.obj')), 'box.obj');
+    const corner = 1 - 0.25 + 0.25 / Math.sqrt(3);
+    const corners = new Set<string>();
+    for (const s of spec.field.singularities as { vertex: number }[]) {
+      const v = mesh.fileVertexToVertex![s.vertex];
+      const p = [0, 1, 2].map((k) => mesh.positions[3 * v + k]);
+      expect(Math.hypot(...p.map((x) => Math.abs(x) - corner))).toBeLessThan(0.25);
+      corners.add(p.map(Math.sign).join());
+    }
+    expect(corners.size).toBe(8);
+    const back = run('--surface', 'box.obj', '--spec', 'suggestion.json', '--stats');
+    expect(back.code).toBe(0);
+    expect(back.stdout).toMatch(/index\s+placed 2 of 2; measured = requested at (\d+) of \1 vertices/);
+  });
+
+  // Source: "down" projected onto a sphere is the gradient of minus the height, zero only at the
+  // top and the bottom (the height's critical points), so a strong pull puts the whorls there.
+  it('--suggest-down pulls the whorls of a ball to its top and bottom', () => {
+    const r = run('--surface', 'ball.obj', '--suggest', '--suggest-down', '0,-1,0', '--suggest-weight', '10', '--out', 'falling.json');
+    expect(r.stderr).toEqual([]);
+    const spec = JSON.parse(readFileSync(join(folder, 'falling.json'), 'utf8'));
+    const ys = (spec.field.singularities as { vertex: number; index: number }[]).map((s) => {
+      expect(s.index).toBe(1);
+      return icosphere(3, 5).positions[3 * s.vertex + 1];
+    });
+    expect(ys.sort((a, b) => a - b)).toEqual([expect.closeTo(-5, 0), expect.closeTo(5, 0)]);
+  });
+
+  it('refuses suggestion options it cannot use', () => {
+    expect(run('--surface', 'ball.obj', '--suggest', '--suggest-weight', '2', '--out', 'x.json').code).toBe(2);
+    expect(run('--surface', 'ball.obj', '--suggest', '--suggest-down', '0,0', '--out', 'x.json').code).toBe(2);
+    expect(run('--surface', 'ball.obj', '--spec', 'coat.json', '--order', '4').code).toBe(2);
+    const odd = run('--surface', 'ball.obj', '--suggest', '--suggest-follow-curvature', '--out', 'x.json');
+    expect(odd.code).toBe(1);
+    expect(odd.stderr).toEqual([expect.stringMatching(/a field of order 1 cannot follow them/)]);
   });
 });
