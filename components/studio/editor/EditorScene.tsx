@@ -8,7 +8,7 @@ import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
 import { placeOnSurface } from '@/lib/studio/client/marker-places';
-import type { GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
+import type { GrainMark, GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { guideSegments } from '@/lib/studio/client/surface-geometry';
 import { FatLine } from '../scene/FatLine';
 import { LineLayer } from '../scene/LineLayer';
@@ -30,6 +30,7 @@ export const COLOURS = {
   wrong: '#a3301c',
   border: '#e9bb4d',
   draft: '#8e3f1d',
+  grain: '#f6f2e9',
 };
 
 export interface MarkerHandlers {
@@ -90,6 +91,37 @@ const PinMarker = memo(function PinMarker({ at, size, selected, feature, handler
   );
 }, sameMarker);
 
+/**
+ * A grain mark: the ghost of a suggested whorl or saddle, see-through and ringed, which a click
+ * takes into the spec. It swallows its own pointer events, so the active tool does not also act.
+ */
+const GrainMarkGhost = memo(function GrainMarkGhost({ mark, size, onTake }: { mark: GrainMark; size: number; onTake: (mark: GrainMark) => void }) {
+  const kind = singularityKind(mark.index);
+  const rotation = useMemo(() => orientation(mark.normal), [mark.normal]);
+  const colour = kind === 'whorl' ? COLOURS.whorl : kind === 'saddle' ? COLOURS.saddle : COLOURS.grain;
+  const swallow = (event: ThreeEvent<PointerEvent>) => event.stopPropagation();
+  return (
+    <group position={mark.point} quaternion={rotation} name="grain-mark">
+      <mesh
+        position={[0, size * 0.6, 0]}
+        onPointerDown={swallow}
+        onPointerUp={swallow}
+        onClick={(event) => {
+          event.stopPropagation();
+          onTake(mark);
+        }}
+      >
+        <sphereGeometry args={[size * 0.7, 16, 12]} />
+        <meshStandardMaterial color={colour} transparent opacity={0.45} depthWrite={false} />
+      </mesh>
+      <mesh rotation={[Math.PI / 2, 0, 0]} raycast={() => undefined}>
+        <torusGeometry args={[size * 1.1, size * 0.06, 6, 40]} />
+        <meshStandardMaterial color={colour} transparent opacity={0.7} side={DoubleSide} />
+      </mesh>
+    </group>
+  );
+});
+
 /** Markers are drawn again only when something about them changed (not on every render of the page). */
 function sameMarker<P extends { at: { point: Vec3; normal: Vec3 }; feature: FeatureRef }>(a: P, b: P): boolean {
   for (const key of Object.keys(a) as (keyof P)[]) {
@@ -122,6 +154,8 @@ export function EditorScene({
   handlers,
   pointer,
   onFieldDrawn,
+  grainMarks,
+  onTakeMark,
 }: {
   surface: OpenedSurface;
   spec: GroomSpec;
@@ -139,6 +173,9 @@ export function EditorScene({
   handlers: MarkerHandlers;
   pointer: { down: SurfacePointerHandler; move: SurfacePointerHandler; up: SurfacePointerHandler };
   onFieldDrawn: () => void;
+  /** Grain marks still to take (none when no reading is in view). */
+  grainMarks: readonly GrainMark[];
+  onTakeMark: (mark: GrainMark) => void;
 }) {
   const size = surface.diagonal * 0.014;
   const guideLines = useMemo(() => (guides ? guideSegments(guides) : null), [guides]);
@@ -176,6 +213,9 @@ export function EditorScene({
       })}
       {spec.field.strokes.map((stroke, index) => (
         <StrokeLine key={`k${index}`} points={stroke.points} selected={sameFeature(selection, { kind: 'stroke', index })} />
+      ))}
+      {grainMarks.map((mark) => (
+        <GrainMarkGhost key={`g${mark.vertex}`} mark={mark} size={size} onTake={onTakeMark} />
       ))}
       {draftPath && <FatLine points={draftPath} colour={COLOURS.draft} width={4} dashed />}
       {draft.map((point, i) => (

@@ -10,6 +10,7 @@ import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { applyEdit, createEditorState, redo, undo } from '@/lib/studio/client/editor-state';
 import { featureExists, featureOfPath } from '@/lib/studio/client/features';
 import { prewarmFieldWorker } from '@/lib/studio/client/field-client';
+import { takeMark } from '@/lib/studio/client/grain-marks';
 import { featurePlace } from '@/lib/studio/client/marker-places';
 import type { DisplayOptions, SurfaceSource } from '@/lib/studio/client/protocol';
 import { toolOfKey, type ToolOptions } from '@/lib/studio/client/tools';
@@ -20,6 +21,7 @@ import { EditorScene } from './EditorScene';
 import { ExportPanel } from './ExportPanel';
 import { FeatureList } from './FeatureList';
 import { FieldPanel } from './FieldPanel';
+import { GrainPanel } from './GrainPanel';
 import { GuidePanel } from './GuidePanel';
 import { MarkerCard, ScreenAnchor } from './MarkerCard';
 import { PanelTabs, type PanelTab } from './PanelTabs';
@@ -30,6 +32,7 @@ import { useAutosave, type Persistence } from './hooks/useAutosave';
 import { useDraftPath } from './hooks/useDraftPath';
 import { useEditorActions } from './hooks/useEditorActions';
 import { useFieldSession } from './hooks/useFieldSession';
+import { useGrain } from './hooks/useGrain';
 import { useGuides } from './hooks/useGuides';
 import { useLiveState } from './hooks/useLiveState';
 import { useShortcuts } from './hooks/useShortcuts';
@@ -60,6 +63,7 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
   const guides = useGuides({ client: field.client, surface, spec, show: showGuides, paused: dragging });
   const draftPath = useDraftPath({ client: field.client, points: tools.draft, joined: tools.joinsDraft, closed: toolOptions.closed, onFailure: setNotice });
   const autosave = useAutosave(persistence, initialSpec, spec, !gesture);
+  const grain = useGrain({ client: field.client, spec });
 
   const doUndo = useCallback(() => setEditor(undo(getEditor())), [getEditor, setEditor]);
   const doRedo = useCallback(() => setEditor(redo(getEditor())), [getEditor, setEditor]);
@@ -128,6 +132,11 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
                 handlers={tools.markers}
                 pointer={tools.pointer}
                 onFieldDrawn={field.onFieldDrawn}
+                grainMarks={grain.left}
+                onTakeMark={(mark) => {
+                  const refused = actions.edit(takeMark(mark));
+                  if (refused) setNotice(refused);
+                }}
               />
               <ScreenAnchor point={selectedPoint} element={cardRef} />
             </Stage>
@@ -161,7 +170,12 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
               />
             )}
             {tab === 'guides' && <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} />}
-            {tab === 'field' && <FieldPanel spec={spec} surface={surface} actions={actions} display={display} onDisplay={setDisplay} />}
+            {tab === 'field' && (
+              <div className="flex flex-col gap-5">
+                {surface && <GrainPanel spec={spec} grain={grain} actions={actions} />}
+                <FieldPanel spec={spec} surface={surface} actions={actions} display={display} onDisplay={setDisplay} />
+              </div>
+            )}
             {tab === 'versions' && versionsApi && persistence && <VersionPanel api={versionsApi} initial={persistence.versions} />}
             {tab === 'export' && versionsApi && <ExportPanel groomId={versionsApi.groomId} flush={versionsApi.flush} />}
           </PanelTabs>

@@ -10,6 +10,7 @@ import {
   now,
   readSurface,
   solveConnection,
+  suggestLayout,
   type BoundaryMode,
   type FieldRequest,
   type SolvedField,
@@ -25,13 +26,14 @@ import {
   solveGroomField,
   vertexOfPlace,
   CENTIMETRES_PER_UNIT,
+  downOf,
   type GroomSpec,
   type GroomSurface,
 } from '@/lib/groom';
 import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
 import { errorOf, proofOf } from './field-reports';
-import type { DisplayOptions, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
+import type { DisplayOptions, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes } from './surface-opening';
 
 
@@ -272,6 +274,28 @@ export class FieldEngine {
       area = this.requireDrawing().totalArea;
     }
     return Math.round((spec.guides.density ?? 1) * area * CENTIMETRES_PER_UNIT[spec.units] ** 2);
+  }
+
+  /**
+   * Reads the grain: the suggested layout of the spec's order (lib/field's suggestLayout) on the
+   * surface as the spec holds its boundary, its singularities as grain marks. Nothing placed is
+   * read: the suggestion is where the singularities would go if none had been placed.
+   */
+  readGrain(spec: GroomSpec, follow: GrainFollow): GrainReading {
+    const t0 = now();
+    const surface = this.ensureBoundary(spec);
+    this.progress({ stage: 'reading the grain (one factorization and a few solves)', fraction: null, expectedMilliseconds: surface.field.topology.faceCount * 0.03 });
+    const align = follow.toward === 'fall' ? { direction: spec.field.referenceDirection ?? downOf(spec.upAxis), weight: follow.weight } : follow.toward === 'bending' ? { curvature: true, weight: follow.weight } : undefined;
+    const layout = suggestLayout(surface.field, { order: spec.field.order, align });
+    const p = surface.mesh.positions;
+    const n = surface.vertexNormal;
+    const marks = layout.singularities.map((s) => ({
+      vertex: s.vertex,
+      index: s.index,
+      point: [p[3 * s.vertex], p[3 * s.vertex + 1], p[3 * s.vertex + 2]] as Vec3,
+      normal: [n[3 * s.vertex], n[3 * s.vertex + 1], n[3 * s.vertex + 2]] as Vec3,
+    }));
+    return { order: layout.order, marks, iterations: layout.iterations, milliseconds: now() - t0 };
   }
 
   /** The path a curve being drawn would take: its points snapped to vertices and joined along mesh edges. */

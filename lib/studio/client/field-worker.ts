@@ -44,6 +44,8 @@ async function answer(request: WorkerRequest): Promise<unknown> {
       return engine.grow(request.spec);
     case 'curve-path':
       return { points: engine.curvePath(request.points, request.closed) };
+    case 'read-grain':
+      return engine.readGrain(request.spec, request.follow);
   }
 }
 

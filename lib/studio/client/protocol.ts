@@ -32,7 +32,8 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'inspect'; readonly source: SurfaceSource }
   | { readonly id: number; readonly type: 'solve'; readonly spec: GroomSpec; readonly display: DisplayOptions; readonly quick: boolean }
   | { readonly id: number; readonly type: 'grow'; readonly spec: GroomSpec }
-  | { readonly id: number; readonly type: 'curve-path'; readonly points: readonly Vec3[]; readonly closed: boolean };
+  | { readonly id: number; readonly type: 'curve-path'; readonly points: readonly Vec3[]; readonly closed: boolean }
+  | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow };
 
 export type WorkerRequestBody = WorkerRequest extends infer R ? (R extends { id: number } ? Omit<R, 'id'> : never) : never;
 
@@ -150,10 +151,35 @@ export interface CurvePath {
   readonly points: Float32Array;
 }
 
+/** What "Read the grain" pulls the suggested layout toward besides smoothness. */
+export interface GrainFollow {
+  /** `fall`: the spec's down; `bending`: the directions of least bending (even orders). */
+  readonly toward: 'nothing' | 'fall' | 'bending';
+  /** How strongly (the engine's alignment weight, ≥ 0). */
+  readonly weight: number;
+}
+
+/** A grain mark: one singularity of the suggested layout, not yet placed. */
+export interface GrainMark {
+  /** The welded vertex it sits on. */
+  readonly vertex: number;
+  readonly index: number;
+  readonly point: Vec3;
+  readonly normal: Vec3;
+}
+
+export interface GrainReading {
+  readonly order: number;
+  readonly marks: readonly GrainMark[];
+  readonly iterations: number;
+  readonly milliseconds: number;
+}
+
 export interface ResultOf {
   open: OpenedSurface;
   inspect: InspectedSurface;
   solve: SolveReport;
   grow: GrownGuides;
   'curve-path': CurvePath;
+  'read-grain': GrainReading;
 }
