@@ -1,0 +1,57 @@
+// Read the grain: the editor's suggested layout (the smoothest field with free singularities)
+// shown as grain marks, taken all at once, and the field then solved and measured with exactly
+// those singularities; dismissing and undoing put things back.
+import { expect, test, type Page } from '@playwright/test';
+import { closeDb } from '../../lib/platform/db';
+import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
+import { openPanel, waitForField } from './studio-helpers';
+
+test.afterAll(closeDb);
+
+async function openPracticeFox(page: Page) {
+  await page.goto('/studio/practice/bramble-fox-head');
+  if (new URL(page.url()).pathname === '/signin') {
+    const account = await confirmedAccount('grain', 'groomer', 'a-proper-coat-42');
+    await signInThroughForm(page, account.email, account.password);
+    await expectSignedInAs(page, account.displayName);
+    await page.goto('/studio/practice/bramble-fox-head');
+  }
+  await waitForField(page);
+}
+
+test('reading the grain on the fox: marks shown, taken all at once, the field proved with exactly those singularities', async ({ page }) => {
+  test.setTimeout(180_000);
+  await openPracticeFox(page);
+  const rows = page.getByTestId('feature-row');
+  const singularRows = rows.filter({ hasText: /^(Whorl|Saddle)/ });
+  const placedBefore = await singularRows.count();
+
+  await openPanel(page, 'Field & view');
+  const panel = page.getByRole('group', { name: 'Read the grain' });
+  await panel.getByRole('button', { name: 'Read the grain' }).click();
+  const reading = page.getByTestId('grain-reading');
+  await expect(reading).toContainText(/\d+ grain marks?:/, { timeout: 60_000 });
+  const marks = Number((await reading.textContent())!.match(/(\d+) grain marks?:/)![1]);
+  // The fox head is closed and sphere-like (χ = 2): its smoothest hair field has singularities.
+  expect(marks).toBeGreaterThanOrEqual(2);
+  await expect(reading).toContainText(`${marks} still to take.`);
+
+  // Dismissed, the marks go; read again, they come back the same.
+  await panel.getByRole('button', { name: 'Dismiss' }).click();
+  await expect(reading).toHaveCount(0);
+  await panel.getByRole('button', { name: 'Read the grain' }).click();
+  await expect(reading).toContainText(`${marks} grain mark`, { timeout: 60_000 });
+
+  await panel.getByRole('button', { name: 'Take all' }).click();
+  await expect(reading).toContainText('All taken.');
+  await openPanel(page, 'Features');
+  await expect(singularRows).toHaveCount(marks);
+  const proof = page.getByTestId('index-proof');
+  await expect(proof).toContainText(`${marks} singularities found, each exactly where one was placed; none elsewhere`, { timeout: 30_000 });
+  await expect(page.getByTestId('field-error')).toHaveCount(0);
+
+  // One undo takes the whole layout back.
+  await expect(page.getByRole('button', { name: 'Undo' })).toHaveAttribute('title', `Undo: Take the grain's ${marks} singularities (Ctrl+Z)`);
+  await page.getByRole('button', { name: 'Undo' }).click();
+  await expect(singularRows).toHaveCount(placedBefore);
+});
