@@ -3,13 +3,14 @@
 // and the features — markers for singularities and pins, lines for partings, crests and flow
 // strokes, and the path of a curve being drawn.
 import type { ThreeEvent } from '@react-three/fiber';
-import { memo, useMemo, type RefObject } from 'react';
+import { memo, useMemo, useRef, type RefObject } from 'react';
 import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
 import { placeOnSurface } from '@/lib/studio/client/marker-places';
 import type { GrainMark, GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { guideSegments } from '@/lib/studio/client/surface-geometry';
+import { CLICK_TRAVEL } from '@/lib/studio/client/tools/clicks';
 import { FatLine } from '../scene/FatLine';
 import { LineLayer } from '../scene/LineLayer';
 import { SurfaceMesh, type SurfacePointerHandler } from '../scene/SurfaceMesh';
@@ -93,22 +94,30 @@ const PinMarker = memo(function PinMarker({ at, size, selected, feature, handler
 
 /**
  * A grain mark: the ghost of a suggested whorl or saddle, see-through and ringed, which a click
- * takes into the spec. It swallows its own pointer events, so the active tool does not also act.
+ * takes into the spec. The click is a press and a release on the ghost close together, as the
+ * tools count clicks: Chromium sends no DOM click once the view's orbit controls have captured
+ * the pointer, so R3F's onClick would never come. It swallows its own pointer events, so the
+ * active tool does not also act.
  */
 const GrainMarkGhost = memo(function GrainMarkGhost({ mark, size, onTake }: { mark: GrainMark; size: number; onTake: (mark: GrainMark) => void }) {
   const kind = singularityKind(mark.index);
   const rotation = useMemo(() => orientation(mark.normal), [mark.normal]);
+  const press = useRef<{ x: number; y: number } | null>(null);
   const colour = kind === 'whorl' ? COLOURS.whorl : kind === 'saddle' ? COLOURS.saddle : COLOURS.grain;
-  const swallow = (event: ThreeEvent<PointerEvent>) => event.stopPropagation();
   return (
     <group position={mark.point} quaternion={rotation} name="grain-mark">
       <mesh
         position={[0, size * 0.6, 0]}
-        onPointerDown={swallow}
-        onPointerUp={swallow}
-        onClick={(event) => {
+        onPointerDown={(event) => {
+          if (event.nativeEvent.button !== 0) return;
           event.stopPropagation();
-          onTake(mark);
+          press.current = { x: event.nativeEvent.clientX, y: event.nativeEvent.clientY };
+        }}
+        onPointerUp={(event) => {
+          event.stopPropagation();
+          const start = press.current;
+          press.current = null;
+          if (start && Math.hypot(event.nativeEvent.clientX - start.x, event.nativeEvent.clientY - start.y) <= CLICK_TRAVEL) onTake(mark);
         }}
       >
         <sphereGeometry args={[size * 0.7, 16, 12]} />

@@ -172,7 +172,7 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
             {tab === 'guides' && <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} />}
             {tab === 'field' && (
               <div className="flex flex-col gap-5">
-                {surface && <GrainPanel spec={spec} grain={grain} actions={actions} />}
+                {surface && <GrainPanel spec={spec} grain={grain} actions={actions} onLookAt={(mark) => stage.current?.lookAt(mark.point, mark.normal)} />}
                 <FieldPanel spec={spec} surface={surface} actions={actions} display={display} onDisplay={setDisplay} />
               </div>
             )}
