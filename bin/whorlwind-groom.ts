@@ -137,7 +137,7 @@ async function main(argv: string[]): Promise<void> {
       `surface     ${read.mesh.positions.length / 3} vertices, ${read.mesh.triangles.length / 3} faces (${read.format})`,
       `growth area ${grown.areaSquareCm.toFixed(2)} cm²`,
       `guides      ${guides.count} × ${guides.pointsPerGuide} points (${(guides.count / Math.max(grown.areaSquareCm, 1e-12)).toFixed(3)} per cm², ${guides.hairsPerGuide} hairs each)`,
-      `index       ${budget.components.map((c) => `placed ${c.placed}${c.demanded === null ? ' (free boundary)' : ` of ${c.demanded}`}`).join('; ')}; measured = requested at ${checked - mismatched} of ${checked} vertices`,
+      `index       ${budget.pieces.map((c) => `${budget.pieces.length > 1 ? `piece ${c.piece + 1}: ` : ''}placed ${c.placed}${c.demanded === null ? ' (free boundary)' : ` of ${c.demanded}`}`).join('; ')}; measured = requested at ${checked - mismatched} of ${checked} vertices`,
       `skin check  ${grown.pushedOut} points moved out from under the skin`,
       'timings',
       ...Object.entries(seconds).map(([name, s]) => `  ${name.padEnd(18)} ${(s * 1000).toFixed(1)} ms`),

@@ -47,8 +47,10 @@ export interface FieldRequest {
   readonly strokes?: readonly (readonly FaceAlignment[])[];
   readonly curves?: readonly CurveFeature[];
   /**
-   * Holonomy (radians) around each homology generator, in the order `FieldSurface.generators`
-   * lists them; `null` or missing picks the multiple of 2π/order nearest to Levi-Civita's.
+   * Holonomy (radians, a multiple of 2π/order) around each homology generator, in the order
+   * `FieldSurface.generators` lists them (they belong to the prepared surface and never change);
+   * `null` or missing picks the multiple of 2π/order nearest to what the smoothest field turns
+   * there. Refused while curves cut the surface.
    */
   readonly generatorHolonomies?: readonly (number | null)[];
   /** Rotation (radians) of the whole field where no alignment fixes its direction. */
@@ -58,6 +60,8 @@ export interface FieldRequest {
   /** A vertex that receives whatever index the surface still demands (see `indexBudget`). */
   readonly remainderAt?: number;
 }
+
+import type { CurveLink, CurveSide } from './curves';
 
 /** The connection found by a solve: rotation angles per edge on top of Levi-Civita transport. */
 export interface ConnectionResult {
@@ -72,6 +76,10 @@ export interface ConnectionResult {
   readonly cutEdge: Uint8Array;
   /** Faces whose direction is fixed, with the fixed angle in the face frame. */
   readonly fixedFaces: ReadonlyMap<number, number>;
+  /** How the field must turn round each curve vertex on each side (the proof checks every one). */
+  readonly curveLinks: readonly CurveLink[];
+  /** The faces beside the curves, with the direction each must take across its curve edge. */
+  readonly curveSides: readonly CurveSide[];
   /** Largest |angle| over all edges: below π/order, the index measurement sees exactly the prescribed indices. */
   readonly largestAngle: number;
   readonly solveMilliseconds: number;

@@ -2,7 +2,7 @@
 // the prepared growth surface and runs every solve, trace and guide growth with lib/field and
 // lib/groom — the same code the server runs for exports — so the page never waits on them.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import type { BoundaryMode } from '@/lib/field';
+import type { BoundaryMode, IndexBudget } from '@/lib/field';
 import type { Vec3 } from './features';
 
 /** Where the worker gets the surface's bytes. */
@@ -85,12 +85,6 @@ export interface InspectedSurface {
   readonly triangles: Uint32Array;
 }
 
-export interface ComponentBudget {
-  readonly component: number;
-  readonly demanded: number | null;
-  readonly placed: number;
-  readonly remainder: number | null;
-}
 
 export interface SingularityCheck {
   /** The welded vertex the singularity sits on. */
@@ -125,7 +119,7 @@ export interface SolveReport {
   readonly lineShade: Float32Array | null;
   readonly error: WorkerError | null;
   /** Null when the spec's places could not be resolved on the surface. */
-  readonly budget: { readonly components: readonly ComponentBudget[]; readonly balanced: boolean } | null;
+  readonly budget: IndexBudget | null;
   /** Per singularity of the spec, in its order. */
   readonly singularities: readonly SingularityCheck[];
   /** Per pin of the spec, its vertex. */
