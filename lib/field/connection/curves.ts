@@ -5,29 +5,8 @@
 import { partialFan, reverseChain, type DualChain } from '../mesh/dual-chains';
 import { FieldError } from '../mesh/errors';
 import { faceOfHalfedge, facePieces, nextAroundVertex, nextHalfedge, type Topology } from '../mesh/topology';
-import type { CurveFeature } from './request';
+import type { CurveFeature, CurveLink, CurveSide } from './request';
 import type { FieldSurface } from './surface';
-
-/**
- * How the field turns around one curve vertex on one side of the curve: from one side face to the
- * next (`preferred` 0: no extra turn), or half a circle round an open curve's end (`preferred` π).
- */
-export interface CurveLink {
-  readonly from: number;
-  readonly to: number;
-  readonly chain: DualChain;
-  readonly preferred: number;
-  /** Index of the curve in the request, and the curve vertex the link turns around. */
-  readonly curve: number;
-  readonly vertex: number;
-}
-
-/** A face beside a curve: the curve's halfedge in that face, and +1 (parting: flow leaves) or −1 (crest). */
-export interface CurveSide {
-  readonly face: number;
-  readonly halfedge: number;
-  readonly sense: 1 | -1;
-}
 
 export interface CurveGeometry {
   readonly cutEdge: Uint8Array;

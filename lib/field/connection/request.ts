@@ -2,6 +2,7 @@
  * What a caller asks of the connection solve — singularities, strokes, curves, boundary mode —
  * and what it gets back. Types only, so the studio's client code can name them freely.
  */
+import type { DualChain } from '../mesh/dual-chains';
 
 /**
  * What the field does along the surface's boundary loops: `free` leaves it to the smoothest
@@ -61,7 +62,26 @@ export interface FieldRequest {
   readonly remainderAt?: number;
 }
 
-import type { CurveLink, CurveSide } from './curves';
+/**
+ * How the field turns around one curve vertex on one side of the curve: from one side face to the
+ * next (`preferred` 0: no extra turn), or half a circle round an open curve's end (`preferred` π).
+ */
+export interface CurveLink {
+  readonly from: number;
+  readonly to: number;
+  readonly chain: DualChain;
+  readonly preferred: number;
+  /** Index of the curve in the request, and the curve vertex the link turns around. */
+  readonly curve: number;
+  readonly vertex: number;
+}
+
+/** A face beside a curve: the curve's halfedge in that face, and +1 (parting: flow leaves) or −1 (crest). */
+export interface CurveSide {
+  readonly face: number;
+  readonly halfedge: number;
+  readonly sense: 1 | -1;
+}
 
 /** The connection found by a solve: rotation angles per edge on top of Levi-Civita transport. */
 export interface ConnectionResult {
