@@ -102,6 +102,9 @@ export function validateRequest(surface: FieldSurface, request: FieldRequest, cu
       throw new FieldError('singularity-on-free-boundary', `${what} is on the boundary at vertex ${s.vertex}; a boundary singularity needs the boundary held tangent or normal.`);
     }
     if (cutVertex[s.vertex]) throw new FieldError('singularity-on-curve', `${what} is at vertex ${s.vertex}, on a parting or crest; move it off the curve.`);
+    if (topology.isBoundaryVertex[s.vertex] && surface.solver.rowOfVertex[s.vertex] < 0 && surface.solver.droppedVertexOfComponent[surface.componentOfVertex[s.vertex]] !== s.vertex) {
+      throw new FieldError('singularity-on-corner', `${what} is at vertex ${s.vertex}, a corner of the held boundary with a single face: the field has no edge there to turn across. Move it to a neighbouring vertex.`);
+    }
     placedAt.set(s.vertex, i);
     requestedIndex[s.vertex] = Math.round(s.index * order) / order;
   });

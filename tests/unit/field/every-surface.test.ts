@@ -8,11 +8,12 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { indexBudget as indexBudgetOf, prepareSurface, solveConnection, type ConnectionResult, type FieldRequest, type FieldSurface } from '@/lib/field/connection';
 import { boundaryLoopChain } from '@/lib/field/connection/pieces';
+import { checkSurface } from '@/lib/field/mesh/check';
 import { FieldError } from '@/lib/field/mesh/errors';
 import type { TriangleMesh } from '@/lib/field/mesh/mesh';
 import { nextHalfedge } from '@/lib/field/mesh/topology';
 import { solveField, type SolvedField } from '@/lib/field/solve-field';
-import { bentTube, disc, frustum, icosphere, latitudeRingVertices, torus, uvSphere, withHoles } from '@/tests/fixtures/shapes';
+import { bentTube, disc, frustum, gridPlane, icosphere, latitudeRingVertices, torus, uvSphere, withHoles } from '@/tests/fixtures/shapes';
 import { spreadVertices } from './support';
 
 type V = [number, number, number];
@@ -307,5 +308,27 @@ describe('property: random surfaces with random openings and handles', () => {
     );
     expect(runs).toBe(40);
     expect(solvedCount).toBeGreaterThanOrEqual(runs / 2);
+  });
+});
+
+describe('input checked on every path', () => {
+  it('prepareSurface refuses what the upload check refuses, in the same words', () => {
+    // A square of two faces and a third whose corners lie on one line (no area).
+    const flat = { positions: Float64Array.from([0, 0, 0, 1, 0, 0, 1, 1, 0, 0, 1, 0, 2, 0, 0]), triangles: Uint32Array.from([0, 1, 2, 0, 2, 3, 0, 4, 1]) };
+    const problem = checkSurface(flat).problems.find((p) => p.severity === 'error')!;
+    expect(problem.code).toBe('degenerate-faces');
+    expect(() => prepareSurface(flat)).toThrow(expect.objectContaining({ code: problem.code, message: problem.message }));
+    const broken = { positions: Float64Array.from([0, 0, 0, 1, 0, NaN, 0, 1, 0]), triangles: Uint32Array.from([0, 1, 2]) };
+    expect(() => prepareSurface(broken)).toThrow(expect.objectContaining({ code: checkSurface(broken).problems[0].code }));
+  });
+
+  it('a singularity on a one-face corner of a held boundary is refused naming that vertex', () => {
+    const surface = prepareSurface(gridPlane(4, 4), { boundary: 'tangent' });
+    const corner = [0, 4, 20, 24].find((v) => surface.solver.rowOfVertex[v] < 0 && surface.solver.droppedVertexOfComponent[0] !== v)!;
+    expect(corner).toBeDefined();
+    const centre = 12;
+    expect(() => solveField(surface, { singularities: [{ vertex: corner, index: 1 }, { vertex: centre, index: 0 }] })).toThrow(
+      expect.objectContaining({ code: 'singularity-on-corner', message: expect.stringContaining(`vertex ${corner},`) }),
+    );
   });
 });
