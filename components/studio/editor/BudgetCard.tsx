@@ -103,6 +103,10 @@ export function BudgetCard({
               {proof.nonZeroCount === 0
                 ? `No singularity anywhere, as placed (${count(proof.measuredVertices, 'vertex', 'vertices')} measured).`
                 : `${count(proof.nonZeroCount, 'singularity', 'singularities')} found, each exactly where one was placed; none elsewhere (${count(proof.measuredVertices, 'vertex', 'vertices')} measured).`}
+              <span className="block pt-1 text-xs text-chalk/75" data-testid="edge-proof">
+                No seam: {count(proof.checkedEdges, 'edge')} checked, the largest turn between neighbouring faces {proof.largestTurnDegrees}°
+                {proof.checkedCurveTurns > 0 ? `; ${count(proof.checkedCurveTurns, 'turn')} round partings and crests as drawn` : ''}.
+              </span>
             </p>
           ) : (
             <p className="pt-1 text-sm text-pollen">

@@ -12,7 +12,7 @@ import { validateRequest } from './budget';
 import { layOutCurves } from './curves';
 import { boundaryLoopChain, cutIntoPieces } from './pieces';
 import type { ConnectionResult, FieldRequest } from './request';
-import { solveRows, type ExtraRow } from './schur-rows';
+import { isIndependentRow, ringSolution, solveRows, type ExtraRow } from './schur-rows';
 import type { FieldSurface } from './surface';
 
 export type { BoundaryMode, ConnectionResult, CurveFeature, FaceAlignment, FieldRequest, PointSingularity } from './request';
@@ -43,12 +43,9 @@ function chainKey(prefix: string, chain: DualChain): string {
  * A given holonomy must be a whole number of symmetry steps: a field of order n comes back to
  * itself after a loop only if it turned by a multiple of 2π/n; anything else is a seam.
  */
-function checkHolonomies(given: readonly (number | null)[], generatorCount: number, order: number, hasCurves: boolean) {
+function checkHolonomies(given: readonly (number | null)[], generatorCount: number, order: number) {
   const set = given.flatMap((value, i) => (value === null || value === undefined ? [] : [i]));
   if (set.length === 0) return;
-  if (hasCurves) {
-    throw new FieldError('holonomy-with-curves', 'Holonomies round the handles cannot be given while partings or crests cut the surface (the loops round the handles change with every curve); leave them out to get the smoothest choice.');
-  }
   if (given.length > generatorCount) {
     throw new FieldError('bad-holonomy', `${given.length} generator holonomies were given, but the surface has ${generatorCount} generator${generatorCount === 1 ? '' : 's'} (two per handle).`);
   }
@@ -101,14 +98,25 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     stage2.push({ row: { key, chain, removedVertex: -1, value: 0 }, roundedFrom: (natural) => step * Math.round((levelCivita + chainSum(chain, natural)) / step) - levelCivita });
   };
   const hasCurves = (request.curves ?? []).length > 0;
-  const generators = hasCurves ? homologyGenerators(topology, curves.cutEdge) : surface.generators;
   const given = request.generatorHolonomies ?? [];
-  checkHolonomies(given, generators.length, order, hasCurves);
-  generators.forEach((g, i) => {
+  checkHolonomies(given, surface.generators.length, order);
+  // Given holonomies belong to the prepared surface's generators, which curves never change.
+  const held = surface.generators.flatMap((g, i) => {
     const wanted = given[i];
-    if (wanted === null || wanted === undefined) return roundedCycle(chainKey('g', g), g);
-    stage1.push({ key: chainKey('g', g), chain: g, removedVertex: -1, value: wanted - chainSum(g, frames.edgeRotation) });
+    if (wanted === null || wanted === undefined) return [];
+    const crossed = hasCurves ? g.edges.findIndex((e) => curves.cutEdge[e] === 1) : -1;
+    if (crossed >= 0) {
+      throw new FieldError('holonomy-crosses-curve', `The loop of generator ${i + 1}, whose holonomy is given, crosses a parting or crest (at vertex ${topology.triangles[topology.edgeHalfedge[g.edges[crossed]]]}); leave its holonomy out while the curve is there.`);
+    }
+    return [{ index: i, row: { key: chainKey('g', g), chain: g, removedVertex: -1, value: wanted - chainSum(g, frames.edgeRotation) } }];
   });
+  if (!hasCurves) {
+    const heldIndex = new Set(held.map((h) => h.index));
+    surface.generators.forEach((g, i) => {
+      if (!heldIndex.has(i)) roundedCycle(chainKey('g', g), g);
+    });
+  }
+  stage1.push(...held.map((h) => h.row));
   // A piece with several free boundary loops: all but one of them (the last follows from the rings).
   cut.pieces.forEach((piece) => {
     if (piece.budgeted) return;
@@ -196,6 +204,25 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     }
   }
 
+  if (hasCurves) {
+    // The cut surface's own generators, after the held ones, each kept only when the rows so far
+    // leave its turning free: a loop beside a closed curve that does not separate the surface is
+    // already fixed by the curve's links, and so is one homologous to a held generator.
+    held.forEach(({ index, row }) => {
+      const others = stage1.filter((r) => r !== row);
+      if (!isIndependentRow(surface, others, row)) {
+        throw new FieldError('holonomy-fixed-by-curve', `The holonomy of generator ${index + 1} is given, but the partings and crests already fix how the field turns round that loop; leave it out.`);
+      }
+    });
+    const mayRepeat = held.length > 0 || curves.closed.length > 0;
+    const kept: ExtraRow[] = [];
+    for (const g of homologyGenerators(topology, curves.cutEdge)) {
+      const row: ExtraRow = { key: chainKey('g', g), chain: g, removedVertex: -1, value: 0 };
+      if (mayRepeat && !isIndependentRow(surface, [...stage1, ...stage2.map((r) => r.row), ...kept], row)) continue;
+      kept.push(row);
+      roundedCycle(row.key, g);
+    }
+  }
   // Tie each feature to the first fixed face of its piece of surface; the turning along the tie
   // is whatever the field would do without it, rounded to a whole symmetry step.
   const referenceOfPiece = new Map<number, number>();
@@ -212,13 +239,14 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
       roundedFrom: (natural) => alignmentValue(surface, chain, fixedFaces.get(chain.fromFace)!, fixedFaces.get(chain.toFace)!, order, chainSum(chain, natural)),
     });
   }
+  const t = ringSolution(surface, ringValues);
   let angles: Float64Array;
   if (stage2.length === 0) {
-    angles = solveRows(surface, ringValues, stage1);
+    angles = solveRows(surface, ringValues, t, stage1);
   } else {
-    const natural = solveRows(surface, ringValues, stage1);
+    const natural = solveRows(surface, ringValues, t, stage1);
     for (const { row, roundedFrom } of stage2) row.value = roundedFrom(natural);
-    angles = solveRows(surface, ringValues, [...stage1, ...stage2.map(({ row }) => row)]);
+    angles = solveRows(surface, ringValues, t, [...stage1, ...stage2.map(({ row }) => row)]);
   }
   let largestAngle = 0;
   for (let e = 0; e < angles.length; e++) {

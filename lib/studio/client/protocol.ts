@@ -106,6 +106,12 @@ export interface IndexProof {
   readonly mismatches: number;
   /** Sum of the measured indices. */
   readonly measuredSum: number;
+  /** Interior edges off the curves, each checked to turn the field by its connection angle (no seam). */
+  readonly checkedEdges: number;
+  /** The largest turn across one of them, in degrees. */
+  readonly largestTurnDegrees: number;
+  /** Turns round curve vertices checked against what the curves demand. */
+  readonly checkedCurveTurns: number;
 }
 
 export const NONZERO_LIMIT = 64;

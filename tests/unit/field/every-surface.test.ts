@@ -332,3 +332,62 @@ describe('input checked on every path', () => {
     );
   });
 });
+
+describe('holonomies given round the handles', () => {
+  const surface = prepareSurface(torus(3, 1, 40, 16));
+  const at = (i: number, j: number) => (((i % 40) + 40) % 40) * 16 + (((j % 16) + 16) % 16);
+  // A hair field (order 1) comes back to itself after whole turns only: one full turn round the
+  // first loop, none round the second.
+  const given = [2 * Math.PI, 0];
+  const heldAround = (angles: Float64Array, i: number) => chainSum(surface.generators[i], surface.frames.edgeRotation) + chainSum(surface.generators[i], angles);
+  // Vertices on faces that the generators' loops cross: a curve there would cut the loops.
+  const onLoops = new Set<number>();
+  for (const g of surface.generators) {
+    for (const e of g.edges) {
+      const h = surface.topology.edgeHalfedge[e];
+      for (const face of [(h / 3) | 0, (surface.topology.twin[h] / 3) | 0]) for (let k = 0; k < 3; k++) onLoops.add(surface.topology.triangles[3 * face + k]);
+    }
+  }
+  const clear = (vertices: number[]) => vertices.every((v) => !onLoops.has(v) && [-1, 0, 1].every((di) => [-1, 0, 1].every((dj) => !onLoops.has(at(Math.floor(v / 16) + di, (v % 16) + dj)))));
+  const partingsAway = (): number[][] => {
+    const found: number[][] = [];
+    for (let i = 0; i < 40 && found.length < 2; i += 3) for (let j = 0; j < 16 && found.length < 2; j += 5) {
+      const path = [at(i, j), at(i + 1, j), at(i + 2, j)];
+      if (clear(path) && found.every((other) => Math.abs(Math.floor(other[0] / 16) - i) > 4)) found.push(path);
+    }
+    return found;
+  };
+
+  it('stay held, on the same loops, when a parting is drawn or moved elsewhere', () => {
+    const partings = partingsAway();
+    expect(partings).toHaveLength(2);
+    const saddle = (path: number[]) => at(Math.floor(path[0] / 16) + 1, (path[0] % 16) + 8);
+    for (const path of partings) {
+      const request: FieldRequest = { generatorHolonomies: given, curves: [{ kind: 'parting', vertices: path }], singularities: [{ vertex: saddle(path), index: -1 }] };
+      const solved = solveField(surface, request);
+      given.forEach((value, i) => expect(heldAround(solved.connection.angles, i)).toBeCloseTo(value, 9));
+      expectIndicesAsPlaced(solved);
+    }
+  });
+
+  it('are refused, never silently dropped, when a curve cuts their loop or already fixes it', () => {
+    const meridian = Array.from({ length: 17 }, (_, j) => at(20, j));
+    expect(solveField(surface, { curves: [{ kind: 'crest', vertices: meridian }] }).edgeProof.checkedCurveTurns).toBe(2 * 16);
+    // Round a closed crest about the tube, the loop along the tube is fixed by the crest's own
+    // turning, and any loop round the long way crosses the crest (its intersection number with it
+    // is 1), so neither holonomy can be held; both are refused in words.
+    const codes = [0, 1].map((i) => {
+      const one = [null, null] as (number | null)[];
+      one[i] = given[i];
+      try {
+        solveConnection(surface, { generatorHolonomies: one, curves: [{ kind: 'crest', vertices: meridian }] });
+        return 'held';
+      } catch (error) {
+        expect(error).toBeInstanceOf(FieldError);
+        return (error as FieldError).code;
+      }
+    });
+    for (const code of codes) expect(['holonomy-crosses-curve', 'holonomy-fixed-by-curve']).toContain(code);
+    expect(codes).toContain('holonomy-crosses-curve');
+  });
+});
