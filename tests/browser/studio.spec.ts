@@ -173,6 +173,7 @@ test('the editor: features through the side list, measured indices equal the pla
   await expect(budget.getByTestId('budget-remainder')).toHaveText('0');
   const proof = page.getByTestId('index-proof');
   await expect(proof).toContainText('3 singularities found, each exactly where one was placed; none elsewhere', { timeout: 30_000 });
+  await expect(proof.getByTestId('edge-proof')).toContainText(/No seam: [\d,]+ edges checked, the largest turn between neighbouring faces [\d.]+°\./);
   await expect(rows.filter({ hasText: 'Whorl 1' })).toContainText('index +1 · measured +1');
   await expect(rows.filter({ hasText: 'Whorl 2' })).toContainText('index +1 · measured +1');
   await expect(rows.filter({ hasText: 'Saddle 1' })).toContainText('index −1 · measured −1');
@@ -354,5 +355,6 @@ test('drawing with the pointer: a parting from clicked points, a flow stroke by 
 
   // The proof holds with the new curve, stroke and pin: singularities where placed, none elsewhere.
   await expect(page.getByTestId('index-proof')).toContainText('each exactly where one was placed; none elsewhere', { timeout: 30_000 });
+  await expect(page.getByTestId('edge-proof')).toContainText(/turns round partings and crests as drawn/);
   await expect(page.getByTestId('field-error')).toHaveCount(0);
 });

@@ -26,7 +26,7 @@ export function BudgetCard({
 }) {
   const order = spec.field.order;
   const budget = solve?.budget ?? null;
-  const several = (budget?.components.length ?? 0) > 1;
+  const several = (budget?.pieces.length ?? 0) > 1;
   const pointSum = spec.field.singularities.reduce((sum, s) => sum + s.index, 0);
   const openCurves = [...spec.field.partings, ...spec.field.crests].filter((c) => !c.closed).length;
   const proof = solve?.proof ?? null;
@@ -40,9 +40,13 @@ export function BudgetCard({
       {!budget ? (
         <p className="text-sm text-chalk/80">{surface ? (solve?.error ? 'The budget needs every feature placed on the surface first.' : 'Working it out…') : 'Waiting for the surface.'}</p>
       ) : (
-        budget.components.map((piece) => (
-          <div key={piece.component} className="flex flex-col gap-2" data-testid="budget-piece">
-            {several && <p className="text-xs font-semibold text-chalk/70">Piece {piece.component + 1} of the surface</p>}
+        budget.pieces.map((piece) => (
+          <div key={piece.piece} className="flex flex-col gap-2" data-testid="budget-piece">
+            {several && (
+              <p className="text-xs font-semibold text-chalk/70">
+                Piece {piece.piece + 1} of the surface{piece.borderedBy.length > 0 ? `, bordered by ${piece.borderedBy.join(' and ')}` : ''}
+              </p>
+            )}
             <dl className="grid grid-cols-3 gap-2 text-center">
               <div className="rounded-xl bg-tarn-deep px-2 py-1.5">
                 <dt className="text-[11px] uppercase tracking-wide text-chalk/70">Surface asks</dt>
@@ -99,6 +103,10 @@ export function BudgetCard({
               {proof.nonZeroCount === 0
                 ? `No singularity anywhere, as placed (${count(proof.measuredVertices, 'vertex', 'vertices')} measured).`
                 : `${count(proof.nonZeroCount, 'singularity', 'singularities')} found, each exactly where one was placed; none elsewhere (${count(proof.measuredVertices, 'vertex', 'vertices')} measured).`}
+              <span className="block pt-1 text-xs text-chalk/75" data-testid="edge-proof">
+                No seam: {count(proof.checkedEdges, 'edge')} checked, the largest turn between neighbouring faces {proof.largestTurnDegrees}°
+                {proof.checkedCurveTurns > 0 ? `; ${count(proof.checkedCurveTurns, 'turn')} round partings and crests as drawn` : ''}.
+              </span>
             </p>
           ) : (
             <p className="pt-1 text-sm text-pollen">

@@ -3,59 +3,87 @@
  * so that an impossible request is refused in words a groomer can act on.
  */
 import { FieldError } from '../mesh/errors';
+import { faceOfHalfedge } from '../mesh/topology';
+import { curveName, layOutCurves, type CurveGeometry } from './curves';
+import { cutIntoPieces, type SurfacePieces } from './pieces';
 import type { FieldRequest } from './request';
 import type { FieldSurface } from './surface';
 
-/**
- * Whether a component's vertex rings (with held boundary fans) are bound by Poincaré–Hopf:
- * true for closed components, and for every component when the boundary is held.
- */
-export function isBudgeted(surface: Pick<FieldSurface, 'components' | 'boundary'>, component: number): boolean {
-  return surface.components[component].boundaryLoopCount === 0 || surface.boundary !== 'free';
+/** How the placed indices stand against what one piece of the surface demands. */
+export interface PieceBudget {
+  /** Piece number (from 0): the surface's components, split further by closed curves. */
+  readonly piece: number;
+  readonly component: number;
+  /** Closed curves bordering the piece, by name ("parting 1"), to tell the pieces apart. */
+  readonly borderedBy: readonly string[];
+  /** Σ index the piece demands (its Euler characteristic), or null when a free boundary absorbs any sum. */
+  readonly demanded: number | null;
+  /** Σ index placed on the piece: point singularities, plus 1 for every open parting or crest. */
+  readonly placed: number;
+  /** demanded − placed, or null when free. */
+  readonly remainder: number | null;
 }
 
-/** How the placed indices stand against what each component demands. */
+/** How the placed indices stand against what each piece demands. */
 export interface IndexBudget {
-  readonly components: readonly {
-    readonly component: number;
-    /** Σ index the component demands (its Euler characteristic), or null when its free boundary absorbs any sum. */
-    readonly demanded: number | null;
-    /** Σ index placed: point singularities, plus 1 for every open parting or crest. */
-    readonly placed: number;
-    /** demanded − placed, or null when free. */
-    readonly remainder: number | null;
-  }[];
-  /** True when every budgeted component is balanced. */
+  readonly pieces: readonly PieceBudget[];
+  /** True when every budgeted piece is balanced. */
   readonly balanced: boolean;
+  /** The piece of each vertex; −1 for vertices on a curve (on two pieces at once) and unused ones. */
+  readonly pieceOfVertex: Int32Array;
 }
 
 /**
- * The index budget (Poincaré–Hopf): on a closed component the indices must sum to its Euler
- * characteristic; an open parting or crest counts +1 (it acts as a source or a sink), a closed one
- * 0; with a free boundary any sum is possible. `remainderAt` is not applied here.
+ * The index budget (Poincaré–Hopf) per piece of the surface: the indices on a piece with no free
+ * boundary must sum to its Euler characteristic (closed curves count as its boundary, held like a
+ * held boundary); an open parting or crest counts +1 (it acts as a source or a sink); a piece with
+ * a free boundary loop takes any sum. `remainderAt` is not applied here. Throws FieldError for
+ * curves that cannot be laid out (as `solveConnection` would).
  */
 export function indexBudget(surface: FieldSurface, request: FieldRequest): IndexBudget {
-  const placed = new Float64Array(surface.components.length);
-  for (const s of request.singularities ?? []) {
-    const c = surface.componentOfVertex[s.vertex];
-    if (c >= 0) placed[c] += s.index;
-  }
-  for (const curve of request.curves ?? []) {
-    const c = surface.componentOfVertex[curve.vertices[0]];
-    const closed = curve.vertices.length > 2 && curve.vertices[0] === curve.vertices[curve.vertices.length - 1];
-    if (c >= 0 && !closed) placed[c] += 1;
-  }
-  let balanced = true;
-  const components = surface.components.map((facts, c) => {
-    if (!isBudgeted(surface, c)) return { component: c, demanded: null, placed: placed[c], remainder: null };
-    const remainder = Math.round((facts.eulerCharacteristic - placed[c]) * 1e9) / 1e9;
-    if (remainder !== 0) balanced = false;
-    return { component: c, demanded: facts.eulerCharacteristic, placed: placed[c], remainder };
-  });
-  return { components, balanced };
+  const curves = layOutCurves(surface, request.curves ?? []);
+  return budgetOfPieces(surface, request, cutIntoPieces(surface.topology, curves, surface.boundary));
 }
 
-export function validateRequest(surface: FieldSurface, request: FieldRequest, cutVertex: Uint8Array): { order: number; requestedIndex: Float64Array } {
+/** The piece a vertex off every curve lies on. */
+function pieceOf(surface: FieldSurface, pieces: SurfacePieces, v: number): number {
+  return pieces.pieceOfFace[faceOfHalfedge(surface.topology.vertexHalfedge[v])];
+}
+
+function budgetOfPieces(surface: FieldSurface, request: FieldRequest, cut: SurfacePieces): IndexBudget {
+  const placed = new Float64Array(cut.pieces.length);
+  for (const s of request.singularities ?? []) {
+    if (Number.isInteger(s.vertex) && s.vertex >= 0 && s.vertex < surface.topology.vertexCount && surface.topology.vertexHalfedge[s.vertex] !== -1) placed[pieceOf(surface, cut, s.vertex)] += s.index;
+  }
+  const curves = request.curves ?? [];
+  let balanced = true;
+  const pieces = cut.pieces.map((facts, p): PieceBudget => {
+    placed[p] += facts.openCurves.length;
+    const borderedBy = [...new Set(facts.closedCurves)].map((ci) => curveName(curves, ci));
+    if (!facts.budgeted) return { piece: p, component: facts.component, borderedBy, demanded: null, placed: placed[p], remainder: null };
+    const remainder = Math.round((facts.eulerCharacteristic - placed[p]) * 1e9) / 1e9;
+    if (remainder !== 0) balanced = false;
+    return { piece: p, component: facts.component, borderedBy, demanded: facts.eulerCharacteristic, placed: placed[p], remainder };
+  });
+  const pieceOfVertex = new Int32Array(surface.topology.vertexCount).fill(-1);
+  for (let v = 0; v < pieceOfVertex.length; v++) if (surface.topology.vertexHalfedge[v] !== -1) pieceOfVertex[v] = pieceOf(surface, cut, v);
+  for (const c of request.curves ?? []) for (const v of c.vertices) if (Number.isInteger(v) && v >= 0 && v < pieceOfVertex.length) pieceOfVertex[v] = -1;
+  return { pieces, balanced, pieceOfVertex };
+}
+
+/** A piece in a groomer's words: "the surface", "surface piece 2", "surface piece 2 (inside parting 1)". */
+export function pieceName(budget: IndexBudget, p: number): string {
+  if (budget.pieces.length === 1) return 'the surface';
+  const { borderedBy } = budget.pieces[p];
+  return `surface piece ${p + 1}${borderedBy.length > 0 ? ` (bordered by ${borderedBy.join(' and ')})` : ''}`;
+}
+
+/**
+ * Checks a request before anything is solved: order, each singularity, the remainder vertex and
+ * the budget of every piece (the error names the piece that is off).
+ */
+export function validateRequest(surface: FieldSurface, request: FieldRequest, curves: CurveGeometry, cut: SurfacePieces): { order: number; requestedIndex: Float64Array } {
+  const cutVertex = curves.cutVertex;
   const topology = surface.topology;
   const order = request.order ?? 1;
   if (!Number.isInteger(order) || order < 1 || order > 12) throw new FieldError('bad-order', `The field order must be a whole number from 1 to 12, not ${order}.`);
@@ -74,28 +102,32 @@ export function validateRequest(surface: FieldSurface, request: FieldRequest, cu
       throw new FieldError('singularity-on-free-boundary', `${what} is on the boundary at vertex ${s.vertex}; a boundary singularity needs the boundary held tangent or normal.`);
     }
     if (cutVertex[s.vertex]) throw new FieldError('singularity-on-curve', `${what} is at vertex ${s.vertex}, on a parting or crest; move it off the curve.`);
+    if (topology.isBoundaryVertex[s.vertex] && surface.solver.rowOfVertex[s.vertex] < 0 && surface.solver.droppedVertexOfComponent[surface.componentOfVertex[s.vertex]] !== s.vertex) {
+      throw new FieldError('singularity-on-corner', `${what} is at vertex ${s.vertex}, a corner of the held boundary with a single face: the field has no edge there to turn across. Move it to a neighbouring vertex.`);
+    }
     placedAt.set(s.vertex, i);
     requestedIndex[s.vertex] = Math.round(s.index * order) / order;
   });
-  const budget = indexBudget(surface, request);
-  const unbalanced = budget.components.filter((c) => c.remainder !== null && c.remainder !== 0);
+  const budget = budgetOfPieces(surface, request, cut);
+  const unbalanced = budget.pieces.filter((p) => p.remainder !== null && p.remainder !== 0);
   if (request.remainderAt !== undefined) {
     const v = request.remainderAt;
     if (!Number.isInteger(v) || v < 0 || v >= topology.vertexCount || topology.vertexHalfedge[v] === -1) throw new FieldError('vertex-out-of-range', `The remainder vertex ${v} is not a vertex of the surface.`);
     if (cutVertex[v]) throw new FieldError('singularity-on-curve', `The remainder vertex ${v} lies on a parting or crest.`);
     if (topology.isBoundaryVertex[v] && surface.boundary === 'free') throw new FieldError('singularity-on-free-boundary', `The remainder vertex ${v} is on a free boundary.`);
-    const c = surface.componentOfVertex[v];
-    const entry = budget.components[c];
+    const p = pieceOf(surface, cut, v);
+    const entry = budget.pieces[p];
     if (entry.remainder !== null) requestedIndex[v] += entry.remainder;
-    if (unbalanced.some((u) => u.component !== c)) {
-      const other = unbalanced.find((u) => u.component !== c)!;
-      throw new FieldError('index-budget', `Surface piece ${other.component + 1} needs indices summing to ${other.demanded}, but ${other.placed} are placed (the remainder vertex is on another piece).`);
+    const other = unbalanced.find((u) => u.piece !== p);
+    if (other) {
+      throw new FieldError('index-budget', `The indices on ${pieceName(budget, other.piece)} sum to ${other.placed}, but it needs ${other.demanded} (the remainder vertex ${v} is on another piece).`);
     }
   } else if (unbalanced.length > 0) {
     const u = unbalanced[0];
+    const what = u.borderedBy.length > 0 ? `a piece of Euler characteristic ${u.demanded} with the field across its curves` : `a surface of Euler characteristic ${u.demanded}`;
     throw new FieldError(
       'index-budget',
-      `The indices placed on ${surface.components.length > 1 ? `surface piece ${u.component + 1}` : 'the surface'} sum to ${u.placed}, but a surface of Euler characteristic ${u.demanded} needs ${u.demanded}: ${u.remainder! > 0 ? `add ${u.remainder}` : `remove ${-u.remainder!}`} (or name a vertex to take the remainder).`,
+      `The indices placed on ${pieceName(budget, u.piece)} sum to ${u.placed}, but ${what} needs ${u.demanded}: ${u.remainder! > 0 ? `add ${u.remainder}` : `remove ${-u.remainder!}`} (or name a vertex to take the remainder).`,
     );
   }
   return { order, requestedIndex };

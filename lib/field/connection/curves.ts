@@ -5,18 +5,22 @@
 import { partialFan, reverseChain, type DualChain } from '../mesh/dual-chains';
 import { FieldError } from '../mesh/errors';
 import { faceOfHalfedge, facePieces, nextAroundVertex, nextHalfedge, type Topology } from '../mesh/topology';
-import { isBudgeted } from './budget';
-import type { CurveFeature } from './request';
+import type { CurveFeature, CurveLink, CurveSide } from './request';
 import type { FieldSurface } from './surface';
 
 export interface CurveGeometry {
   readonly cutEdge: Uint8Array;
   readonly cutVertex: Uint8Array;
-  /** Per curve: chains between consecutive side faces, with targets and preferred turning. */
-  readonly links: { from: number; to: number; chain: DualChain; preferred: number }[];
+  /** Per curve: every chain between consecutive side faces (closing the loop on both sides of a closed curve, and round both ends of an open one). */
+  readonly links: CurveLink[];
   readonly targets: Map<number, number>;
+  readonly sides: CurveSide[];
   /** First side face of each curve (or of each side of a closed curve), to tie it to the rest. */
   readonly anchors: number[];
+  /** Per closed curve: its distinct vertices and, for each, a face on its left and on its right. */
+  readonly closed: { curve: number; vertices: number[]; left: number[]; right: number[] }[];
+  /** Per open curve: a face beside it (it never separates the surface). */
+  readonly open: { curve: number; face: number }[];
 }
 
 /** The halfedge from `from` to `to`, or -1 when no face has that side. */
@@ -31,18 +35,25 @@ function findHalfedge(topology: Topology, from: number, to: number): number {
   return -1;
 }
 
+/** A curve's name as a groomer counts them, each kind on its own: "crest 1" is the first crest. */
+export function curveName(curves: readonly CurveFeature[], ci: number): string {
+  return `${curves[ci].kind} ${curves.slice(0, ci + 1).filter((c) => c.kind === curves[ci].kind).length}`;
+}
+
 export function layOutCurves(surface: FieldSurface, curves: readonly CurveFeature[]): CurveGeometry {
   const topology = surface.topology;
   const frames = surface.frames;
   const cutEdge = new Uint8Array(topology.edgeCount);
   const cutVertex = new Uint8Array(topology.vertexCount);
-  const links: CurveGeometry['links'] = [];
+  const links: CurveLink[] = [];
   const targets = new Map<number, number>();
+  const sides: CurveSide[] = [];
   const anchors: number[] = [];
+  const closedCurves: CurveGeometry['closed'] = [];
+  const openCurves: CurveGeometry['open'] = [];
   const owner = new Int32Array(topology.vertexCount).fill(-1);
 
-  // Each kind is numbered on its own, as a groomer counts them: "crest 1" is the first crest.
-  const nameOf = (ci: number) => `${curves[ci].kind} ${curves.slice(0, ci + 1).filter((c) => c.kind === curves[ci].kind).length}`;
+  const nameOf = (ci: number) => curveName(curves, ci);
   curves.forEach((curve, ci) => {
     const name = nameOf(ci);
     const vs = curve.vertices;
@@ -67,42 +78,43 @@ export function layOutCurves(surface: FieldSurface, curves: readonly CurveFeatur
       along.push(h);
       cutEdge[topology.edgeOf[h]] = 1;
     }
-    const sign = curve.kind === 'parting' ? 1 : -1;
+    const sign: 1 | -1 = curve.kind === 'parting' ? 1 : -1;
     const left = along.map((h) => faceOfHalfedge(h));
     const right = along.map((h) => faceOfHalfedge(topology.twin[h]));
     along.forEach((h, i) => {
       // Perpendicular to the edge: a quarter turn left of it in the left face, right of it in the right face.
       const tLeft = frames.halfedgeAngle[h] + sign * (Math.PI / 2);
       const tRight = frames.halfedgeAngle[topology.twin[h]] + sign * (Math.PI / 2);
-      for (const [f, a] of [[left[i], tLeft], [right[i], tRight]] as const) {
+      for (const [f, a, edge] of [[left[i], tLeft, h], [right[i], tRight, topology.twin[h]]] as const) {
         if (targets.has(f) && Math.abs(Math.sin(targets.get(f)! - a)) > 1e-9) {
           throw new FieldError('curve-too-tight', `The ${name} bends so tightly that face ${f} would have to point two ways; draw it with gentler turns.`);
         }
+        if (!targets.has(f)) sides.push({ face: f, halfedge: edge, sense: sign });
         targets.set(f, a);
       }
     });
     const m = along.length;
-    const chains: { chain: DualChain; preferred: number }[] = [];
-    // Along each side, consecutive side faces are joined around the shared curve vertex.
-    for (let i = 0; i + 1 < m; i++) {
-      const hIn = along[i], hOut = along[i + 1];
-      chains.push({ chain: reverseChain(partialFan(topology, hOut, hIn, cutEdge)), preferred: 0 });
-      chains.push({ chain: partialFan(topology, topology.twin[hIn], topology.twin[hOut], cutEdge), preferred: 0 });
+    const link = (chain: DualChain, preferred: number, vertex: number) => links.push({ from: chain.fromFace, to: chain.toFace, chain, preferred, curve: ci, vertex });
+    // Along each side, consecutive side faces are joined around the shared curve vertex; round a
+    // closed curve the last joins the first, so each side's whole turning is held.
+    for (let i = 0; i + 1 < (closed ? m + 1 : m); i++) {
+      const hIn = along[i], hOut = along[(i + 1) % m];
+      const vertex = vs[i + 1];
+      link(reverseChain(partialFan(topology, hOut, hIn, cutEdge)), 0, vertex);
+      link(partialFan(topology, topology.twin[hIn], topology.twin[hOut], cutEdge), 0, vertex);
     }
     if (closed) {
       anchors.push(left[0], right[0]);
+      closedCurves.push({ curve: ci, vertices: [...distinct], left, right });
     } else {
       // Around each end the flow turns half a circle, counter-clockwise seen from outside.
-      chains.push({ chain: partialFan(topology, along[0], topology.twin[along[0]], cutEdge), preferred: Math.PI });
-      chains.push({ chain: partialFan(topology, topology.twin[along[m - 1]], along[m - 1], cutEdge), preferred: Math.PI });
+      link(partialFan(topology, along[0], topology.twin[along[0]], cutEdge), Math.PI, vs[0]);
+      link(partialFan(topology, topology.twin[along[m - 1]], along[m - 1], cutEdge), Math.PI, vs[m]);
       anchors.push(left[0]);
-      // The loop of links around an open curve closes up; where the vertex rings already fix the
-      // turning around the curve (budgeted components), the last link is implied and must go.
-      if (isBudgeted(surface, surface.componentOfVertex[vs[0]])) chains.splice(m === 1 ? chains.length - 1 : chains.length - 3, 1);
+      openCurves.push({ curve: ci, face: left[0] });
     }
-    for (const c of chains) links.push({ from: c.chain.fromFace, to: c.chain.toFace, chain: c.chain, preferred: c.preferred });
   });
-  return { cutEdge, cutVertex, links, targets, anchors };
+  return { cutEdge, cutVertex, links, targets, sides, anchors, closed: closedCurves, open: openCurves };
 }
 
 /** Pieces of the dual graph once the curve edges are cut: the field is continuous within each. */

@@ -9,15 +9,17 @@ import { FieldError } from '../mesh/errors';
 import { faceOfHalfedge } from '../mesh/topology';
 import { TWO_PI, angleInFace } from '../mesh/transport';
 import { validateRequest } from './budget';
-import { dualPieces, layOutCurves } from './curves';
+import { layOutCurves } from './curves';
+import { boundaryLoopChain, cutIntoPieces } from './pieces';
 import type { ConnectionResult, FieldRequest } from './request';
-import { solveRows, type ExtraRow } from './schur-rows';
+import { isIndependentRow, ringSolution, solveRows, type ExtraRow } from './schur-rows';
 import type { FieldSurface } from './surface';
 
 export type { BoundaryMode, ConnectionResult, CurveFeature, FaceAlignment, FieldRequest, PointSingularity } from './request';
 export { prepareSurface, type FieldSurface } from './surface';
-export { indexBudget, type IndexBudget } from './budget';
+export { indexBudget, pieceName, type IndexBudget, type PieceBudget } from './budget';
 export { dualPieces } from './curves';
+export { cutIntoPieces, type SurfacePiece, type SurfacePieces } from './pieces';
 
 /** Σ sign·values[edge] along a chain. */
 function chainSum(chain: DualChain, values: Float64Array): number {
@@ -38,6 +40,26 @@ function chainKey(prefix: string, chain: DualChain): string {
 }
 
 /**
+ * A given holonomy must be a whole number of symmetry steps: a field of order n comes back to
+ * itself after a loop only if it turned by a multiple of 2π/n; anything else is a seam.
+ */
+function checkHolonomies(given: readonly (number | null)[], generatorCount: number, order: number) {
+  const set = given.flatMap((value, i) => (value === null || value === undefined ? [] : [i]));
+  if (set.length === 0) return;
+  if (given.length > generatorCount) {
+    throw new FieldError('bad-holonomy', `${given.length} generator holonomies were given, but the surface has ${generatorCount} generator${generatorCount === 1 ? '' : 's'} (two per handle).`);
+  }
+  for (const i of set) {
+    const value = given[i]!;
+    const steps = (value * order) / TWO_PI;
+    if (!Number.isFinite(value)) throw new FieldError('bad-holonomy', `The holonomy given for generator ${i + 1} is not a finite angle.`);
+    if (Math.abs(steps - Math.round(steps)) > 1e-6) {
+      throw new FieldError('bad-holonomy', `The holonomy given for generator ${i + 1} is ${value} rad; a field of order ${order} can only turn by a multiple of 2π/${order} going round a loop (anything else is a seam).`);
+    }
+  }
+}
+
+/**
  * Solves for the trivial connection: the smallest (least-squares) set of extra rotations per edge
  * such that the holonomy around every vertex ring is 2π × its index (Levi-Civita's curvature
  * cancelled), around every generator the asked value, along every stroke and curve the asked
@@ -52,8 +74,10 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
   const topology = surface.topology;
   const { rowOfVertex, vertexOfRow, droppedVertexOfComponent, ringDefect } = surface.solver;
   const curves = layOutCurves(surface, request.curves ?? []);
-  const { order, requestedIndex } = validateRequest(surface, request, curves.cutVertex);
+  const cut = cutIntoPieces(topology, curves, surface.boundary);
+  const { order, requestedIndex } = validateRequest(surface, request, curves, cut);
   const frames = surface.frames;
+  const step = TWO_PI / order;
 
   const ringValues = new Float64Array(vertexOfRow.length);
   const constrainedVertex = new Uint8Array(topology.vertexCount);
@@ -64,15 +88,39 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     constrainedVertex[v] = 1;
   }
 
+  // Stage 1 rows have fixed values; stage 2 rows (cycles nothing else fixes, and ties) take the
+  // whole number of symmetry steps nearest to what the field does without them (`natural`).
   const stage1: ExtraRow[] = [];
+  const stage2: { row: ExtraRow; roundedFrom: (natural: Float64Array) => number }[] = [];
+  /** A cycle whose holonomy (Levi-Civita + extra) must be a multiple of 2π/n: the one nearest the natural turning. */
+  const roundedCycle = (key: string, chain: DualChain) => {
+    const levelCivita = chainSum(chain, frames.edgeRotation);
+    stage2.push({ row: { key, chain, removedVertex: -1, value: 0 }, roundedFrom: (natural) => step * Math.round((levelCivita + chainSum(chain, natural)) / step) - levelCivita });
+  };
   const hasCurves = (request.curves ?? []).length > 0;
-  const generators = hasCurves ? homologyGenerators(topology, curves.cutEdge) : surface.generators;
   const given = request.generatorHolonomies ?? [];
-  generators.forEach((g, i) => {
-    const levelCivita = chainSum(g, frames.edgeRotation);
-    const wanted = given[i] ?? (TWO_PI / order) * Math.round((levelCivita * order) / TWO_PI);
-    if (!Number.isFinite(wanted)) throw new FieldError('bad-holonomy', `The holonomy given for generator ${i + 1} is not a finite angle.`);
-    stage1.push({ key: chainKey('g', g), chain: g, removedVertex: -1, value: wanted - levelCivita });
+  checkHolonomies(given, surface.generators.length, order);
+  // Given holonomies belong to the prepared surface's generators, which curves never change.
+  const held = surface.generators.flatMap((g, i) => {
+    const wanted = given[i];
+    if (wanted === null || wanted === undefined) return [];
+    const crossed = hasCurves ? g.edges.findIndex((e) => curves.cutEdge[e] === 1) : -1;
+    if (crossed >= 0) {
+      throw new FieldError('holonomy-crosses-curve', `The loop of generator ${i + 1}, whose holonomy is given, crosses a parting or crest (at vertex ${topology.triangles[topology.edgeHalfedge[g.edges[crossed]]]}); leave its holonomy out while the curve is there.`);
+    }
+    return [{ index: i, row: { key: chainKey('g', g), chain: g, removedVertex: -1, value: wanted - chainSum(g, frames.edgeRotation) } }];
+  });
+  if (!hasCurves) {
+    const heldIndex = new Set(held.map((h) => h.index));
+    surface.generators.forEach((g, i) => {
+      if (!heldIndex.has(i)) roundedCycle(chainKey('g', g), g);
+    });
+  }
+  stage1.push(...held.map((h) => h.row));
+  // A piece with several free boundary loops: all but one of them (the last follows from the rings).
+  cut.pieces.forEach((piece) => {
+    if (piece.budgeted) return;
+    for (const loop of piece.boundaryLoops.slice(1)) roundedCycle(`loop:${loop}`, boundaryLoopChain(topology, topology.boundaryLoops[loop]));
   });
   if (hasCurves) {
     for (let v = 0; v < topology.vertexCount; v++) {
@@ -81,8 +129,7 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     // A cut gives a closed piece a boundary, so the ring left out to make the system definite counts again.
     droppedVertexOfComponent.forEach((v, c) => {
       if (v < 0 || curves.cutVertex[v]) return;
-      const cutHere = (request.curves ?? []).some((curve) => surface.componentOfVertex[curve.vertices[0]] === c);
-      if (!cutHere) return;
+      if (!cut.pieces.some((piece) => piece.component === c && (piece.closedCurves.length > 0 || piece.openCurves.length > 0))) return;
       const fan = vertexFan(topology, v);
       stage1.push({ key: chainKey('ring', fan), chain: fan, removedVertex: -1, value: TWO_PI * requestedIndex[v] - ringDefect[v] });
       constrainedVertex[v] = 1;
@@ -93,7 +140,16 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
   // Fixed directions: curve sides, stroke samples, twists, held boundary loops.
   const fixedFaces = new Map<number, number>(curves.targets);
   const features: number[] = [...curves.anchors];
-  for (const link of curves.links) {
+  // On a piece with no free boundary, the turning round all its loops together is fixed by its
+  // rings (Poincaré–Hopf, checked by the budget), so one curve link there is implied and must go.
+  const implied = new Set<number>();
+  cut.pieces.forEach((piece, p) => {
+    if (!piece.budgeted) return;
+    const first = curves.links.findIndex((link) => cut.pieceOfFace[link.from] === p);
+    if (first >= 0) implied.add(first);
+  });
+  for (const [i, link] of curves.links.entries()) {
+    if (implied.has(i)) continue;
     stage1.push({
       key: chainKey('curve', link.chain),
       chain: link.chain,
@@ -148,30 +204,49 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     }
   }
 
+  if (hasCurves) {
+    // The cut surface's own generators, after the held ones, each kept only when the rows so far
+    // leave its turning free: a loop beside a closed curve that does not separate the surface is
+    // already fixed by the curve's links, and so is one homologous to a held generator.
+    held.forEach(({ index, row }) => {
+      const others = stage1.filter((r) => r !== row);
+      if (!isIndependentRow(surface, others, row)) {
+        throw new FieldError('holonomy-fixed-by-curve', `The holonomy of generator ${index + 1} is given, but the partings and crests already fix how the field turns round that loop; leave it out.`);
+      }
+    });
+    const mayRepeat = held.length > 0 || curves.closed.length > 0;
+    const kept: ExtraRow[] = [];
+    for (const g of homologyGenerators(topology, curves.cutEdge)) {
+      const row: ExtraRow = { key: chainKey('g', g), chain: g, removedVertex: -1, value: 0 };
+      if (mayRepeat && !isIndependentRow(surface, [...stage1, ...stage2.map((r) => r.row), ...kept], row)) continue;
+      kept.push(row);
+      roundedCycle(row.key, g);
+    }
+  }
   // Tie each feature to the first fixed face of its piece of surface; the turning along the tie
   // is whatever the field would do without it, rounded to a whole symmetry step.
-  const piece = features.length > 0 ? dualPieces(topology, curves.cutEdge) : topology.componentOfFace;
   const referenceOfPiece = new Map<number, number>();
-  const stage2: ExtraRow[] = [];
   for (const f of features) {
-    const reference = referenceOfPiece.get(piece[f]);
+    const p = cut.pieceOfFace[f];
+    const reference = referenceOfPiece.get(p);
     if (reference === undefined) {
-      referenceOfPiece.set(piece[f], f);
+      referenceOfPiece.set(p, f);
       continue;
     }
     const chain = shortestDualPath(topology, reference, f, curves.cutEdge);
-    stage2.push({ key: chainKey('tie', chain), chain, removedVertex: -1, value: 0 });
+    stage2.push({
+      row: { key: chainKey('tie', chain), chain, removedVertex: -1, value: 0 },
+      roundedFrom: (natural) => alignmentValue(surface, chain, fixedFaces.get(chain.fromFace)!, fixedFaces.get(chain.toFace)!, order, chainSum(chain, natural)),
+    });
   }
+  const t = ringSolution(surface, ringValues);
   let angles: Float64Array;
   if (stage2.length === 0) {
-    angles = solveRows(surface, ringValues, stage1);
+    angles = solveRows(surface, ringValues, t, stage1);
   } else {
-    const natural = solveRows(surface, ringValues, stage1);
-    for (const row of stage2) {
-      const chain = row.chain!;
-      row.value = alignmentValue(surface, chain, fixedFaces.get(chain.fromFace)!, fixedFaces.get(chain.toFace)!, order, chainSum(chain, natural));
-    }
-    angles = solveRows(surface, ringValues, [...stage1, ...stage2]);
+    const natural = solveRows(surface, ringValues, t, stage1);
+    for (const { row, roundedFrom } of stage2) row.value = roundedFrom(natural);
+    angles = solveRows(surface, ringValues, t, [...stage1, ...stage2.map(({ row }) => row)]);
   }
   let largestAngle = 0;
   for (let e = 0; e < angles.length; e++) {
@@ -185,6 +260,8 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     constrainedVertex,
     cutEdge: curves.cutEdge,
     fixedFaces,
+    curveLinks: curves.links,
+    curveSides: curves.sides,
     largestAngle,
     solveMilliseconds: now() - started,
   };

@@ -2,6 +2,7 @@
  * What a caller asks of the connection solve — singularities, strokes, curves, boundary mode —
  * and what it gets back. Types only, so the studio's client code can name them freely.
  */
+import type { DualChain } from '../mesh/dual-chains';
 
 /**
  * What the field does along the surface's boundary loops: `free` leaves it to the smoothest
@@ -47,8 +48,10 @@ export interface FieldRequest {
   readonly strokes?: readonly (readonly FaceAlignment[])[];
   readonly curves?: readonly CurveFeature[];
   /**
-   * Holonomy (radians) around each homology generator, in the order `FieldSurface.generators`
-   * lists them; `null` or missing picks the multiple of 2π/order nearest to Levi-Civita's.
+   * Holonomy (radians, a multiple of 2π/order) around each homology generator, in the order
+   * `FieldSurface.generators` lists them (they belong to the prepared surface and never change);
+   * `null` or missing picks the multiple of 2π/order nearest to what the smoothest field turns
+   * there. Refused while curves cut the surface.
    */
   readonly generatorHolonomies?: readonly (number | null)[];
   /** Rotation (radians) of the whole field where no alignment fixes its direction. */
@@ -57,6 +60,27 @@ export interface FieldRequest {
   readonly referenceDirection?: readonly [number, number, number];
   /** A vertex that receives whatever index the surface still demands (see `indexBudget`). */
   readonly remainderAt?: number;
+}
+
+/**
+ * How the field turns around one curve vertex on one side of the curve: from one side face to the
+ * next (`preferred` 0: no extra turn), or half a circle round an open curve's end (`preferred` π).
+ */
+export interface CurveLink {
+  readonly from: number;
+  readonly to: number;
+  readonly chain: DualChain;
+  readonly preferred: number;
+  /** Index of the curve in the request, and the curve vertex the link turns around. */
+  readonly curve: number;
+  readonly vertex: number;
+}
+
+/** A face beside a curve: the curve's halfedge in that face, and +1 (parting: flow leaves) or −1 (crest). */
+export interface CurveSide {
+  readonly face: number;
+  readonly halfedge: number;
+  readonly sense: 1 | -1;
 }
 
 /** The connection found by a solve: rotation angles per edge on top of Levi-Civita transport. */
@@ -72,6 +96,10 @@ export interface ConnectionResult {
   readonly cutEdge: Uint8Array;
   /** Faces whose direction is fixed, with the fixed angle in the face frame. */
   readonly fixedFaces: ReadonlyMap<number, number>;
+  /** How the field must turn round each curve vertex on each side (the proof checks every one). */
+  readonly curveLinks: readonly CurveLink[];
+  /** The faces beside the curves, with the direction each must take across its curve edge. */
+  readonly curveSides: readonly CurveSide[];
   /** Largest |angle| over all edges: below π/order, the index measurement sees exactly the prescribed indices. */
   readonly largestAngle: number;
   readonly solveMilliseconds: number;

@@ -98,15 +98,33 @@ function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEn
 }
 
 /**
- * Minimal-norm angles subject to the ring rows (right-hand side `ringValues`) and the extra rows:
- * x = Cᵀy with C Cᵀ y = b, the extra rows entering through a dense Schur complement.
+ * Whether `candidate` fixes something the rings and `rows` leave free: false when its holonomy
+ * already follows from them (its row would make the Schur complement singular).
  */
-export function solveRows(surface: FieldSurface, ringValues: Float64Array, rows: readonly ExtraRow[]): Float64Array {
+export function isIndependentRow(surface: FieldSurface, rows: readonly ExtraRow[], candidate: ExtraRow): boolean {
+  const all = [...rows, candidate];
+  const entries = cacheRows(surface, all);
+  const k = all.length;
+  const s = new Float64Array(k * k);
+  for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) s[i * k + j] = entries[i].schur.get(all[j].key)!;
+  return factorDenseLU(s, k) !== null;
+}
+
+/** The ring system's solution for these ring values alone, shared by the solves of one request. */
+export function ringSolution(surface: FieldSurface, ringValues: Float64Array): Float64Array {
+  return surface.solver.factor.solve(ringValues);
+}
+
+/**
+ * Minimal-norm angles subject to the ring rows (right-hand side `ringValues`, whose solution
+ * `ringSolution` gave `t`) and the extra rows: x = Cᵀy with C Cᵀ y = b, the extra rows entering
+ * through a dense Schur complement.
+ */
+export function solveRows(surface: FieldSurface, ringValues: Float64Array, t: Float64Array, rows: readonly ExtraRow[]): Float64Array {
   const { factor, luCache, vertexOfRow } = surface.solver;
   const topology = surface.topology;
   const entries = cacheRows(surface, rows);
   const k = rows.length;
-  const t = factor.solve(ringValues);
   let y: Float64Array = t;
   let z: Float64Array = new Float64Array(0);
   if (k > 0) {

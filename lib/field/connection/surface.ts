@@ -4,6 +4,7 @@
  */
 import { now } from '../clock';
 import { homologyGenerators, type DualChain } from '../mesh/dual-chains';
+import { checkSurface } from '../mesh/check';
 import { FieldError } from '../mesh/errors';
 import { angleDefects, componentFacts, cornerAngles, type ComponentFacts } from '../mesh/geometry';
 import type { TriangleMesh } from '../mesh/mesh';
@@ -42,8 +43,10 @@ export interface FieldSurface {
 }
 
 /**
- * Prepares a surface for solving: builds topology (throws FieldError on non-manifold input),
- * frames, curvature, generators, and factors the vertex-ring system once.
+ * Prepares a surface for solving: checks it as an upload is checked (`checkSurface`: throws a
+ * FieldError with the first problem's code and words — non-finite coordinates, missing vertices,
+ * non-manifold edges or vertices, inconsistent orientation, faces without area, too many faces),
+ * builds topology, frames, curvature, generators, and factors the vertex-ring system once.
  *
  * Guarantees: the factorization is never repeated by `solveConnection` for this surface, whatever
  * singularities, strokes or curves are asked for.
@@ -51,6 +54,8 @@ export interface FieldSurface {
 export function prepareSurface(mesh: TriangleMesh, options: { boundary?: BoundaryMode } = {}): FieldSurface {
   const boundary = options.boundary ?? 'free';
   const t0 = now();
+  const problem = checkSurface(mesh).problems.find((p) => p.severity === 'error');
+  if (problem) throw new FieldError(problem.code, problem.message);
   const topology = buildTopology(mesh);
   if (topology.faceCount === 0) throw new FieldError('empty', 'The surface has no faces.');
   const frames = buildFaceFrames(mesh, topology);

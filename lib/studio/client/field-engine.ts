@@ -225,7 +225,7 @@ export class FieldEngine {
       lines: drawing?.lines ?? null,
       lineShade: drawing?.shade ?? null,
       error,
-      budget: budget && { components: budget.components.map((c) => ({ ...c })), balanced: budget.balanced },
+      budget,
       singularities,
       pinVertices,
       curves: (request?.curves ?? []).map((curve) => ({ kind: curve.kind, points: this.requireDrawing().chainPoints(curve.vertices) })),

@@ -1,6 +1,6 @@
 // What the field worker reports besides drawings: a failure as the page shows it (with the spec
 // path when the groom library knows it), and the proof that the measured indices equal the
-// placed ones.
+// placed ones and that no edge hides a seam.
 import { FieldError, type SolvedField } from '@/lib/field';
 import { GroomError } from '@/lib/groom';
 import { NONZERO_LIMIT, type IndexProof, type WorkerError } from './protocol';
@@ -30,5 +30,16 @@ export function proofOf(solved: SolvedField): IndexProof {
     if (requestedIndex[v] === 0) strays++;
     if (nonZero.length < NONZERO_LIMIT) nonZero.push({ vertex: v, index: m });
   }
-  return { measuredVertices, nonZero, nonZeroCount, strays, mismatches, measuredSum: Math.round(measuredSum * 1e6) / 1e6 };
+  const { checkedEdges, largestTurn, checkedCurveTurns } = solved.edgeProof;
+  return {
+    measuredVertices,
+    nonZero,
+    nonZeroCount,
+    strays,
+    mismatches,
+    measuredSum: Math.round(measuredSum * 1e6) / 1e6,
+    checkedEdges,
+    largestTurnDegrees: Math.round(((largestTurn * 180) / Math.PI) * 10) / 10,
+    checkedCurveTurns,
+  };
 }

@@ -2,7 +2,7 @@
 // the prepared growth surface and runs every solve, trace and guide growth with lib/field and
 // lib/groom — the same code the server runs for exports — so the page never waits on them.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
-import type { BoundaryMode } from '@/lib/field';
+import type { BoundaryMode, IndexBudget } from '@/lib/field';
 import type { Vec3 } from './features';
 
 /** Where the worker gets the surface's bytes. */
@@ -86,12 +86,6 @@ export interface InspectedSurface {
   readonly triangles: Uint32Array;
 }
 
-export interface ComponentBudget {
-  readonly component: number;
-  readonly demanded: number | null;
-  readonly placed: number;
-  readonly remainder: number | null;
-}
 
 export interface SingularityCheck {
   /** The welded vertex the singularity sits on. */
@@ -113,6 +107,12 @@ export interface IndexProof {
   readonly mismatches: number;
   /** Sum of the measured indices. */
   readonly measuredSum: number;
+  /** Interior edges off the curves, each checked to turn the field by its connection angle (no seam). */
+  readonly checkedEdges: number;
+  /** The largest turn across one of them, in degrees. */
+  readonly largestTurnDegrees: number;
+  /** Turns round curve vertices checked against what the curves demand. */
+  readonly checkedCurveTurns: number;
 }
 
 export const NONZERO_LIMIT = 64;
@@ -126,7 +126,7 @@ export interface SolveReport {
   readonly lineShade: Float32Array | null;
   readonly error: WorkerError | null;
   /** Null when the spec's places could not be resolved on the surface. */
-  readonly budget: { readonly components: readonly ComponentBudget[]; readonly balanced: boolean } | null;
+  readonly budget: IndexBudget | null;
   /** Per singularity of the spec, in its order. */
   readonly singularities: readonly SingularityCheck[];
   /** Per pin of the spec, its vertex. */

@@ -231,14 +231,19 @@ describe('features', () => {
     for (let f = 0; f < topology.faceCount; f++) expect(Math.abs(wrapAngle(turned.field.faceAngle[f] - base.field.faceAngle[f] - 0.7))).toBeLessThan(1e-9);
   });
 
-  it('holds a given holonomy around each torus generator', () => {
+  it('holds a given holonomy around each torus generator, and refuses one that is not a whole number of symmetry steps', () => {
     const t = prepareSurface(torus(3, 1, 40, 16));
-    const result = solveConnection(t, { generatorHolonomies: [0.4, -0.25] });
+    // A cross field (order 4) may turn by any multiple of a quarter turn round a loop.
+    const given = [Math.PI / 2, -Math.PI];
+    const result = solveConnection(t, { order: 4, generatorHolonomies: given });
     t.generators.forEach((g, i) => {
       let h = 0;
       for (let k = 0; k < g.edges.length; k++) h += g.signs[k] * (t.frames.edgeRotation[g.edges[k]] + result.angles[g.edges[k]]);
-      expect(h).toBeCloseTo([0.4, -0.25][i], 9);
+      expect(h).toBeCloseTo(given[i], 9);
     });
+    // 0.4 rad round a loop would leave a seam: the field would not come back to itself.
+    expect(() => solveConnection(t, { generatorHolonomies: [0.4, null] })).toThrow(expect.objectContaining({ code: 'bad-holonomy', message: expect.stringContaining('generator 1') }));
+    expect(() => solveConnection(t, { generatorHolonomies: [0, 0, 0] })).toThrow(expect.objectContaining({ code: 'bad-holonomy' }));
   });
 
   it('keeps a held boundary tangent or normal to the boundary edges', () => {
@@ -273,9 +278,9 @@ describe('index budget and infeasible requests', () => {
 
   it('reports what a closed surface demands against what is placed', () => {
     const budget = indexBudget(sphere, { singularities: [{ vertex: 0, index: 1 }] });
-    expect(budget.components).toEqual([{ component: 0, demanded: 2, placed: 1, remainder: 1 }]);
+    expect(budget.pieces).toEqual([{ piece: 0, component: 0, borderedBy: [], demanded: 2, placed: 1, remainder: 1 }]);
     expect(budget.balanced).toBe(false);
-    expect(indexBudget(prepareSurface(disc(3, 8)), {}).components[0].demanded).toBeNull();
+    expect(indexBudget(prepareSurface(disc(3, 8)), {}).pieces[0].demanded).toBeNull();
   });
 
   it('refuses an unbalanced budget, and puts the remainder where asked', () => {

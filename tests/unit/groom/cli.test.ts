@@ -3,8 +3,8 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { icosphere, roundedCube } from '@/tests/fixtures/shapes';
-import { readSurface } from '@/lib/field';
+import { checkSurface, readSurface } from '@/lib/field';
+import { frustum, icosphere, roundedCube } from '@/tests/fixtures/shapes';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
 
 const launcher = join(process.cwd(), 'bin', 'whorlwind-groom.mjs');
@@ -35,6 +35,7 @@ describe('whorlwind-groom command line', () => {
     expect(readFileSync(join(folder, 'g.usda'), 'utf8')).toContain('def BasisCurves "Guides"');
     expect(r.stdout).toMatch(/guides\s+\d+ × 16 points/);
     expect(r.stdout).toMatch(/measured = requested at (\d+) of \1 vertices/);
+    expect(r.stdout).toMatch(/edges\s+\d+ crossed without a seam/);
     expect(r.stdout).toMatch(/solve field\s+[\d.]+ ms/);
   });
 
@@ -50,6 +51,27 @@ describe('whorlwind-groom command line', () => {
     const missing = run('--surface', 'nowhere.obj', '--spec', 'coat.json');
     expect(missing.code).toBe(1);
     expect(missing.stderr).toEqual([expect.stringMatching(/cannot read the surface nowhere\.obj/)]);
+  });
+
+  it('refuses a broken surface with the words of the upload check, and grows on a tube open at both ends', () => {
+    // The ball with a fin: a third face on one of its edges, so that edge is not manifold.
+    const ball = icosphere(3, 5);
+    const [a, b] = [ball.triangles[0], ball.triangles[1]];
+    const tip = ball.positions.length / 3;
+    const finned = { positions: Float64Array.from([...ball.positions, 0, 0, 9]), triangles: Uint32Array.from([...ball.triangles, b, a, tip]) };
+    writeFileSync(join(folder, 'fin.obj'), surfaceToObj(finned, 'ball with a fin'));
+    writeFileSync(join(folder, 'bare.json'), JSON.stringify({ specVersion: 2, units: 'cm', field: {}, guides: { density: 1, length: 1 } }));
+    const refused = run('--surface', 'fin.obj', '--spec', 'bare.json', '--out', 'fin.usda');
+    const expected = checkSurface(readSurface(readFileSync(join(folder, 'fin.obj')), 'fin.obj').mesh).problems.find((p) => p.severity === 'error')!;
+    expect(refused.code).toBe(1);
+    expect(refused.stderr).toEqual([`whorlwind-groom: ${expected.message}`]);
+    expect(existsSync(join(folder, 'fin.usda'))).toBe(false);
+
+    writeFileSync(join(folder, 'sleeve.obj'), surfaceToObj(frustum(5, 3, 8, 12, 32), 'sleeve'));
+    const sleeve = run('--surface', 'sleeve.obj', '--spec', 'bare.json', '--out', 'sleeve.usda', '--stats');
+    expect(sleeve.stderr).toEqual([]);
+    expect(sleeve.code).toBe(0);
+    expect(sleeve.stdout).toMatch(/edges\s+\d+ crossed without a seam \(largest turn \d+\.\d°\)/);
   });
 
   it('fails with exit code 2 on a bad command line', () => {

@@ -71,7 +71,7 @@ describe('the field engine on Bramble the fox', () => {
   it('a full solve proves the field has exactly the placed singularities', () => {
     const report = engine.solve(spec, display, false);
     expect(report.error).toBeNull();
-    expect(report.budget).toEqual({ balanced: true, components: [{ component: 0, demanded: 2, placed: 2, remainder: 0 }] });
+    expect(report.budget).toMatchObject({ balanced: true, pieces: [{ piece: 0, component: 0, borderedBy: [], demanded: 2, placed: 2, remainder: 0 }] });
     expect(report.singularities.map((s) => [s.requested, s.measured])).toEqual([[1, expect.closeTo(1, 6)], [1, expect.closeTo(1, 6)], [1, expect.closeTo(1, 6)], [-1, expect.closeTo(-1, 6)]]);
     expect(report.proof).toMatchObject({ strays: 0, mismatches: 0, nonZeroCount: 4, measuredSum: 2 });
     expect(report.pinVertices).toHaveLength(3);
@@ -101,7 +101,7 @@ describe('the field engine on Bramble the fox', () => {
     const report = engine.solve(unbalanced, display, false);
     expect(report.lines).toBeNull();
     expect(report.error?.code).toBe('index-budget');
-    expect(report.budget?.components[0]).toMatchObject({ demanded: 2, placed: 3, remainder: -1 });
+    expect(report.budget?.pieces[0]).toMatchObject({ demanded: 2, placed: 3, remainder: -1 });
   });
 
   it('a place off the surface is named by its path in the whole spec', () => {

@@ -6,8 +6,10 @@ import { placeSingularity } from './singularities';
 export const remainderTool = clickTool(
   { id: 'remainder', label: 'Remainder', shortcut: null, hint: 'Click the surface where what remains of the index budget should go.' },
   (hit, context) => {
-    const component = context.surface.componentOfVertex[hit.vertex];
-    const remainder = context.solve?.budget?.components.find((c) => c.component === component)?.remainder ?? null;
+    const budget = context.solve?.budget;
+    const piece = budget?.pieceOfVertex[hit.vertex] ?? -1;
+    if (budget && piece < 0) return { notice: 'That point is on a parting or crest; click beside it.', then: 'remainder' };
+    const remainder = budget?.pieces[piece]?.remainder ?? null;
     if (remainder === null || remainder === 0) return { notice: 'Nothing remains to be placed on this piece of the surface.', then: 'look' };
     return { ...placeSingularity(hit, remainder), then: 'look' };
   },

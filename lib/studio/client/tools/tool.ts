@@ -35,7 +35,7 @@ export interface SurfaceHit {
 export interface ToolContext {
   readonly editor: EditorState;
   readonly options: ToolOptions;
-  readonly surface: Pick<OpenedSurface, 'meanEdge' | 'componentOfVertex'>;
+  readonly surface: Pick<OpenedSurface, 'meanEdge'>;
   readonly solve: Pick<SolveReport, 'budget'> | null;
 }
 

@@ -13,10 +13,9 @@ export function bramble(): EditorState {
   return createEditorState(parseGroomSpec(DEMO_GROOMS[0].spec));
 }
 
-/** A surface of two pieces: vertices 0–9 on piece 0, 10–19 on piece 1; edges about 0.1 long. */
+/** A surface with edges about 0.1 long. */
 export function contextOf(editor: EditorState, more: Partial<ToolContext> = {}): ToolContext {
-  const componentOfVertex = Int32Array.from({ length: 20 }, (_, v) => (v < 10 ? 0 : 1));
-  return { editor, options: OPTIONS, surface: { meanEdge: 0.1, componentOfVertex }, solve: null, ...more };
+  return { editor, options: OPTIONS, surface: { meanEdge: 0.1 }, solve: null, ...more };
 }
 
 /** A hit at a vertex placed at (vertex / 10, 0, 1), the pointer at a spot of the screen. */

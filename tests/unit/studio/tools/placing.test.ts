@@ -61,7 +61,13 @@ describe('placing by a click', () => {
 
   it('the remainder tool puts what remains on the piece clicked, then hands back to looking', () => {
     const start = bramble();
-    const solve = { budget: { balanced: false, components: [{ component: 0, demanded: 2, placed: 2, remainder: 0 }, { component: 1, demanded: 2, placed: 3, remainder: -1 }] } };
+    // Two pieces: vertices 0–9 on piece 0, 10–19 on piece 1, vertex 19 on the curve between them.
+    const pieceOfVertex = Int32Array.from({ length: 20 }, (_, v) => (v === 19 ? -1 : v < 10 ? 0 : 1));
+    const pieces = [
+      { piece: 0, component: 0, borderedBy: ['parting 1'], demanded: 1, placed: 1, remainder: 0 },
+      { piece: 1, component: 0, borderedBy: ['parting 1'], demanded: 1, placed: 2, remainder: -1 },
+    ];
+    const solve = { budget: { balanced: false, pieces, pieceOfVertex } };
     const placed = run(start, startSession('remainder'), [(s, c) => clickAt(s, hitAt(12), c)], { solve });
     expect(currentSpec(placed.editor).field.singularities.at(-1)).toMatchObject({ point: [1.2, 0, 1], index: -1 });
     expect(placed.session.tool).toBe('look');
@@ -70,6 +76,10 @@ describe('placing by a click', () => {
     expect(currentSpec(nothing.editor)).toBe(currentSpec(start));
     expect(nothing.said[0]).toBe('Nothing remains to be placed on this piece of the surface.');
     expect(nothing.session.tool).toBe('look');
+
+    const onCurve = run(start, startSession('remainder'), [(s, c) => clickAt(s, hitAt(19), c)], { solve });
+    expect(currentSpec(onCurve.editor)).toBe(currentSpec(start));
+    expect(onCurve.said[0]).toBe('That point is on a parting or crest; click beside it.');
   });
 
   it('a click on bare surface with "Turn & pick" drops the selection', () => {
