@@ -82,7 +82,8 @@ const CONVERGED = 1e-9;
  * Guarantees: the singularities are exactly the vertices where `measureIndices` of the returned
  * field is non-zero, each a non-zero multiple of 1/order; on a closed component (or a held one)
  * they sum to its Euler characteristic. Throws FieldError `bad-order`, `bad-weight`,
- * `bad-direction`, `curvature-needs-even-order` for options it cannot use.
+ * `bad-direction`, `curvature-needs-even-order` for options it cannot use, and
+ * `held-boundary-corners` for a held boundary whose corners the order cannot follow.
  */
 export function suggestLayout(surface: FieldSurface, options: SuggestOptions = {}): SuggestedLayout {
   const order = options.order ?? 1;
@@ -221,6 +222,7 @@ export function suggestLayout(surface: FieldSurface, options: SuggestOptions = {
     const steps = Math.round(measured.index[v] * order);
     if (steps !== 0) singularities.push({ vertex: v, index: steps / order });
   }
+  if (surface.boundary !== 'free') checkHeldSums(surface, singularities, order);
   const t4 = now();
   return {
     order,
@@ -231,6 +233,23 @@ export function suggestLayout(surface: FieldSurface, options: SuggestOptions = {
     iterations,
     timings: { assembleMilliseconds: t1 - t0, factorMilliseconds: t2 - t1, solveMilliseconds: t3 - t2, measureMilliseconds: t4 - t3 },
   };
+}
+
+/**
+ * On a held boundary the indices of each piece must sum to its χ. They do unless the boundary turns
+ * somewhere by an odd multiple of π/n (a square's corner for a line field: half a symmetry step),
+ * where no field of that order is held without ambiguity — `solveField` refuses such corners too.
+ */
+function checkHeldSums(surface: FieldSurface, singularities: readonly SuggestedSingularity[], order: number): void {
+  const sums = new Float64Array(surface.components.length);
+  for (const s of singularities) sums[surface.componentOfVertex[s.vertex]] += s.index;
+  surface.components.forEach((piece, c) => {
+    if (Math.abs(sums[c] - piece.eulerCharacteristic) < 1e-9) return;
+    throw new FieldError(
+      'held-boundary-corners',
+      `The held boundary of piece ${c + 1} turns at its corners by angles a field of order ${order} cannot follow along both sides (a square's corners for a line field are half a symmetry step), so no layout can be suggested there. Free the boundary, or use an order whose symmetry fits the corners (1 or 4 for square corners).`,
+    );
+  });
 }
 
 function addNormalised(into: Float64Array, q: Float64Array, areas: Float64Array): void {

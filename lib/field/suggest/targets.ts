@@ -11,27 +11,23 @@ import { angleInFace, type FaceFrames } from '../mesh/transport';
 /**
  * The direction each face touching a held boundary must take: along the boundary (surface on the
  * left) for `tangent`, a quarter turn into the surface for `normal`. A face with two boundary
- * sides (a corner vertex with a single face) follows the chord that cuts the corner off — the
- * convention by which the connection's held rings carry that corner's turning to the next vertex
- * along the loop (connection/ring-solver.ts), so the measured boundary indices agree with the
- * solver's. Returns the angle per held face.
+ * sides (a corner vertex c with a single face) follows the side that enters c: the connection's
+ * held rings carry c's turning to the next vertex along the loop (connection/ring-solver.ts), and
+ * with this choice the field's measured turning round that vertex and round the vertex before c
+ * (whose first face this is) comes to whole symmetry steps (the chord across the corner does not:
+ * on a square held tangent it gave wrong sums). Returns the angle per held face.
  */
 export function heldBoundaryAngles(topology: Topology, frames: FaceFrames, mode: 'tangent' | 'normal'): Map<number, number> {
   const quarter = mode === 'normal' ? Math.PI / 2 : 0;
+  const tri = topology.triangles;
   const held = new Map<number, number>();
   for (let f = 0; f < topology.faceCount; f++) {
     const open: number[] = [];
     for (let k = 0; k < 3; k++) if (topology.twin[3 * f + k] === -1) open.push(3 * f + k);
     if (open.length === 0) continue;
-    let angle: number;
-    if (open.length === 2) {
-      // The third side runs from the corner's successor back to its predecessor; the chord is its reverse.
-      const inner = 3 * f + [0, 1, 2].find((k) => topology.twin[3 * f + k] !== -1)!;
-      angle = frames.halfedgeAngle[inner] + Math.PI;
-    } else {
-      angle = frames.halfedgeAngle[open[0]];
-    }
-    held.set(f, angle + quarter);
+    let side = open[0];
+    if (open.length === 2 && tri[nextHalfedge(open[1])] === tri[open[0]]) side = open[1];
+    held.set(f, frames.halfedgeAngle[side] + quarter);
   }
   return held;
 }

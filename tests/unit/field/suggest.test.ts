@@ -4,7 +4,7 @@ import { FieldError, prepareSurface, solveField, type BoundaryMode, type Triangl
 import { eulerCharacteristic } from '@/lib/field/mesh/geometry';
 import { faceAreas } from '@/lib/field/mesh/geometry';
 import { assembleLaplacian, edgeWeights, suggestLayout, type SuggestOptions } from '@/lib/field/suggest';
-import { disc, genusTwoSurface, icosphere, roundedCube, torus } from '@/tests/fixtures/shapes';
+import { disc, genusTwoSurface, gridPlane, icosphere, roundedCube, torus } from '@/tests/fixtures/shapes';
 
 function suggest(mesh: TriangleMesh, options: SuggestOptions, boundary: BoundaryMode = 'free') {
   const surface = prepareSurface(mesh, { boundary });
@@ -13,6 +13,17 @@ function suggest(mesh: TriangleMesh, options: SuggestOptions, boundary: Boundary
 
 function positionOf(mesh: TriangleMesh, v: number): [number, number, number] {
   return [mesh.positions[3 * v], mesh.positions[3 * v + 1], mesh.positions[3 * v + 2]];
+}
+
+/** The 10 × 10 grid sheared and stretched: corners of about 60° to 120°, two of them a single face. */
+function skewedSquare(): TriangleMesh {
+  const mesh = gridPlane(10, 10);
+  const p = mesh.positions;
+  for (let v = 0; v < p.length / 3; v++) {
+    p[3 * v] += 0.45 * p[3 * v + 1];
+    p[3 * v + 1] *= 1 + 0.3 * p[3 * v];
+  }
+  return mesh;
 }
 
 const sumOf = (xs: readonly { index: number }[]) => xs.reduce((s, x) => s + x.index, 0);
@@ -85,6 +96,10 @@ describe('suggestLayout: the smoothest field with free singularities', () => {
     ['disc held tangent, order 1', () => disc(10, 32), 1, 'tangent'],
     ['disc held normal, order 4', () => disc(10, 32), 4, 'normal'],
     ['disc with a free boundary, order 4', () => disc(10, 32), 4, 'free'],
+    ['square held tangent, order 4', () => gridPlane(10, 10), 4, 'tangent'],
+    ['square held normal, order 1', () => gridPlane(10, 10), 1, 'normal'],
+    ['skewed square held tangent, order 3', skewedSquare, 3, 'tangent'],
+    ['skewed square held normal, order 2', skewedSquare, 2, 'normal'],
   ] as const)('fed back as a request, the suggestion (%s) gives a field with exactly those singularities, measured', (_, make, order, boundary) => {
     const mesh = make();
     const { surface, layout } = suggest(mesh, { order }, boundary);
@@ -95,7 +110,7 @@ describe('suggestLayout: the smoothest field with free singularities', () => {
       if (Math.abs(index - (asked.get(v) ?? 0)) > 1e-6) away.push(v);
     });
     expect(away).toEqual([]);
-    if (boundary !== 'free') expect(sumOf(layout.singularities)).toBeCloseTo(1, 12); // χ of the disc
+    if (boundary !== 'free') expect(sumOf(layout.singularities)).toBeCloseTo(1, 12); // χ of the disc and the square
   });
 
   // Source: on a flat disc, a vector field is a complex function u(z); with the boundary held
@@ -119,6 +134,29 @@ describe('suggestLayout: the smoothest field with free singularities', () => {
     // 0.1 rad: the discretisation's own error on this mesh (about 0.07 near the centre, with the
     // clamped dual lengths of its non-Delaunay diagonals); barycentric dual edges spiral by 0.56.
     expect(worst).toBeLessThan(0.1);
+  });
+
+  // Source: on a square held tangent, the constant cross field along the sides is smooth and follows
+  // the boundary; its only singularities are the four corners, where the boundary turns by π/2 =
+  // 2π · 1/4 (Poincaré–Hopf for the disc: 4 · 1/4 = χ = 1). A corner with a single face hands its
+  // turning to the next vertex along the boundary, as the held rings of the connection do.
+  it('on a square held tangent, a cross field has a +1/4 at each corner and nothing else', () => {
+    const mesh = gridPlane(10, 10);
+    const { layout } = suggest(mesh, { order: 4 }, 'tangent');
+    expect(layout.singularities.map((s) => s.index)).toEqual(Array(4).fill(0.25));
+    const corners = new Set<string>();
+    for (const s of layout.singularities) {
+      const [x, y] = positionOf(mesh, s.vertex);
+      expect(Math.hypot(Math.abs(x) - 0.5, Math.abs(y) - 0.5)).toBeLessThanOrEqual(0.1 + 1e-12); // within one edge
+      corners.add(`${Math.sign(x)},${Math.sign(y)}`);
+    }
+    expect(corners.size).toBe(4);
+  });
+
+  // A square's corner turns by half a symmetry step of a line field: no held line field follows
+  // both sides, and solveField refuses the same corners; the suggestion says so instead of a wrong sum.
+  it('refuses a held line field on a square, naming the corners', () => {
+    expect(() => suggest(gridPlane(10, 10), { order: 2 }, 'tangent')).toThrow(expect.objectContaining({ code: 'held-boundary-corners' }));
   });
 
   // The trivial connection refuses singularities on a free boundary, so none is suggested there.
