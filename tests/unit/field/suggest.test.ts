@@ -4,7 +4,8 @@ import { FieldError, prepareSurface, solveField, type BoundaryMode, type Triangl
 import { eulerCharacteristic } from '@/lib/field/mesh/geometry';
 import { faceAreas } from '@/lib/field/mesh/geometry';
 import { assembleLaplacian, edgeWeights, suggestLayout, type SuggestOptions } from '@/lib/field/suggest';
-import { disc, genusTwoSurface, gridPlane, icosphere, roundedCube, torus } from '@/tests/fixtures/shapes';
+import { bentTube, disc, genusTwoSurface, gridPlane, icosphere, roundedCube, torus, withHoles } from '@/tests/fixtures/shapes';
+import { spreadVertices } from './support';
 
 function suggest(mesh: TriangleMesh, options: SuggestOptions, boundary: BoundaryMode = 'free') {
   const surface = prepareSurface(mesh, { boundary });
@@ -99,6 +100,9 @@ describe('suggestLayout: the smoothest field with free singularities', () => {
     ['square held tangent, order 4', () => gridPlane(10, 10), 4, 'tangent'],
     ['square held normal, order 1', () => gridPlane(10, 10), 1, 'normal'],
     ['skewed square held tangent, order 3', skewedSquare, 3, 'tangent'],
+    ['sphere with three holes, free, order 2', () => withHoles(icosphere(3), spreadVertices(icosphere(3), 3)), 2, 'free'],
+    ['bent tapering tube, free, order 4', () => bentTube(1, 0.6, 3, 1.2, 32, 32), 4, 'free'],
+    ['torus with one hole, free, order 4', () => withHoles(torus(2, 0.7, 48, 24), [0]), 4, 'free'],
     ['skewed square held normal, order 2', skewedSquare, 2, 'normal'],
   ] as const)('fed back as a request, the suggestion (%s) gives a field with exactly those singularities, measured', (_, make, order, boundary) => {
     const mesh = make();
