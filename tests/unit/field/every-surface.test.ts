@@ -393,3 +393,55 @@ describe('holonomies given round the handles', () => {
     expect(codes).toContain('holonomy-crosses-curve');
   });
 });
+
+describe('property: closed partings and crests at random', () => {
+  // fast-check (npm), fixed seed. Latitude circles of a UV sphere cut it into a cap, bands and a cap;
+  // circles round a torus's tube do not separate it. Whatever the curves and singularities, a
+  // returned field is proved (indices, edges, curve sides and turns) and a refusal is a FieldError.
+  it('every returned field passes the proof and has no seam; the budget is kept per piece', () => {
+    const rings = 12, segments = 16;
+    const sphere = prepareSurface(uvSphere(rings, segments));
+    const ring = (r: number) => [...latitudeRingVertices(rings, segments, r).vertices];
+    const tube = prepareSurface(torus(3, 1, 24, 12));
+    const meridian = (i: number) => Array.from({ length: 13 }, (_, j) => (i % 24) * 12 + (j % 12));
+    let solvedCount = 0, refusedByBudget = 0, severalCurves = 0;
+    fc.assert(
+      fc.property(
+        fc.boolean(),
+        fc.uniqueArray(fc.integer({ min: 0, max: 4 }), { maxLength: 3 }),
+        fc.constantFrom<'parting' | 'crest'>('parting', 'crest'),
+        fc.array(fc.record({ at: fc.double({ min: 0, max: 1, noNaN: true }), index: fc.constantFrom(-1, 1) }), { maxLength: 4 }),
+        (onSphere, picks, kind, placed) => {
+          const surface = onSphere ? sphere : tube;
+          const curves = picks.map((k) => {
+            const vertices = onSphere ? ring(2 + 2 * k) : meridian(5 * k);
+            return { kind, vertices: onSphere ? [...vertices, vertices[0]] : vertices };
+          });
+          const onCurve = new Set(curves.flatMap((c) => c.vertices));
+          const nV = surface.topology.vertexCount;
+          const seen = new Set<number>();
+          const singularities = placed
+            .map((p) => ({ vertex: Math.min(nV - 1, Math.floor(p.at * nV)), index: p.index }))
+            .filter((s) => !onCurve.has(s.vertex) && !seen.has(s.vertex) && (seen.add(s.vertex), true));
+          try {
+            const solved = solveField(surface, { singularities, curves });
+            solvedCount++;
+            expectIndicesAsPlaced(solved);
+            expect(turnFacts(surface, solved).seamDegrees).toBeLessThan(1e-4);
+            const budget = indexBudgetOf(surface, { singularities, curves });
+            expect(budget.balanced).toBe(true);
+            if (curves.length >= 2) severalCurves++;
+          } catch (error) {
+            expect(error).toBeInstanceOf(FieldError);
+            if ((error as FieldError).code === 'index-budget') refusedByBudget++;
+          }
+        },
+      ),
+      { numRuns: 60, seed: 20261206 },
+    );
+    // Both outcomes happen, so neither half of the property is vacuous.
+    expect(solvedCount).toBeGreaterThan(5);
+    expect(refusedByBudget).toBeGreaterThan(5);
+    expect(severalCurves).toBeGreaterThan(2);
+  });
+});
