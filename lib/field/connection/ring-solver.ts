@@ -40,6 +40,7 @@ export function buildRingSolver(
   components: readonly ComponentFacts[],
   componentOfVertex: Int32Array,
   boundary: BoundaryMode,
+  positions?: Float64Array,
 ): RingSolver {
   const nV = topology.vertexCount;
   const tri = topology.triangles;
@@ -88,7 +89,14 @@ export function buildRingSolver(
     rows.push(v);
   }
   const matrix = ringLaplacian(topology, rowOfVertex, rows.length);
-  const factor = factorCholesky(matrix);
+  // Where each row's vertex is, so the ordering may also cut large pieces by planes: on a torus
+  // the plane across the tube finds the two short rings (1.6M faces: 35.4 -> 29.7 GFlop).
+  let points: Float64Array | undefined;
+  if (positions) {
+    points = new Float64Array(3 * rows.length);
+    for (let r = 0; r < rows.length; r++) for (let k = 0; k < 3; k++) points[3 * r + k] = positions[3 * rows[r] + k];
+  }
+  const factor = factorCholesky(matrix, { points });
   return {
     rowOfVertex,
     vertexOfRow: Int32Array.from(rows),

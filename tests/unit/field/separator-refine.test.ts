@@ -4,9 +4,9 @@ import { CholeskyDecomposition, Matrix } from 'ml-matrix';
 import { symmetricFromTriplets, type SymmetricSparse } from '@/lib/field/linalg/sparse';
 import { analyzeCholesky, factorNumeric } from '@/lib/field/linalg/cholesky';
 import { graphOfSymmetric, type AdjacencyGraph } from '@/lib/field/linalg/ordering/graph';
-import { nestedDissectionOrder } from '@/lib/field/linalg/ordering/nested-dissection';
+import { nestedDissectionOrder, type NestedDissectionOptions } from '@/lib/field/linalg/ordering/nested-dissection';
 import { SEPARATOR, SeparatorRefiner, SIDE_A, SIDE_B } from '@/lib/field/linalg/ordering/separator-refine';
-import { icosphere } from '@/tests/fixtures/shapes';
+import { icosphere, torus } from '@/tests/fixtures/shapes';
 
 /** Edges of a side×side grid of vertices, each quad split along one diagonal (six neighbours inside). */
 function gridEdges(side: number): [number, number][] {
@@ -18,6 +18,15 @@ function gridEdges(side: number): [number, number][] {
       if (i + 1 < side) edges.push([v, v + side]);
       if (i + 1 < side && j + 1 < side) edges.push([v, v + side + 1]);
     }
+  }
+  return edges;
+}
+
+/** Each side of each triangle (shared sides twice: the matrix builder sums, the graph does not care). */
+function meshEdges(triangles: Uint32Array): [number, number][] {
+  const edges: [number, number][] = [];
+  for (let t = 0; t < triangles.length; t += 3) {
+    for (let k = 0; k < 3; k++) edges.push([triangles[t + k], triangles[t + ((k + 1) % 3)]]);
   }
   return edges;
 }
@@ -149,8 +158,8 @@ describe('separator refinement', () => {
 });
 
 describe('nested dissection with refined separators', () => {
-  function checkFactor(A: SymmetricSparse): void {
-    const perm = nestedDissectionOrder(graphOfSymmetric(A), { refineSize: 100, leafSize: 16 });
+  function checkFactor(A: SymmetricSparse, points?: Float64Array): void {
+    const perm = nestedDissectionOrder(graphOfSymmetric(A), { refineSize: 100, leafSize: 16, points });
     expect([...perm].sort((a, b) => a - b)).toEqual([...Array(A.n).keys()]);
     const factor = factorNumeric(analyzeCholesky(A, { permutation: perm }), A);
     const b = Float64Array.from({ length: A.n }, (_, i) => Math.sin(0.7 * i) + 0.25);
@@ -179,26 +188,26 @@ describe('nested dissection with refined separators', () => {
 
   it('orders a closed surface (icosphere, 642 vertices) the same way', () => {
     const mesh = icosphere(3);
-    const edges: [number, number][] = [];
-    for (let t = 0; t < mesh.triangles.length; t += 3) {
-      for (let k = 0; k < 3; k++) edges.push([mesh.triangles[t + k], mesh.triangles[t + ((k + 1) % 3)]]);
-    }
-    checkFactor(shiftedLaplacian(mesh.positions.length / 3, edges));
+    checkFactor(shiftedLaplacian(mesh.positions.length / 3, meshEdges(mesh.triangles)));
   });
 
-  it('reduces the factorization work on a torus grid, where search levels are long loops', () => {
-    // 120 × 100 vertices wrapped both ways: the shortest separators are two rings of 100
-    const nu = 120;
-    const nv = 100;
-    const edges: [number, number][] = [];
-    const at = (i: number, j: number) => (i % nu) * nv + (j % nv);
-    for (let i = 0; i < nu; i++) {
-      for (let j = 0; j < nv; j++) edges.push([at(i, j), at(i + 1, j)], [at(i, j), at(i, j + 1)], [at(i, j), at(i + 1, j + 1)]);
-    }
-    const A = shiftedLaplacian(nu * nv, edges);
+  it('reduces the factorization work on a torus, and plane cuts reduce it further', () => {
+    // 120 × 100 vertices wrapped both ways: a search level is a long loop round its start, while
+    // the plane through the torus's axis cuts the tube in two rings of 100 (the shortest way)
+    const mesh = torus(3, 1, 120, 100);
+    const A = shiftedLaplacian(mesh.positions.length / 3, meshEdges(mesh.triangles));
     const graph = graphOfSymmetric(A);
-    const plain = analyzeCholesky(A, { permutation: nestedDissectionOrder(graph, { refineSize: Infinity }) }).flops;
-    const refined = analyzeCholesky(A, { permutation: nestedDissectionOrder(graph, { refineSize: 1000 }) }).flops;
+    const work = (options: NestedDissectionOptions) => analyzeCholesky(A, { permutation: nestedDissectionOrder(graph, options) }).flops;
+    const plain = work({ refineSize: Infinity });
+    const refined = work({ refineSize: 1000 });
+    const planes = work({ refineSize: 1000, points: mesh.positions });
     expect(refined).toBeLessThan(plain);
+    expect(planes).toBeLessThan(refined);
+  });
+
+  it('solves like the dense reference with plane cuts on a small torus', () => {
+    const mesh = torus(3, 1, 24, 16);
+    const A = shiftedLaplacian(mesh.positions.length / 3, meshEdges(mesh.triangles));
+    checkFactor(A, mesh.positions);
   });
 });

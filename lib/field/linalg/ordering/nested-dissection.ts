@@ -24,6 +24,11 @@ export interface NestedDissectionOptions {
   leafSize?: number;
   /** Separators of pieces at least this large are refined by moving vertices (see separator-refine.ts). */
   refineSize?: number;
+  /**
+   * A point in space per vertex (x, y, z), when the graph is a mesh's: large pieces then also
+   * try the cut by a plane across their longest extent, and keep the shorter separator.
+   */
+  points?: Float64Array;
 }
 
 /**
@@ -55,6 +60,11 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
   let original = new Int32Array(0);
   let regrouped = new Int32Array(0);
   const sides = new Int32Array(2);
+  const points = options.points;
+  if (points && points.length !== 3 * n) throw new RangeError(`nestedDissectionOrder: ${points.length / 3} points for ${n} vertices`);
+  let whereAlt = new Uint8Array(0);
+  let separatorAlt = new Int32Array(0);
+  const sidesAlt = new Int32Array(2);
   const { offsets, adjacency } = graph;
   // The vertices of each pending piece occupy a contiguous range of `verts`, and that
   // range is also where the piece lands in the final order, so no merging is needed.
@@ -214,6 +224,10 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
         where = new Uint8Array(n);
         original = new Int32Array(n);
         regrouped = new Int32Array(n);
+        if (points) {
+          whereAlt = new Uint8Array(n);
+          separatorAlt = new Int32Array(n);
+        }
       }
       for (let t = 0; t < belowEnd; t++) where[queue[t]] = SIDE_A;
       for (let t = sepTo; t < size; t++) where[queue[t]] = SIDE_B;
@@ -223,6 +237,21 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
       original.set(separator.subarray(0, separatorCount));
       const previousCount = separatorCount;
       separatorCount = refiner.refine(owner, id, where, separator, separatorCount, sides);
+      if (points) {
+        const cutCount = planeSplit(lo, size, id);
+        const altCount = refiner.refine(owner, id, whereAlt, separatorAlt, cutCount, sidesAlt);
+        const bound = Math.floor(0.6 * size);
+        const excess = (x: Int32Array) => Math.max(0, Math.max(x[0], x[1]) - bound);
+        const better = excess(sidesAlt) < excess(sides) || (excess(sidesAlt) === excess(sides) && altCount < separatorCount);
+        if (better && sidesAlt[0] > 0 && sidesAlt[1] > 0) {
+          const swap = where;
+          where = whereAlt;
+          whereAlt = swap;
+          separator.set(separatorAlt.subarray(0, altCount));
+          separatorCount = altCount;
+          sides.set(sidesAlt);
+        }
+      }
       // regroup side A, then side B, each in breadth-first order, which the pieces' own searches
       // start from (starting elsewhere was measured to double the work on a UV sphere)
       let a = 0;
@@ -249,6 +278,56 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
     rangeHi.push(sepStart, aboveStart);
   }
   return verts;
+
+  // The piece cut by the plane through its median across its longest extent: side B's vertices
+  // next to side A form the separator (in whereAlt, separatorAlt, sidesAlt); returns its size.
+  function planeSplit(lo: number, size: number, id: number): number {
+    const p = points!;
+    const low = [Infinity, Infinity, Infinity];
+    const high = [-Infinity, -Infinity, -Infinity];
+    for (let t = lo; t < lo + size; t++) {
+      const v = verts[t];
+      for (let k = 0; k < 3; k++) {
+        const x = p[3 * v + k];
+        if (x < low[k]) low[k] = x;
+        if (x > high[k]) high[k] = x;
+      }
+    }
+    let axis = 0;
+    for (let k = 1; k < 3; k++) if (high[k] - low[k] > high[axis] - low[axis]) axis = k;
+    const keys = new Float64Array(size);
+    for (let t = 0; t < size; t++) keys[t] = p[3 * verts[lo + t] + axis];
+    const median = keys.sort()[size >> 1];
+    sidesAlt[0] = 0;
+    sidesAlt[1] = 0;
+    for (let t = lo; t < lo + size; t++) {
+      const v = verts[t];
+      whereAlt[v] = p[3 * v + axis] < median ? SIDE_A : SIDE_B;
+    }
+    let count = 0;
+    for (let t = lo; t < lo + size; t++) {
+      const v = verts[t];
+      if (whereAlt[v] === SIDE_A) {
+        sidesAlt[0]++;
+        continue;
+      }
+      let touchesA = false;
+      for (let q = offsets[v]; q < offsets[v + 1]; q++) {
+        const u = adjacency[q];
+        if (owner[u] === id && whereAlt[u] === SIDE_A) {
+          touchesA = true;
+          break;
+        }
+      }
+      if (touchesA) {
+        whereAlt[v] = SEPARATOR;
+        separatorAlt[count++] = v;
+      } else {
+        sidesAlt[1]++;
+      }
+    }
+    return count;
+  }
 
   function orderLeaf(lo: number, hi: number): void {
     const size = hi - lo;
