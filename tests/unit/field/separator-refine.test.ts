@@ -6,6 +6,7 @@ import { analyzeCholesky, factorNumeric } from '@/lib/field/linalg/cholesky';
 import { graphOfSymmetric, type AdjacencyGraph } from '@/lib/field/linalg/ordering/graph';
 import { nestedDissectionOrder, type NestedDissectionOptions } from '@/lib/field/linalg/ordering/nested-dissection';
 import { SEPARATOR, SeparatorRefiner, SIDE_A, SIDE_B } from '@/lib/field/linalg/ordering/separator-refine';
+import { planeCut } from '@/lib/field/linalg/ordering/plane-cut';
 import { icosphere, torus } from '@/tests/fixtures/shapes';
 
 /** Edges of a side×side grid of vertices, each quad split along one diagonal (six neighbours inside). */
@@ -154,6 +155,42 @@ describe('separator refinement', () => {
     expectValidSplit(graph, where, separator, sides);
     expect(Math.max(sides[0], sides[1])).toBeLessThanOrEqual(0.6 * side * side);
     expect(separator.length).toBeLessThan(51);
+  });
+});
+
+describe('plane cuts', () => {
+  it('split at the median across the longest extent, with a valid separator, for random points', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 2, max: 150 }).chain((n) =>
+          fc.record({
+            n: fc.constant(n),
+            edges: fc.array(fc.tuple(fc.nat(n - 1), fc.nat(n - 1)), { maxLength: 4 * n }),
+            coordinates: fc.array(fc.double({ min: -5, max: 5, noNaN: true }), { minLength: 3 * n, maxLength: 3 * n }),
+          }),
+        ),
+        ({ n, edges, coordinates }) => {
+          const graph = graphOfSymmetric(shiftedLaplacian(n, edges));
+          const points = Float64Array.from(coordinates);
+          const verts = Int32Array.from({ length: n }, (_, v) => v);
+          const where = new Uint8Array(n);
+          const separator = new Int32Array(n);
+          const sides = new Int32Array(2);
+          const count = planeCut(graph, points, verts, 0, n, new Int32Array(n).fill(3), 3, where, separator, sides);
+          expectValidSplit(graph, where, separator.slice(0, count), sides);
+          // the cut is at the median of the longest axis: fewer than half the points lie below it
+          expect(sides[0]).toBeLessThanOrEqual(n >> 1);
+          const extent = [0, 1, 2].map((k) => {
+            const xs = Array.from({ length: n }, (_, v) => points[3 * v + k]);
+            return Math.max(...xs) - Math.min(...xs);
+          });
+          const axis = extent.indexOf(Math.max(...extent));
+          const sorted = Array.from({ length: n }, (_, v) => points[3 * v + axis]).sort((a, b) => a - b);
+          for (let v = 0; v < n; v++) expect(where[v] === SIDE_A).toBe(points[3 * v + axis] < sorted[n >> 1]);
+        },
+      ),
+      { numRuns: 200, seed: 5 },
+    );
   });
 });
 

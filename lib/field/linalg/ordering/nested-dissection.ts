@@ -16,6 +16,7 @@
  */
 import type { AdjacencyGraph } from './graph';
 import { minimumDegreeOrder } from './minimum-degree';
+import { planeCut } from './plane-cut';
 import { SEPARATOR, SeparatorRefiner, SIDE_A, SIDE_B } from './separator-refine';
 
 /** Options of the nested dissection ordering. */
@@ -238,7 +239,7 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
       const previousCount = separatorCount;
       separatorCount = refiner.refine(owner, id, where, separator, separatorCount, sides);
       if (points) {
-        const cutCount = planeSplit(lo, size, id);
+        const cutCount = planeCut(graph, points, verts, lo, size, owner, id, whereAlt, separatorAlt, sidesAlt);
         const altCount = refiner.refine(owner, id, whereAlt, separatorAlt, cutCount, sidesAlt);
         const bound = Math.floor(0.6 * size);
         const excess = (x: Int32Array) => Math.max(0, Math.max(x[0], x[1]) - bound);
@@ -278,56 +279,6 @@ export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDiss
     rangeHi.push(sepStart, aboveStart);
   }
   return verts;
-
-  // The piece cut by the plane through its median across its longest extent: side B's vertices
-  // next to side A form the separator (in whereAlt, separatorAlt, sidesAlt); returns its size.
-  function planeSplit(lo: number, size: number, id: number): number {
-    const p = points!;
-    const low = [Infinity, Infinity, Infinity];
-    const high = [-Infinity, -Infinity, -Infinity];
-    for (let t = lo; t < lo + size; t++) {
-      const v = verts[t];
-      for (let k = 0; k < 3; k++) {
-        const x = p[3 * v + k];
-        if (x < low[k]) low[k] = x;
-        if (x > high[k]) high[k] = x;
-      }
-    }
-    let axis = 0;
-    for (let k = 1; k < 3; k++) if (high[k] - low[k] > high[axis] - low[axis]) axis = k;
-    const keys = new Float64Array(size);
-    for (let t = 0; t < size; t++) keys[t] = p[3 * verts[lo + t] + axis];
-    const median = keys.sort()[size >> 1];
-    sidesAlt[0] = 0;
-    sidesAlt[1] = 0;
-    for (let t = lo; t < lo + size; t++) {
-      const v = verts[t];
-      whereAlt[v] = p[3 * v + axis] < median ? SIDE_A : SIDE_B;
-    }
-    let count = 0;
-    for (let t = lo; t < lo + size; t++) {
-      const v = verts[t];
-      if (whereAlt[v] === SIDE_A) {
-        sidesAlt[0]++;
-        continue;
-      }
-      let touchesA = false;
-      for (let q = offsets[v]; q < offsets[v + 1]; q++) {
-        const u = adjacency[q];
-        if (owner[u] === id && whereAlt[u] === SIDE_A) {
-          touchesA = true;
-          break;
-        }
-      }
-      if (touchesA) {
-        whereAlt[v] = SEPARATOR;
-        separatorAlt[count++] = v;
-      } else {
-        sidesAlt[1]++;
-      }
-    }
-    return count;
-  }
 
   function orderLeaf(lo: number, hi: number): void {
     const size = hi - lo;
