@@ -50,7 +50,8 @@ const REFINE_SIZE = 50_000;
  * pieces by minimum degree.
  *
  * Guarantees: returns a permutation `perm` of 0..n-1, perm[k] = the vertex eliminated
- * k-th. Deterministic for a given graph.
+ * k-th. Deterministic for a given graph (and points). Throws RangeError when `points` does
+ * not hold three numbers per vertex.
  */
 export function nestedDissectionOrder(graph: AdjacencyGraph, options: NestedDissectionOptions = {}): Int32Array {
   const n = graph.n;
