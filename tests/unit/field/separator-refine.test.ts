@@ -242,6 +242,11 @@ describe('nested dissection with refined separators', () => {
     expect(planes).toBeLessThan(refined);
   });
 
+  it('refuses points that are not three numbers per vertex', () => {
+    const graph = graphOfSymmetric(shiftedLaplacian(4, [[0, 1], [1, 2], [2, 3]]));
+    expect(() => nestedDissectionOrder(graph, { points: new Float64Array(11) })).toThrow(RangeError);
+  });
+
   it('solves like the dense reference with plane cuts on a small torus', () => {
     const mesh = torus(3, 1, 24, 16);
     const A = shiftedLaplacian(mesh.positions.length / 3, meshEdges(mesh.triangles));
