@@ -5,7 +5,7 @@
  */
 import { factorCholesky, type CholeskyFactor } from '../linalg/cholesky';
 import type { DenseLU } from '../linalg/dense';
-import { symmetricFromTriplets } from '../linalg/sparse';
+import type { SymmetricSparse } from '../linalg/sparse';
 import { vertexFan } from '../mesh/dual-chains';
 import { FieldError } from '../mesh/errors';
 import type { ComponentFacts } from '../mesh/geometry';
@@ -40,6 +40,7 @@ export function buildRingSolver(
   components: readonly ComponentFacts[],
   componentOfVertex: Int32Array,
   boundary: BoundaryMode,
+  positions?: Float64Array,
 ): RingSolver {
   const nV = topology.vertexCount;
   const tri = topology.triangles;
@@ -87,26 +88,15 @@ export function buildRingSolver(
     rowOfVertex[v] = rows.length;
     rows.push(v);
   }
-  const n = rows.length;
-  // Typed triplet arrays: plain arrays of millions of pushed numbers cost seconds on big surfaces.
-  const capacity = 3 * topology.edgeCount;
-  const ti = new Int32Array(capacity), tj = new Int32Array(capacity), tv = new Float64Array(capacity);
-  let count = 0;
-  const add = (i: number, j: number, v: number) => {
-    ti[count] = i;
-    tj[count] = j;
-    tv[count++] = v;
-  };
-  for (let e = 0; e < topology.edgeCount; e++) {
-    const h = topology.edgeHalfedge[e];
-    if (topology.twin[h] === -1) continue;
-    const a = rowOfVertex[tri[h]], b = rowOfVertex[tri[nextHalfedge(h)]];
-    if (a >= 0) add(a, a, 1);
-    if (b >= 0) add(b, b, 1);
-    if (a >= 0 && b >= 0) add(a, b, -1);
+  const matrix = ringLaplacian(topology, rowOfVertex, rows.length);
+  // Where each row's vertex is, so the ordering may also cut large pieces by planes: on a torus
+  // the plane across the tube finds the two short rings (1.6M faces: 35.4 -> 29.7 GFlop).
+  let points: Float64Array | undefined;
+  if (positions) {
+    points = new Float64Array(3 * rows.length);
+    for (let r = 0; r < rows.length; r++) for (let k = 0; k < 3; k++) points[3 * r + k] = positions[3 * rows[r] + k];
   }
-  const matrix = symmetricFromTriplets(n, ti.subarray(0, count), tj.subarray(0, count), tv.subarray(0, count));
-  const factor = factorCholesky(matrix);
+  const factor = factorCholesky(matrix, { points });
   return {
     rowOfVertex,
     vertexOfRow: Int32Array.from(rows),
@@ -118,4 +108,74 @@ export function buildRingSolver(
     storedResponses: 0,
     scratch: new Float64Array(topology.edgeCount),
   };
+}
+
+/**
+ * C Cᵀ for the rows numbered by `rowOfVertex` (−1: no row): on the diagonal, the number of
+ * interior edges at the row's vertex; −1 for each interior edge joining two rows.
+ *
+ * Guarantees: the matrix `symmetricFromTriplets` makes from one (a, a, 1), (b, b, 1),
+ * (a, b, −1) triplet per interior edge, entry for entry. Built column by column directly: on
+ * a million vertices the triplets' two counting sorts cost several times more.
+ */
+export function ringLaplacian(topology: Topology, rowOfVertex: Int32Array, n: number): SymmetricSparse {
+  const tri = topology.triangles;
+  const colPtr = new Int32Array(n + 1);
+  const diagonal = new Float64Array(n);
+  for (let e = 0; e < topology.edgeCount; e++) {
+    const h = topology.edgeHalfedge[e];
+    if (topology.twin[h] === -1) continue;
+    const a = rowOfVertex[tri[h]], b = rowOfVertex[tri[nextHalfedge(h)]];
+    if (a >= 0) diagonal[a]++;
+    if (b >= 0) diagonal[b]++;
+    if (a >= 0 && b >= 0 && a !== b) colPtr[Math.min(a, b) + 1]++;
+  }
+  for (let j = 0; j < n; j++) colPtr[j + 1] += colPtr[j] + 1;
+  const rowIdx = new Int32Array(colPtr[n]);
+  const values = new Float64Array(colPtr[n]);
+  const fill = new Int32Array(n);
+  for (let j = 0; j < n; j++) {
+    // the diagonal leads its column: every other row in it is larger
+    rowIdx[colPtr[j]] = j;
+    values[colPtr[j]] = diagonal[j];
+    fill[j] = colPtr[j] + 1;
+  }
+  for (let e = 0; e < topology.edgeCount; e++) {
+    const h = topology.edgeHalfedge[e];
+    if (topology.twin[h] === -1) continue;
+    const a = rowOfVertex[tri[h]], b = rowOfVertex[tri[nextHalfedge(h)]];
+    if (a < 0 || b < 0 || a === b) continue;
+    const at = fill[Math.min(a, b)]++;
+    rowIdx[at] = Math.max(a, b);
+    values[at] = -1;
+  }
+  // rows in increasing order within each column (a handful each: insertion sort), repeats summed
+  let write = 0;
+  let start = 0;
+  for (let j = 0; j < n; j++) {
+    const end = colPtr[j + 1];
+    for (let p = start + 2; p < end; p++) {
+      const r = rowIdx[p], v = values[p];
+      let q = p - 1;
+      while (q > start && rowIdx[q] > r) {
+        rowIdx[q + 1] = rowIdx[q];
+        values[q + 1] = values[q];
+        q--;
+      }
+      rowIdx[q + 1] = r;
+      values[q + 1] = v;
+    }
+    colPtr[j] = write;
+    for (let p = start; p < end; p++) {
+      if (p > start && rowIdx[p] === rowIdx[write - 1]) {
+        values[write - 1] += values[p];
+        continue;
+      }
+      rowIdx[write] = rowIdx[p];
+      values[write++] = values[p];
+    }
+    start = end;
+  }
+  colPtr[n] = write;
+  return { n, colPtr, rowIdx: rowIdx.slice(0, write), values: values.slice(0, write) };
 }

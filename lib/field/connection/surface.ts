@@ -66,7 +66,7 @@ export function prepareSurface(mesh: TriangleMesh, options: { boundary?: Boundar
   const t1 = now();
   const generators = homologyGenerators(topology);
   const t2 = now();
-  const solver = buildRingSolver(topology, defects, components, componentOfVertex, boundary);
+  const solver = buildRingSolver(topology, defects, components, componentOfVertex, boundary, mesh.positions);
   const t3 = now();
   return {
     mesh,

@@ -17,15 +17,19 @@ export function cornerAngles(mesh: TriangleMesh): Float64Array {
   const p = mesh.positions;
   const tri = mesh.triangles;
   const angles = new Float64Array(tri.length);
-  for (let h = 0; h < tri.length; h++) {
-    const base = h - (h % 3);
+  for (let h = 0; h < tri.length; h += 3) {
     const a = 3 * tri[h];
-    const b = 3 * tri[base + ((h + 1) % 3)];
-    const c = 3 * tri[base + ((h + 2) % 3)];
-    const ux = p[b] - p[a], uy = p[b + 1] - p[a + 1], uz = p[b + 2] - p[a + 2];
-    const vx = p[c] - p[a], vy = p[c + 1] - p[a + 1], vz = p[c + 2] - p[a + 2];
-    const cross = Math.hypot(uy * vz - uz * vy, uz * vx - ux * vz, ux * vy - uy * vx);
-    angles[h] = Math.atan2(cross, ux * vx + uy * vy + uz * vz);
+    const b = 3 * tri[h + 1];
+    const c = 3 * tri[h + 2];
+    const abx = p[b] - p[a], aby = p[b + 1] - p[a + 1], abz = p[b + 2] - p[a + 2];
+    const bcx = p[c] - p[b], bcy = p[c + 1] - p[b + 1], bcz = p[c + 2] - p[b + 2];
+    const cax = p[a] - p[c], cay = p[a + 1] - p[c + 1], caz = p[a + 2] - p[c + 2];
+    // |u × v| is twice the face's area at every corner, so one cross product serves all three
+    const nx = aby * bcz - abz * bcy, ny = abz * bcx - abx * bcz, nz = abx * bcy - aby * bcx;
+    const cross = Math.sqrt(nx * nx + ny * ny + nz * nz);
+    angles[h] = Math.atan2(cross, -(abx * cax + aby * cay + abz * caz));
+    angles[h + 1] = Math.atan2(cross, -(bcx * abx + bcy * aby + bcz * abz));
+    angles[h + 2] = Math.atan2(cross, -(cax * bcx + cay * bcy + caz * bcz));
   }
   return angles;
 }

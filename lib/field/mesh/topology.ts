@@ -91,6 +91,8 @@ export function buildTopology(mesh: TriangleMesh): Topology {
   const nonManifoldEdges: number[] = [];
   const misorientedEdges: number[] = [];
   for (let h = 0; h < nH; h++) {
+    // Paired from its twin's side already: that scan found exactly one halfedge each way.
+    if (twin[h] !== -1) continue;
     const a = tri[h];
     const b = tri[nextHalfedge(h)];
     let sameDirection = 0;
@@ -109,7 +111,10 @@ export function buildTopology(mesh: TriangleMesh): Topology {
     }
     if (sameDirection + opposite >= 2) nonManifoldEdges.push(h);
     else if (sameDirection === 1) misorientedEdges.push(h);
-    else if (opposite === 1) twin[h] = found;
+    else if (opposite === 1) {
+      twin[h] = found;
+      twin[found] = h;
+    }
   }
   const describeEdges = (hs: number[]) => describeFirst(hs.map((h) => `${tri[h]}–${tri[nextHalfedge(h)]}`));
   if (nonManifoldEdges.length > 0) {
@@ -126,16 +131,17 @@ export function buildTopology(mesh: TriangleMesh): Topology {
   }
 
   const edgeOf = new Uint32Array(nH);
-  const edgeHalfedgeList: number[] = [];
+  const edgeHalfedgeAll = new Uint32Array(nH);
+  let edgeCount = 0;
   for (let h = 0; h < nH; h++) {
     const t = twin[h];
     if (t === -1 || h < t) {
-      edgeOf[h] = edgeHalfedgeList.length;
-      if (t !== -1) edgeOf[t] = edgeHalfedgeList.length;
-      edgeHalfedgeList.push(h);
+      edgeOf[h] = edgeCount;
+      if (t !== -1) edgeOf[t] = edgeCount;
+      edgeHalfedgeAll[edgeCount++] = h;
     }
   }
-  const edgeHalfedge = Uint32Array.from(edgeHalfedgeList);
+  const edgeHalfedge = edgeHalfedgeAll.slice(0, edgeCount);
 
   const vertexHalfedge = new Int32Array(nV).fill(-1);
   const isBoundaryVertex = new Uint8Array(nV);

@@ -65,9 +65,10 @@ export function buildFaceFrames(mesh: TriangleMesh, topology: Topology): FaceFra
     const ux = p[b] - p[a], uy = p[b + 1] - p[a + 1], uz = p[b + 2] - p[a + 2];
     const vx = p[c] - p[a], vy = p[c + 1] - p[a + 1], vz = p[c + 2] - p[a + 2];
     let nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
-    const nl = Math.hypot(nx, ny, nz) || 1;
+    // sqrt of the sum rather than Math.hypot: the same to rounding, several times faster in V8
+    const nl = Math.sqrt(nx * nx + ny * ny + nz * nz) || 1;
     nx /= nl; ny /= nl; nz /= nl;
-    const ul = Math.hypot(ux, uy, uz) || 1;
+    const ul = Math.sqrt(ux * ux + uy * uy + uz * uz) || 1;
     const xx = ux / ul, xy = uy / ul, xz = uz / ul;
     const yx = ny * xz - nz * xy, yy = nz * xx - nx * xz, yz = nx * xy - ny * xx;
     frameX[3 * f] = xx; frameX[3 * f + 1] = xy; frameX[3 * f + 2] = xz;

@@ -11,7 +11,8 @@
 
 /**
  * C[i][j] −= Σ_q A[i][q] · B[j][q] for 0 ≤ i < rows, 0 ≤ j < cols, 0 ≤ q < len, where
- * X[i][q] means X[xAt + i·ldx + q]. A, B and C may share one array; C must not overlap
+ * X[i][q] means X[xAt + i·ldx + q]; with `assign`, C[i][j] = −Σ instead, whatever C held
+ * (which spares clearing it first). A, B and C may share one array; C must not overlap
  * the parts of A and B that are read.
  */
 export function subtractProductNT(
@@ -27,8 +28,12 @@ export function subtractProductNT(
   bAt: number,
   ldb: number,
   len: number,
+  assign = false,
 ): void {
-  if (len === 0) return;
+  if (len === 0) {
+    if (assign) for (let i = 0; i < rows; i++) C.fill(0, cAt + i * ldc, cAt + i * ldc + cols);
+    return;
+  }
   const fullCols = cols - (cols % 4);
   let i = 0;
   for (; i + 2 < rows; i += 3) {
@@ -76,18 +81,33 @@ export function subtractProductNT(
         s13 += x1 * y;
         s23 += x2 * y;
       }
-      C[c0 + j] -= s00;
-      C[c0 + j + 1] -= s01;
-      C[c0 + j + 2] -= s02;
-      C[c0 + j + 3] -= s03;
-      C[c1 + j] -= s10;
-      C[c1 + j + 1] -= s11;
-      C[c1 + j + 2] -= s12;
-      C[c1 + j + 3] -= s13;
-      C[c2 + j] -= s20;
-      C[c2 + j + 1] -= s21;
-      C[c2 + j + 2] -= s22;
-      C[c2 + j + 3] -= s23;
+      if (assign) {
+        C[c0 + j] = -s00;
+        C[c0 + j + 1] = -s01;
+        C[c0 + j + 2] = -s02;
+        C[c0 + j + 3] = -s03;
+        C[c1 + j] = -s10;
+        C[c1 + j + 1] = -s11;
+        C[c1 + j + 2] = -s12;
+        C[c1 + j + 3] = -s13;
+        C[c2 + j] = -s20;
+        C[c2 + j + 1] = -s21;
+        C[c2 + j + 2] = -s22;
+        C[c2 + j + 3] = -s23;
+      } else {
+        C[c0 + j] -= s00;
+        C[c0 + j + 1] -= s01;
+        C[c0 + j + 2] -= s02;
+        C[c0 + j + 3] -= s03;
+        C[c1 + j] -= s10;
+        C[c1 + j + 1] -= s11;
+        C[c1 + j + 2] -= s12;
+        C[c1 + j + 3] -= s13;
+        C[c2 + j] -= s20;
+        C[c2 + j + 1] -= s21;
+        C[c2 + j + 2] -= s22;
+        C[c2 + j + 3] -= s23;
+      }
     }
     for (let j = fullCols; j < cols; j++) {
       const b0 = bAt + j * ldb;
@@ -100,9 +120,15 @@ export function subtractProductNT(
         s1 += A[a1 + q] * y;
         s2 += A[a2 + q] * y;
       }
-      C[c0 + j] -= s0;
-      C[c1 + j] -= s1;
-      C[c2 + j] -= s2;
+      if (assign) {
+        C[c0 + j] = -s0;
+        C[c1 + j] = -s1;
+        C[c2 + j] = -s2;
+      } else {
+        C[c0 + j] -= s0;
+        C[c1 + j] -= s1;
+        C[c2 + j] -= s2;
+      }
     }
   }
   for (; i < rows; i++) {
@@ -125,26 +151,34 @@ export function subtractProductNT(
         s2 += x * B[b2 + q];
         s3 += x * B[b3 + q];
       }
-      C[c0 + j] -= s0;
-      C[c0 + j + 1] -= s1;
-      C[c0 + j + 2] -= s2;
-      C[c0 + j + 3] -= s3;
+      if (assign) {
+        C[c0 + j] = -s0;
+        C[c0 + j + 1] = -s1;
+        C[c0 + j + 2] = -s2;
+        C[c0 + j + 3] = -s3;
+      } else {
+        C[c0 + j] -= s0;
+        C[c0 + j + 1] -= s1;
+        C[c0 + j + 2] -= s2;
+        C[c0 + j + 3] -= s3;
+      }
     }
     for (; j < cols; j++) {
       const b0 = bAt + j * ldb;
       let s = 0;
       for (let q = 0; q < len; q++) s += A[a0 + q] * B[b0 + q];
-      C[c0 + j] -= s;
+      if (assign) C[c0 + j] = -s;
+      else C[c0 + j] -= s;
     }
   }
 }
 
 /**
- * Lower triangle of C (r×r) −= X Xᵀ, X being r×len by rows. Entries just above the
- * diagonal (within the 3-row stripes' last 4-column tile) may also change; callers keep
- * nothing there.
+ * Lower triangle of C (r×r) = −X Xᵀ, X being r×len by rows, whatever C held. Entries just
+ * above the diagonal (within the 3-row stripes' last 4-column tile) may also change;
+ * callers keep nothing there.
  */
-export function subtractGram(
+export function negatedGram(
   C: Float64Array,
   cAt: number,
   ldc: number,
@@ -158,7 +192,7 @@ export function subtractGram(
     const rows = Math.min(3, r - i);
     // columns up to the stripe's last row, rounded up to whole 4-wide tiles
     const cols = Math.min(r, (((i + rows + 3) >> 2) << 2));
-    subtractProductNT(C, cAt + i * ldc, ldc, rows, cols, X, xAt + i * ldx, ldx, X, xAt, ldx, len);
+    subtractProductNT(C, cAt + i * ldc, ldc, rows, cols, X, xAt + i * ldx, ldx, X, xAt, ldx, len, true);
   }
 }
 

@@ -4,7 +4,7 @@
  * factored by the dense kernels.
  */
 import type { SymmetricSparse } from '../sparse';
-import { factorPanel, subtractGram } from './dense-kernels';
+import { factorPanel, negatedGram } from './dense-kernels';
 import { SupernodalFactor, type CholeskyFactor } from './solve';
 import type { CholeskySymbolic, SupernodalLayout } from './symbolic';
 
@@ -71,11 +71,10 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
     const base = firstChild === -1 ? stackTop : updateAt[firstChild];
     // the new update matrix goes above the children's, then slides down over them
     const uAt = stackTop;
-    stack.fill(0, uAt, uAt + r * r);
     for (let c = firstChild; c !== -1; c = childNext[c]) {
       const ck = firstCol[c + 1] - firstCol[c];
       const cr = rowPtr[c + 1] - rowPtr[c] - ck;
-      extendAdd(stack, updateAt[c], cr, rel, relPtr[c], relSplit[c], D, L, below, k, stack, uAt, r);
+      addToPivots(stack, updateAt[c], cr, rel, relPtr[c], relSplit[c], D, L, below, k);
     }
     const bad = factorPanel(D, L, below, k, r, pivotFloor, f, failedPivot);
     if (bad >= 0) throw new NotPositiveDefiniteError(symbolic.perm[f + bad], failedPivot[0]);
@@ -83,7 +82,15 @@ export function factorNumeric(symbolic: CholeskySymbolic, A: SymmetricSparse): C
       const row = i * k;
       for (let j = 0; j <= i; j++) L[t++] = D[row + j];
     }
-    if (r > 0) subtractGram(stack, uAt, r, r, L, below, k, k);
+    if (r > 0) {
+      // written rather than subtracted, so the children's parts are added after it
+      negatedGram(stack, uAt, r, r, L, below, k, k);
+      for (let c = firstChild; c !== -1; c = childNext[c]) {
+        const ck = firstCol[c + 1] - firstCol[c];
+        const cr = rowPtr[c + 1] - rowPtr[c] - ck;
+        addToUpdate(stack, updateAt[c], cr, rel, relPtr[c], relSplit[c], uAt, r, k);
+      }
+    }
     if (uAt !== base) stack.copyWithin(base, uAt, uAt + r * r);
     updateAt[s] = base;
     stackTop = base + r * r;
@@ -101,11 +108,11 @@ function samePattern(lay: SupernodalLayout, A: SymmetricSparse): boolean {
 }
 
 /**
- * Adds a child's update matrix (cr×cr, lower part) into its parent's front: rows that are
- * the parent's own pivots go to the unpacked diagonal block D (k×k), other rows' pivot
- * columns to L₂₁ (row p ≥ k at below + (p−k)·k), the rest to the parent's update matrix.
+ * Adds the part of a child's update matrix (cr×cr, lower part) that falls in its parent's
+ * pivot columns: rows that are the parent's own pivots go to the unpacked diagonal block D
+ * (k×k), the pivot columns of other rows to L₂₁ (row p ≥ k at below + (p−k)·k).
  */
-function extendAdd(
+function addToPivots(
   child: Float64Array,
   childAt: number,
   cr: number,
@@ -116,9 +123,6 @@ function extendAdd(
   L: Float64Array,
   below: number,
   k: number,
-  stack: Float64Array,
-  uAt: number,
-  r: number,
 ): void {
   for (let a = 0; a < cr; a++) {
     const ra = rel[relAt + a];
@@ -129,8 +133,25 @@ function extendAdd(
     } else {
       const panelRow = below + (ra - k) * k;
       for (let b = 0; b < split; b++) L[panelRow + rel[relAt + b]] += child[src + b];
-      const uRow = uAt + (ra - k) * r - k;
-      for (let b = split; b <= a; b++) stack[uRow + rel[relAt + b]] += child[src + b];
     }
+  }
+}
+
+/** Adds the rest of a child's update matrix, rows and columns beyond the parent's pivots, into the parent's (r×r at uAt). */
+function addToUpdate(
+  stack: Float64Array,
+  childAt: number,
+  cr: number,
+  rel: Int32Array,
+  relAt: number,
+  split: number,
+  uAt: number,
+  r: number,
+  k: number,
+): void {
+  for (let a = split; a < cr; a++) {
+    const src = childAt + a * cr;
+    const uRow = uAt + (rel[relAt + a] - k) * r - k;
+    for (let b = split; b <= a; b++) stack[uRow + rel[relAt + b]] += stack[src + b];
   }
 }

@@ -17,6 +17,12 @@ export interface CholeskyOptions {
    * smaller factor.
    */
   ordering?: 'auto' | 'nested-dissection' | 'minimum-degree' | 'natural';
+  /**
+   * A point in space (x, y, z) per row, when A comes from a mesh: nested dissection then also
+   * tries plane cuts (see NestedDissectionOptions.points). The pattern alone still decides
+   * everything else.
+   */
+  points?: Float64Array;
 }
 
 export interface CholeskyAnalysisOptions extends CholeskyOptions {
@@ -99,19 +105,20 @@ export function analyzeCholesky(A: SymmetricSparse, options: CholeskyAnalysisOpt
   assertSymmetricSparse(A, 'analyzeCholesky');
   const perm = options.permutation
     ? checkedPermutation(options.permutation, A.n)
-    : computeOrdering(A, options.ordering ?? 'auto');
+    : computeOrdering(A, options.ordering ?? 'auto', options.points);
   return analyzeWithPermutation(A, perm);
 }
 
 /**
  * The fill-reducing permutation `analyzeCholesky` would use (perm[k] = original index of
  * the k-th pivot). Exposed so callers can time or cache the ordering on its own.
- * Guarantees a permutation of 0..n−1 that depends only on A's pattern; throws
- * RangeError for an unknown ordering name.
+ * Guarantees a permutation of 0..n−1 that depends only on A's pattern (and `points`, when
+ * given); throws RangeError for an unknown ordering name or a points array of the wrong length.
  */
 export function computeOrdering(
   A: SymmetricSparse,
   ordering: NonNullable<CholeskyOptions['ordering']> = 'auto',
+  points?: Float64Array,
 ): Int32Array {
   const n = A.n;
   if (ordering === 'natural') {
@@ -121,9 +128,9 @@ export function computeOrdering(
   }
   const graph = graphOfSymmetric(A);
   if (ordering === 'minimum-degree') return minimumDegreeOrder(graph);
-  if (ordering === 'nested-dissection') return nestedDissectionOrder(graph);
+  if (ordering === 'nested-dissection') return nestedDissectionOrder(graph, { points });
   if (ordering !== 'auto') throw new RangeError(`Unknown ordering '${String(ordering)}'`);
-  const nd = nestedDissectionOrder(graph);
+  const nd = nestedDissectionOrder(graph, { points });
   if (n > AUTO_COMPARE_LIMIT) return nd;
   // Small matrices: trying both costs little and minimum degree often wins there.
   const md = minimumDegreeOrder(graph);
