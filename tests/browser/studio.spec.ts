@@ -173,7 +173,7 @@ test('the editor: features through the side list, measured indices equal the pla
   await expect(budget.getByTestId('budget-remainder')).toHaveText('0');
   const proof = page.getByTestId('index-proof');
   await expect(proof).toContainText('3 singularities found, each exactly where one was placed; none elsewhere', { timeout: 30_000 });
-  await expect(proof.getByTestId('edge-proof')).toContainText(/No seam: [\d,]+ edges checked, the largest turn between neighbouring faces [\d.]+°\./);
+  await expect(proof.getByTestId('edge-proof')).toContainText(/No seam: [\d,]+ edges checked, the largest turn between neighbouring faces [\d.]+°[.;]/);
   await expect(rows.filter({ hasText: 'Whorl 1' })).toContainText('index +1 · measured +1');
   await expect(rows.filter({ hasText: 'Whorl 2' })).toContainText('index +1 · measured +1');
   await expect(rows.filter({ hasText: 'Saddle 1' })).toContainText('index −1 · measured −1');
