@@ -42,6 +42,18 @@ test('reading the grain on the fox: marks shown, taken all at once, the field pr
   await panel.getByRole('button', { name: 'Read the grain' }).click();
   await expect(reading).toContainText(`${marks} grain mark`, { timeout: 60_000 });
 
+  // One mark taken from the list, one by a click on its ghost (the view turned to face it first).
+  await panel.getByRole('list', { name: 'Marks still to take' }).getByRole('button', { name: /^Take / }).first().click();
+  await expect(reading).toContainText(`${marks - 1} still to take.`);
+  await panel.getByRole('list', { name: 'Marks still to take' }).getByRole('button', { name: /^Look at / }).first().click();
+  const stage = page.getByRole('img', { name: /The growth surface with the field/ });
+  const box = (await stage.boundingBox())!;
+  await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+  await expect(reading).toContainText(`${marks - 2} still to take.`);
+  await openPanel(page, 'Features');
+  await expect(singularRows).toHaveCount(placedBefore + 2);
+  await openPanel(page, 'Field & view');
+
   await panel.getByRole('button', { name: 'Take all' }).click();
   await expect(reading).toContainText('All taken.');
   await openPanel(page, 'Features');
@@ -50,8 +62,8 @@ test('reading the grain on the fox: marks shown, taken all at once, the field pr
   await expect(proof).toContainText(`${marks} singularities found, each exactly where one was placed; none elsewhere`, { timeout: 30_000 });
   await expect(page.getByTestId('field-error')).toHaveCount(0);
 
-  // One undo takes the whole layout back.
+  // One undo takes the whole layout back (to the two marks taken one by one).
   await expect(page.getByRole('button', { name: 'Undo' })).toHaveAttribute('title', `Undo: Take the grain's ${marks} singularities (Ctrl+Z)`);
   await page.getByRole('button', { name: 'Undo' }).click();
-  await expect(singularRows).toHaveCount(placedBefore);
+  await expect(singularRows).toHaveCount(placedBefore + 2);
 });
