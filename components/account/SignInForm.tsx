@@ -1,16 +1,18 @@
 'use client';
 import Link from 'next/link';
 import { useState } from 'react';
-import { signIn } from 'next-auth/react';
+import { getSession, signIn } from 'next-auth/react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { isSignInProblem, SIGN_IN_PROBLEM_MESSAGES } from '@/lib/accounts/sign-in-problems';
 import { signInSchema } from '@/lib/accounts/schemas';
+import { homeAfterSignIn } from '@/lib/accounts/roles';
 import { ResendVerificationForm } from './ResendVerificationForm';
 
-export function SignInForm({ callbackUrl }: { callbackUrl: string }) {
+/** `callbackUrl`: the page that sent the person here (checked by safeCallbackPath), or null: then where they work. */
+export function SignInForm({ callbackUrl }: { callbackUrl: string | null }) {
   const form = useValidatedForm(signInSchema);
   // The address of an account that still needs confirming, to offer a new link for it.
   const [unconfirmedEmail, setUnconfirmedEmail] = useState<string | null>(null);
@@ -22,10 +24,10 @@ export function SignInForm({ callbackUrl }: { callbackUrl: string }) {
         className="flex flex-col gap-4"
         onSubmit={form.onSubmit(async (input) => {
           setUnconfirmedEmail(null);
-          const result = await signIn('credentials', { redirect: false, email: input.email, password: input.password, callbackUrl });
+          const result = await signIn('credentials', { redirect: false, email: input.email, password: input.password, callbackUrl: callbackUrl ?? '/' });
           if (result?.ok && !result.error) {
             // A full load, so the server-rendered header shows the signed-in state at once.
-            window.location.assign(callbackUrl);
+            window.location.assign(callbackUrl ?? homeAfterSignIn((await getSession())?.user?.roles ?? []));
             return;
           }
           const code = result?.error;

@@ -83,3 +83,14 @@ export function visibleAreas(roles: readonly Role[] | null): Area[] {
 export function isRole(value: string): value is Role {
   return (ROLES as readonly string[]).includes(value);
 }
+
+/**
+ * Where someone lands after signing in when no page asked them to come back: the place they work
+ * in — the studio for a groomer, the admin pages for an admin who does not groom, the market for a
+ * buyer.
+ */
+export function homeAfterSignIn(roles: readonly Role[]): `/${string}` {
+  if (roles.includes('groomer')) return '/studio';
+  if (roles.includes('admin')) return '/admin';
+  return '/market';
+}

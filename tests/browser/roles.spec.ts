@@ -8,6 +8,8 @@ test('a buyer is refused the groomer-only pages with a 403 page', async ({ page 
   const buyer = demo('buyer');
   await signInThroughForm(page, buyer.email, buyer.password);
   await expectSignedInAs(page, buyer.displayName);
+  // Signed in without a page to come back to, a buyer lands on the market.
+  await expect(page).toHaveURL(/\/market$/);
 
   const nav = page.getByRole('navigation', { name: 'Areas' });
   await expect(nav.getByRole('link', { name: 'Library' })).toBeVisible();
@@ -34,6 +36,13 @@ test('visitors are sent to sign in first, and come back afterwards', async ({ pa
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page).toHaveURL(/\/sales$/);
   await expect(page.getByRole('heading', { name: 'Sales', level: 1 })).toBeVisible();
+});
+
+test('a groomer signing in from the sign-in page lands in the studio', async ({ page }) => {
+  const groomer = demo('groomer');
+  await signInThroughForm(page, groomer.email, groomer.password);
+  await expect(page).toHaveURL(/\/studio$/);
+  await expectSignedInAs(page, groomer.displayName);
 });
 
 test('the admin reads the outgoing mail', async ({ page }) => {

@@ -184,6 +184,7 @@ test('the editor: features through the side list, measured indices equal the pla
   await page.getByRole('button', { name: 'Add whorl' }).click();
   await expect(budget.getByTestId('budget-remainder')).toHaveText('−1');
   await expect(page.getByTestId('field-error')).toContainText('indices placed on the surface sum to 3');
+  await expect(page.getByTestId('stale-field')).toContainText('the last ones that could be solved');
   await page.getByRole('button', { name: 'Undo' }).click();
   await expect(budget.getByTestId('budget-remainder')).toHaveText('0');
   await expect(rows.filter({ hasText: 'Whorl 3' })).toHaveCount(0);

@@ -33,7 +33,12 @@ export function ScreenAnchor({ point, element }: { point: Vec3 | null; element: 
   return null;
 }
 
-export function MarkerCard({ spec, feature, actions, element }: { spec: GroomSpec; feature: FeatureRef | null; actions: EditorActions; element: RefObject<HTMLDivElement | null> }) {
+export function MarkerCard({ spec, feature, actions, element, onNotice }: { spec: GroomSpec; feature: FeatureRef | null; actions: EditorActions; element: RefObject<HTMLDivElement | null>; onNotice: (words: string) => void }) {
+  /** Deleting takes one click, so the stage says how to bring the feature back. */
+  const remove = () => {
+    const label = featureLabel(spec, feature!);
+    if (actions.edit({ type: 'remove', feature: feature! }) === null) onNotice(`${label} deleted. Undo (Ctrl+Z) brings it back.`);
+  };
   const singularity = feature?.kind === 'singularity' ? spec.field.singularities[feature.index] : undefined;
   const pin = feature?.kind === 'pin' ? spec.pins[feature.index] : undefined;
   const show = !!feature && (!!singularity || !!pin);
@@ -105,7 +110,7 @@ export function MarkerCard({ spec, feature, actions, element }: { spec: GroomSpe
               </div>
             </>
           )}
-          <button type="button" onClick={() => actions.edit({ type: 'remove', feature })} className="self-start text-xs font-semibold text-hawthorn underline">
+          <button type="button" onClick={remove} className="self-start text-xs font-semibold text-hawthorn underline">
             Delete
           </button>
         </div>
@@ -130,7 +135,7 @@ export function MarkerCard({ spec, feature, actions, element }: { spec: GroomSpe
               className="accent-bracken"
             />
           </label>
-          <button type="button" onClick={() => actions.edit({ type: 'remove', feature })} className="self-start text-xs font-semibold text-hawthorn underline">
+          <button type="button" onClick={remove} className="self-start text-xs font-semibold text-hawthorn underline">
             Delete
           </button>
         </div>

@@ -11,11 +11,13 @@ function capitaliseFirst(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
-export function StageMessages({ opened, opening, openError, fieldError, errorFeature, spec, notice, onCloseNotice, guideTask }: {
+export function StageMessages({ opened, opening, openError, fieldError, staleDrawing, errorFeature, spec, notice, onCloseNotice, guideTask }: {
   opened: boolean;
   opening: Task | null;
   openError: string | null;
   fieldError: WorkerError | null;
+  /** An earlier field (and guides) is still drawn, faded, behind the error. */
+  staleDrawing: boolean;
   errorFeature: FeatureRef | null;
   spec: GroomSpec;
   notice: string | null;
@@ -43,6 +45,7 @@ export function StageMessages({ opened, opening, openError, fieldError, errorFea
       {fieldError && opened && (
         <div role="alert" className="absolute inset-x-3 top-3 z-10 ml-auto max-w-xl rounded-xl border-l-4 border-hawthorn bg-hawthorn-pale/95 px-4 py-2.5 text-sm text-hawthorn shadow" data-testid="field-error">
           <strong>The field cannot be solved as placed{errorFeature && featureExists(spec, errorFeature) ? ` (${featureLabel(spec, errorFeature)})` : ''}.</strong> {fieldError.message}
+          {staleDrawing && <span className="mt-1 block text-xs" data-testid="stale-field">The faint field and guides behind are the last ones that could be solved, not this groom as it stands.</span>}
         </div>
       )}
       {notice && (

@@ -141,13 +141,14 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
               <ScreenAnchor point={selectedPoint} element={cardRef} />
             </Stage>
           ) : null}
-          {surface && !dragging && <MarkerCard spec={spec} feature={editor.selection} actions={actions} element={cardRef} />}
+          {surface && !dragging && <MarkerCard spec={spec} feature={editor.selection} actions={actions} element={cardRef} onNotice={setNotice} />}
           {surface && <ToolRail tool={tools.tool} onTool={tools.choose} options={toolOptions} onOptions={setToolOptions} order={spec.field.order} draftLength={tools.draft.length} onFinish={tools.finishDraft} onCancel={tools.discardDraft} onFrameAll={() => stage.current?.frameAll()} />}
           <StageMessages
             opened={!!surface}
             opening={field.task}
             openError={field.openError}
             fieldError={fieldError}
+            staleDrawing={!!field.drawing && !solve?.lines}
             errorFeature={errorFeature}
             spec={spec}
             notice={notice}

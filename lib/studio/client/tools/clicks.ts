@@ -40,6 +40,7 @@ export function clickTool(about: { id: ToolId; label: string; shortcut: string |
     exit: () => ({ state: idle }),
     draft: () => NO_DRAFT,
     joinsDraft: false,
+    picksMarkers: true,
     holds: () => false,
   };
 }

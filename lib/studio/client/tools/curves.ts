@@ -48,6 +48,7 @@ export function curveTool(kind: CurveKind, about: { label: string; shortcut: str
     exit: (state, context) => ({ ...finish(state, kind, context), state: EMPTY }),
     draft: (state) => state.points,
     joinsDraft: true,
+    picksMarkers: false,
     holds: () => false,
   };
 }

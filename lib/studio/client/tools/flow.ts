@@ -39,5 +39,6 @@ export const flowTool: Tool<FlowStroke> = {
   exit: () => ({ state: IDLE }),
   draft: (state) => state.points ?? NO_DRAFT,
   joinsDraft: false,
+  picksMarkers: false,
   holds: (state) => state.points !== null,
 };

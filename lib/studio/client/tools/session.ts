@@ -1,6 +1,6 @@
 // The active tool of an editor and a marker being dragged, as one plain value. Pressing a marker
-// picks it and dragging moves it, whatever the tool (so a marker can be moved without leaving the
-// whorl tool); everything else goes to the active tool. Each step returns the next session and
+// picks it and dragging moves it, with any tool but those that draw lines (so a marker can be
+// moved without leaving the whorl tool); everything else goes to the active tool. Each step returns the next session and
 // the changes for the editor state, which `applyChanges` carries out.
 import { applyCheckedEdit, endGesture, previewEdit, select, type EditorState } from '../editor-state';
 import type { FeatureRef, Vec3 } from '../features';
@@ -51,9 +51,16 @@ export function chooseTool(session: ToolSession, tool: ToolId, context: ToolCont
   return { ...step, notice: step.notice ?? null };
 }
 
-/** A marker pressed: it is selected, and the pointer holds it until let go. */
+/**
+ * A marker pressed: it is selected, and the pointer holds it until let go — except with a tool
+ * that draws lines, which says how to go on instead.
+ */
 export function pressMarker(session: ToolSession, feature: FeatureRef): SessionStep {
   if (session.drag) return { session, changes: [] };
+  const tool = TOOLS[session.tool];
+  if (!tool.picksMarkers) {
+    return { session, changes: [], notice: `${tool.label} draws on the surface: click beside the marker. To pick a marker, use Turn & pick.` };
+  }
   return { session: { ...session, drag: { feature, vertex: null } }, changes: [{ type: 'select', feature }] };
 }
 

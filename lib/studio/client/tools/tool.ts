@@ -78,6 +78,12 @@ export interface Tool<S> {
   draft(state: S): readonly Vec3[];
   /** Whether the stage shows the draft joined along the mesh (a curve) rather than as points alone. */
   readonly joinsDraft: boolean;
+  /**
+   * Whether a press on a marker picks it (and a drag moves it). The tools that draw lines say no:
+   * a click that lands on a marker while drawing must not open its card (whose next click could
+   * delete it).
+   */
+  readonly picksMarkers: boolean;
   /** Whether the tool holds the pointer (a stroke being dragged): the view must not turn meanwhile. */
   holds(state: S): boolean;
 }

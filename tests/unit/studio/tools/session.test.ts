@@ -4,7 +4,7 @@ import { RAIL_TOOLS, TOOLS, toolOfKey } from '@/lib/studio/client/tools';
 import { chooseTool, holdsPointer, pointerDown, pointerMove, pointerUp, pressMarker, startSession, toolKey } from '@/lib/studio/client/tools/session';
 import { bramble, contextOf, hitAt, run } from './fixtures';
 
-describe('dragging a marker, whatever the tool', () => {
+describe('dragging a marker, with any tool but those that draw lines', () => {
   it('a press picks the marker, each new vertex is shown, the release makes one history entry', () => {
     const start = bramble();
     const { editor, session, said } = run(start, startSession('whorl'), [
@@ -38,6 +38,17 @@ describe('dragging a marker, whatever the tool', () => {
     expect(currentSpec(start).pins[1].vertex).toBe(5);
     expect(pin.vertex).toBeUndefined();
     expect(undoLabel(editor)).toBe('Move length pin 2');
+  });
+
+  it('a press on a marker while drawing a parting, crest or flow stroke picks nothing and says how to go on', () => {
+    const start = bramble();
+    for (const tool of ['parting', 'crest', 'flow'] as const) {
+      const { editor, session, said } = run(start, startSession(tool), [(s) => pressMarker(s, { kind: 'singularity', index: 0 }), (s, c) => pointerUp(s, null, c)]);
+      expect(editor.selection).toBeNull();
+      expect(session.drag).toBeNull();
+      expect(currentSpec(editor)).toBe(currentSpec(start));
+      expect(said[0]).toBe(`${TOOLS[tool].label} draws on the surface: click beside the marker. To pick a marker, use Turn & pick.`);
+    }
   });
 
   it('a drag that only presses leaves no history entry', () => {
