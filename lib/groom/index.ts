@@ -62,3 +62,4 @@ export {
   type FeatureTransfer,
   type SurfaceFacts,
 } from './transfer/transfer';
+export { transferReportText } from './transfer/report-text';
