@@ -7,7 +7,8 @@ import { CENTIMETRES_PER_UNIT, type GroomSpec, type Unit } from '../spec/spec';
  * the groomer picked (Horn's closed form).
  */
 export interface Alignment {
-  readonly kind: 'bounding-box' | 'landmarks';
+  /** `features`: fitted afterwards to the carried features themselves (a transfer by polygon or UV). */
+  readonly kind: 'bounding-box' | 'landmarks' | 'features';
   readonly scale: number;
   /** Row-major 3 × 3 rotation. */
   readonly rotation: readonly number[];

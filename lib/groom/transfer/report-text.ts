@@ -20,7 +20,7 @@ export function transferReportText(report: TransferReport): string {
   const carried = report.features.filter((f) => f.to !== null);
   const largest = carried.reduce((m, f) => Math.max(m, f.moved ?? 0), 0);
   const lines = [
-    `transfer    ${METHOD_WORDS[report.method]}; alignment by ${a.kind === 'landmarks' ? `landmarks (rms error ${a.landmarkError!.toPrecision(3)})` : 'bounding boxes'}, scale ${a.scale.toPrecision(4)}`,
+    `transfer    ${METHOD_WORDS[report.method]}; alignment by ${a.kind === 'bounding-box' ? 'bounding boxes' : `${a.kind === 'landmarks' ? 'landmarks' : 'the carried features'} (rms error ${a.landmarkError!.toPrecision(3)})`}, scale ${a.scale.toPrecision(4)}`,
     `surfaces    old ${report.from.faces} faces${report.from.hasUv ? ', UVs' : ', no UVs'}${report.from.uvOverlaps ? ` (${report.from.uvOverlaps} overlapping)` : ''}; new ${report.to.faces} faces${report.to.hasUv ? ', UVs' : ', no UVs'}${report.to.uvOverlaps ? ` (${report.to.uvOverlaps} overlapping)` : ''}`,
     `features    ${carried.length} of ${report.features.length} carried; moved at most ${percent(largest)} of the new surface's size`,
     ...report.features.map((f) => `  ${f.path.padEnd(32)} ${f.kind.padEnd(13)} ${f.to ? `→ ${point(f.to)}  moved ${percent(f.moved!)}` : 'not carried'}`),

@@ -117,7 +117,7 @@ function chooseMethod(asked: TransferOptions['method'], from: TransferSide, to: 
 export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSide, options: TransferOptions = {}): TransferResult {
   const fromUnits = from.units ?? spec.units, toUnits = to.units ?? fromUnits;
   const fromUp = from.upAxis ?? spec.upAxis, toUp = to.upAxis ?? fromUp;
-  const alignment = alignSurfaces(
+  const boxOrLandmarks = alignSurfaces(
     { units: fromUnits, upAxis: fromUp, positions: from.surface.mesh.positions },
     { units: toUnits, upAxis: toUp, positions: to.surface.mesh.positions },
     options.landmarks ?? [],
@@ -146,12 +146,12 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
       const point = [0, 1, 2].map((i) => hit.weights.reduce((s, w, k) => s + w * p[3 * tri[3 * hit.face + k] + i], 0)) as [number, number, number];
       return { point, position: positionOnFace(to.identity, hit.face, hit.weights) };
     }
-    const start = alignPoint(alignment, f.point);
-    const hit = probe!.along(start, alignDirection(alignment, f.normal), reach);
+    const start = alignPoint(boxOrLandmarks, f.point);
+    const hit = probe!.along(start, alignDirection(boxOrLandmarks, f.normal), reach);
     if (!hit) {
       // Nothing straight along the normal (an edge of an opening, a fold): the nearest point, if it faces the same way.
       if (!to.surface.skin.closest(start[0], start[1], start[2], reach, query)) return `no part of the new surface lies within ${round(reach)} units of where the alignment puts it`;
-      const n = alignDirection(alignment, f.normal);
+      const n = alignDirection(boxOrLandmarks, f.normal);
       if (query[3] * n[0] + query[4] * n[1] + query[5] * n[2] <= 0) return 'the nearest part of the new surface faces the other way (it would cross a gap)';
       const point: [number, number, number] = [query[0], query[1], query[2]];
       return { point, position: positionOnFace(to.identity, query[7], barycentricOnFace(to.surface.mesh, query[7], point)) };
@@ -159,12 +159,12 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     return { point: hit.point, position: positionOnFace(to.identity, hit.face, barycentricOnFace(to.surface.mesh, hit.face, hit.point)) };
   };
 
-  const landings: (Landing | null)[] = [];
+  const results = features.map(land);
+  const landings = results.map((r) => (typeof r === 'string' ? null : r));
+  const alignment = method === 'alignment' ? boxOrLandmarks : fitToFeatures(features, landings) ?? boxOrLandmarks;
   const reports: FeatureTransfer[] = [];
-  for (const f of features) {
-    const result = land(f);
-    const landing = typeof result === 'string' ? null : result;
-    landings.push(landing);
+  for (let i = 0; i < features.length; i++) {
+    const f = features[i], result = results[i], landing = landings[i];
     const aligned = alignPoint(alignment, f.point);
     reports.push({
       kind: f.kind,
@@ -234,6 +234,24 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field },
     ...(solved ? { solved } : {}),
   };
+}
+
+/**
+ * By polygon or UV the places land without any alignment; how far each moved is then measured
+ * against the similarity that best lays the old places onto their landings (Horn's fit), so a
+ * character turned in its file does not read as every feature having moved. Null for fewer than
+ * three carried places, or places on one line.
+ */
+function fitToFeatures(features: readonly AnchoredFeature[], landings: readonly (Landing | null)[]): Alignment | null {
+  const pairs = features.flatMap((f, i) => (landings[i] ? [{ from: f.point, to: landings[i]!.point }] : []));
+  if (pairs.length < 3) return null;
+  try {
+    const space = { units: 'cm' as const, upAxis: 'y' as const, positions: new Float64Array(3) };
+    return { ...alignSurfaces(space, space, pairs), kind: 'features' };
+  } catch (error) {
+    if (error instanceof GroomError) return null;
+    throw error;
+  }
 }
 
 /** On the same topology a spec's file vertex stays the same file vertex. */

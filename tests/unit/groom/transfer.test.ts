@@ -104,6 +104,11 @@ describe('a spec carried to the same character in another file', () => {
     expect(report.field).toEqual({ solved: true });
     expectSingularitiesLanded(spec, to.surface, expectedOnB, measured(to.surface, solved as never));
     expect(report.budget).toEqual([{ piece: 0, demanded: 2, placed: 2, remainder: 0 }]);
+    // Moved is measured against the similarity that lays the old places onto the new (the file is
+    // turned and scaled ×2.54): a turned character does not read as every feature having moved.
+    expect(report.alignment.kind).toBe('features');
+    expect(report.alignment.scale).toBeCloseTo(2.54, 1);
+    for (const f of report.features) expect(f.moved!).toBeLessThan(0.01);
     // Positions on the new surface name its own polygons, with the UV they were found by.
     for (const s of spec.field.singularities) expect(s.surface?.uv).toBeDefined();
   });
