@@ -10,7 +10,7 @@
  * the new surface (the report says whether it solves), which the table also gives on its own.
  */
 import { cpus, loadavg } from 'node:os';
-import { multiply3, quadSphere, rotationAbout } from '../tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, quadSphere, rotationAbout } from '../tests/fixtures/quad-sphere';
 import { parseGroomSpec, prepareGroomSurface, solveGroomField, transferSpec, withoutUv, type TransferOptions } from '../lib/groom';
 
 const RUNS = 3;
@@ -26,10 +26,6 @@ function best<T>(work: () => T): { ms: number; result: T } {
   return { ms, result };
 }
 
-const at = (theta: number, phi: number): [number, number, number] => {
-  const t = (theta * Math.PI) / 180, p = (phi * Math.PI) / 180;
-  return [Math.sin(t) * Math.cos(p), Math.sin(t) * Math.sin(p), Math.cos(t)];
-};
 const spec = parseGroomSpec({
   specVersion: 2,
   units: 'cm',

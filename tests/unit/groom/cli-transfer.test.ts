@@ -6,17 +6,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseGroomSpecJson, type TransferReport } from '@/lib/groom';
-import { multiply3, quadSphere, rotationAbout } from '@/tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, quadSphere, rotationAbout } from '@/tests/fixtures/quad-sphere';
 
 const launcher = join(process.cwd(), 'bin', 'whorlwind-groom.mjs');
 let folder: string;
 const MOVED = { split: 'bc' as const, asTriangles: true, shift: 5, scale: 2.54, rotation: multiply3(rotationAbout('z', 35), rotationAbout('x', 50)), translation: [3, -1, 2] as [number, number, number] };
 const moved = quadSphere(12, 16, MOVED);
 
-function at(theta: number, phi: number): [number, number, number] {
-  const t = (theta * Math.PI) / 180, p = (phi * Math.PI) / 180;
-  return [Math.sin(t) * Math.cos(p), Math.sin(t) * Math.sin(p), Math.cos(t)];
-}
 
 function run(...args: string[]) {
   const result = spawnSync(process.execPath, [launcher, ...args], { cwd: folder, encoding: 'utf8', timeout: 60_000 });

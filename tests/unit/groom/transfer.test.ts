@@ -20,7 +20,7 @@ import {
   type SurfaceIdentity,
 } from '@/lib/groom';
 import { SKIN_QUERY_SIZE } from '@/lib/groom/place/skin';
-import { multiply3, quadSphere, rotationAbout, type QuadSphere } from '@/tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, quadSphere, rotationAbout, type QuadSphere } from '@/tests/fixtures/quad-sphere';
 import { withGroups } from './support';
 
 const RINGS = 16, SEGMENTS = 24;
@@ -28,11 +28,6 @@ const RINGS = 16, SEGMENTS = 24;
 const TURN = multiply3(rotationAbout('z', 35), rotationAbout('x', 50));
 const MOVED = { split: 'bc' as const, asTriangles: true, shift: 5, scale: 2.54, rotation: TURN, translation: [3, -1, 2] as [number, number, number] };
 
-/** A unit-sphere point from polar angle and longitude in degrees. */
-function at(theta: number, phi: number): [number, number, number] {
-  const t = (theta * Math.PI) / 180, p = (phi * Math.PI) / 180;
-  return [Math.sin(t) * Math.cos(p), Math.sin(t) * Math.sin(p), Math.cos(t)];
-}
 
 /** Two whorls (a sphere's χ = 2), a flow stroke, a pin, an open parting balanced by a saddle. */
 const SPEC = parseGroomSpec({
