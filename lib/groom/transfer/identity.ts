@@ -7,8 +7,9 @@ import type { SurfacePosition } from '../spec/spec';
  * the file has UVs. Places stated this way (polygon + corners + barycentric) survive anything
  * that keeps the polygons — a sculpt pass, a re-export that triangulates differently.
  *
- * The reader will hand this over with the mesh once it keeps UVs and polygons; until then
- * `identityOfMesh` makes one from what a TriangleMesh has (every triangle its own polygon, no UVs).
+ * `identityOfMesh` reads it from the mesh: from the reader's record of the file's polygons and UVs
+ * when the mesh carries one (`ReaderPolygons`), else from the triangles alone (every triangle its
+ * own polygon, no UVs).
  */
 export interface SurfaceIdentity {
   /** Polygon p has corners `polygonStart[p] … polygonStart[p + 1] − 1` (indices into the corner arrays). */
@@ -20,24 +21,49 @@ export interface SurfaceIdentity {
   /** Polygon of each triangle of the mesh. */
   readonly polygonOfFace: Uint32Array;
   /** Per triangle corner (3 per face): its corner's index within the polygon (0-based, polygon order). */
-  readonly faceCorner: Uint16Array;
+  readonly faceCorner: Uint32Array;
   /** u, v of each polygon corner, when the surface has UVs. */
   readonly cornerUv?: Float64Array;
 }
 
 /**
- * The identity a mesh implies on its own: each triangle a polygon of three corners in its own
- * order; `faceUv` (u, v per triangle corner, 6 per face) when the caller has UVs.
+ * What the surface reader records beside the welded mesh (lib/field's TriangleMesh, once it keeps
+ * the file's polygons): per triangle its file polygon and which of the polygon's corners it joins,
+ * and the file's polygons with their corners' file vertices and UVs. Read structurally, so a mesh
+ * without them is simply a mesh without them.
+ */
+export interface ReaderPolygons {
+  readonly facePolygon?: Uint32Array;
+  readonly faceCorners?: ArrayLike<number>;
+  readonly polygons?: { readonly start: Uint32Array; readonly corners: Uint32Array; readonly uvs?: ArrayLike<number> };
+}
+
+/**
+ * The identity of a mesh: the file's own polygons and UVs when the reader recorded them
+ * (`ReaderPolygons`), else each triangle a polygon of three corners in its own order, with
+ * `faceUv` (u, v per triangle corner, 6 per face) as UVs when the caller has them.
  *
  * Guarantees: a valid identity of `mesh` (every face's corners name its own vertices); UVs only
- * when `faceUv` has exactly 6 values per face.
+ * when the reader recorded one per polygon corner, or `faceUv` has exactly 6 values per face.
  */
-export function identityOfMesh(mesh: TriangleMesh, faceUv?: Float64Array): SurfaceIdentity {
+export function identityOfMesh(mesh: TriangleMesh & ReaderPolygons, faceUv?: Float64Array): SurfaceIdentity {
   const nF = mesh.triangles.length / 3;
+  const read = mesh.polygons;
+  if (read && mesh.facePolygon?.length === nF && mesh.faceCorners?.length === 3 * nF) {
+    const map = mesh.fileVertexToVertex;
+    return {
+      polygonStart: read.start,
+      cornerVertex: map ? read.corners.map((v) => map[v]) : read.corners,
+      cornerFileVertex: read.corners,
+      polygonOfFace: mesh.facePolygon,
+      faceCorner: Uint32Array.from(mesh.faceCorners),
+      ...(read.uvs && read.uvs.length === 2 * read.corners.length ? { cornerUv: Float64Array.from(read.uvs) } : {}),
+    };
+  }
   const polygonStart = new Uint32Array(nF + 1);
   for (let f = 0; f <= nF; f++) polygonStart[f] = 3 * f;
   const polygonOfFace = new Uint32Array(nF);
-  const faceCorner = new Uint16Array(3 * nF);
+  const faceCorner = new Uint32Array(3 * nF);
   for (let f = 0; f < nF; f++) {
     polygonOfFace[f] = f;
     faceCorner.set([0, 1, 2], 3 * f);

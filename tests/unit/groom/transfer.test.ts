@@ -132,6 +132,27 @@ describe('a spec carried to the same character in another file', () => {
     expectSingularitiesLanded(spec, to.surface, expected, measured(to.surface, solved as never));
   });
 
+  it('takes the file polygons and UVs the surface reader records beside the mesh', () => {
+    const asRead = (q: QuadSphere) => ({
+      ...q.mesh,
+      facePolygon: q.identity.polygonOfFace,
+      faceCorners: q.identity.faceCorner,
+      polygons: { start: q.identity.polygonStart, corners: q.identity.cornerFileVertex!, uvs: Float32Array.from(q.identity.cornerUv!) },
+    });
+    const b = quadSphere(RINGS, SEGMENTS, MOVED);
+    const identity = identityOfMesh(asRead(b));
+    expect(identity.polygonStart).toEqual(b.identity.polygonStart);
+    expect(identity.cornerVertex).toEqual(b.identity.cornerVertex);
+    expect(identity.faceCorner).toEqual(b.identity.faceCorner);
+    identity.cornerUv!.forEach((x, i) => expect(x).toBeCloseTo(b.identity.cornerUv![i], 6));
+    // Without the reader's record each triangle is its own polygon and there are no UVs.
+    expect(identityOfMesh(b.mesh).polygonStart).toHaveLength(b.mesh.triangles.length / 3 + 1);
+    expect(identityOfMesh(b.mesh).cornerUv).toBeUndefined();
+    const { report } = transferSpec(SPEC, { surface: from.surface, identity: identityOfMesh(asRead(a)) }, { surface: prepareGroomSurface(b.mesh), identity });
+    expect(report.method).toBe('uv');
+    expect(report.notCarried).toEqual([]);
+  });
+
   it('a sculpt pass (same polygons, moved vertices): every feature keeps its polygon, corners and barycentric', () => {
     const sculpted = quadSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.08 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
     const first = transferSpec(SPEC, from, side(a)).spec; // positions stated on the original
