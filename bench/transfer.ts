@@ -10,7 +10,7 @@
  * the new surface (the report says whether it solves), which the table also gives on its own.
  */
 import { cpus, loadavg } from 'node:os';
-import { multiply3, onUnitSphere as at, quadSphere, rotationAbout } from '../tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '../tests/fixtures/transfer-sphere';
 import { parseGroomSpec, prepareGroomSurface, solveGroomField, transferSpec, withoutUv, type TransferOptions } from '../lib/groom';
 
 const RUNS = 3;
@@ -42,9 +42,9 @@ const spec = parseGroomSpec({
 
 const RINGS = 126, SEGMENTS = 200;
 const moved = { split: 'bc' as const, asTriangles: true, shift: 17, scale: 2.54, rotation: multiply3(rotationAbout('z', 35), rotationAbout('x', 50)), translation: [3, -1, 2] as [number, number, number] };
-const a = quadSphere(RINGS, SEGMENTS);
-const b = quadSphere(RINGS, SEGMENTS, moved);
-const sculpted = quadSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.05 * Math.sin(4 * x) * Math.cos(3 * y); return [k * x, k * y, k * z]; } });
+const a = transferSphere(RINGS, SEGMENTS);
+const b = transferSphere(RINGS, SEGMENTS, moved);
+const sculpted = transferSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.05 * Math.sin(4 * x) * Math.cos(3 * y); return [k * x, k * y, k * z]; } });
 const prepare = best(() => prepareGroomSurface(b.mesh));
 const from = { surface: prepareGroomSurface(a.mesh), identity: a.identity };
 const onB = prepare.result;

@@ -14,12 +14,12 @@ import * as duplicateRoute from '@/app/api/studio/grooms/[groomId]/duplicate/rou
 import * as restoreRoute from '@/app/api/studio/grooms/[groomId]/versions/[versionId]/restore/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
 import type { GroomDetail, ReadySurface, SurfaceMovePreview } from '@/lib/studio/types';
-import { multiply3, onUnitSphere as at, quadSphere, rotationAbout } from '@/tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
 
 const encode = (text: string) => new TextEncoder().encode(text);
-const first = quadSphere(12, 16);
-const sculpted = quadSphere(12, 16, { sculpt: ([x, y, z]) => { const k = 1 + 0.06 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
-const turned = quadSphere(12, 16, { split: 'bc', asTriangles: true, shift: 5, scale: 2.54, rotation: multiply3(rotationAbout('z', 35), rotationAbout('x', 50)), translation: [3, -1, 2] });
+const first = transferSphere(12, 16);
+const sculpted = transferSphere(12, 16, { sculpt: ([x, y, z]) => { const k = 1 + 0.06 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
+const turned = transferSphere(12, 16, { split: 'bc', asTriangles: true, shift: 5, scale: 2.54, rotation: multiply3(rotationAbout('z', 35), rotationAbout('x', 50)), translation: [3, -1, 2] });
 
 const SPEC = { specVersion: 2, units: 'cm', upAxis: 'z', field: { singularities: [{ point: at(40, 30), index: 1 }, { point: at(130, 200), index: 1 }] }, guides: { count: 40, length: 0.3 } };
 

@@ -6,12 +6,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseGroomSpecJson, type TransferReport } from '@/lib/groom';
-import { multiply3, onUnitSphere as at, quadSphere, rotationAbout } from '@/tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
 
 const launcher = join(process.cwd(), 'bin', 'whorlwind-groom.mjs');
 let folder: string;
 const MOVED = { split: 'bc' as const, asTriangles: true, shift: 5, scale: 2.54, rotation: multiply3(rotationAbout('z', 35), rotationAbout('x', 50)), translation: [3, -1, 2] as [number, number, number] };
-const moved = quadSphere(12, 16, MOVED);
+const moved = transferSphere(12, 16, MOVED);
 
 
 function run(...args: string[]) {
@@ -21,7 +21,7 @@ function run(...args: string[]) {
 
 beforeAll(() => {
   folder = mkdtempSync(join(tmpdir(), 'whorlwind-transfer-'));
-  writeFileSync(join(folder, 'old.obj'), quadSphere(12, 16).obj);
+  writeFileSync(join(folder, 'old.obj'), transferSphere(12, 16).obj);
   writeFileSync(join(folder, 'new.obj'), moved.obj);
   writeFileSync(join(folder, 'coat.json'), JSON.stringify({ specVersion: 2, units: 'cm', upAxis: 'z', field: { singularities: [{ point: at(40, 30), index: 1 }, { point: at(130, 200), index: 1 }] }, guides: { count: 50, length: 0.3 } }));
   const pairs = [at(10, 0), at(90, 0), at(90, 90), at(170, 200)].map((p) => ({ from: p, to: moved.place(p) }));

@@ -20,7 +20,7 @@ import {
   type SurfaceIdentity,
 } from '@/lib/groom';
 import { SKIN_QUERY_SIZE } from '@/lib/groom/place/skin';
-import { multiply3, onUnitSphere as at, quadSphere, rotationAbout, type QuadSphere } from '@/tests/fixtures/quad-sphere';
+import { multiply3, onUnitSphere as at, transferSphere, rotationAbout, type TransferSphere } from '@/tests/fixtures/transfer-sphere';
 import { withGroups } from './support';
 
 const RINGS = 16, SEGMENTS = 24;
@@ -46,7 +46,7 @@ const SPEC = parseGroomSpec({
   pins: [{ point: at(110, 60), attribute: 'length', value: 2 }],
 });
 
-function side(sphere: QuadSphere, identity: SurfaceIdentity = sphere.identity) {
+function side(sphere: TransferSphere, identity: SurfaceIdentity = sphere.identity) {
   return { surface: prepareGroomSurface(sphere.mesh), identity };
 }
 
@@ -83,8 +83,8 @@ function measured(target: GroomSurface, solved: { field: { faceDirection: Float6
 }
 
 describe('a spec carried to the same character in another file', () => {
-  const a = quadSphere(RINGS, SEGMENTS);
-  const b = quadSphere(RINGS, SEGMENTS, MOVED);
+  const a = transferSphere(RINGS, SEGMENTS);
+  const b = transferSphere(RINGS, SEGMENTS, MOVED);
   const from = side(a);
   const expectedOnB = SPEC.field.singularities.map((s, i) => {
     const v = vertexOfPlace(from.surface, s, `s${i}`);
@@ -121,7 +121,7 @@ describe('a spec carried to the same character in another file', () => {
   });
 
   it('with UVs stripped and no landmarks, by bounding boxes, when the file is only scaled and moved', () => {
-    const c = quadSphere(RINGS, SEGMENTS, { split: 'bc', asTriangles: true, shift: 7, scale: 2.54, translation: [3, -1, 2] });
+    const c = transferSphere(RINGS, SEGMENTS, { split: 'bc', asTriangles: true, shift: 7, scale: 2.54, translation: [3, -1, 2] });
     const to = side(c, withoutUv(c.identity));
     const { spec, report, solved } = transferSpec(SPEC, side(a, withoutUv(a.identity)), to);
     expect(report.alignment.kind).toBe('bounding-box');
@@ -133,13 +133,13 @@ describe('a spec carried to the same character in another file', () => {
   });
 
   it('takes the file polygons and UVs the surface reader records beside the mesh', () => {
-    const asRead = (q: QuadSphere) => ({
+    const asRead = (q: TransferSphere) => ({
       ...q.mesh,
       facePolygon: q.identity.polygonOfFace,
       faceCorners: q.identity.faceCorner,
       polygons: { start: q.identity.polygonStart, corners: q.identity.cornerFileVertex!, uvs: Float32Array.from(q.identity.cornerUv!) },
     });
-    const b = quadSphere(RINGS, SEGMENTS, MOVED);
+    const b = transferSphere(RINGS, SEGMENTS, MOVED);
     const identity = identityOfMesh(asRead(b));
     expect(identity.polygonStart).toEqual(b.identity.polygonStart);
     expect(identity.cornerVertex).toEqual(b.identity.cornerVertex);
@@ -154,7 +154,7 @@ describe('a spec carried to the same character in another file', () => {
   });
 
   it('a sculpt pass (same polygons, moved vertices): every feature keeps its polygon, corners and barycentric', () => {
-    const sculpted = quadSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.08 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
+    const sculpted = transferSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.08 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
     const first = transferSpec(SPEC, from, side(a)).spec; // positions stated on the original
     const to = side(sculpted);
     const { spec, report } = transferSpec(first, from, to);
@@ -174,7 +174,7 @@ describe('alignment', () => {
   it('recovers a known similarity from landmarks (Horn 1987: the exact answer for exact pairs)', () => {
     const truth = { scale: 2.54, rotation: TURN, translation: [3, -1, 2] };
     const from = [[1, 0, 0], [0, 1, 0], [0, 0, 1], [0.3, -0.2, 0.9]];
-    const landmarks = from.map((p) => ({ from: p as [number, number, number], to: quadSphere(2, 3, MOVED).place(p) }));
+    const landmarks = from.map((p) => ({ from: p as [number, number, number], to: transferSphere(2, 3, MOVED).place(p) }));
     const fit = alignSurfaces({ units: 'cm', upAxis: 'y', positions: new Float64Array(3) }, { units: 'cm', upAxis: 'y', positions: new Float64Array(3) }, landmarks);
     expect(fit.scale).toBeCloseTo(truth.scale, 10);
     fit.rotation.forEach((x, i) => expect(x).toBeCloseTo(truth.rotation[i], 10));
@@ -204,12 +204,12 @@ describe('alignment', () => {
 });
 
 describe('what is not carried, and why', () => {
-  const a = quadSphere(RINGS, SEGMENTS);
+  const a = transferSphere(RINGS, SEGMENTS);
   const from = side(a, withoutUv(a.identity));
 
   it('never lands across a thin gap: the sheet facing the other way is passed over', () => {
-    const flat = quadSphere(RINGS, SEGMENTS, { scale: 1, sculpt: ([x, y, z]) => [x, y, 0.03 * z] });
-    const lifted = quadSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => [x, y, 0.03 * z], translation: [0, 0, 0.04] });
+    const flat = transferSphere(RINGS, SEGMENTS, { scale: 1, sculpt: ([x, y, z]) => [x, y, 0.03 * z] });
+    const lifted = transferSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => [x, y, 0.03 * z], translation: [0, 0, 0.04] });
     const spec = parseGroomSpec({ specVersion: 2, units: 'cm', upAxis: 'z', field: { singularities: [{ point: [0, 0, 0.03], index: 1 }, { point: [0, 0, -0.03], index: 1 }] } });
     const landmarks = [[1, 0, 0], [0, 1, 0], [-1, 0, 0], [0, -1, 0.01]].map((p) => ({ from: p as [number, number, number], to: p as [number, number, number] }));
     const to = side(lifted, withoutUv(lifted.identity));
@@ -224,7 +224,7 @@ describe('what is not carried, and why', () => {
   });
 
   it('a feature with no surface facing its way within reach is left out, and the budget shows the remainder', () => {
-    const dented = quadSphere(RINGS, SEGMENTS, { sculpt: (p) => (p[2] > 0.6 ? [p[0] * 0.5, p[1] * 0.5, p[2] * 0.5] : p) });
+    const dented = transferSphere(RINGS, SEGMENTS, { sculpt: (p) => (p[2] > 0.6 ? [p[0] * 0.5, p[1] * 0.5, p[2] * 0.5] : p) });
     const to = side(dented, withoutUv(dented.identity));
     const identityFit = [[1, 0, 0], [0, 1, 0], [0, 0, -1], [-1, 0, 0]].map((p) => ({ from: p as [number, number, number], to: p as [number, number, number] }));
     const { spec, report } = transferSpec(SPEC, from, to, { landmarks: identityFit, reach: 0.02, method: 'alignment' });
@@ -266,7 +266,7 @@ describe('what is not carried, and why', () => {
   });
 
   it('refuses a UV transfer asked for when a surface has no UVs, and reports overlapping UVs', () => {
-    const b = quadSphere(RINGS, SEGMENTS, MOVED);
+    const b = transferSphere(RINGS, SEGMENTS, MOVED);
     expect(() => transferSpec(SPEC, from, side(b), { method: 'uv' })).toThrow(/needs UVs on both surfaces; the old surface has none/);
     // Every polygon's UVs folded onto the first quadrant's: the layout overlaps everywhere.
     const folded = { ...b.identity, cornerUv: b.identity.cornerUv!.map((x) => x % 0.25) };
