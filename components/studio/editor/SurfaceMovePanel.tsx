@@ -10,21 +10,11 @@ import { fetchData, request } from '@/lib/http/client';
 import type { TransferReport } from '@/lib/groom';
 import type { GroomDetail, SurfaceMovePreview, SurfaceSummary } from '@/lib/studio/types';
 import { Notice } from '@/components/ui/Notice';
+import { readMoveInputs } from '@/lib/studio/client/move-input';
 import { SurfaceUpload } from '../home/SurfaceUpload';
 
 const percent = (x: number) => `${(100 * x).toFixed(x < 0.001 ? 2 : 1)} %`;
 const METHOD = { topology: 'by polygon (the same polygons)', uv: 'by UV', alignment: 'by alignment along the normal' } as const;
-
-/** "scalp=crown" lines → a region map; blank lines ignored. */
-function parseRegionMap(text: string): Record<string, string> | string {
-  const map: Record<string, string> = {};
-  for (const line of text.split('\n').map((l) => l.trim()).filter(Boolean)) {
-    const [from, to, ...rest] = line.split('=').map((s) => s.trim());
-    if (!from || !to || rest.length > 0) return `Write each renamed region as old=new (“${line}” is not).`;
-    map[from] = to;
-  }
-  return map;
-}
 
 function Report({ report }: { report: TransferReport }) {
   const carried = report.features.filter((f) => f.to !== null).length;
@@ -69,6 +59,7 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush }: 
   const { data, mutate } = useSWR<{ surfaces: SurfaceSummary[] }>('/api/studio/surfaces', fetchData, { refreshInterval: (d) => (d?.surfaces.some((s) => s.state === 'checking') ? 1500 : 0) });
   const [target, setTarget] = useState('');
   const [regions, setRegions] = useState('');
+  const [landmarks, setLandmarks] = useState('');
   const [preview, setPreview] = useState<SurfaceMovePreview | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -76,12 +67,12 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush }: 
   const ready = others.filter((s) => s.state === 'ready');
 
   const input = () => {
-    const regionMap = parseRegionMap(regions);
-    if (typeof regionMap === 'string') {
-      setFailure(regionMap);
+    const read = readMoveInputs(regions, landmarks);
+    if ('problem' in read) {
+      setFailure(read.problem);
       return null;
     }
-    return { surfaceId: target, ...(Object.keys(regionMap).length ? { regionMap } : {}) };
+    return { surfaceId: target, ...read };
   };
 
   async function show() {
@@ -145,6 +136,8 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush }: 
         {ready.length === 0 && <p className="text-xs text-loam">None of your other surfaces is ready yet.</p>}
         <label htmlFor="move-regions" className="text-sm font-semibold text-loam">Renamed regions (old=new, one a line)</label>
         <textarea id="move-regions" value={regions} onChange={(e) => setRegions(e.target.value)} rows={2} className="rounded-lg border border-tarn/30 px-2 py-1 font-mono text-xs" />
+        <label htmlFor="move-landmarks" className="text-sm font-semibold text-loam">Landmarks, for a character turned in its file (old x y z = new x y z, three or more)</label>
+        <textarea id="move-landmarks" value={landmarks} onChange={(e) => setLandmarks(e.target.value)} rows={3} className="rounded-lg border border-tarn/30 px-2 py-1 font-mono text-xs" />
         <button type="button" disabled={!target || busy} onClick={show} className="rounded-xl bg-tarn px-3 py-1.5 text-sm font-semibold text-chalk disabled:opacity-50">
           {busy && !preview ? 'Carrying the features over…' : 'Show the transfer report'}
         </button>
