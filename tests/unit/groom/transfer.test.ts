@@ -153,6 +153,25 @@ describe('a spec carried to the same character in another file', () => {
     expect(report.notCarried).toEqual([]);
   });
 
+  it('a parting given by file vertices becomes points on another topology, and stays vertices on the same one', () => {
+    // Circle of latitude 4 (45° from the pole) as file vertices: a closed parting (no index of its own)
+    // splits the sphere into a cap and the rest, each needing a whorl.
+    const ring = Array.from({ length: SEGMENTS }, (_, j) => 1 + 3 * SEGMENTS + j);
+    const spec = parseGroomSpec({
+      specVersion: 2, units: 'cm', upAxis: 'z',
+      field: { singularities: [{ point: at(0, 0), index: 1 }, { point: at(180, 0), index: 1 }], partings: [{ vertices: ring, closed: true }] },
+    });
+    const b = transferSphere(RINGS, SEGMENTS, MOVED);
+    const landmarks = [at(10, 0), at(90, 0), at(90, 90), at(170, 200)].map((p) => ({ from: p, to: b.place(p) }));
+    const other = transferSpec(spec, side(a, withoutUv(a.identity)), side(b, withoutUv(b.identity)), { landmarks });
+    expect(other.report.notCarried).toEqual([]);
+    expect(other.spec.field.partings[0].points).toHaveLength(SEGMENTS);
+    expect(other.spec.field.partings[0].vertices).toBeUndefined();
+    expect(other.report.field).toEqual({ solved: true });
+    const same = transferSpec(spec, from, side(a));
+    expect(same.spec.field.partings[0].vertices).toEqual(ring);
+  });
+
   it('a sculpt pass (same polygons, moved vertices): every feature keeps its polygon, corners and barycentric', () => {
     const sculpted = transferSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.08 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
     const first = transferSpec(SPEC, from, side(a)).spec; // positions stated on the original
