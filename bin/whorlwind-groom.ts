@@ -13,7 +13,13 @@
  * even orders), as strongly as --suggest-weight says. The spec it writes (the base spec's settings,
  * or defaults in --units, with the suggested singularities by file vertex) solves to a field with
  * exactly those singularities; the other outputs are made from it.
+ *   whorlwind-groom --surface new.obj --spec coat.json --from old.obj [--report report.json]
+ *                   [--method auto|topology|uv|alignment] [--landmarks pairs.json]
+ *                   [--region-map old=new …] [--units cm] [--up y|z] [--reach 0.05] [--out …]
  *
+ * With --from, the spec was made on the old surface: its places are carried onto --surface first
+ * and the transfer report is printed (--report writes it as JSON; --out new.json the carried
+ * spec). Landmarks: a JSON list of {"from": [x, y, z], "to": [x, y, z]}, three or more.
  * Each --out's format comes from its extension: .usda (BasisCurves; --basis linear|bspline|catmullRom),
  * .gltf, .glb, .obj, .json (the resolved spec). --thumbnail writes .png or .webp (--view, --size,
  * --colour). Exits 0 on success; on bad input prints one line "whorlwind-groom: <reason>" to
@@ -44,6 +50,11 @@ import {
   type GuideColouring,
   type ThumbnailView,
   type UsdCurveBasis,
+  identityOfMesh,
+  transferReportText,
+  transferSpec,
+  type LandmarkPair,
+  type TransferMethod,
 } from '../lib/groom';
 
 class UsageError extends Error {}
@@ -75,11 +86,18 @@ function parseCommandLine(argv: string[]) {
       basis: { type: 'string', default: 'linear' },
       suggest: { type: 'boolean', default: false },
       order: { type: 'string' },
-      units: { type: 'string', default: 'cm' },
       'suggest-down': { type: 'string' },
       'suggest-follow-curvature': { type: 'boolean', default: false },
       'suggest-weight': { type: 'string' },
       stats: { type: 'boolean', default: false },
+      from: { type: 'string' },
+      report: { type: 'string' },
+      method: { type: 'string', default: 'auto' },
+      landmarks: { type: 'string' },
+      'region-map': { type: 'string', multiple: true },
+      units: { type: 'string' },
+      up: { type: 'string' },
+      reach: { type: 'string' },
       help: { type: 'boolean', default: false },
     },
     strict: true,
@@ -104,7 +122,30 @@ function parseCommandLine(argv: string[]) {
   if (!Number.isInteger(size) || size < 16 || size > 4096) throw new UsageError('--size must be a whole number of pixels from 16 to 4096');
   if (!['length', 'direction', 'uniform'].includes(values.colour!)) throw new UsageError('--colour must be length, direction or uniform');
   if (!['linear', 'bspline', 'catmullRom'].includes(values.basis!)) throw new UsageError('--basis must be linear, bspline or catmullRom');
+  const transferOnly = [values.report && '--report', values.landmarks && '--landmarks', values['region-map'] && '--region-map', values.up && '--up', values.reach && '--reach', values.method !== 'auto' && '--method'].filter(Boolean);
+  if (!values.from && transferOnly.length > 0) throw new UsageError(`${transferOnly[0]} needs --from (the surface the spec was made on)`);
+  if (values.units && !values.from && !values.suggest) throw new UsageError('--units (the units of --surface) goes with --from or --suggest');
+  if (!['auto', 'topology', 'uv', 'alignment'].includes(values.method!)) throw new UsageError('--method must be auto, topology, uv or alignment');
+  if (values.units && !(UNITS as readonly string[]).includes(values.units)) throw new UsageError(`--units must be one of ${UNITS.join(', ')}`);
+  if (values.up && !['y', 'z'].includes(values.up)) throw new UsageError('--up must be y or z');
+  const reach = values.reach === undefined ? undefined : Number(values.reach);
+  if (reach !== undefined && !(reach > 0 && reach <= 1)) throw new UsageError('--reach must be a fraction of the surface size, above 0 and at most 1');
+  const regionMap: Record<string, string> = {};
+  for (const pair of values['region-map'] ?? []) {
+    const [from, to, ...rest] = pair.split('=');
+    if (!from || !to || rest.length > 0) throw new UsageError(`--region-map ${pair}: write it as old=new`);
+    regionMap[from] = to;
+  }
+  if (values.report && extname(values.report).toLowerCase() !== '.json') throw new UsageError(`--report ${values.report}: the report is written as .json`);
   return {
+    from: values.from,
+    report: values.report,
+    method: values.method as 'auto' | TransferMethod,
+    landmarks: values.landmarks,
+    regionMap,
+    units: values.units as Unit | undefined,
+    up: values.up as 'y' | 'z' | undefined,
+    reach,
     surface: values.surface,
     spec: values.spec,
     out: values.out ?? [],
@@ -122,7 +163,8 @@ function parseCommandLine(argv: string[]) {
 function suggestOptions(values: { order?: string; units?: string; 'suggest-down'?: string; 'suggest-follow-curvature'?: boolean; 'suggest-weight'?: string }) {
   const order = values.order === undefined ? undefined : Number(values.order);
   if (order !== undefined && (!Number.isInteger(order) || order < 1 || order > 12)) throw new UsageError('--order must be a whole number from 1 to 12 (1 hair direction, 2 lines, 4 crosses)');
-  if (!UNITS.includes(values.units as Unit)) throw new UsageError(`--units must be one of ${UNITS.join(', ')}`);
+  const units = values.units ?? 'cm';
+  if (!UNITS.includes(units as Unit)) throw new UsageError(`--units must be one of ${UNITS.join(', ')}`);
   let direction: [number, number, number] | undefined;
   if (values['suggest-down'] !== undefined) {
     const parts = values['suggest-down'].split(',').map((x) => Number(x.trim()));
@@ -133,7 +175,7 @@ function suggestOptions(values: { order?: string; units?: string; 'suggest-down'
   if (weight !== undefined && (!Number.isFinite(weight) || weight < 0)) throw new UsageError('--suggest-weight must be a number of at least 0');
   const curvature = values['suggest-follow-curvature'] ?? false;
   if (weight !== undefined && !direction && !curvature) throw new UsageError('--suggest-weight needs --suggest-down or --suggest-follow-curvature');
-  return { order, units: values.units as Unit, align: direction || curvature ? { direction, curvature, weight } : undefined };
+  return { order, units: units as Unit, align: direction || curvature ? { direction, curvature, weight } : undefined };
 }
 
 function readInput(path: string, what: string): Uint8Array {
@@ -172,6 +214,7 @@ async function main(argv: string[]): Promise<void> {
   } else {
     spec = base!;
   }
+  if (options.from) spec = carryOver(spec, options, surface, read.mesh, time);
   const request = time('place features', () => fieldRequestFromSpec(spec, surface));
   const solved = time('solve field', () => solveField(surface.field, request));
   const needsGuides = options.out.some((out) => extname(out).toLowerCase() !== '.json') || options.thumbnails.length > 0 || options.stats;
@@ -210,6 +253,42 @@ async function main(argv: string[]): Promise<void> {
     ];
     process.stdout.write(`${lines.join('\n')}\n`);
   }
+}
+
+type Options = NonNullable<ReturnType<typeof parseCommandLine>>;
+
+function readLandmarks(path: string): LandmarkPair[] {
+  let list: unknown;
+  try {
+    list = JSON.parse(new TextDecoder().decode(readInput(path, 'landmarks')));
+  } catch (error) {
+    if (error instanceof GroomError) throw error;
+    throw new GroomError('bad-landmarks', `the landmarks ${path} are not valid JSON`);
+  }
+  const vec = (x: unknown) => Array.isArray(x) && x.length === 3 && x.every((c) => typeof c === 'number' && Number.isFinite(c));
+  if (!Array.isArray(list) || !list.every((p) => p && vec(p.from) && vec(p.to))) {
+    throw new GroomError('bad-landmarks', `the landmarks ${path} must be a list of {"from": [x, y, z], "to": [x, y, z]}`);
+  }
+  return list as LandmarkPair[];
+}
+
+/** The spec carried from --from onto the surface; the report printed (and written) before anything else is. */
+function carryOver(spec: GroomSpec, options: Options, surface: ReturnType<typeof prepareGroomSurface>, mesh: ReturnType<typeof readSurface>['mesh'], time: <T>(name: string, work: () => T) => T): GroomSpec {
+  const old = time('read old surface', () => readSurface(readInput(options.from!, 'old surface'), options.from!));
+  const oldSurface = time('prepare old', () => prepareGroomSurface(old.mesh, { boundary: spec.field.boundary }));
+  const landmarks = options.landmarks ? readLandmarks(options.landmarks) : [];
+  const { spec: carried, report } = time('transfer', () =>
+    transferSpec(
+      spec,
+      { surface: oldSurface, identity: identityOfMesh(old.mesh) },
+      { surface, identity: identityOfMesh(mesh), units: options.units, upAxis: options.up },
+      { method: options.method, landmarks, regionMap: options.regionMap, reach: options.reach },
+    ),
+  );
+  process.stdout.write(transferReportText(report));
+  if (options.report) writeFileSync(options.report, `${JSON.stringify(report, null, 2)}\n`);
+  if (!report.field.solved) throw new GroomError(report.field.code, `the field does not solve on the new surface: ${report.field.message}`);
+  return carried;
 }
 
 main(process.argv.slice(2)).then(

@@ -26,6 +26,7 @@ export {
   type StrokeSpec,
   type PinSpec,
   type PlaceSpec,
+  type SurfacePosition,
   type PinAttribute,
   type SpecProblem,
   type Unit,
@@ -49,3 +50,17 @@ export { guidesToGltf } from './export/gltf';
 export { guidesToObj } from './export/obj';
 export { fieldToPly } from './export/field-ply';
 export { renderThumbnail, THUMBNAIL_VIEWS, type ThumbnailView, type GuideColouring, type RgbaImage, type RenderOptions } from './render/render';
+export { identityOfMesh, withoutUv, sameTopology, positionOnFace, pointOfPosition, type SurfaceIdentity } from './transfer/identity';
+export { alignSurfaces, alignPoint, alignDirection, type Alignment, type LandmarkPair } from './transfer/align';
+export { buildUvLocator, type UvLocator } from './transfer/uv-locate';
+export {
+  transferSpec,
+  type TransferMethod,
+  type TransferSide,
+  type TransferOptions,
+  type TransferReport,
+  type TransferResult,
+  type FeatureTransfer,
+  type SurfaceFacts,
+} from './transfer/transfer';
+export { transferReportText } from './transfer/report-text';

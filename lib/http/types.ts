@@ -25,6 +25,8 @@ export type ApiErrorCode =
   | 'surface-not-ready'
   | 'invalid-spec'
   | 'stale-revision'
+  | 'transfer-refused'
+  | 'same-surface'
   // market
   | 'bad-signature'
   | 'own-listing'

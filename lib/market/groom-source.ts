@@ -18,7 +18,8 @@ export async function sellersGroomVersion(sellerId: string, groomId: string, ver
   if (!present.rows[0]?.present) throw notFound('groom');
   const row = await db()('groom_versions as v')
     .join('grooms as g', 'g.id', 'v.groom_id')
-    .join('growth_surfaces as s', 's.id', 'g.surface_id')
+    // The surface the version was made on: a groom moved onto another surface since sells its old version on the old one.
+    .join('growth_surfaces as s', 's.id', 'v.surface_id')
     .where({ 'v.id': versionId, 'g.id': groomId, 'g.owner_id': sellerId })
     .first('g.id as groom_id', 'g.name as groom_name', 'v.id as version_id', 'v.number', 'v.name', 'v.spec', 's.object_key', 's.file_name');
   if (!row) {

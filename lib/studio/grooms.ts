@@ -37,7 +37,7 @@ type GroomListRow = GroomRow & {
   latest_name: string | null;
 };
 
-type VersionRow = { id: string; groom_id: string; number: number; name: string; spec: GroomSpec; source_revision: number; thumbnail_key: string | null; created_at: Date };
+type VersionRow = { id: string; groom_id: string; surface_id: string; number: number; name: string; spec: GroomSpec; source_revision: number; thumbnail_key: string | null; created_at: Date };
 
 /** The groomer's grooms with what their summaries show, newest edit first. */
 function groomListQuery(groomer: Groomer, connection: Knex | Knex.Transaction = db()) {
@@ -74,6 +74,7 @@ async function version(row: VersionRow): Promise<Version> {
     id: row.id,
     number: row.number,
     name: row.name,
+    surfaceId: row.surface_id,
     createdAt: row.created_at.toISOString(),
     thumbnailUrl: row.thumbnail_key ? await presignDownload(row.thumbnail_key, STUDIO_URL_SECONDS) : null,
   };
@@ -207,7 +208,7 @@ export async function createVersion(groomer: Groomer, groomId: string, name: str
     const groom = await lockOwnGroom(trx, groomer, groomId);
     const [{ latest }] = await trx('groom_versions').where({ groom_id: groomId }).max<{ latest: number | null }[]>('number as latest');
     const [row] = await trx('groom_versions')
-      .insert({ groom_id: groomId, number: (latest ?? 0) + 1, name, spec: JSON.stringify(groom.spec), source_revision: groom.revision })
+      .insert({ groom_id: groomId, surface_id: groom.surface_id, number: (latest ?? 0) + 1, name, spec: JSON.stringify(groom.spec), source_revision: groom.revision })
       .returning('*');
     await trx('grooms').where({ id: groomId }).update({ updated_at: trx.fn.now() });
     return row as VersionRow;
@@ -223,7 +224,10 @@ export async function listVersions(groomer: Groomer, groomId: string): Promise<V
   return Promise.all(rows.map(version));
 }
 
-/** Makes a version's spec the saved spec again, as a new revision. */
+/**
+ * Makes a version's spec the saved spec again, as a new revision, on the surface the version was
+ * made on (a groom whose surface was replaced since goes back to its old surface).
+ */
 export async function restoreVersion(groomer: Groomer, groomId: string, versionId: string): Promise<RestoredResponse> {
   const restored = await db().transaction(async (trx) => {
     const groom = await lockOwnGroom(trx, groomer, groomId);
@@ -231,9 +235,9 @@ export async function restoreVersion(groomer: Groomer, groomId: string, versionI
     if (!row) throw notFound('version');
     const [saved] = await trx('grooms')
       .where({ id: groomId })
-      .update({ spec: JSON.stringify(row.spec), revision: groom.revision + 1, spec_saved_at: trx.fn.now(), updated_at: trx.fn.now() })
-      .returning(['spec', 'revision', 'spec_saved_at']);
-    return { spec: saved.spec as GroomSpec, revision: saved.revision as number, savedAt: (saved.spec_saved_at as Date).toISOString() };
+      .update({ spec: JSON.stringify(row.spec), surface_id: row.surface_id, revision: groom.revision + 1, spec_saved_at: trx.fn.now(), updated_at: trx.fn.now() })
+      .returning(['spec', 'surface_id', 'revision', 'spec_saved_at']);
+    return { spec: saved.spec as GroomSpec, surfaceId: saved.surface_id as string, revision: saved.revision as number, savedAt: (saved.spec_saved_at as Date).toISOString() };
   });
   await enqueueThumbnail({ groomId });
   return restored;

@@ -289,6 +289,14 @@ export async function deleteSurface(groomer: Groomer, surfaceId: string): Promis
         `${grooms.length === 1 ? 'A groom grows' : `${grooms.length} grooms grow`} on this surface (${names}); delete ${grooms.length === 1 ? 'it' : 'them'} first.`,
       );
     }
+    const kept: string[] = await trx('groom_versions as v').join('grooms as g', 'g.id', 'v.groom_id').where('v.surface_id', surfaceId).distinct('g.name').orderBy('g.name').pluck('g.name');
+    if (kept.length > 0) {
+      throw new HttpError(
+        409,
+        'surface-in-use',
+        `Versions of ${kept.slice(0, 3).map((name) => `“${name}”`).join(', ')}${kept.length > 3 ? ` and ${kept.length - 3} more grooms` : ''} were made on this surface and open on it; delete those grooms first.`,
+      );
+    }
     await trx('growth_surfaces').where({ id: surfaceId }).delete();
     return row;
   });

@@ -1,7 +1,7 @@
 // The shapes the studio's route handlers answer with (docs/studio-api.md). Types only, so the
 // studio's client code can import them without pulling in anything of the server.
 import type { ComponentFacts, Problem } from '../field';
-import type { GroomSpec } from '../groom';
+import type { GroomSpec, TransferReport } from '../groom';
 import { EXPORT_FORMATS, type ExportFormat } from '../groom/export/formats';
 
 export const SURFACE_UNITS = ['mm', 'cm', 'm', 'in'] as const;
@@ -75,6 +75,8 @@ export type Version = {
   id: string;
   number: number;
   name: string;
+  /** The surface the version was made on: restoring it opens the groom on that surface again. */
+  surfaceId: string;
   createdAt: IsoDate;
   /** The version's own thumbnail once the job has rendered it, else null. */
   thumbnailUrl: string | null;
@@ -133,5 +135,23 @@ export type GroomListResponse = { grooms: GroomSummary[] };
 export type SpecSavedResponse = { revision: number; savedAt: IsoDate };
 export type VersionResponse = { version: Version };
 export type VersionListResponse = { versions: Version[] };
-export type RestoredResponse = { spec: GroomSpec; revision: number; savedAt: IsoDate };
+export type RestoredResponse = { spec: GroomSpec; surfaceId: string; revision: number; savedAt: IsoDate };
 export type ExportResponse = { export: ExportJob };
+
+/** Moving a groom onto another surface (or starting one there from it): where, and how to carry its places. */
+export type SurfaceMoveInput = {
+  surfaceId: string;
+  /** Three or more pairs of the same place on the old and the new surface, each in its own file's coordinates. */
+  landmarks?: { from: [number, number, number]; to: [number, number, number] }[];
+  /** Old region (group) name → the new surface's name for it. */
+  regionMap?: Record<string, string>;
+  method?: 'auto' | 'topology' | 'uv' | 'alignment';
+};
+export type SurfaceMovePreview = {
+  report: TransferReport;
+  /** The groom's revision the report was made from: accepting sends it back. */
+  revision: number;
+  from: { id: string; name: string };
+  to: { id: string; name: string };
+};
+export type SurfaceMovePreviewResponse = { preview: SurfaceMovePreview };

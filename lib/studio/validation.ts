@@ -24,7 +24,22 @@ export const createGroomSchema = z.object({
 
 export const renameGroomSchema = z.object({ name: name('groom') });
 
-export const duplicateGroomSchema = z.object({ name: name('copy').optional() });
+const point = z.tuple([z.number(), z.number(), z.number()]);
+
+/** Where to move a groom (or start one from it) and how to carry its places. */
+export const surfaceMoveSchema = z.object({
+  surfaceId: z.uuid('Choose one of your growth surfaces.'),
+  landmarks: z.array(z.object({ from: point, to: point }), 'Give landmarks as pairs of points.').max(64, 'Use at most 64 landmark pairs.').optional(),
+  regionMap: z.record(z.string().min(1).max(200), z.string().min(1).max(200)).optional(),
+  method: z.enum(['auto', 'topology', 'uv', 'alignment'], 'Choose auto, topology, uv or alignment.').optional(),
+});
+
+export const acceptSurfaceMoveSchema = surfaceMoveSchema.extend({
+  baseRevision: z.int('Send the revision the transfer report was made from.').positive('Send the revision the transfer report was made from.'),
+});
+
+/** A copy on the same surface, or — with `surfaceId` — a new groom on another surface with the places carried over. */
+export const duplicateGroomSchema = surfaceMoveSchema.partial({ surfaceId: true }).extend({ name: name('copy').optional() });
 
 export const saveSpecSchema = z.object({
   // Checked in full by lib/groom's spec schema, which names each problem by its path in the spec.

@@ -6,9 +6,9 @@ import type { GroomDetail } from '@/lib/studio/client/api';
 import type { SurfaceSource } from '@/lib/studio/client/protocol';
 import { Workspace } from './Workspace';
 
-export function GroomEditor({ groom }: { groom: GroomDetail }) {
+export function GroomEditor({ groom, maxUploadBytes }: { groom: GroomDetail; maxUploadBytes?: number }) {
   const source = useMemo<SurfaceSource>(() => ({ kind: 'url', url: groom.surface.fileUrl, fileName: groom.surface.fileName }), [groom]);
-  const persistence = useMemo(() => ({ groomId: groom.id, revision: groom.revision, versions: groom.versions }), [groom]);
+  const persistence = useMemo(() => ({ groomId: groom.id, revision: groom.revision, versions: groom.versions, surfaceId: groom.surface.id, maxUploadBytes }), [groom, maxUploadBytes]);
   return (
     <Workspace
       key={groom.id}

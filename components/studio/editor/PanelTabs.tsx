@@ -3,7 +3,7 @@
 // exports. The active panel is given as children.
 import type { ReactNode } from 'react';
 
-export type PanelTab = 'features' | 'guides' | 'field' | 'versions' | 'export';
+export type PanelTab = 'features' | 'guides' | 'field' | 'versions' | 'export' | 'surface';
 
 const TABS: readonly (readonly [PanelTab, string])[] = [
   ['features', 'Features'],
@@ -13,6 +13,7 @@ const TABS: readonly (readonly [PanelTab, string])[] = [
 const SAVED_TABS: readonly (readonly [PanelTab, string])[] = [
   ['versions', 'Versions'],
   ['export', 'Export'],
+  ['surface', 'Surface'],
 ];
 
 export function PanelTabs({ tab, onTab, saved, children }: { tab: PanelTab; onTab: (tab: PanelTab) => void; saved: boolean; children: ReactNode }) {

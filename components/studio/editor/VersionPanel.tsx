@@ -12,6 +12,8 @@ const dateFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeS
 
 export interface VersionsApi {
   groomId: string;
+  /** The surface the editor has open: a version made on another one opens there (the page reloads). */
+  surfaceId?: string;
   flush(): Promise<boolean>;
   adopt(spec: GroomSpec, revision: number, label: string): void;
 }
@@ -70,6 +72,7 @@ export function VersionPanel({ api, initial }: { api: VersionsApi; initial: read
     setBusy(false);
     setRestoring(null);
     if (!outcome.ok) return setFailure(outcome.error.message);
+    if (api.surfaceId && outcome.data.surfaceId !== api.surfaceId) return window.location.reload();
     api.adopt(outcome.data.spec, outcome.data.revision, `Bring back version ${version.number}`);
     setDone(`Version ${version.number}, “${version.name}”, is the groom again (revision ${outcome.data.revision}). Undo takes you back.`);
   }

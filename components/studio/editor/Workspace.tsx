@@ -26,6 +26,7 @@ import { GuidePanel } from './GuidePanel';
 import { MarkerCard, ScreenAnchor } from './MarkerCard';
 import { PanelTabs, type PanelTab } from './PanelTabs';
 import { StageMessages } from './StageMessages';
+import { SurfaceMovePanel } from './SurfaceMovePanel';
 import { ToolRail } from './ToolRail';
 import { VersionPanel } from './VersionPanel';
 import { useAutosave, type Persistence } from './hooks/useAutosave';
@@ -95,6 +96,7 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
     () =>
       persistence && {
         groomId: persistence.groomId,
+        surfaceId: persistence.surfaceId,
         flush: flushSaves,
         adopt: (restored: GroomSpec, revision: number, label: string) => {
           adoptSaved(restored, revision);
@@ -179,6 +181,9 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
             )}
             {tab === 'versions' && versionsApi && persistence && <VersionPanel api={versionsApi} initial={persistence.versions} />}
             {tab === 'export' && versionsApi && <ExportPanel groomId={versionsApi.groomId} flush={versionsApi.flush} />}
+            {tab === 'surface' && versionsApi && persistence?.surfaceId && (
+              <SurfaceMovePanel groomId={versionsApi.groomId} surfaceId={persistence.surfaceId} maxUploadBytes={persistence.maxUploadBytes ?? 0} flush={versionsApi.flush} />
+            )}
           </PanelTabs>
         </aside>
       </div>

@@ -24,11 +24,35 @@ const fileVertex = z.int().min(0).max(2 ** 32 - 2);
 const degrees = (low: number, high: number) => z.number().min(low).max(high);
 const size = z.number().positive().max(1e6);
 
+const weight = z.number().min(-1e-6).max(1 + 1e-6);
+
+/**
+ * Where a feature sits in the artist's own numbering, so it survives a new mesh: a polygon of the
+ * surface file, three of its corners (0-based, in the polygon's own corner order) and barycentric
+ * weights over them; the UV there when the surface has UVs. Written by the transfer
+ * (lib/groom/transfer); a spec without it is placed by its world points as before.
+ */
+const surfacePositionSchema = z.strictObject({
+  polygon: z.int().min(0).max(2 ** 32 - 2),
+  corners: z.tuple([z.int().min(0).max(65_535), z.int().min(0).max(65_535), z.int().min(0).max(65_535)]),
+  barycentric: z.tuple([weight, weight, weight]).refine((w) => Math.abs(w[0] + w[1] + w[2] - 1) < 1e-5, 'the barycentric weights must sum to 1'),
+  uv: z.tuple([z.number(), z.number()]).optional(),
+});
+
 /** A place on the surface: a point snapped to the nearest vertex, or a vertex as numbered in the surface file. */
 const placement = {
   point: vec3.optional(),
   vertex: fileVertex.optional(),
+  surface: surfacePositionSchema.optional(),
 };
+
+/** One surface position per point (or vertex) of a curve or stroke, when given. */
+function surfaceMatches(value: { points?: unknown[]; vertices?: unknown[]; surface?: unknown[] }, ctx: z.RefinementCtx): void {
+  const count = (value.points ?? value.vertices ?? []).length;
+  if (value.surface !== undefined && value.surface.length !== count) {
+    ctx.addIssue({ code: 'custom', path: ['surface'], message: `must give one surface position per point (${count}), not ${value.surface.length}` });
+  }
+}
 
 function exactlyOnePlace(value: { point?: unknown; vertex?: unknown }, ctx: z.RefinementCtx): void {
   if ((value.point === undefined) === (value.vertex === undefined)) {
@@ -50,14 +74,18 @@ const curveSchema = z
     points: z.array(vec3).min(2).max(10_000).optional(),
     vertices: z.array(fileVertex).min(2).max(100_000).optional(),
     closed: z.boolean().default(false),
+    surface: z.array(surfacePositionSchema).max(100_000).optional(),
   })
   .superRefine((value, ctx) => {
     if ((value.points === undefined) === (value.vertices === undefined)) {
       ctx.addIssue({ code: 'custom', message: 'give either "points" or "vertices" (one of them, not both)' });
     }
-  });
+  })
+  .superRefine(surfaceMatches);
 
-const strokeSchema = z.strictObject({ points: z.array(vec3).min(2).max(10_000) });
+const strokeSchema = z
+  .strictObject({ points: z.array(vec3).min(2).max(10_000), surface: z.array(surfacePositionSchema).max(10_000).optional() })
+  .superRefine(surfaceMatches);
 
 const pinSchema = z
   .strictObject({
@@ -185,7 +213,10 @@ export type GuideSettings = GroomSpec['guides'];
 export interface PlaceSpec {
   readonly point?: readonly [number, number, number];
   readonly vertex?: number;
+  readonly surface?: SurfacePosition;
 }
+/** A feature's place in the surface file's own numbering (see `surfacePositionSchema`). */
+export type SurfacePosition = z.output<typeof surfacePositionSchema>;
 
 /**
  * Version 1, the first published layout: no up axis (Y was assumed), curl as two flat numbers

@@ -39,7 +39,7 @@ export const studioApi = {
 
   listVersions: (id: string) => request<{ versions: GroomVersion[] }>('GET', studioApi.versionsUrl(id)),
   createVersion: (id: string, name: string) => request<{ version: GroomVersion }>('POST', studioApi.versionsUrl(id), { name }),
-  restoreVersion: (id: string, versionId: string) => request<{ spec: GroomSpec; revision: number }>('POST', `${studioApi.versionsUrl(id)}/${encodeURIComponent(versionId)}/restore`),
+  restoreVersion: (id: string, versionId: string) => request<{ spec: GroomSpec; surfaceId: string; revision: number }>('POST', `${studioApi.versionsUrl(id)}/${encodeURIComponent(versionId)}/restore`),
 
   startExport: (id: string, format: ExportFormat) => request<{ export: ExportJob }>('POST', `${studioApi.groomUrl(id)}/exports`, { format }),
   getExport: (exportId: string) => request<{ export: ExportJob }>('GET', `/api/studio/exports/${encodeURIComponent(exportId)}`),

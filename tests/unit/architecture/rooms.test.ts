@@ -44,6 +44,7 @@ const INNER_ROOMS: Record<string, string[]> = {
   'lib/groom/grow': ['lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
   'lib/groom/export': ['lib/groom/grow', 'lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
   'lib/groom/render': ['lib/groom/grow', 'lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
+  'lib/groom/transfer': ['lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
 };
 
 /** The sub-room of a file of lib/field or lib/groom: its folder there, or the file itself at the top. */

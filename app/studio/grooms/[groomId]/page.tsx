@@ -6,6 +6,7 @@ import { requireArea } from '@/lib/accounts/session';
 import { HttpError } from '@/lib/http/errors';
 import { pathId } from '@/lib/http/server';
 import { getGroom } from '@/lib/studio/grooms';
+import { env } from '@/lib/platform/env';
 import { notFound as noSuch } from '@/lib/studio/errors';
 
 export const metadata: Metadata = { title: 'Groom editor' };
@@ -14,7 +15,7 @@ export default async function GroomEditorPage({ params }: { params: Promise<{ gr
   const session = await requireArea('studio');
   try {
     const groom = await getGroom(actorOf(session!), await pathId(params, 'groomId', noSuch('groom')));
-    return <GroomEditor groom={groom} />;
+    return <GroomEditor groom={groom} maxUploadBytes={env().SURFACE_MAX_BYTES} />;
   } catch (error) {
     // Another groomer's groom, or an address that cannot be a groom, is as unknown as a missing one.
     if (error instanceof HttpError && error.status === 404) notFound();

@@ -10,6 +10,9 @@ export interface Persistence {
   readonly groomId: string;
   readonly revision: number;
   readonly versions: readonly GroomVersion[];
+  /** The surface the groom grows on, and the largest surface file an upload may send (for moving it onto another). */
+  readonly surfaceId?: string;
+  readonly maxUploadBytes?: number;
 }
 
 export interface Autosave {

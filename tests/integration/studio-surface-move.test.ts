@@ -1,0 +1,106 @@
+// Moving a groom onto another surface through the studio's route handlers: the transfer report
+// first (nothing written), then the move as one transaction that keeps the groom as it was as a
+// version on its old surface; a refused transfer and a stale revision write nothing; a version
+// made before the move opens on its own surface; a new groom can start from one on another surface.
+import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeDb, db } from '@/lib/platform/db';
+import * as groomsRoute from '@/app/api/studio/grooms/route';
+import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
+import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
+import * as previewRoute from '@/app/api/studio/grooms/[groomId]/surface/preview/route';
+import * as moveRoute from '@/app/api/studio/grooms/[groomId]/surface/route';
+import * as duplicateRoute from '@/app/api/studio/grooms/[groomId]/duplicate/route';
+import * as restoreRoute from '@/app/api/studio/grooms/[groomId]/versions/[versionId]/restore/route';
+import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
+import type { GroomDetail, ReadySurface, SurfaceMovePreview } from '@/lib/studio/types';
+import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
+
+const encode = (text: string) => new TextEncoder().encode(text);
+const first = transferSphere(12, 16);
+const sculpted = transferSphere(12, 16, { sculpt: ([x, y, z]) => { const k = 1 + 0.06 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
+const turned = transferSphere(12, 16, { split: 'bc', asTriangles: true, shift: 5, scale: 2.54, rotation: multiply3(rotationAbout('z', 35), rotationAbout('x', 50)), translation: [3, -1, 2] });
+
+const SPEC = { specVersion: 2, units: 'cm', upAxis: 'z', field: { singularities: [{ point: at(40, 30), index: 1 }, { point: at(130, 200), index: 1 }] }, guides: { count: 40, length: 0.3 } };
+
+let pip: TestAccount;
+let rival: TestAccount;
+let surfaces: { first: ReadySurface; sculpted: ReadySurface; turned: ReadySurface };
+let groom: GroomDetail;
+
+const path = (id: string, rest = '') => `/api/studio/grooms/${id}${rest}`;
+const call = (account: TestAccount, module: object, method: 'GET' | 'POST' | 'PUT', id: string, rest: string, body?: unknown, extra: Record<string, string> = {}) =>
+  callRoute(module, method, path(id, rest), { cookie: account.cookie, body, params: { groomId: id, ...extra } });
+const detail = async (id: string): Promise<GroomDetail> => (await expectJson(await call(pip, groomRoute, 'GET', id, ''), 200)).data.groom;
+
+beforeAll(async () => {
+  ({ owner: pip, rival } = await studioCast('move'));
+  surfaces = {
+    first: await createSurface(pip, 'pip-1.obj', encode(first.obj), 'Pip, first sculpt'),
+    sculpted: await createSurface(pip, 'pip-2.obj', encode(sculpted.obj), 'Pip, second sculpt'),
+    turned: await createSurface(pip, 'pip-export.obj', encode(turned.obj), 'Pip, exported turned'),
+  };
+  const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: pip.cookie, body: { surfaceId: surfaces.first.id, name: 'Pip coat' } });
+  groom = (await expectJson(created, 201)).data.groom;
+  await expectJson(await call(pip, specRoute, 'PUT', groom.id, '/spec', { spec: SPEC, baseRevision: groom.revision }), 200);
+  groom = await detail(groom.id);
+});
+
+afterAll(closeDb);
+
+describe('moving a groom onto a new sculpt of its character', () => {
+  it('shows the transfer report first and writes nothing', async () => {
+    const response = await call(pip, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id });
+    const preview: SurfaceMovePreview = (await expectJson(response, 200)).data.preview;
+    expect(preview.revision).toBe(groom.revision);
+    expect(preview.to).toEqual({ id: surfaces.sculpted.id, name: 'Pip, second sculpt' });
+    expect(preview.report.features.map((f) => [f.path, f.to !== null])).toEqual([['field.singularities[0]', true], ['field.singularities[1]', true]]);
+    expect(preview.report.field).toEqual({ solved: true });
+    expect((await detail(groom.id)).surface.id).toBe(surfaces.first.id);
+    const rivalAsks = await call(rival, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id });
+    expect(rivalAsks.status).toBe(404);
+  });
+
+  it('refuses collinear landmarks in words and a stale revision, writing nothing either time', async () => {
+    const line = [0, 1, 2].map((k) => ({ from: [k, 0, 0], to: [0, 0, k] }));
+    const refused = await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.turned.id, landmarks: line, baseRevision: groom.revision });
+    const body = await expectJson(refused, 422);
+    expect(body.error).toMatchObject({ code: 'transfer-refused', message: expect.stringMatching(/cannot be moved onto Pip, exported turned: landmarks: .* lie on one line/) });
+    const stale = await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.sculpted.id, baseRevision: groom.revision - 1 });
+    expect((await expectJson(stale, 409)).error.code).toBe('stale-revision');
+    const after = await detail(groom.id);
+    expect(after).toMatchObject({ revision: groom.revision, surface: { id: surfaces.first.id } });
+    expect(after.versions).toEqual([]);
+  });
+
+  it('moves it, keeping the groom as it was as a version on the old surface, which opens there again', async () => {
+    const moved: GroomDetail = (await expectJson(await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.sculpted.id, baseRevision: groom.revision }), 200)).data.groom;
+    expect(moved.surface.id).toBe(surfaces.sculpted.id);
+    expect(moved.revision).toBe(groom.revision + 1);
+    for (const s of moved.spec.field.singularities) expect(s.surface).toBeDefined();
+    expect(moved.versions).toEqual([expect.objectContaining({ number: 1, name: 'Before moving to Pip, second sculpt', surfaceId: surfaces.first.id })]);
+    const { count } = await db()('groom_versions').where({ groom_id: groom.id }).count<{ count: string }[]>('* as count').first() as { count: string };
+    expect(Number(count)).toBe(1);
+
+    // The first sculpt now holds a version: it cannot be deleted from under it.
+    const deleting = await callRoute(surfaceRoute, 'DELETE', `/api/studio/surfaces/${surfaces.first.id}`, { cookie: pip.cookie, params: { surfaceId: surfaces.first.id } });
+    expect((await expectJson(deleting, 409)).error.message).toMatch(/Versions of “Pip coat” were made on this surface/);
+
+    const version = moved.versions[0];
+    const restored = await call(pip, restoreRoute, 'POST', groom.id, `/versions/${version.id}/restore`, undefined, { versionId: version.id });
+    expect((await expectJson(restored, 200)).data).toMatchObject({ surfaceId: surfaces.first.id });
+    const back = await detail(groom.id);
+    expect(back.surface.id).toBe(surfaces.first.id);
+    expect(back.spec.field.singularities.map((s) => s.point)).toEqual(groom.spec.field.singularities.map((s) => s.point));
+  });
+
+  it('starts a new groom from this one on another surface, by landmarks', async () => {
+    const landmarks = [at(10, 0), at(90, 0), at(90, 90), at(170, 200)].map((p) => ({ from: p, to: turned.place(p) }));
+    const response = await call(pip, duplicateRoute, 'POST', groom.id, '/duplicate', { surfaceId: surfaces.turned.id, landmarks });
+    const started: GroomDetail = (await expectJson(response, 201)).data.groom;
+    expect(started).toMatchObject({ name: 'Pip coat on Pip, exported turned', surface: { id: surfaces.turned.id } });
+    const whorl = started.spec.field.singularities[0].point!;
+    const expected = turned.place(at(40, 30));
+    expect(Math.hypot(whorl[0] - expected[0], whorl[1] - expected[1], whorl[2] - expected[2])).toBeLessThan(1.5);
+  });
+});
