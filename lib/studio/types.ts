@@ -54,6 +54,12 @@ export type ReadySurface = SurfaceBase & {
   eulerCharacteristic: number;
   areaCm2: number;
   groups: string[];
+  /**
+   * Whether every corner of the file has a UV, and the fraction of the UV map used twice (0 when
+   * no UVs overlap; an overlap is also among the warnings); null for surfaces checked before
+   * UVs were read.
+   */
+  uvs: { present: boolean; overlapFraction: number } | null;
   /** Problems of severity `warning` that did not stop the surface from being accepted. */
   warnings: Problem[];
 };
