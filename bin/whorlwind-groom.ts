@@ -3,10 +3,12 @@
  * whorlwind-groom: guides from a growth surface and a groom spec, for pipelines.
  *
  *   whorlwind-groom --surface head.obj --spec coat.json --out guides.usda [--out guides.glb]
- *                   [--field flow.ply] [--thumbnail front.webp] [--stats]
+ *                   [--with-surface] [--field flow.ply] [--thumbnail front.webp] [--stats]
  *
  * Each --out's format comes from its extension: .usda (BasisCurves; --basis linear|bspline|catmullRom),
- * .gltf, .glb, .obj, .json (the resolved spec). --thumbnail writes .png or .webp (--view, --size,
+ * .gltf, .glb, .obj, .json (the resolved spec). Guides always carry where they grow (ids, source
+ * polygons, weights, UVs); --with-surface also writes the growth surface into the .usda, .gltf,
+ * .glb and .obj files. --thumbnail writes .png or .webp (--view, --size,
  * --colour). Exits 0 on success; on bad input prints one line "whorlwind-groom: <reason>" to
  * stderr and exits 1 (2 for a bad command line). Uses the same library code as the app.
  */
@@ -34,6 +36,9 @@ import {
 
 class UsageError extends Error {}
 
+/** The release written into every export's provenance. */
+const WHORLWIND_VERSION: string = JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')).version;
+
 /** Extensions --out takes: every export format's but the field's, which has its own --field. */
 const OUT_FORMATS = EXPORT_EXTENSIONS.filter((extension) => EXPORT_FORMAT_FACTS[formatOfExtension(extension)!].source !== 'field');
 
@@ -50,6 +55,7 @@ function parseCommandLine(argv: string[]) {
       size: { type: 'string', default: '1024' },
       colour: { type: 'string', default: 'length' },
       basis: { type: 'string', default: 'linear' },
+      'with-surface': { type: 'boolean', default: false },
       stats: { type: 'boolean', default: false },
       help: { type: 'boolean', default: false },
     },
@@ -81,6 +87,7 @@ function parseCommandLine(argv: string[]) {
     size,
     colour: values.colour as GuideColouring,
     basis: values.basis as UsdCurveBasis,
+    withSurface: values['with-surface'] ?? false,
     stats: values.stats ?? false,
   };
 }
@@ -116,7 +123,8 @@ async function main(argv: string[]): Promise<void> {
   const made = { spec, surface, solved, guides };
   for (const out of options.out) {
     const ext = extname(out).toLowerCase();
-    time(`write ${ext}`, () => writeFileSync(out, writeExport(formatOfExtension(ext)!, made, { basis: options.basis })));
+    const exportOptions = { basis: options.basis, withSurface: options.withSurface, provenance: { whorlwindVersion: WHORLWIND_VERSION } };
+    time(`write ${ext}`, () => writeFileSync(out, writeExport(formatOfExtension(ext)!, made, exportOptions)));
   }
   if (options.field) time('write field', () => writeFileSync(options.field!, writeExport('ply', made)));
   for (const path of options.thumbnails) {
