@@ -126,6 +126,8 @@ export type ExportJob = {
   downloadUrl: string | null;
   /** The spec revision the file is made from. */
   specRevision: number;
+  /** Whether the growth surface is written beside the guides (USD, glTF and OBJ). */
+  withSurface: boolean;
   createdAt: IsoDate;
 };
 
