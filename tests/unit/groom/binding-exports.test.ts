@@ -2,8 +2,9 @@ import { validateBytes } from 'gltf-validator';
 import { Mesh, LineSegments, type BufferGeometry } from 'three';
 import { OBJLoader } from 'three/examples/jsm/loaders/OBJLoader.js';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
+import { USDLoader } from 'three/examples/jsm/loaders/USDLoader.js';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { readSurface } from '@/lib/field';
+import { readSurface, surfaceArea } from '@/lib/field';
 import { writeExport, type GroomMade } from '@/lib/groom/export/write';
 import { growGuides } from '@/lib/groom/grow/guides';
 import { solveGroomField } from '@/lib/groom/place/request';
@@ -114,6 +115,33 @@ describe('USD binding data', () => {
     for (const name of ['int[] primvars:whorlwind:guideId', 'int[] primvars:whorlwind:rootFace', 'int[] primvars:whorlwind:rootTriangle', 'int3[] primvars:whorlwind:rootCorners', 'float3[] primvars:whorlwind:rootBarycentric', 'texCoord2f[] primvars:whorlwind:rootUv', 'float[] primvars:whorlwind:length']) {
       expect(meta[name]?.interpolation.replace(/"/g, ''), name).toBe('uniform');
     }
+  });
+
+  it('writes a Mesh prim that three.js’s USDLoader (r187) builds into the same surface: triangles, area and corner UVs', () => {
+    const surfaces: Mesh[] = [];
+    new USDLoader().parse(usda).traverse((object) => {
+      if (object instanceof Mesh && object.name === 'Surface') surfaces.push(object);
+    });
+    expect(surfaces).toHaveLength(1);
+    const geometry = surfaces[0].geometry as BufferGeometry;
+    const position = geometry.getAttribute('position');
+    const uv = geometry.getAttribute('uv');
+    const mesh = made.surface!.mesh;
+    // The loader cuts each quad its own way, so compare what does not depend on the cut.
+    const triangles = (geometry.index ? geometry.index.count : position.count) / 3;
+    expect(triangles).toBe(mesh.triangles.length / 3);
+    let area = 0;
+    const corner = (i: number) => (geometry.index ? geometry.index.getX(i) : i);
+    for (let t = 0; t < triangles; t++) {
+      const [a, b, c] = [0, 1, 2].map((k) => [position.getX(corner(3 * t + k)), position.getY(corner(3 * t + k)), position.getZ(corner(3 * t + k))]);
+      const u = [0, 1, 2].map((k) => b[k] - a[k]), v = [0, 1, 2].map((k) => c[k] - a[k]);
+      area += 0.5 * Math.hypot(u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]);
+    }
+    expect(Math.abs(area / surfaceArea(mesh) - 1)).toBeLessThan(1e-5);
+    const key = (u: number, v: number) => `${u.toFixed(5)} ${v.toFixed(5)}`;
+    const loaded = new Set(Array.from({ length: position.count }, (_x, i) => key(uv.getX(i), uv.getY(i))));
+    const ours = new Set(Array.from({ length: mesh.cornerUvs!.length / 2 }, (_x, i) => key(mesh.cornerUvs![2 * i], mesh.cornerUvs![2 * i + 1])));
+    expect(loaded).toEqual(ours);
   });
 
   it('records its provenance in customLayerData, and leaves the surface out unless asked', () => {
