@@ -138,6 +138,29 @@ describe('surfaces keep their identity', () => {
     }
   });
 
+  it('reads PLY texture_u / texture_v and u / v (names of the PLY property list in common use) and OBJ negative vt numbers', () => {
+    for (const [u, v] of [['texture_u', 'texture_v'], ['u', 'v']]) {
+      const ply = [
+        'ply', 'format ascii 1.0', 'element vertex 4', 'property float x', 'property float y', 'property float z',
+        `property float ${u}`, `property float ${v}`, 'element face 1', 'property list uchar int vertex_indices', 'end_header',
+        '0 0 0 0.1 0.2', '1 0 0 0.3 0.4', '1 1 0 0.5 0.6', '0 1 0 0.7 0.8', '4 0 1 2 3', '',
+      ].join('\n');
+      const mesh = readSurface(text(ply), 'quad.ply').mesh;
+      expect(Array.from(mesh.polygons!.uvs!, (x) => Number(x.toFixed(6)))).toEqual([0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8]);
+      expect(mesh.facePolygon).toEqual(Uint32Array.of(0, 0));
+    }
+    // −1 is the latest vt: the quad's corners take vt 1, 2, 3, 4 counted back from the end.
+    const obj = 'v 0 0 0\nv 1 0 0\nv 1 1 0\nv 0 1 0\nvt 0 0\nvt 1 0\nvt 1 1\nvt 0 1\nf -4/-4 -3/-3 -2/-2 -1/-1\n';
+    const mesh = readSurface(text(obj), 'quad.obj').mesh;
+    expect(Array.from(mesh.polygons!.uvs!)).toEqual([0, 0, 1, 0, 1, 1, 0, 1]);
+    // Triangle corners are polygon corners, each with its corner's UV.
+    for (let h = 0; h < 6; h++) {
+      const c = mesh.faceCorners![h];
+      expect([mesh.cornerUvs![2 * h], mesh.cornerUvs![2 * h + 1]]).toEqual([[0, 0], [1, 0], [1, 1], [0, 1]][c]);
+    }
+    expect(() => readSurface(text('v 0 0 0\nv 1 0 0\nv 0 1 0\nvt 0 0\nf 1/1 2/2 3/1\n'), 'bad.obj')).toThrow(/texture coordinate 2, but only 1 come before it/);
+  });
+
   it('reads glTF TEXCOORD_0 written by glTF-Transform, with v turned to 1 − v (glTF 2.0 spec §3.7.2.1: UV origin top left)', async () => {
     const doc = new Document();
     const buffer = doc.createBuffer();
