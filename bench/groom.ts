@@ -1,7 +1,7 @@
 /**
  * Benchmark of lib/groom on a 100,000-face growth surface (a torus, 400 × 125 quads split in two):
- * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, each export, and a
- * 1024² thumbnail (render, then encoding).
+ * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, each export (the
+ * guide formats also with the surface beside them), and a 1024² thumbnail (render, then encoding).
  *
  *   npx tsx bench/groom.ts            prints a Markdown table
  *
@@ -93,6 +93,9 @@ const made = { spec: parseGroomSpec(specFor(50_000)), surface, solved: solved.re
 const SCALE: Record<ExportSource, string> = { guides: ' (50,000 guides)', field: ` (${faces} faces)`, spec: '' };
 for (const format of EXPORT_FORMATS) {
   row(`export ${format}${SCALE[EXPORT_FORMAT_FACTS[format].source]}`, best(() => writeExport(format, made)).ms);
+}
+for (const format of ['usda', 'glb', 'obj'] as const) {
+  row(`export ${format} with the surface (50,000 guides, ${faces} faces)`, best(() => writeExport(format, made, { withSurface: true })).ms);
 }
 const thumbnailGuides = growGuides(surface, solved.result, parseGroomSpec(specFor(5_000))).guides;
 const image = best(() => renderThumbnail(mesh, thumbnailGuides, { size: 1024, view: 'top', upAxis: 'z', colourBy: 'length' }));

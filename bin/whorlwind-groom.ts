@@ -3,7 +3,7 @@
  * whorlwind-groom: guides from a growth surface and a groom spec, for pipelines.
  *
  *   whorlwind-groom --surface head.obj --spec coat.json --out guides.usda [--out guides.glb]
- *                   [--field flow.ply] [--thumbnail front.webp] [--stats]
+ *                   [--with-surface] [--field flow.ply] [--thumbnail front.webp] [--stats]
  *   whorlwind-groom --surface head.obj --suggest [--order 4] [--spec base.json] --out suggestion.json
  *                   [--suggest-down x,y,z] [--suggest-follow-curvature] [--suggest-weight 1]
  *
@@ -21,7 +21,9 @@
  * and the transfer report is printed (--report writes it as JSON; --out new.json the carried
  * spec). Landmarks: a JSON list of {"from": [x, y, z], "to": [x, y, z]}, three or more.
  * Each --out's format comes from its extension: .usda (BasisCurves; --basis linear|bspline|catmullRom),
- * .gltf, .glb, .obj, .json (the resolved spec). --thumbnail writes .png or .webp (--view, --size,
+ * .gltf, .glb, .obj, .json (the resolved spec). Guides always carry where they grow (ids, source
+ * polygons, weights, UVs); --with-surface also writes the growth surface into the .usda, .gltf,
+ * .glb and .obj files. --thumbnail writes .png or .webp (--view, --size,
  * --colour). Exits 0 on success; on bad input prints one line "whorlwind-groom: <reason>" to
  * stderr and exits 1 (2 for a bad command line). Uses the same library code as the app.
  */
@@ -68,6 +70,9 @@ function describeSuggestion(layout: SuggestedLayout): string {
   return `${layout.singularities.length} singularities${parts.length ? ` (${parts.join(', ')})` : ''}, order ${order}, ${layout.iterations} inverse iterations`;
 }
 
+/** The release written into every export's provenance. */
+const WHORLWIND_VERSION: string = JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')).version;
+
 /** Extensions --out takes: every export format's but the field's, which has its own --field. */
 const OUT_FORMATS = EXPORT_EXTENSIONS.filter((extension) => EXPORT_FORMAT_FACTS[formatOfExtension(extension)!].source !== 'field');
 
@@ -89,6 +94,7 @@ function parseCommandLine(argv: string[]) {
       'suggest-down': { type: 'string' },
       'suggest-follow-curvature': { type: 'boolean', default: false },
       'suggest-weight': { type: 'string' },
+      'with-surface': { type: 'boolean', default: false },
       stats: { type: 'boolean', default: false },
       from: { type: 'string' },
       report: { type: 'string' },
@@ -155,6 +161,7 @@ function parseCommandLine(argv: string[]) {
     size,
     colour: values.colour as GuideColouring,
     basis: values.basis as UsdCurveBasis,
+    withSurface: values['with-surface'] ?? false,
     stats: values.stats ?? false,
     suggest,
   };
@@ -222,7 +229,8 @@ async function main(argv: string[]): Promise<void> {
   const made = { spec, surface, solved, guides: grown?.guides };
   for (const out of options.out) {
     const ext = extname(out).toLowerCase();
-    time(`write ${ext}`, () => writeFileSync(out, writeExport(formatOfExtension(ext)!, made, { basis: options.basis })));
+    const exportOptions = { basis: options.basis, withSurface: options.withSurface, provenance: { whorlwindVersion: WHORLWIND_VERSION } };
+    time(`write ${ext}`, () => writeFileSync(out, writeExport(formatOfExtension(ext)!, made, exportOptions)));
   }
   if (options.field) time('write field', () => writeFileSync(options.field!, writeExport('ply', made)));
   for (const path of options.thumbnails) {

@@ -8,12 +8,13 @@ export { now } from './clock';
 
 // The surface: mesh, errors, halfedges, geometry, frames, reading and checking files.
 export { FieldError } from './mesh/errors';
-export type { TriangleMesh, FaceGroups, Vec3 } from './mesh/mesh';
+export type { TriangleMesh, FaceGroups, SourcePolygons, Vec3 } from './mesh/mesh';
 export { buildTopology, nextHalfedge, prevHalfedge, nextAroundVertex, type Topology } from './mesh/topology';
 export { cornerAngles, angleDefects, faceAreas, faceNormals, vertexNormals, surfaceArea, boundingBox, eulerCharacteristic, componentFacts, genus, type ComponentFacts, type BoundingBox } from './mesh/geometry';
 export { buildFaceFrames, type FaceFrames } from './mesh/transport';
-export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult } from './mesh/read';
-export { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport } from './mesh/check';
+export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult, type UvPresence } from './mesh/read';
+export { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport, type SurfaceFacts } from './mesh/check';
+export { uvFacts, UV_RASTER_SIZE, type UvFacts } from './mesh/uv-check';
 
 // The field: the connection, the directions it carries, and the proof by measured indices.
 export {

@@ -40,14 +40,16 @@ export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './plac
 export { blendPins, type PinnedFactors } from './place/pins';
 export { growthMask } from './place/regions';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
-export { sampleRoots, type Roots, type RootRequest } from './grow/roots';
+export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';
+export { bindRoots, rootsOnSculpt, type RootBinding } from './grow/binding';
 export { createTracer, STOP, type StopReason, type Tracer } from './grow/trace';
 export { shapeGuide, type ShapeParameters } from './grow/shape';
 export { EXPORT_FORMATS, EXPORT_FORMAT_FACTS, EXPORT_EXTENSIONS, formatOfExtension, type ExportFormat, type ExportFormatFacts, type ExportSource } from './export/formats';
 export { writeExport, type GroomMade, type ExportOptions } from './export/write';
 export { guidesToUsda, type UsdCurveBasis } from './export/usda';
 export { guidesToGltf } from './export/gltf';
-export { guidesToObj } from './export/obj';
+export { guidesToObj, OBJ_ROOT_RECORD } from './export/obj';
+export { writtenSurface, type Provenance, type BindingExportOptions, type WrittenSurface } from './export/binding-data';
 export { fieldToPly } from './export/field-ply';
 export { renderThumbnail, THUMBNAIL_VIEWS, type ThumbnailView, type GuideColouring, type RgbaImage, type RenderOptions } from './render/render';
 export { identityOfMesh, withoutUv, sameTopology, positionOnFace, pointOfPosition, type SurfaceIdentity } from './transfer/identity';

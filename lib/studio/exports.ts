@@ -2,6 +2,7 @@
 // the export was asked for, stored in object storage and downloaded through a short-lived
 // presigned URL. The job reports its stage and progress on the export's row.
 import { FieldError } from '../field';
+import packageJson from '../../package.json';
 import { EXPORT_FORMAT_FACTS, GroomError, parseGroomSpec, writeExport } from '../groom';
 import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
@@ -26,6 +27,7 @@ type ExportRow = {
   error: string | null;
   spec: unknown;
   spec_revision: number;
+  with_surface: boolean;
   file_name: string;
   object_key: string | null;
   created_at: Date;
@@ -61,12 +63,16 @@ async function exportJob(row: ExportRow): Promise<ExportJob> {
     fileName: row.file_name,
     downloadUrl: row.status === 'done' && row.object_key ? await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name) : null,
     specRevision: row.spec_revision,
+    withSurface: row.with_surface,
     createdAt: row.created_at.toISOString(),
   };
 }
 
-/** Queues an export of the groom's saved spec; the copy taken now is what the file is made from. */
-export async function requestExport(groomer: Groomer, groomId: string, format: ExportFormat): Promise<ExportJob> {
+/**
+ * Queues an export of the groom's saved spec; the copy taken now is what the file is made from.
+ * `withSurface` writes the growth surface beside the guides where the format has guides.
+ */
+export async function requestExport(groomer: Groomer, groomId: string, format: ExportFormat, options: { withSurface?: boolean } = {}): Promise<ExportJob> {
   const groom = await db()('grooms').where({ id: groomId, owner_id: groomer.userId }).first('name', 'spec', 'revision');
   if (!groom) throw notFound('groom');
   const [row]: ExportRow[] = await db()('groom_exports')
@@ -78,6 +84,7 @@ export async function requestExport(groomer: Groomer, groomId: string, format: E
       stage: QUEUED.stage,
       spec: JSON.stringify(groom.spec),
       spec_revision: groom.revision,
+      with_surface: options.withSurface === true && EXPORT_FORMAT_FACTS[format].source === 'guides',
       file_name: exportFileName(groom.name, groom.revision, format),
     })
     .returning('*');
@@ -100,15 +107,19 @@ export async function getExport(groomer: Groomer, exportId: string): Promise<Exp
   return exportJob(row);
 }
 
+/** Where a studio export came from, written into the file. */
+type ExportOrigin = { groomId: string; specRevision: number; withSurface: boolean };
+
 /** The bytes of one format, from the spec saved on the export (solving and tracing only as far as the format needs). */
-async function exportFile(format: ExportFormat, storedSpec: unknown, surface: StoredSurfaceFile, report: StageReport): Promise<Uint8Array | string> {
+async function exportFile(format: ExportFormat, storedSpec: unknown, surface: StoredSurfaceFile, report: StageReport, origin: ExportOrigin): Promise<Uint8Array | string> {
   const { source } = EXPORT_FORMAT_FACTS[format];
   const made =
     source === 'spec' ? { spec: parseGroomSpec(storedSpec) }
     : source === 'field' ? await solveStoredSpec(storedSpec, surface, report)
     : await growStoredSpec(storedSpec, surface, report);
   await report(WRITING);
-  return writeExport(format, made);
+  const provenance = { groomId: origin.groomId, specRevision: origin.specRevision, whorlwindVersion: packageJson.version };
+  return writeExport(format, made, { withSurface: origin.withSurface, provenance });
 }
 
 /**
@@ -121,7 +132,7 @@ export async function runExport({ exportId }: ExportJobData): Promise<void> {
     .join('grooms as g', 'g.id', 'e.groom_id')
     .join('growth_surfaces as s', 's.id', 'g.surface_id')
     .where('e.id', exportId)
-    .first('e.id', 'e.groom_id', 'e.format', 'e.status', 'e.spec', 'e.file_name', 's.id as surface_id', 's.object_key', 's.file_name as surface_file_name');
+    .first('e.id', 'e.groom_id', 'e.format', 'e.status', 'e.spec', 'e.spec_revision', 'e.with_surface', 'e.file_name', 's.id as surface_id', 's.object_key', 's.file_name as surface_file_name');
   if (!row || row.status === 'done') return;
   const update = (values: Record<string, unknown>) => db()('groom_exports').where({ id: exportId }).update({ ...values, updated_at: db().fn.now() });
   const report: StageReport = async ({ stage, progress }) => {
@@ -130,7 +141,7 @@ export async function runExport({ exportId }: ExportJobData): Promise<void> {
   await report({ stage: 'starting', progress: 0.01 });
   try {
     const surface = { id: row.surface_id, objectKey: row.object_key, fileName: row.surface_file_name };
-    const bytes = await exportFile(row.format, row.spec, surface, report);
+    const bytes = await exportFile(row.format, row.spec, surface, report, { groomId: row.groom_id, specRevision: row.spec_revision, withSurface: row.with_surface });
     await report(STORING);
     const key = `exports/${row.groom_id}/${exportId}/${row.file_name}`;
     await putObject(key, bytes, EXPORT_FORMAT_FACTS[row.format as ExportFormat].mediaType);

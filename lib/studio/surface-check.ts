@@ -68,6 +68,8 @@ export async function checkRegisteredSurface({ surfaceId }: SurfaceCheckJobData)
     area_cm2: areaCm2,
     groups: JSON.stringify(read.mesh.groups?.names ?? []),
     components: JSON.stringify(facts.components),
+    has_uvs: facts.uvs.present,
+    uv_overlap_fraction: facts.uvs.overlapFraction,
     warnings: JSON.stringify(report.problems),
     thumbnail_key: thumbnailKey,
     // Worked out here, once, so that creating a groom never reads the file again.

@@ -41,6 +41,9 @@ export type SurfaceRow = {
   area_cm2: number | null;
   groups: string[];
   components: ComponentFacts[] | null;
+  /** Null on surfaces checked before UVs were read. */
+  has_uvs: boolean | null;
+  uv_overlap_fraction: number | null;
   warnings: Problem[];
   thumbnail_key: string | null;
   created_at: Date;
@@ -240,6 +243,7 @@ export async function surfaceSummary(row: SurfaceRow): Promise<SurfaceSummary> {
     eulerCharacteristic: row.euler_characteristic ?? 0,
     areaCm2: row.area_cm2 ?? 0,
     groups: row.groups,
+    uvs: row.has_uvs === null ? null : { present: row.has_uvs, overlapFraction: row.uv_overlap_fraction ?? 0 },
     warnings: row.warnings,
   };
 }

@@ -54,6 +54,12 @@ export type ReadySurface = SurfaceBase & {
   eulerCharacteristic: number;
   areaCm2: number;
   groups: string[];
+  /**
+   * Whether every corner of the file has a UV, and the fraction of the UV map used twice (0 when
+   * no UVs overlap; an overlap is also among the warnings); null for surfaces checked before
+   * UVs were read.
+   */
+  uvs: { present: boolean; overlapFraction: number } | null;
   /** Problems of severity `warning` that did not stop the surface from being accepted. */
   warnings: Problem[];
 };
@@ -122,6 +128,8 @@ export type ExportJob = {
   downloadUrl: string | null;
   /** The spec revision the file is made from. */
   specRevision: number;
+  /** Whether the growth surface is written beside the guides (USD, glTF and OBJ). */
+  withSurface: boolean;
   createdAt: IsoDate;
 };
 

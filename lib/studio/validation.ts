@@ -51,4 +51,6 @@ export const createVersionSchema = z.object({ name: name('version') });
 
 export const createExportSchema = z.object({
   format: z.enum(EXPORT_FORMATS, `Choose one of ${EXPORT_FORMATS.join(', ')}.`),
+  /** Write the growth surface beside the guides (USD, glTF and OBJ; the other formats have no guides to bind). */
+  withSurface: z.boolean('withSurface is true or false.').optional(),
 });

@@ -237,6 +237,15 @@ test('the editor: features through the side list, measured indices equal the pla
     files[format] = readFileSync((await file.path())!);
     await expect(page.getByTestId('export-job').filter({ has: page.getByTestId('export-download') }).first()).toBeVisible();
   }
+  // With the box ticked, the guides come with the growth surface they are bound to.
+  await page.getByTestId('export-with-surface').check();
+  const bound = page.waitForEvent('download', { timeout: 120_000 });
+  await page.getByRole('button', { name: 'Export USD curves (.usda, BasisCurves, linear)' }).click();
+  const boundText = readFileSync((await (await bound).path())!).toString('utf8');
+  await expect(page.getByTestId('export-job').first()).toContainText('with the surface');
+  const boundSpecs = new USDAParser().parseData(boundText).specsByPath;
+  expect(boundSpecs['/Groom/Surface'].fields.typeName).toBe('Mesh');
+  expect((boundSpecs['/Groom/Guides.primvars:whorlwind:rootFace'].fields.default as number[]).length).toBeGreaterThan(100);
 
   const spec = parseGroomSpecJson(files.json.toString('utf8'));
   expect(spec.field.singularities.map((s) => s.index)).toEqual([1, 1, -1]);

@@ -165,6 +165,58 @@ describe('each format', () => {
   });
 });
 
+describe('the growth surface beside the guides', () => {
+  it('is written when asked for, with the groom and revision it came from, and every root rebuilds on it', async () => {
+    const response = await callRoute(exportsRoute, 'POST', `/api/studio/grooms/${groom.id}/exports`, {
+      cookie: wren.cookie,
+      body: { format: 'usda', withSurface: true },
+      params: { groomId: groom.id },
+    });
+    const queued: ExportJob = (await expectJson(response, 202)).data.export;
+    expect(queued.withSurface).toBe(true);
+    const job = await finished(queued.id);
+    expect(job.status).toBe('done');
+    const usda = text((await download(job)).bytes);
+    // three.js's USDA parser (r187) reads the Mesh prim, the per-curve primvars and the header.
+    const parser = new USDAParser();
+    const { specsByPath } = parser.parseData(usda);
+    expect(specsByPath['/Groom/Surface'].fields.typeName).toBe('Mesh');
+    const attr = (name: string) => specsByPath[name]?.fields.default as number[];
+    const counts = attr('/Groom/Surface.faceVertexCounts');
+    const indices = attr('/Groom/Surface.faceVertexIndices');
+    const points = attr('/Groom/Surface.points');
+    // The demo's OBJ writer writes triangles, one polygon per face, numbered as in the file.
+    expect(counts.length).toBe(catMesh.triangles.length / 3);
+    const curves = attr('/Groom/Guides.points');
+    const n = attr('/Groom/Guides.curveVertexCounts')[0];
+    const face = attr('/Groom/Guides.primvars:whorlwind:rootFace');
+    const corners = attr('/Groom/Guides.primvars:whorlwind:rootCorners');
+    const weights = attr('/Groom/Guides.primvars:whorlwind:rootBarycentric');
+    const extent = attr('/Groom/Surface.extent');
+    const size = Math.hypot(extent[3] - extent[0], extent[4] - extent[1], extent[5] - extent[2]);
+    for (let g = 0; g < face.length; g++) {
+      for (let a = 0; a < 3; a++) {
+        let root = 0;
+        for (let i = 0; i < 3; i++) root += weights[3 * g + i] * points[3 * indices[3 * face[g] + corners[3 * g + i]] + a];
+        expect(Math.abs(root - curves[3 * n * g + a]) / size).toBeLessThan(1e-5);
+      }
+    }
+    const header = (parser.parseText(usda) as Record<string, Record<string, Record<string, Record<string, string>>>>)['#usda 1.0'];
+    const provenance = header.customLayerData['dictionary whorlwind'];
+    expect(JSON.parse(provenance['string groomId'])).toBe(groom.id);
+    expect(Number(provenance['int specRevision'])).toBe(2);
+  });
+
+  it('is never asked of a format without guides', async () => {
+    const response = await callRoute(exportsRoute, 'POST', `/api/studio/grooms/${groom.id}/exports`, {
+      cookie: wren.cookie,
+      body: { format: 'json', withSurface: true },
+      params: { groomId: groom.id },
+    });
+    expect((await expectJson(response, 202)).data.export.withSurface).toBe(false);
+  });
+});
+
 describe('what the file is made from', () => {
   it('is the spec saved when the export was asked for, even if it changes before the job runs', async () => {
     const changing = await ottoline('Ottoline — changing');

@@ -58,6 +58,8 @@ describe('registering an uploaded surface', () => {
       genus: 1,
       eulerCharacteristic: 0,
       groups: ['top', 'underside'],
+      // The demo's OBJ writer writes no vt.
+      uvs: { present: false, overlapFraction: 0 },
       warnings: [],
     });
     // The ring's area is about 31,930 mm², which is 319.3 cm².

@@ -1,10 +1,13 @@
 'use client';
 // Exports of the saved groom, made on the server by the same groom library: one button per
-// format, the job's progress while it runs, and the download when it is ready.
+// format, the job's progress while it runs, and the download when it is ready. Guides always say
+// where they grow; the box adds the growth surface itself, so a pipeline can bind them from the
+// file alone.
 import { useEffect, useRef, useState } from 'react';
 import { Notice } from '@/components/ui/Notice';
 import { studioApi, type ExportFormat, type ExportJob } from '@/lib/studio/client/api';
 import { ProgressBar } from '../ui/ProgressBar';
+import { EXPORT_FORMATS as EXPORT_FORMATS_OF_GROOM, EXPORT_FORMAT_FACTS } from '@/lib/groom/export/formats';
 
 export const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; note: string }[] = [
   { format: 'usda', label: 'USD curves', note: '.usda, BasisCurves, linear' },
@@ -16,12 +19,16 @@ export const EXPORT_FORMATS: readonly { format: ExportFormat; label: string; not
   { format: 'ply', label: 'Field', note: '.ply, the direction per face and vertex' },
 ];
 
+/** The formats that carry guides, and so can carry the surface beside them. */
+const SURFACE_FORMATS: ReadonlySet<ExportFormat> = new Set(EXPORT_FORMATS_OF_GROOM.filter((format) => EXPORT_FORMAT_FACTS[format].source === 'guides'));
+
 const POLL_MS = 700;
 
 export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => Promise<boolean> }) {
   const [jobs, setJobs] = useState<ExportJob[]>([]);
   const [failure, setFailure] = useState<string | null>(null);
   const [starting, setStarting] = useState<ExportFormat | null>(null);
+  const [withSurface, setWithSurface] = useState(false);
   const timers = useRef(new Map<string, ReturnType<typeof setTimeout>>());
   const downloaded = useRef(new Set<string>());
 
@@ -63,7 +70,7 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
       setStarting(null);
       return setFailure('Exports are made from the saved groom, and the latest changes are not saved yet — see the save status above.');
     }
-    const outcome = await studioApi.startExport(groomId, format);
+    const outcome = await studioApi.startExport(groomId, format, { withSurface: withSurface && SURFACE_FORMATS.has(format) });
     setStarting(null);
     if (!outcome.ok) return setFailure(outcome.error.message);
     replace(outcome.data.export);
@@ -73,6 +80,13 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
   return (
     <div className="flex flex-col gap-4">
       <p className="text-sm text-loam-soft">Made on the server from the saved groom; the download starts when the file is ready.</p>
+      <label className="flex items-start gap-2 text-sm text-loam">
+        <input type="checkbox" checked={withSurface} onChange={(event) => setWithSurface(event.target.checked)} className="mt-0.5" data-testid="export-with-surface" />
+        <span>
+          Include the growth surface
+          <span className="block text-xs text-loam-soft">USD, glTF and OBJ: the skin in its own numbering beside the guides, so each root can be rebuilt from the file.</span>
+        </span>
+      </label>
       <ul className="grid grid-cols-1 gap-2 sm:grid-cols-2 lg:grid-cols-1 xl:grid-cols-2">
         {EXPORT_FORMATS.map(({ format, label, note }) => (
           <li key={format}>
@@ -94,7 +108,10 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
         <ol className="flex flex-col gap-2" aria-label="Exports">
           {jobs.map((job) => (
             <li key={job.id} className="flex flex-col gap-1.5 rounded-xl bg-chalk p-3" data-testid="export-job" data-format={job.format} data-status={job.status}>
-              <span className="text-sm font-semibold text-loam">{EXPORT_FORMATS.find((f) => f.format === job.format)?.label ?? job.format}</span>
+              <span className="text-sm font-semibold text-loam">
+                {EXPORT_FORMATS.find((f) => f.format === job.format)?.label ?? job.format}
+                {job.withSurface && <span className="font-normal text-loam-soft"> · with the surface</span>}
+              </span>
               {job.status === 'queued' && <ProgressBar label="Waiting for a worker" fraction={0} />}
               {job.status === 'running' && <ProgressBar label={job.stage ? job.stage.charAt(0).toUpperCase() + job.stage.slice(1) : 'Working'} fraction={job.progress} />}
               {job.status === 'done' && job.downloadUrl && (

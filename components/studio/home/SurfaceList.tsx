@@ -69,6 +69,15 @@ export function SurfaceList({ surfaces, onChanged }: { surfaces: SurfaceSummary[
                     {surface.boundaryLoopCount === 0 ? ` (indices must sum to ${formatIndex(surface.eulerCharacteristic)})` : ''} · {surface.areaCm2.toLocaleString('en-GB', { maximumFractionDigits: 0 })} cm²
                   </p>
                   {surface.groups.length > 0 && <p className="text-xs text-loam-soft">Groups: {surface.groups.join(', ')}</p>}
+                  {surface.uvs && (
+                    <p className="text-xs text-loam-soft" data-testid="surface-uvs">
+                      {!surface.uvs.present
+                        ? 'No UVs: guides are bound by polygon only.'
+                        : surface.uvs.overlapFraction > 0
+                          ? `UVs overlap on ${(100 * surface.uvs.overlapFraction).toFixed(1)} % of the map: a UV names more than one place there.`
+                          : 'UVs without overlaps: every guide’s root UV names one place.'}
+                    </p>
+                  )}
                   {surface.warnings.length > 0 && (
                     <details className="text-xs text-loam-soft">
                       <summary className="cursor-pointer font-semibold text-bracken-deep">{plural(surface.warnings.length, 'thing', 'things')} worth knowing</summary>

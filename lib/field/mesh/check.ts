@@ -10,6 +10,7 @@ import { faceCount, vertexCount, type TriangleMesh } from './mesh';
 import { DEFAULT_MAX_FACES, readSurface, type ReadSurfaceOptions, type SurfaceReadResult } from './read';
 import { EXAMPLE_LIMIT } from './read/soup';
 import { buildTopology } from './topology';
+import { uvFacts, type UvFacts } from './uv-check';
 
 /**
  * Faces whose height, relative to their longest side, is below this are taken to have no area:
@@ -61,6 +62,8 @@ export interface SurfaceFacts {
   /** Total area of the faces whose coordinates are all finite, in the file's units squared. */
   readonly surfaceArea: number;
   readonly boundingBox: BoundingBox | null;
+  /** Whether the surface has UVs and whether they overlap (see `uvFacts`). */
+  readonly uvs: UvFacts;
 }
 
 export interface SurfaceReport {
@@ -95,8 +98,8 @@ function pairs(flat: readonly number[]): string[] {
  * reported, not trusted. Detects, with counts and first examples: no faces, too many faces,
  * non-finite coordinates, corners referring to missing vertices, edges with more than two faces,
  * neighbouring faces of opposite orientation, vertices where surface pieces meet at a single
- * point, faces of (numerically) zero area — all errors — and vertices no face uses and a surface
- * in several pieces — warnings. `ok` is true exactly when there is no error, and then
+ * point, faces of (numerically) zero area — all errors — and vertices no face uses, a surface
+ * in several pieces, overlapping UVs and UV triangles of no area — warnings. `ok` is true exactly when there is no error, and then
  * `buildTopology(mesh)` succeeds and the facts include genus and boundary loops.
  */
 export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = {}): SurfaceReport {
@@ -256,6 +259,28 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     });
   }
 
+  const uvs = uvFacts({ ...whole, cornerUvs: mesh.cornerUvs });
+  if (uvs.overlappingFaces.count > 0) {
+    problems.push({
+      code: 'uvs-overlap',
+      severity: 'warning',
+      message: `The UVs of ${plural(uvs.overlappingFaces.count, 'face overlap', 'faces overlap')} others (${(100 * uvs.overlapFraction).toFixed(1)} % of the map is used twice; faces ${describeFirst(uvs.overlappingFaces.examples)}). Places and guide roots are still bound by polygon, but moving a groom to another surface by UV is ambiguous there.`,
+      count: uvs.overlappingFaces.count,
+      examples: uvs.overlappingFaces.examples,
+      where: 'face',
+    });
+  }
+  if (uvs.collapsedFaces.count > 0) {
+    problems.push({
+      code: 'uvs-collapsed',
+      severity: 'warning',
+      message: `${plural(uvs.collapsedFaces.count, 'face has', 'faces have')} UVs of no area (faces ${describeFirst(uvs.collapsedFaces.examples)}): a UV names no single point there.`,
+      count: uvs.collapsedFaces.count,
+      examples: uvs.collapsedFaces.examples,
+      where: 'face',
+    });
+  }
+
   const ok = !problems.some((problem) => problem.severity === 'error');
   // Faces of zero area, or with non-finite corners, do not upset the connectivity; the rest does.
   const connectivityIntact =
@@ -279,6 +304,7 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
       components,
       surfaceArea,
       boundingBox: boundingBox(whole),
+      uvs,
     },
   };
 }
@@ -289,7 +315,7 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
  * Guarantees: never throws a FieldError — a file that cannot be read gives a report with one
  * error problem carrying the reader's code and message (`where: 'file'`) and `facts: null`;
  * otherwise the report of `checkSurface`, plus a `collapsed-faces` warning when welding left out
- * triangles, and `read` holds the reader's result.
+ * triangles and a `uvs-incomplete` warning when only some corners had UVs, and `read` holds the reader's result.
  */
 export function checkSurfaceFile(
   bytes: Uint8Array,
@@ -306,7 +332,18 @@ export function checkSurfaceFile(
       report: { ok: false, problems: [{ code: error.code, severity: 'error', message: error.message, count: 1, examples: [], where: 'file' }], facts: null },
     };
   }
-  const report = checkSurface(read.mesh, options);
+  let report = checkSurface(read.mesh, options);
+  if (read.uvs === 'incomplete') {
+    const warning: Problem = {
+      code: 'uvs-incomplete',
+      severity: 'warning',
+      message: 'Some corners of the file have texture coordinates (UVs) and some have none, so the surface is treated as having no UVs.',
+      count: 1,
+      examples: [],
+      where: 'file',
+    };
+    report = { ...report, problems: [...report.problems, warning] };
+  }
   const collapsed = read.collapsedTriangles;
   if (collapsed.count === 0) return { read, report };
   const warning: Problem = {

@@ -1,5 +1,6 @@
 import type { Guides } from '../grow/guides';
 import { CENTIMETRES_PER_UNIT } from '../spec/spec';
+import { firstCornerByPolygonOrder, type BindingExportOptions } from './binding-data';
 
 /**
  * The guides as glTF 2.0: one mesh with one `LINES` primitive (mode 1) whose index pairs join
@@ -7,11 +8,19 @@ import { CENTIMETRES_PER_UNIT } from '../spec/spec';
  * metres). glTF fixes metres and +Y up, so points are scaled from the surface's units and, for a
  * Z-up surface, turned so that its up becomes +Y.
  *
+ * The binding travels as accessors of one value per guide, named in the mesh's
+ * `extras.whorlwind.binding` (guideId, rootFace, rootTriangle, rootCorners, rootBarycentric,
+ * rootUv when the surface has UVs, length; with the surface also surfaceTriangle); with
+ * `surface`, a second node "Surface" draws the growth surface as triangles, three vertices each
+ * (with TEXCOORD_0 when it has UVs, v turned back to glTF's top-left origin), each triangle's
+ * corners in rising polygon-corner order, so a root's weights apply to its surfaceTriangle's
+ * vertices in order. Provenance goes in `asset.extras.whorlwind`.
+ *
  * Guarantees: `.glb` bytes (`binary: true`) or `.gltf` JSON bytes with the buffer embedded as a
  * base64 data URI; POSITION has count × pointsPerGuide entries with exact float32 min/max; the
  * index buffer has 2 · (pointsPerGuide − 1) entries per guide, and no index pair joins two guides.
  */
-export function guidesToGltf(guides: Guides, options: { binary: boolean }): Uint8Array {
+export function guidesToGltf(guides: Guides, options: { binary: boolean } & BindingExportOptions): Uint8Array {
   const n = guides.pointsPerGuide;
   const total = guides.count * n;
   const metres = CENTIMETRES_PER_UNIT[guides.units] / 100;
@@ -42,32 +51,92 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean }): Uint
       indices[k++] = g * n + j + 1;
     }
   }
-  const parts = [positions, widths, indices];
+  const toGltf = (x: number, y: number, z: number, out: Float32Array, at: number) => {
+    out[at] = x * metres;
+    out[at + 1] = (zUp ? z : y) * metres;
+    out[at + 2] = (zUp ? -y : z) * metres;
+  };
+  const b = guides.binding;
+  // Per-guide arrays, each an accessor named in extras (type, component type, values).
+  const perGuide: [string, string, number, Uint32Array | Float32Array][] = [
+    ['guideId', 'SCALAR', 5125, guides.guideId],
+    ['rootFace', 'SCALAR', 5125, b.polygon],
+    ['rootTriangle', 'SCALAR', 5125, b.triangle],
+    ['rootCorners', 'VEC3', 5125, b.corners],
+    ['rootBarycentric', 'VEC3', 5126, Float32Array.from(b.weights)],
+    ...(b.uv ? [['rootUv', 'VEC2', 5126, Float32Array.from(b.uv, (x, i) => (i % 2 === 1 ? 1 - x : x))] as [string, string, number, Float32Array]] : []),
+    ['length', 'SCALAR', 5126, Float32Array.from(guides.length, (x) => x * metres)],
+    ...(options.surface ? [['surfaceTriangle', 'SCALAR', 5125, guides.rootFace] as [string, string, number, Uint32Array]] : []),
+  ];
+  const surfaceParts: Float32Array[] = [];
+  if (options.surface) {
+    const mesh = options.surface;
+    const nF = mesh.triangles.length / 3;
+    const first = firstCornerByPolygonOrder(mesh);
+    const corner = new Float32Array(9 * nF);
+    const uvs = mesh.cornerUvs ? new Float32Array(6 * nF) : undefined;
+    for (let f = 0; f < nF; f++) {
+      for (let k = 0; k < 3; k++) {
+        const h = 3 * f + ((first[f] + k) % 3);
+        const v = 3 * mesh.triangles[h];
+        toGltf(mesh.positions[v], mesh.positions[v + 1], mesh.positions[v + 2], corner, 3 * (3 * f + k));
+        if (uvs) {
+          uvs[2 * (3 * f + k)] = mesh.cornerUvs![2 * h];
+          uvs[2 * (3 * f + k) + 1] = 1 - mesh.cornerUvs![2 * h + 1];
+        }
+      }
+    }
+    surfaceParts.push(corner);
+    if (uvs) surfaceParts.push(uvs);
+  }
+  const parts: (Float32Array | Uint32Array)[] = [positions, widths, indices, ...perGuide.map((entry) => entry[3]), ...surfaceParts];
   const byteLength = parts.reduce((sum, a) => sum + a.byteLength, 0);
   const binary = new Uint8Array(byteLength);
   const views: object[] = [];
   let offset = 0;
   parts.forEach((array, i) => {
     binary.set(new Uint8Array(array.buffer, array.byteOffset, array.byteLength), offset);
-    views.push({ buffer: 0, byteOffset: offset, byteLength: array.byteLength, target: i === 2 ? 34963 : 34962 });
+    // Only the drawn attributes and indices are GPU buffers; the per-guide arrays are data.
+    const target = i === 2 ? 34963 : i < 2 || i >= 3 + perGuide.length ? 34962 : undefined;
+    views.push({ buffer: 0, byteOffset: offset, byteLength: array.byteLength, ...(target ? { target } : {}) });
     offset += array.byteLength;
   });
   const accessors = [
     { bufferView: 0, componentType: 5126, count: total, type: 'VEC3', min: total ? min : [0, 0, 0], max: total ? max : [0, 0, 0] },
     { bufferView: 1, componentType: 5126, count: total, type: 'SCALAR' },
     { bufferView: 2, componentType: 5125, count: indices.length, type: 'SCALAR' },
+    ...perGuide.map(([name, type, componentType], i) => ({ name: `whorlwind:${name}`, bufferView: 3 + i, componentType, count: guides.count, type })),
   ];
+  const binding = Object.fromEntries(perGuide.map(([name], i) => [name, 3 + i]));
+  const surfaceMesh: object[] = [];
+  if (options.surface) {
+    const at = 3 + perGuide.length;
+    const corner = surfaceParts[0];
+    const smin = [Infinity, Infinity, Infinity], smax = [-Infinity, -Infinity, -Infinity];
+    for (let i = 0; i < corner.length; i++) {
+      smin[i % 3] = Math.min(smin[i % 3], corner[i]);
+      smax[i % 3] = Math.max(smax[i % 3], corner[i]);
+    }
+    accessors.push({ bufferView: at, componentType: 5126, count: corner.length / 3, type: 'VEC3', min: smin, max: smax } as (typeof accessors)[number]);
+    const attributes: Record<string, number> = { POSITION: at };
+    if (surfaceParts[1]) {
+      accessors.push({ bufferView: at + 1, componentType: 5126, count: surfaceParts[1].length / 2, type: 'VEC2' } as (typeof accessors)[number]);
+      attributes.TEXCOORD_0 = at + 1;
+    }
+    surfaceMesh.push({ name: 'Surface', primitives: [{ attributes, mode: 4 }] });
+  }
   const json: Record<string, unknown> = {
-    asset: { version: '2.0', generator: 'Whorlwind' },
+    asset: { version: '2.0', generator: 'Whorlwind', ...(options.provenance ? { extras: { whorlwind: options.provenance } } : {}) },
     scene: 0,
-    scenes: [{ nodes: [0] }],
-    nodes: [{ name: 'Guides', mesh: 0 }],
+    scenes: [{ nodes: options.surface ? [0, 1] : [0] }],
+    nodes: [{ name: 'Guides', mesh: 0 }, ...(options.surface ? [{ name: 'Surface', mesh: 1 }] : [])],
     meshes: [
       {
         name: 'Guides',
         primitives: [{ attributes: { POSITION: 0, _WIDTH: 1 }, indices: 2, mode: 1 }],
-        extras: { guideCount: guides.count, pointsPerGuide: n, hairsPerGuide: guides.hairsPerGuide },
+        extras: { guideCount: guides.count, pointsPerGuide: n, hairsPerGuide: guides.hairsPerGuide, whorlwind: { binding } },
       },
+      ...surfaceMesh,
     ],
     accessors,
     bufferViews: views,

@@ -1,24 +1,72 @@
 import { AsciiWriter } from './ascii';
 import type { Guides } from '../grow/guides';
+import { writtenSurface, type BindingExportOptions } from './binding-data';
+
+/** The comment every binding record starts with; OBJ readers skip it, a pipeline greps it. */
+export const OBJ_ROOT_RECORD = '#whorlwind-root';
 
 /**
  * The guides as Wavefront OBJ text: every point a `v` line, every guide one `l` polyline through
- * its points in order, all in one object `guides`, in the surface's units.
+ * its points in order, all in one object `guides`, in the surface's units. Where each guide grows
+ * follows as one comment record per guide, in id order:
+ * `#whorlwind-root guideId rootFace rootTriangle c0 c1 c2 w0 w1 w2 length [u v]` (the file polygon,
+ * which of its triangles, that triangle's polygon corners rising, the root's weights on them, the
+ * curve's length, and the root's UV when the surface has UVs). With `options.surface`, the growth
+ * surface comes first as object `surface`, its `v` lines the file's vertices in the file's order
+ * and its `f` lines the file's polygons (with `vt` per corner when it has UVs), so vertex and face
+ * numbers are the artist's; the guides' vertices follow.
  *
- * Guarantees: `v` lines in guide order (point j of guide g is vertex g·pointsPerGuide + j + 1);
- * one `l` element per guide.
+ * Guarantees: `v` lines in guide order (point j of guide g is vertex V + g·pointsPerGuide + j + 1,
+ * V being the surface's vertex count when it is written, else 0); one `l` element per guide; one
+ * record per guide.
  */
-export function guidesToObj(guides: Guides): string {
+export function guidesToObj(guides: Guides, options: BindingExportOptions = {}): string {
   const n = guides.pointsPerGuide;
   const p = guides.points;
-  const out = new AsciiWriter().precisionFor(p);
-  out.text(`# Whorlwind guides: ${guides.count} guides of ${n} points; units ${guides.units}, up axis ${guides.upAxis}; each guide stands for ${guides.hairsPerGuide} hairs\no guides\n`);
+  const out = new AsciiWriter();
+  out.text(`# Whorlwind guides: ${guides.count} guides of ${n} points; units ${guides.units}, up axis ${guides.upAxis}; each guide stands for ${guides.hairsPerGuide} hairs\n`);
+  const source = options.provenance;
+  if (source) out.text(`# written by Whorlwind ${source.whorlwindVersion}${source.groomId ? `; groom ${source.groomId}` : ''}${source.specRevision !== undefined ? `, revision ${source.specRevision}` : ''}\n`);
+  let offset = 0;
+  if (options.surface) {
+    const surface = writtenSurface(options.surface);
+    const q = surface.points;
+    out.text('o surface\n').precisionFor(q);
+    for (let v = 0; v < q.length / 3; v++) out.text('v ').number(q[3 * v]).text(' ').number(q[3 * v + 1]).text(' ').number(q[3 * v + 2]).text('\n');
+    const uv = surface.uvs;
+    if (uv) {
+      out.precision(Math.max(7, AsciiWriter.decimalsFor(uv)));
+      for (let c = 0; c < uv.length / 2; c++) out.text('vt ').number(uv[2 * c]).text(' ').number(uv[2 * c + 1]).text('\n');
+    }
+    for (let f = 0, c = 0; f < surface.counts.length; f++) {
+      out.text('f');
+      for (let k = 0; k < surface.counts[f]; k++, c++) {
+        out.text(' ').whole(surface.indices[c] + 1);
+        if (uv) out.text('/').whole(c + 1);
+      }
+      out.text('\n');
+    }
+    offset = q.length / 3;
+  }
+  out.text('o guides\n').precisionFor(p);
   for (let i = 0; i < guides.count * n; i++) {
     out.text('v ').number(p[3 * i]).text(' ').number(p[3 * i + 1]).text(' ').number(p[3 * i + 2]).text('\n');
   }
   for (let g = 0; g < guides.count; g++) {
     out.text('l');
-    for (let j = 0; j < n; j++) out.text(' ').whole(g * n + j + 1);
+    for (let j = 0; j < n; j++) out.text(' ').whole(offset + g * n + j + 1);
+    out.text('\n');
+  }
+  const b = guides.binding;
+  out.text(`# ${OBJ_ROOT_RECORD.slice(1)} records: guideId rootFace rootTriangle c0 c1 c2 w0 w1 w2 length${b.uv ? ' u v' : ''}\n`);
+  const lengthDecimals = AsciiWriter.decimalsFor(guides.length);
+  for (let g = 0; g < guides.count; g++) {
+    out.text(OBJ_ROOT_RECORD).text(' ').whole(guides.guideId[g]).text(' ').whole(b.polygon[g]).text(' ').whole(b.triangle[g]);
+    for (let i = 0; i < 3; i++) out.text(' ').whole(b.corners[3 * g + i]);
+    out.precision(9);
+    for (let i = 0; i < 3; i++) out.text(' ').number(b.weights[3 * g + i]);
+    out.precision(lengthDecimals).text(' ').number(guides.length[g]);
+    if (b.uv) out.precision(9).text(' ').number(b.uv[2 * g]).text(' ').number(b.uv[2 * g + 1]);
     out.text('\n');
   }
   return out.toString();

@@ -1,6 +1,8 @@
+import type { TriangleMesh } from '../../field';
 import { AsciiWriter } from './ascii';
 import type { Guides } from '../grow/guides';
 import { CENTIMETRES_PER_UNIT } from '../spec/spec';
+import { writtenSurface, type BindingExportOptions, type Provenance } from './binding-data';
 
 /** How the curves are interpolated: linear segments, or cubic through pinned end points. */
 export type UsdCurveBasis = 'linear' | 'bspline' | 'catmullRom';
@@ -22,7 +24,12 @@ function list(out: AsciiWriter, count: number, item: (i: number) => void): void 
 /**
  * The guides as OpenUSD text (`.usda`): one `BasisCurves` prim `/Groom/Guides` holding every
  * guide, with `curveVertexCounts`, `points`, per-vertex `widths` (root width tapering to the tip)
- * and `extent`, in the surface's units (`metersPerUnit`) and up axis.
+ * and `extent`, in the surface's units (`metersPerUnit`) and up axis; per curve ("uniform")
+ * the binding primvars `whorlwind:guideId`, `rootFace` (file polygon), `rootTriangle`,
+ * `rootCorners` (int3, the polygon corners of that triangle, ascending), `rootBarycentric`
+ * (float3 on those corners), `rootUv` (texCoord2f, when the surface has UVs) and `length`;
+ * with `options.surface`, the growth surface as a `Mesh` prim `/Groom/Surface` in the file's
+ * numbering (UVs as faceVarying `primvars:st`); with `options.provenance`, `customLayerData`.
  *
  * Cubic bases are written with `wrap = "pinned"`, so the rendered curve starts exactly at the root
  * and ends at the tip. Guarantees: `curveVertexCounts` sums to the number of points; widths have
@@ -30,7 +37,7 @@ function list(out: AsciiWriter, count: number, item: (i: number) => void): void 
  * curves, the whole curve (the hull of each segment's Bézier control points), widened by half
  * the largest width.
  */
-export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear'): string {
+export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear', options: BindingExportOptions = {}): string {
   const n = guides.pointsPerGuide;
   const total = guides.count * n;
   const p = guides.points;
@@ -44,7 +51,7 @@ export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear'): s
     metersPerUnit = ${CENTIMETRES_PER_UNIT[guides.units] / 100}
     upAxis = "${guides.upAxis.toUpperCase()}"
     doc = "Guide curves written by Whorlwind: ${guides.count} guides of ${n} points."
-)
+${options.provenance ? layerData(options.provenance) : ''})
 
 def Xform "Groom"
 {
@@ -68,10 +75,77 @@ def Xform "Groom"
   out.text(`        int primvars:hairsPerGuide = ${guides.hairsPerGuide} (
             interpolation = "constant"
         )
-    }
-}
 `);
+  writeBinding(out, guides);
+  if (options.surface) out.text('        rel whorlwind:surface = </Groom/Surface>\n');
+  out.text('    }\n');
+  if (options.surface) writeSurface(out, options.surface);
+  out.text('}\n');
   return out.toString();
+}
+
+/** Writes one per-curve primvar: `count` items, then its interpolation. */
+function uniform(out: AsciiWriter, declaration: string, count: number, item: (i: number) => void): void {
+  out.text(`        ${declaration} = `);
+  list(out, count, item);
+  out.text(' (\n            interpolation = "uniform"\n        )\n');
+}
+
+function writeBinding(out: AsciiWriter, guides: Guides): void {
+  const b = guides.binding;
+  const count = guides.count;
+  uniform(out, 'int[] primvars:whorlwind:guideId', count, (g) => out.whole(guides.guideId[g]));
+  uniform(out, 'int[] primvars:whorlwind:rootFace', count, (g) => out.whole(b.polygon[g]));
+  uniform(out, 'int[] primvars:whorlwind:rootTriangle', count, (g) => out.whole(b.triangle[g]));
+  uniform(out, 'int3[] primvars:whorlwind:rootCorners', count, (g) => out.text('(').whole(b.corners[3 * g]).text(', ').whole(b.corners[3 * g + 1]).text(', ').whole(b.corners[3 * g + 2]).text(')'));
+  out.precision(9);
+  uniform(out, 'float3[] primvars:whorlwind:rootBarycentric', count, (g) => out.text('(').number(b.weights[3 * g]).text(', ').number(b.weights[3 * g + 1]).text(', ').number(b.weights[3 * g + 2]).text(')'));
+  if (b.uv) {
+    const uv = b.uv;
+    out.precision(Math.max(7, AsciiWriter.decimalsFor(uv)));
+    uniform(out, 'texCoord2f[] primvars:whorlwind:rootUv', count, (g) => out.text('(').number(uv[2 * g]).text(', ').number(uv[2 * g + 1]).text(')'));
+  }
+  out.precisionFor(guides.length);
+  uniform(out, 'float[] primvars:whorlwind:length', count, (g) => out.number(guides.length[g]));
+}
+
+/** The growth surface as a `Mesh` prim: file vertices, file polygons, UVs per corner. */
+function writeSurface(out: AsciiWriter, mesh: TriangleMesh): void {
+  const surface = writtenSurface(mesh);
+  const p = surface.points;
+  out.text('\n    def Mesh "Surface"\n    {\n        uniform token subdivisionScheme = "none"\n        int[] faceVertexCounts = ');
+  list(out, surface.counts.length, (i) => out.whole(surface.counts[i]));
+  out.text('\n        int[] faceVertexIndices = ');
+  list(out, surface.indices.length, (i) => out.whole(surface.indices[i]));
+  out.text('\n        point3f[] points = ').precisionFor(p);
+  list(out, p.length / 3, (i) => out.text('(').number(p[3 * i]).text(', ').number(p[3 * i + 1]).text(', ').number(p[3 * i + 2]).text(')'));
+  const min = [Infinity, Infinity, Infinity], max = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < p.length; i++) {
+    min[i % 3] = Math.min(min[i % 3], p[i]);
+    max[i % 3] = Math.max(max[i % 3], p[i]);
+  }
+  if (p.length === 0) min.fill(0), max.fill(0);
+  out.text('\n        float3[] extent = [(').number(min[0]).text(', ').number(min[1]).text(', ').number(min[2]);
+  out.text('), (').number(max[0]).text(', ').number(max[1]).text(', ').number(max[2]).text(')]\n');
+  if (surface.uvs) {
+    const uv = surface.uvs;
+    out.text('        texCoord2f[] primvars:st = ').precision(Math.max(7, AsciiWriter.decimalsFor(uv)));
+    list(out, uv.length / 2, (i) => out.text('(').number(uv[2 * i]).text(', ').number(uv[2 * i + 1]).text(')'));
+    out.text(' (\n            interpolation = "faceVarying"\n        )\n');
+  }
+  if (surface.sourcePolygon) {
+    const source = surface.sourcePolygon;
+    uniform(out, 'int[] primvars:whorlwind:sourcePolygon', source.length, (i) => out.whole(source[i]));
+  }
+  out.text('    }\n');
+}
+
+/** The provenance as layer metadata, a dictionary any USD reader keeps. */
+function layerData(provenance: Provenance): string {
+  const lines = [`            string version = ${JSON.stringify(provenance.whorlwindVersion)}`];
+  if (provenance.groomId !== undefined) lines.push(`            string groomId = ${JSON.stringify(provenance.groomId)}`);
+  if (provenance.specRevision !== undefined) lines.push(`            int specRevision = ${Math.trunc(provenance.specRevision)}`);
+  return `    customLayerData = {\n        dictionary whorlwind = {\n${lines.join('\n')}\n        }\n    }\n`;
 }
 
 /** Bounds of the rendered curves, widened by half the largest width. */

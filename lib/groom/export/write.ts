@@ -12,6 +12,7 @@ import type { ExportFormat } from './formats';
 import { guidesToGltf } from './gltf';
 import { guidesToObj } from './obj';
 import { guidesToUsda, type UsdCurveBasis } from './usda';
+import type { BindingExportOptions, Provenance } from './binding-data';
 
 /**
  * What an export is written from: the resolved spec, and as far as the format's `source` asks
@@ -27,6 +28,10 @@ export interface GroomMade {
 export interface ExportOptions {
   /** The plain `usda` format's curve basis (default linear); its B-spline variant is always B-spline. */
   readonly basis?: UsdCurveBasis;
+  /** Write the growth surface beside the guides (USD, glTF and OBJ), from `made.surface`. */
+  readonly withSurface?: boolean;
+  /** Where the file came from, written into the USD, glTF and OBJ guides. */
+  readonly provenance?: Provenance;
 }
 
 type Writer = (made: GroomMade, options: ExportOptions) => string | Uint8Array;
@@ -36,12 +41,18 @@ function guidesOf(made: GroomMade): Guides {
   return made.guides;
 }
 
+/** The binding extras a guides writer is asked for. */
+function extrasOf(made: GroomMade, options: ExportOptions): BindingExportOptions {
+  if (options.withSurface && !made.surface) throw new Error('the surface was asked to be written beside the guides, and none was given');
+  return { ...(options.withSurface ? { surface: made.surface!.mesh } : {}), ...(options.provenance ? { provenance: options.provenance } : {}) };
+}
+
 const WRITERS: Readonly<Record<ExportFormat, Writer>> = {
-  usda: (made, options) => guidesToUsda(guidesOf(made), options.basis ?? 'linear'),
-  'usda-bspline': (made) => guidesToUsda(guidesOf(made), 'bspline'),
-  gltf: (made) => guidesToGltf(guidesOf(made), { binary: false }),
-  glb: (made) => guidesToGltf(guidesOf(made), { binary: true }),
-  obj: (made) => guidesToObj(guidesOf(made)),
+  usda: (made, options) => guidesToUsda(guidesOf(made), options.basis ?? 'linear', extrasOf(made, options)),
+  'usda-bspline': (made, options) => guidesToUsda(guidesOf(made), 'bspline', extrasOf(made, options)),
+  gltf: (made, options) => guidesToGltf(guidesOf(made), { binary: false, ...extrasOf(made, options) }),
+  glb: (made, options) => guidesToGltf(guidesOf(made), { binary: true, ...extrasOf(made, options) }),
+  obj: (made, options) => guidesToObj(guidesOf(made), extrasOf(made, options)),
   json: (made) => specToJson(made.spec),
   ply: (made) => {
     if (!made.surface || !made.solved) throw new Error('the field export is written from the solved field on its surface, and none was given');

@@ -1,10 +1,11 @@
-import { now, type SolvedField } from '../../field';
+import { now, type SolvedField, type TriangleMesh } from '../../field';
 import { GroomError } from '../errors';
 import { blendPins, type PinnedFactors } from '../place/pins';
 import { guideRandom } from './random';
 import { growthMask } from '../place/regions';
 import { downOf } from '../place/request';
-import { sampleRoots } from './roots';
+import { cellOrder, sampleRoots } from './roots';
+import { bindRoots, rootsOnSculpt, type RootBinding } from './binding';
 import { shapeGuide } from './shape';
 import { SKIN_QUERY_SIZE } from '../place/skin';
 import { CENTIMETRES_PER_UNIT, guidePointsProblem, type GroomSpec, type Unit } from '../spec/spec';
@@ -20,8 +21,18 @@ export interface Guides {
   readonly pointsPerGuide: number;
   /** x, y, z of every point, guide after guide (3 · count · pointsPerGuide numbers), in surface units. */
   readonly points: Float64Array;
-  /** The face each root lies in. */
+  /**
+   * Each guide's identity: its place in the surface's fixed order of roots (see roots.ts), so
+   * the same surface, regions, density pins and seed give guide n the same root at any count or
+   * density (a denser set keeps the sparser set's guides). Guides are stored in id order.
+   */
+  readonly guideId: Uint32Array;
+  /** The face (of the welded, triangulated mesh) each root lies in. */
   readonly rootFace: Uint32Array;
+  /** The root's weights on its face's three corners, in the face's corner order (3 per guide). */
+  readonly rootBarycentric: Float64Array;
+  /** Where each root lies in the surface file's own numbering: polygon, triangle, corners, weights, UV. */
+  readonly binding: RootBinding;
   /** Arc length of each guide's polyline, in surface units. */
   readonly length: Float64Array;
   /** Why each guide's skin path ended (see `STOP` in trace.ts): it reached its length, or a boundary, singularity, curve or convergence. */
@@ -50,6 +61,12 @@ export type GrowOptions = {
    * picture of the coat, as thumbnails draw it, need not hold every guide).
    */
   readonly sampleOf?: number;
+  /**
+   * Sample the roots on this mesh and place them by face and weights on the surface: the mesh
+   * the groom was first grown on, when the surface is a sculpt pass of it (same triangles, moved
+   * vertices), so every guide keeps its id, polygon and weights. See `rootsOnSculpt`.
+   */
+  readonly rootsFrom?: TriangleMesh;
 };
 
 /** Tip width as a fraction of the root width. */
@@ -109,7 +126,9 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
     throw new GroomError('too-many-guides', `${made}${problem}`, path);
   }
   const wanted = options.sampleOf !== undefined ? Math.min(asked, options.sampleOf) : asked;
-  const roots = sampleRoots({ positions: p, triangles: tri, faceArea: surface.faceArea, count: wanted, allowedFace: mask, vertexDensity: pins.density, seed: settings.seed });
+  const sample = (on: TriangleMesh, faceArea: Float64Array) =>
+    sampleRoots({ positions: on.positions, triangles: on.triangles, faceArea, count: wanted, allowedFace: mask, vertexDensity: pins.density, seed: settings.seed });
+  const roots = options.rootsFrom ? rootsOnSculpt(options.rootsFrom, mesh, sample) : sample(mesh, surface.faceArea);
   const t1 = now();
 
   const n = settings.pointsPerGuide;
@@ -138,10 +157,14 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   let traceTime = 0;
   let pushedOut = 0;
 
-  for (let g = 0; g < count; g++) {
+  // Guides are stored in id order but grown in space order, so that the tracing of one guide
+  // finds the faces the one before it touched still in the cache.
+  const rootCell = Math.sqrt(area / Math.max(1, count)) * 4 || 1;
+  const traceOrder = cellOrder(roots.position.filter((_x, i) => i % 3 === 0), roots.position.filter((_x, i) => i % 3 === 1), roots.position.filter((_x, i) => i % 3 === 2), rootCell);
+  for (const g of traceOrder) {
     const f0 = roots.face[g];
     const rx = roots.position[3 * g], ry = roots.position[3 * g + 1], rz = roots.position[3 * g + 2];
-    barycentric(p, tri, f0, rx, ry, rz, weights);
+    weights.set(roots.barycentric.subarray(3 * g, 3 * g + 3));
     const jitter = settings.jitter * factor(pins.jitter, f0);
     const guideLength = settings.length * factor(pins.length, f0) * (1 + JITTER_LENGTH * jitter * (guideRandom(settings.seed, g, 0) - 0.5));
     const lift = Math.min(90, settings.lift * factor(pins.lift, f0)) * (Math.PI / 180);
@@ -205,7 +228,10 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
       count,
       pointsPerGuide: n,
       points,
+      guideId: Uint32Array.from({ length: count }, (_x, g) => g),
       rootFace: roots.face,
+      rootBarycentric: roots.barycentric,
+      binding: bindRoots(mesh, roots.face, roots.barycentric),
       length,
       stop,
       rootWidth: settings.width,

@@ -41,7 +41,8 @@ export const studioApi = {
   createVersion: (id: string, name: string) => request<{ version: GroomVersion }>('POST', studioApi.versionsUrl(id), { name }),
   restoreVersion: (id: string, versionId: string) => request<{ spec: GroomSpec; surfaceId: string; revision: number }>('POST', `${studioApi.versionsUrl(id)}/${encodeURIComponent(versionId)}/restore`),
 
-  startExport: (id: string, format: ExportFormat) => request<{ export: ExportJob }>('POST', `${studioApi.groomUrl(id)}/exports`, { format }),
+  startExport: (id: string, format: ExportFormat, options: { withSurface?: boolean } = {}) =>
+    request<{ export: ExportJob }>('POST', `${studioApi.groomUrl(id)}/exports`, { format, ...(options.withSurface ? { withSurface: true } : {}) }),
   getExport: (exportId: string) => request<{ export: ExportJob }>('GET', `/api/studio/exports/${encodeURIComponent(exportId)}`),
 };
 

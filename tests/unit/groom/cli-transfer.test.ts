@@ -32,7 +32,8 @@ afterAll(() => rmSync(folder, { recursive: true, force: true }));
 
 describe('whorlwind-groom --from', () => {
   it('carries the spec onto the new surface by landmarks, prints and writes the report, and grows there', () => {
-    const r = run('--surface', 'new.obj', '--spec', 'coat.json', '--from', 'old.obj', '--landmarks', 'landmarks.json', '--report', 'report.json', '--out', 'carried.json', '--out', 'g.usda');
+    // Both files have UVs (read since the reader keeps them), so alignment is asked for by name.
+    const r = run('--surface', 'new.obj', '--spec', 'coat.json', '--from', 'old.obj', '--method', 'alignment', '--landmarks', 'landmarks.json', '--report', 'report.json', '--out', 'carried.json', '--out', 'g.usda');
     expect(r.stderr).toEqual([]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/transfer\s+by alignment along the normal; alignment by landmarks/);
@@ -46,6 +47,10 @@ describe('whorlwind-groom --from', () => {
     // Within one edge of the new sphere (radius 2.54, 16 segments: an edge is about 1 unit).
     expect(Math.hypot(...carried.field.singularities[0].point!.map((x, i) => x - expected[i]))).toBeLessThan(1);
     expect(existsSync(join(folder, 'g.usda'))).toBe(true);
+    // Left to choose, it carries by UV, which both files have.
+    const auto = run('--surface', 'new.obj', '--spec', 'coat.json', '--from', 'old.obj', '--out', 'auto.json');
+    expect(auto.code).toBe(0);
+    expect(auto.stdout).toMatch(/transfer\s+by UV/);
   });
 
   it('refuses collinear landmarks in one line and writes nothing', () => {

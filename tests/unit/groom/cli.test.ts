@@ -39,6 +39,19 @@ describe('whorlwind-groom command line', () => {
     expect(r.stdout).toMatch(/solve field\s+[\d.]+ ms/);
   });
 
+  it('writes the growth surface beside the guides with --with-surface, and the release in the provenance', () => {
+    const r = run('--surface', 'ball.obj', '--spec', 'coat.json', '--out', 's.usda', '--out', 's.obj', '--with-surface');
+    expect(r.stderr).toEqual([]);
+    expect(r.code).toBe(0);
+    const usda = readFileSync(join(folder, 's.usda'), 'utf8');
+    expect(usda).toContain('def Mesh "Surface"');
+    expect(usda).toContain(`string version = "${JSON.parse(readFileSync(join(process.cwd(), 'package.json'), 'utf8')).version}"`);
+    expect(usda).toContain('primvars:whorlwind:rootBarycentric');
+    expect(readFileSync(join(folder, 's.obj'), 'utf8')).toMatch(/^o surface$/m);
+    run('--surface', 'ball.obj', '--spec', 'coat.json', '--out', 'plain.usda');
+    expect(readFileSync(join(folder, 'plain.usda'), 'utf8')).not.toContain('def Mesh');
+  });
+
   it('fails with exit code 1 and one line naming the problem on bad input', () => {
     writeFileSync(join(folder, 'bad.json'), JSON.stringify({ specVersion: 2, units: 'cm', field: {}, guides: { lift: 120 } }));
     const bad = run('--surface', 'ball.obj', '--spec', 'bad.json', '--out', 'x.usda');

@@ -39,7 +39,10 @@ describe('thumbnails', () => {
     expect(centre.slice(0, 3)).not.toEqual(BACKGROUND);
     expect(radius).toBeGreaterThan(size / 4);
     // Lit from the viewer's upper left: the middle is brighter than the lower right rim.
-    const rim = pixel(Math.round(size / 2 + 0.65 * radius), Math.round(size / 2 + 0.65 * radius));
+    // The rim: the skin pixel on the lower-right diagonal nearest 0.65 of the radius (a guide
+    // from the back, curving round the silhouette, may cover the exact pixel).
+    const along = [0.65, 0.64, 0.66, 0.63, 0.67, 0.62, 0.68, 0.61, 0.6].map((t) => pixel(Math.round(size / 2 + t * radius), Math.round(size / 2 + t * radius)));
+    const rim = along.find(isSkin) ?? along[0];
     expect(isSkin(rim)).toBe(true);
     expect(centre[0]).toBeGreaterThan(rim[0]);
   });

@@ -340,7 +340,8 @@ function triangleCount(mode: number, n: number): number {
  * drawn by the default scene (or, without scenes, by every top-level node; without nodes, every
  * mesh), placed by the world matrix of its node (skinned meshes in their stored bind pose),
  * counter-clockwise as glTF defines it (winding reversed under mirroring transforms). Strips and
- * fans keep glTF's orientation rule. Points and lines are skipped and noted. File vertices are the
+ * fans keep glTF's orientation rule. `TEXCOORD_0` gives each corner its UV (v turned to 1 − v).
+ * Points and lines are skipped and noted. File vertices are the
  * vertices of each drawn primitive, concatenated in drawing order; a mesh drawn twice contributes
  * twice. Throws a FieldError for anything malformed or truncated, `external-resource` for data in
  * other files, `too-many-faces` before reading any vertex data. Memory is bounded by the file size
@@ -385,6 +386,8 @@ export function readGltf(bytes: Uint8Array, binary: boolean, maxFaces: number): 
   let vertexTotal = 0;
   const positionBlocks: Float64Array[] = [];
   const corners = new Uint32Array(3 * triangles);
+  // glTF puts the UV origin at the top left; 1 − v puts it at the bottom left, as OBJ and USD have.
+  const cornerUvs = pieces.some((piece) => (piece.primitive.attributes as Json).TEXCOORD_0 !== undefined) ? new Float64Array(6 * triangles).fill(Number.NaN) : undefined;
   let t = 0;
   for (const piece of pieces) {
     const attributes = piece.primitive.attributes as Json;
@@ -393,9 +396,7 @@ export function readGltf(bytes: Uint8Array, binary: boolean, maxFaces: number): 
     const m = piece.drawn.skinned ? identity() : piece.drawn.matrix;
     const world = new Float64Array(local.length);
     for (let v = 0; v < n; v++) {
-      const x = local[3 * v];
-      const y = local[3 * v + 1];
-      const z = local[3 * v + 2];
+      const x = local[3 * v], y = local[3 * v + 1], z = local[3 * v + 2];
       world[3 * v] = m[0] * x + m[4] * y + m[8] * z + m[12];
       world[3 * v + 1] = m[1] * x + m[5] * y + m[9] * z + m[13];
       world[3 * v + 2] = m[2] * x + m[6] * y + m[10] * z + m[14];
@@ -415,10 +416,11 @@ export function readGltf(bytes: Uint8Array, binary: boolean, maxFaces: number): 
       return vertexTotal + v;
     };
     const mirrored = determinant3(m) < 0;
+    const uvs = cornerUvs && attributes.TEXCOORD_0 !== undefined ? readAccessor(doc, attributes.TEXCOORD_0 as number, 'VEC2', vertexLimit) : undefined;
+    if (uvs && uvs.length !== 2 * n) throw bad(`the TEXCOORD_0 of ${piece.where} has ${uvs.length / 2} values for ${n} vertices`);
+    const t0 = t;
     for (let k = 0; k < piece.triangles; k++) {
-      let a: number;
-      let b: number;
-      let c: number;
+      let a: number, b: number, c: number;
       if (piece.mode === MODE_TRIANGLES) [a, b, c] = [3 * k, 3 * k + 1, 3 * k + 2];
       else if (piece.mode === MODE_TRIANGLE_STRIP) [a, b, c] = k % 2 === 0 ? [k, k + 1, k + 2] : [k + 1, k, k + 2];
       else [a, b, c] = [k + 1, k + 2, 0];
@@ -426,6 +428,10 @@ export function readGltf(bytes: Uint8Array, binary: boolean, maxFaces: number): 
       corners[3 * t + 1] = corner(mirrored ? c : b);
       corners[3 * t + 2] = corner(mirrored ? b : c);
       t++;
+    }
+    for (let i = 3 * t0; uvs && i < 3 * t; i++) {
+      cornerUvs![2 * i] = uvs[2 * (corners[i] - vertexTotal)];
+      cornerUvs![2 * i + 1] = 1 - uvs[2 * (corners[i] - vertexTotal) + 1];
     }
     vertexTotal += n;
     if (vertexTotal > vertexLimit) throw bad(`the scene draws more than ${vertexLimit} vertices for at most ${maxFaces} triangles`);
@@ -437,5 +443,5 @@ export function readGltf(bytes: Uint8Array, binary: boolean, maxFaces: number): 
     positions.set(block, at);
     at += block.length;
   }
-  return { positions, polygonStart: triangleStarts(triangles), corners, firstVertexNumber: 0, notes };
+  return { positions, polygonStart: triangleStarts(triangles), corners, firstVertexNumber: 0, notes, ...(cornerUvs ? { cornerUvs } : {}) };
 }

@@ -7,7 +7,9 @@ import type { TriangleMesh } from '../mesh';
 import { readGltf } from './gltf';
 import { readObj } from './obj';
 import { readPly } from './ply';
-import { assembleSurface, type PolygonSoup } from './soup';
+import { assembleSurface, type PolygonSoup, type UvPresence } from './soup';
+
+export type { UvPresence } from './soup';
 import { hasBinaryStlSize, readAsciiStl, readBinaryStl } from './stl';
 
 export { DEFAULT_WELD_FRACTION } from './weld';
@@ -46,6 +48,8 @@ export interface SurfaceReadResult {
    * after welding); `examples` are the first few file faces (numbered from 0) they came from.
    */
   readonly collapsedTriangles: { readonly count: number; readonly examples: readonly number[] };
+  /** Texture coordinates on every corner (kept as `mesh.cornerUvs`), on some (left out), or none. */
+  readonly uvs: UvPresence;
   /** Plain-words remarks on what was ignored or assumed, for the upload report. */
   readonly notes: readonly string[];
 }

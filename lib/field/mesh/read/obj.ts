@@ -1,6 +1,6 @@
 /**
- * Wavefront OBJ, the format most modelling tools export: positions, polygons and face groups,
- * which become growth regions.
+ * Wavefront OBJ, the format most modelling tools export: positions, texture coordinates, polygons
+ * and face groups, which become growth regions.
  */
 import { FieldError } from '../errors';
 import { GrowableFloat64, GrowableUint32 } from './growable';
@@ -9,11 +9,13 @@ import { TextCursor, clip, parseInteger, parseNumber } from './text';
 
 const IGNORED_GEOMETRY = new Set(['l', 'p', 'curv', 'curv2', 'surf']);
 const MAX_GROUPS = 0xffff;
+const NO_UV = 0xffffffff;
 
 /**
- * Reads a Wavefront OBJ file: `v` positions and `f` faces (`i`, `i/t`, `i//n`, `i/t/n`, negative
- * indices counting back from the latest vertex), with `g` and `o` naming the group of the faces
- * that follow (the latest of the two wins). Lines, points, curves and every other statement are
+ * Reads a Wavefront OBJ file: `v` positions, `vt` texture coordinates (u and v; a third value is
+ * ignored) and `f` faces (`i`, `i/t`, `i//n`, `i/t/n`, negative indices counting back from the
+ * latest vertex or texture coordinate), with `g` and `o` naming the group of the faces
+ * that follow (the latest of the two wins). A corner's `t` becomes its UV. Lines, points, curves and every other statement are
  * ignored; lines, points and curves are noted.
  *
  * Guarantees: returns the polygons as written, or throws a FieldError (`malformed-file` naming the
@@ -34,6 +36,11 @@ export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
   let triangles = 0;
   let ignoredGeometry = 0;
   let vertexCount = 0;
+  const textureCoordinates = new GrowableFloat64(2 * 1024);
+  let uvCount = 0;
+  // Per corner: the texture coordinate's 0-based number, or NO_UV.
+  const cornerUv = new GrowableUint32(4096);
+  let anyCornerUv = false;
 
   const useGroup = (name: string) => {
     let g = groupIndex.get(name);
@@ -68,6 +75,13 @@ export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
         positions.push(parseNumber(tokenCount > 3 ? tokens[3] : null, where));
         vertexCount++;
         break;
+      case 'vt':
+        assertVertexBudget(uvCount + 1, maxFaces);
+        textureCoordinates.push(parseNumber(tokenCount > 1 ? tokens[1] : null, where));
+        // A missing v is 0 by the format's definition.
+        textureCoordinates.push(tokenCount > 2 ? parseNumber(tokens[2], where) : 0);
+        uvCount++;
+        break;
       case 'f':
       case 'fo': {
         for (let i = 1; i < tokenCount; i++) {
@@ -84,6 +98,20 @@ export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
             );
           }
           corners.push(Math.min(resolved, 0xffffffff));
+          const uv = textureIndex(tokens[i], where);
+          if (uv === null) {
+            cornerUv.push(NO_UV);
+          } else {
+            const uvResolved = uv > 0 ? uv - 1 : uvCount + uv;
+            if (uv === 0 || uvResolved < 0 || uvResolved >= uvCount) {
+              throw new FieldError(
+                'vertex-out-of-range',
+                `Line ${lineNumber} refers to texture coordinate ${uv}, but ${uv === 0 ? 'OBJ numbers them from 1' : `only ${uvCount} come before it`}.`,
+              );
+            }
+            cornerUv.push(uvResolved);
+            anyCornerUv = true;
+          }
         }
         polygonStart.push(corners.length);
         if (tokenCount > 3) triangles += tokenCount - 3;
@@ -113,14 +141,38 @@ export function readObj(bytes: Uint8Array, maxFaces: number): PolygonSoup {
   } else if (sawGroupStatement) {
     groups = { names: groupNames, groupOfFace: Uint16Array.from(groupOfPolygon.toArray()) };
   }
+  let cornerUvs: Float64Array | undefined;
+  if (anyCornerUv) {
+    const uvs = textureCoordinates.toArray();
+    cornerUvs = new Float64Array(2 * cornerUv.length).fill(Number.NaN);
+    for (let i = 0; i < cornerUv.length; i++) {
+      const t = cornerUv.get(i);
+      if (t === NO_UV) continue;
+      cornerUvs[2 * i] = uvs[2 * t];
+      cornerUvs[2 * i + 1] = uvs[2 * t + 1];
+    }
+  }
   return {
     positions: positions.toArray(),
     polygonStart: polygonStart.toArray(),
     corners: corners.toArray(),
     ...(groups ? { groups } : {}),
+    ...(cornerUvs ? { cornerUvs } : {}),
     firstVertexNumber: 1,
     notes,
   };
+}
+
+/**
+ * The texture coordinate number of a face corner (`5/7`, `5/7/2` → 7; `5`, `5//2` → null), or a
+ * FieldError when it is there but not a whole number.
+ */
+function textureIndex(token: string, where: () => string): number | null {
+  const slash = token.indexOf('/');
+  if (slash === -1) return null;
+  const end = token.indexOf('/', slash + 1);
+  const text = token.slice(slash + 1, end === -1 ? token.length : end);
+  return text === '' ? null : parseInteger(text, where);
 }
 
 /** Splits a line at spaces and tabs into `out`, reusing it across lines; returns the word count. */

@@ -42,6 +42,14 @@ interface Element {
   readonly headerLine: number;
 }
 
+/** Names of the vertex texture coordinates, in the order they are looked for (the first pair present wins). */
+const UV_NAMES: readonly (readonly [string, string])[] = [
+  ['s', 't'],
+  ['u', 'v'],
+  ['texture_u', 'texture_v'],
+  ['texture_s', 'texture_t'],
+];
+
 /** Bytes at the start of the file searched for `end_header`; real headers are a few hundred bytes. */
 const HEADER_SEARCH_LIMIT = 1 << 16;
 
@@ -52,7 +60,8 @@ export interface PlyRead {
 
 /**
  * Reads a PLY file, ASCII or binary of either byte order: `x y z` of the `vertex` element (any
- * numeric types) and the `vertex_indices` (or `vertex_index`) list of the `face` element (any
+ * numeric types), its texture coordinate when it has one (`s t`, `u v`, `texture_u texture_v`
+ * or `texture_s texture_t`, as a per-vertex UV every corner at the vertex shares) and the `vertex_indices` (or `vertex_index`) list of the `face` element (any
  * count and index types). Every other element and property is skipped by its declared size.
  *
  * Guarantees: returns the polygons as written, or throws a FieldError: `truncated-file` when the
@@ -69,6 +78,9 @@ export function readPly(bytes: Uint8Array, maxFaces: number): PlyRead {
   if (xyz.some((i) => i === -1)) {
     throw new FieldError('malformed-file', `The PLY “vertex” element (header line ${vertexElement.headerLine}) lacks an x, y or z property.`);
   }
+  const uvPair = UV_NAMES.map(([u, v]) => [u, v].map((name) => vertexElement.properties.findIndex((p) => p.name === name && !p.countType))).find(
+    ([u, v]) => u !== -1 && v !== -1,
+  );
   const faceElement = elements.find((e) => e.name === 'face');
   const indexProperty = faceElement ? faceElement.properties.findIndex((p) => (p.name === 'vertex_indices' || p.name === 'vertex_index') && p.countType) : -1;
   if (faceElement && indexProperty === -1) {
@@ -86,6 +98,7 @@ export function readPly(bytes: Uint8Array, maxFaces: number): PlyRead {
   assertVertexBudget(vertexElement.count, maxFaces);
 
   const positions = new Float64Array(3 * vertexElement.count);
+  const vertexUvs = uvPair ? new Float64Array(2 * vertexElement.count) : undefined;
   const polygonStart = new Uint32Array((faceElement?.count ?? 0) + 1);
   const corners = new GrowableUint32(3 * (faceElement?.count ?? 0));
   const notes: string[] = [];
@@ -98,6 +111,8 @@ export function readPly(bytes: Uint8Array, maxFaces: number): PlyRead {
     if (element === vertexElement) {
       const axis = xyz.indexOf(property);
       if (axis !== -1) positions[3 * record + axis] = value;
+      else if (vertexUvs && property === uvPair![0]) vertexUvs[2 * record] = value;
+      else if (vertexUvs && property === uvPair![1]) vertexUvs[2 * record + 1] = value;
     } else if (element === faceElement && property === indexProperty) {
       if (!Number.isInteger(value) || value < 0) {
         throw new FieldError('vertex-out-of-range', `PLY face ${record} refers to vertex ${value}, which cannot exist.`);
@@ -112,8 +127,20 @@ export function readPly(bytes: Uint8Array, maxFaces: number): PlyRead {
   if (encoding === 'ascii') readAsciiBody(bytes, bodyStart, bodyLine, elements, take, closeFace);
   else readBinaryBody(bytes, bodyStart, encoding === 'binary_little_endian', elements, take, closeFace);
 
+  const cornerList = corners.toArray();
+  let cornerUvs: Float64Array | undefined;
+  if (vertexUvs) {
+    // A PLY vertex has one UV, so every corner at it shares that UV; corners out of range are
+    // refused later, by the assembly, with the file's numbers.
+    cornerUvs = new Float64Array(2 * cornerList.length).fill(Number.NaN);
+    for (let i = 0; i < cornerList.length; i++) {
+      if (cornerList[i] >= vertexElement.count) continue;
+      cornerUvs[2 * i] = vertexUvs[2 * cornerList[i]];
+      cornerUvs[2 * i + 1] = vertexUvs[2 * cornerList[i] + 1];
+    }
+  }
   return {
-    soup: { positions, polygonStart, corners: corners.toArray(), firstVertexNumber: 0, notes },
+    soup: { positions, polygonStart, corners: cornerList, firstVertexNumber: 0, notes, ...(cornerUvs ? { cornerUvs } : {}) },
     encoding: encoding === 'ascii' ? 'text' : encoding === 'binary_little_endian' ? 'binary-little-endian' : 'binary-big-endian',
   };
 }

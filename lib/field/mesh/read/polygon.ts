@@ -7,8 +7,9 @@ const EAR_CLIPPING_LIMIT = 64;
 
 /**
  * Splits one polygon (corner indices into `positions`, in the file's winding) into `n − 2`
- * triangles and hands each to `emit` with the polygon's winding kept, so their normals agree
- * with the polygon's.
+ * triangles and hands each to `emit` as three of the polygon's own corner numbers (0 … n − 1,
+ * so the caller can state every triangle in the polygon's terms), with the polygon's winding
+ * kept, so their normals agree with the polygon's.
  *
  * Guarantees: always exactly `n − 2` triangles using only the polygon's corners; for a simple
  * planar (or nearly planar) polygon, convex or not, the triangles tile it without overlap (ear
@@ -24,7 +25,7 @@ export function triangulatePolygon(
 ): void {
   const corner = (i: number) => corners[start + i];
   if (n === 3) {
-    emit(corner(0), corner(1), corner(2));
+    emit(0, 1, 2);
     return;
   }
 
@@ -43,7 +44,7 @@ export function triangulatePolygon(
   const ay = Math.abs(ny);
   const az = Math.abs(nz);
   if (n > EAR_CLIPPING_LIMIT || !(ax + ay + az > 0)) {
-    for (let i = 1; i + 1 < n; i++) emit(corner(0), corner(i), corner(i + 1));
+    for (let i = 1; i + 1 < n; i++) emit(0, i, i + 1);
     return;
   }
 
@@ -86,7 +87,7 @@ export function triangulatePolygon(
     if (isEar(current) || failures >= remaining) {
       const a = prev[current];
       const c = next[current];
-      emit(corner(a), corner(current), corner(c));
+      emit(a, current, c);
       next[a] = c;
       prev[c] = a;
       remaining--;
@@ -97,5 +98,5 @@ export function triangulatePolygon(
       current = next[current];
     }
   }
-  emit(corner(prev[current]), corner(current), corner(next[current]));
+  emit(prev[current], current, next[current]);
 }

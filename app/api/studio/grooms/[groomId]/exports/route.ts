@@ -11,6 +11,6 @@ export function POST(request: Request, context: Context) {
   return handler(['groomer'], async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     const input = await readBody(request, createExportSchema);
-    return jsonData<ExportResponse>({ export: await requestExport(groomer, groomId, input.format) }, 202);
+    return jsonData<ExportResponse>({ export: await requestExport(groomer, groomId, input.format, { withSurface: input.withSurface }) }, 202);
   });
 }
