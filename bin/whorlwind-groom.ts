@@ -221,11 +221,12 @@ async function main(argv: string[]): Promise<void> {
   } else {
     spec = base!;
   }
-  if (options.from) spec = carryOver(spec, options, surface, read.mesh, time);
+  let rootsFrom: ReturnType<typeof readSurface>['mesh'] | undefined;
+  if (options.from) ({ spec, rootsFrom } = carryOver(spec, options, surface, read.mesh, time));
   const request = time('place features', () => fieldRequestFromSpec(spec, surface));
   const solved = time('solve field', () => solveField(surface.field, request));
   const needsGuides = options.out.some((out) => extname(out).toLowerCase() !== '.json') || options.thumbnails.length > 0 || options.stats;
-  const grown = needsGuides ? time('grow guides', () => growGuides(surface, solved, spec)) : null;
+  const grown = needsGuides ? time('grow guides', () => growGuides(surface, solved, spec, { rootsFrom })) : null;
   const made = { spec, surface, solved, guides: grown?.guides };
   for (const out of options.out) {
     const ext = extname(out).toLowerCase();
@@ -281,7 +282,17 @@ function readLandmarks(path: string): LandmarkPair[] {
 }
 
 /** The spec carried from --from onto the surface; the report printed (and written) before anything else is. */
-function carryOver(spec: GroomSpec, options: Options, surface: ReturnType<typeof prepareGroomSurface>, mesh: ReturnType<typeof readSurface>['mesh'], time: <T>(name: string, work: () => T) => T): GroomSpec {
+/**
+ * The spec carried from --from onto the surface, and — when the two have the same polygons (a
+ * sculpt pass) — the old mesh, so the guides grow from the same roots with the same ids.
+ */
+function carryOver(
+  spec: GroomSpec,
+  options: Options,
+  surface: ReturnType<typeof prepareGroomSurface>,
+  mesh: ReturnType<typeof readSurface>['mesh'],
+  time: <T>(name: string, work: () => T) => T,
+): { spec: GroomSpec; rootsFrom?: ReturnType<typeof readSurface>['mesh'] } {
   const old = time('read old surface', () => readSurface(readInput(options.from!, 'old surface'), options.from!));
   const oldSurface = time('prepare old', () => prepareGroomSurface(old.mesh, { boundary: spec.field.boundary }));
   const landmarks = options.landmarks ? readLandmarks(options.landmarks) : [];
@@ -296,7 +307,7 @@ function carryOver(spec: GroomSpec, options: Options, surface: ReturnType<typeof
   process.stdout.write(transferReportText(report));
   if (options.report) writeFileSync(options.report, `${JSON.stringify(report, null, 2)}\n`);
   if (!report.field.solved) throw new GroomError(report.field.code, `the field does not solve on the new surface: ${report.field.message}`);
-  return carried;
+  return { spec: carried, rootsFrom: report.method === 'topology' ? old.mesh : undefined };
 }
 
 main(process.argv.slice(2)).then(

@@ -53,6 +53,22 @@ describe('whorlwind-groom --from', () => {
     expect(auto.stdout).toMatch(/transfer\s+by UV/);
   });
 
+  it('a sculpt pass (same polygons, moved vertices): every guide keeps its id, polygon and weights', () => {
+    // The old sphere with every vertex pushed out or in a little, as a sculpt pass would.
+    let k = 0;
+    const sculpt = transferSphere(12, 16).obj.replace(/^v (\S+) (\S+) (\S+)$/gm, (_, x, y, z) => {
+      const f = 1 + 0.03 * Math.sin(1.7 * k++);
+      return `v ${Number(x) * f} ${Number(y) * f} ${Number(z) * f}`;
+    });
+    writeFileSync(join(folder, 'sculpt.obj'), sculpt);
+    expect(run('--surface', 'old.obj', '--spec', 'coat.json', '--out', 'before.usda').code).toBe(0);
+    const after = run('--surface', 'sculpt.obj', '--spec', 'coat.json', '--from', 'old.obj', '--out', 'after.usda');
+    expect(after.stderr).toEqual([]);
+    expect(after.stdout).toMatch(/transfer\s+by polygon/);
+    const primvar = (file: string, name: string) => readFileSync(join(folder, file), 'utf8').match(new RegExp(`primvars:whorlwind:${name} = (\\[[^\\]]*\\])`))![1];
+    for (const name of ['guideId', 'rootFace', 'rootBarycentric']) expect(primvar('after.usda', name), name).toBe(primvar('before.usda', name));
+  });
+
   it('refuses collinear landmarks in one line and writes nothing', () => {
     const r = run('--surface', 'new.obj', '--spec', 'coat.json', '--from', 'old.obj', '--landmarks', 'line.json', '--report', 'refused.json', '--out', 'refused.usda');
     expect(r.code).toBe(1);
