@@ -66,3 +66,4 @@ export {
   type SurfaceFacts,
 } from './transfer/transfer';
 export { transferReportText } from './transfer/report-text';
+export { withSurfacePositions } from './transfer/features';

@@ -3,7 +3,7 @@
 // presigned URL. The job reports its stage and progress on the export's row.
 import { FieldError } from '../field';
 import packageJson from '../../package.json';
-import { EXPORT_FORMAT_FACTS, GroomError, parseGroomSpec, writeExport } from '../groom';
+import { EXPORT_FORMAT_FACTS, GroomError, parseGroomSpec, writeExport, type GroomSpec } from '../groom';
 import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { putObject } from '../platform/storage';
@@ -15,7 +15,7 @@ import { enqueueExport, type ExportJobData } from './jobs';
 import { growStoredSpec, solveStoredSpec, type StageReport } from './grow';
 import { presignDownload } from '../platform/storage';
 import { deleteOrphanedObjects, STUDIO_URL_SECONDS } from './storage';
-import type { StoredSurfaceFile } from './surface-cache';
+import { preparedSurface, type StoredSurfaceFile } from './surface-cache';
 
 type ExportRow = {
   id: string;
@@ -110,11 +110,16 @@ export async function getExport(groomer: Groomer, exportId: string): Promise<Exp
 /** Where a studio export came from, written into the file. */
 type ExportOrigin = { groomId: string; specRevision: number; withSurface: boolean };
 
+async function specOnSurface(spec: GroomSpec, surface: StoredSurfaceFile) {
+  return { spec, surface: await preparedSurface(surface, spec.field.boundary) };
+}
+
 /** The bytes of one format, from the spec saved on the export (solving and tracing only as far as the format needs). */
 async function exportFile(format: ExportFormat, storedSpec: unknown, surface: StoredSurfaceFile, report: StageReport, origin: ExportOrigin): Promise<Uint8Array | string> {
   const { source } = EXPORT_FORMAT_FACTS[format];
   const made =
-    source === 'spec' ? { spec: parseGroomSpec(storedSpec) }
+    // The spec is written with each place's position on the surface, so the job prepares it too.
+    source === 'spec' ? await specOnSurface(parseGroomSpec(storedSpec), surface)
     : source === 'field' ? await solveStoredSpec(storedSpec, surface, report)
     : await growStoredSpec(storedSpec, surface, report);
   await report(WRITING);

@@ -121,10 +121,16 @@ describe('each format', () => {
     expect(disposition).toBe(`attachment; filename="${job.fileName}"`);
   });
 
-  it('json: the saved spec, exactly', async () => {
+  it('json: the saved spec, each place with where it sits on the surface in the file’s numbering', async () => {
     const { bytes } = await download(jobs.get('json')!);
-    expect(parseGroomSpecJson(text(bytes))).toEqual(groom.spec);
-    expect(JSON.parse(text(bytes))).toEqual(parseGroomSpec(cat.spec));
+    const written = parseGroomSpecJson(text(bytes));
+    // Without the positions, it is the saved spec exactly.
+    const withoutPositions = JSON.parse(JSON.stringify(written), (key, value) => (key === 'surface' ? undefined : value));
+    expect(withoutPositions).toEqual(groom.spec);
+    expect(withoutPositions).toEqual(parseGroomSpec(cat.spec));
+    expect(written.field.singularities.length).toBeGreaterThan(0);
+    for (const s of written.field.singularities) expect(s.surface).toMatchObject({ polygon: expect.any(Number), barycentric: expect.any(Array) });
+    for (const pin of written.pins) expect(pin.surface?.polygon).toEqual(expect.any(Number));
   });
 
   it('usda and usda-bspline: BasisCurves that three.js’s USDA parser reads', async () => {

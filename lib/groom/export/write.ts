@@ -7,6 +7,8 @@ import type { SolvedField } from '../../field';
 import type { Guides } from '../grow/guides';
 import type { GroomSurface } from '../place/surface';
 import { specToJson, type GroomSpec } from '../spec/spec';
+import { identityOfMesh } from '../transfer/identity';
+import { withSurfacePositions } from '../transfer/features';
 import { fieldToPly } from './field-ply';
 import type { ExportFormat } from './formats';
 import { guidesToGltf } from './gltf';
@@ -53,7 +55,8 @@ const WRITERS: Readonly<Record<ExportFormat, Writer>> = {
   gltf: (made, options) => guidesToGltf(guidesOf(made), { binary: false, ...extrasOf(made, options) }),
   glb: (made, options) => guidesToGltf(guidesOf(made), { binary: true, ...extrasOf(made, options) }),
   obj: (made, options) => guidesToObj(guidesOf(made), extrasOf(made, options)),
-  json: (made) => specToJson(made.spec),
+  // With the surface at hand, every place says where it sits in the file's own numbering too.
+  json: (made) => specToJson(made.surface ? withSurfacePositions(made.spec, made.surface, identityOfMesh(made.surface.mesh)) : made.spec),
   ply: (made) => {
     if (!made.surface || !made.solved) throw new Error('the field export is written from the solved field on its surface, and none was given');
     return fieldToPly(made.surface.mesh, made.solved.field);

@@ -136,6 +136,33 @@ export function anchorFeatures(spec: GroomSpec, surface: GroomSurface, identity:
   return out;
 }
 
+/**
+ * The spec with every placed feature's surface position (file polygon, barycentric, UV when the
+ * surface has them) written beside its point or vertex, as `surface` on the surface it was made
+ * on: what a later transfer carries it by, and what a pipeline reading the spec binds it with.
+ *
+ * Guarantees: points and vertices are left exactly as they are (no feature moves); a position
+ * already stored and still matching its point is kept; throws a GroomError naming the path for a
+ * place the surface cannot hold, as `anchorFeatures`.
+ */
+export function withSurfacePositions(spec: GroomSpec, surface: GroomSurface, identity: SurfaceIdentity): GroomSpec {
+  const at = new Map(anchorFeatures(spec, surface, identity).map((f) => [key(f.slot), f.position]));
+  const position = (slot: FeatureSlot) => at.get(key(slot))!;
+  const along = (list: 'partings' | 'crests' | 'strokes', item: number, count: number) => Array.from({ length: count }, (_, point) => position({ list, item, point }));
+  const curves = (list: 'partings' | 'crests') => spec.field[list].map((curve, item) => ({ ...curve, surface: along(list, item, curve.points?.length ?? curve.vertices!.length) }));
+  return {
+    ...spec,
+    field: {
+      ...spec.field,
+      singularities: spec.field.singularities.map((s, item) => ({ ...s, surface: position({ list: 'singularities', item }) })),
+      partings: curves('partings'),
+      crests: curves('crests'),
+      strokes: spec.field.strokes.map((stroke, item) => ({ ...stroke, surface: along('strokes', item, stroke.points.length) })),
+    },
+    pins: spec.pins.map((pin, item) => ({ ...pin, surface: position({ list: 'pins', item }) })),
+  };
+}
+
 /** Where a feature landed on the new surface (null: not carried). */
 export interface Landing {
   readonly point: [number, number, number];

@@ -42,7 +42,7 @@ const INNER_ROOMS: Record<string, string[]> = {
   'lib/groom/spec': ['lib/groom/errors.ts'],
   'lib/groom/place': ['lib/groom/spec', 'lib/groom/errors.ts'],
   'lib/groom/grow': ['lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
-  'lib/groom/export': ['lib/groom/grow', 'lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
+  'lib/groom/export': ['lib/groom/grow', 'lib/groom/place', 'lib/groom/spec', 'lib/groom/transfer', 'lib/groom/errors.ts'],
   'lib/groom/render': ['lib/groom/grow', 'lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
   'lib/groom/transfer': ['lib/groom/place', 'lib/groom/spec', 'lib/groom/errors.ts'],
 };

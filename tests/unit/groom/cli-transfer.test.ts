@@ -5,7 +5,8 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { parseGroomSpecJson, type TransferReport } from '@/lib/groom';
+import { readSurface } from '@/lib/field';
+import { identityOfMesh, parseGroomSpecJson, pointOfPosition, type TransferReport } from '@/lib/groom';
 import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
 
 const launcher = join(process.cwd(), 'bin', 'whorlwind-groom.mjs');
@@ -67,6 +68,22 @@ describe('whorlwind-groom --from', () => {
     expect(after.stdout).toMatch(/transfer\s+by polygon/);
     const primvar = (file: string, name: string) => readFileSync(join(folder, file), 'utf8').match(new RegExp(`primvars:whorlwind:${name} = (\\[[^\\]]*\\])`))![1];
     for (const name of ['guideId', 'rootFace', 'rootBarycentric']) expect(primvar('after.usda', name), name).toBe(primvar('before.usda', name));
+  });
+
+  it('writes a spec whose places carry where they sit in the file: polygon, barycentric and UV', () => {
+    expect(run('--surface', 'old.obj', '--spec', 'coat.json', '--out', 'placed.json').code).toBe(0);
+    const placed = parseGroomSpecJson(readFileSync(join(folder, 'placed.json'), 'utf8'));
+    const { mesh } = readSurface(readFileSync(join(folder, 'old.obj')), 'old.obj');
+    const identity = identityOfMesh(mesh);
+    const size = Math.hypot(2, 2, 2);
+    for (const s of placed.field.singularities) {
+      expect(s.surface?.uv).toHaveLength(2);
+      // The position names the vertex the singularity is placed on (within rounding of the written numbers).
+      const back = pointOfPosition(identity, mesh, s.surface!)!;
+      const p = mesh.positions;
+      const nearest = Math.min(...Array.from({ length: p.length / 3 }, (_, v) => Math.hypot(p[3 * v] - back[0], p[3 * v + 1] - back[1], p[3 * v + 2] - back[2])));
+      expect(nearest / size).toBeLessThan(1e-5);
+    }
   });
 
   it('refuses collinear landmarks in one line and writes nothing', () => {
