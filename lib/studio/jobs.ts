@@ -1,5 +1,5 @@
 // The studio's background work on the process's job queue (lib/platform/jobs.ts): surface checks,
-// exports, thumbnails, and the hourly sweep of abandoned uploads; its workers are in lib/studio/workers.ts.
+// exports, thumbnails, moves of grooms between surfaces, and the hourly sweep of abandoned uploads; its workers are in lib/studio/workers.ts.
 import type PgBoss from 'pg-boss';
 import { expiryOf, jobQueue, type JobBudget } from '../platform/jobs';
 
@@ -7,11 +7,13 @@ export const EXPORT_QUEUE = 'studio-export';
 export const THUMBNAIL_QUEUE = 'studio-thumbnail';
 export const UPLOAD_SWEEP_QUEUE = 'studio-upload-sweep';
 export const SURFACE_CHECK_QUEUE = 'studio-surface-check';
+export const SURFACE_MOVE_QUEUE = 'studio-surface-move';
 /** When abandoned uploads are swept: hourly. */
 export const UPLOAD_SWEEP_CRON = '23 * * * *';
 
 export type ExportJobData = { exportId: string };
 export type SurfaceCheckJobData = { surfaceId: string };
+export type SurfaceMoveJobData = { moveId: string };
 /** Without `versionId`, the groom's saved spec is rendered; with it, that version's spec. */
 export type ThumbnailJobData = { groomId: string; versionId?: string };
 
@@ -23,6 +25,8 @@ export type ThumbnailJobData = { groomId: string; versionId?: string };
  */
 export const EXPORT_BUDGET: JobBudget = { seconds: 10 * 60, memoryMb: 1536 };
 export const THUMBNAIL_BUDGET: JobBudget = { seconds: 3 * 60, memoryMb: 768 };
+/** Two surfaces read and prepared (each up to the face limit) and a spec carried from one to the other. */
+export const SURFACE_MOVE_BUDGET: JobBudget = { seconds: 5 * 60, memoryMb: 2048 };
 /** Reading and checking a surface of up to 200 MB and 2,000,000 faces, with its thumbnail and starting spec. */
 export const SURFACE_CHECK_BUDGET: JobBudget = { seconds: 5 * 60, memoryMb: 1536 };
 
@@ -33,6 +37,7 @@ const STUDIO_QUEUES: PgBoss.Queue[] = [
   { name: THUMBNAIL_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: expiryOf(THUMBNAIL_BUDGET) },
   { name: UPLOAD_SWEEP_QUEUE, retryLimit: 0, expireInSeconds: 10 * 60 },
   { name: SURFACE_CHECK_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: expiryOf(SURFACE_CHECK_BUDGET) },
+  { name: SURFACE_MOVE_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: expiryOf(SURFACE_MOVE_BUDGET) },
 ];
 
 /** The job queue of this process, with the studio's queues made. */
@@ -42,6 +47,11 @@ export function studioBoss(): Promise<PgBoss> {
 
 export async function enqueueExport(data: ExportJobData): Promise<void> {
   await (await studioBoss()).send(EXPORT_QUEUE, data);
+}
+
+/** Queues the working out of a groom's move onto another surface. */
+export async function enqueueSurfaceMove(data: SurfaceMoveJobData): Promise<void> {
+  await (await studioBoss()).send(SURFACE_MOVE_QUEUE, data);
 }
 
 /** Queues the check of a registered surface. */

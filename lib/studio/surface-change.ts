@@ -2,21 +2,18 @@
 // groomer's surfaces): the spec is carried over by lib/groom's transfer, the report is shown
 // before anything changes, and accepting it keeps the groom as it was as a version on its old
 // surface, then switches surface and spec in one transaction. Starting a new groom from a groom
-// on another surface uses the same transfer.
+// on another surface uses the same transfer. The transfer itself is a job (runSurfaceMove).
 import { GroomError, identityOfMesh, transferSpec, type GroomSpec, type TransferReport } from '../groom';
 import { FieldError } from '../field';
 import type { Groomer } from '../accounts/actor';
 import { db } from '../platform/db';
 import { HttpError } from '../http/errors';
 import { notFound } from './errors';
-import { enqueueThumbnail } from './jobs';
+import { enqueueSurfaceMove, enqueueThumbnail, SURFACE_MOVE_BUDGET, type SurfaceMoveJobData } from './jobs';
 import { getGroom, GROOM_NAME_MAX, type GroomRow } from './grooms';
 import { preparedSurface } from './surface-cache';
 import { ownSurfaceRow, type SurfaceRow } from './surfaces';
 import type { GroomDetail, SurfaceMoveInput, SurfaceMovePreview } from './types';
-
-/** Surfaces larger than this are not moved inside a request (preparing two of them would hold the server up). */
-export const MOVE_MAX_FACES = 400_000;
 
 function fileOf(row: SurfaceRow) {
   return { id: row.id, objectKey: row.object_key, fileName: row.file_name };
@@ -30,31 +27,74 @@ async function readyTarget(groomer: Groomer, surfaceId: string): Promise<Surface
   return row;
 }
 
-/** The transfer of a groom's saved spec onto one of the groomer's ready surfaces; nothing is written. */
-async function carry(groomer: Groomer, groom: GroomRow, input: SurfaceMoveInput): Promise<{ spec: GroomSpec; report: TransferReport; from: SurfaceRow; to: SurfaceRow }> {
+type MoveRow = { id: string; groom_id: string; target_surface_id: string; input: SurfaceMoveInput; status: 'queued' | 'running' | 'done' | 'failed'; revision: number | null; spec: GroomSpec | null; report: TransferReport | null; error: string | null };
+
+/** How often a request waiting for its move looks at the row. */
+const MOVE_POLL_MS = 150;
+/** How long a request waits for a job worker to take and finish the move: its budget, and a queue's wait on top. */
+const MOVE_WAIT_MS = (SURFACE_MOVE_BUDGET.seconds + 60) * 1000;
+
+/**
+ * The transfer of a groom's saved spec onto one of the groomer's ready surfaces, worked out by a
+ * job worker (reading and preparing two surfaces is heavy work, never done on the web server);
+ * the request waits for the job's row, without holding the server's event loop. Nothing is written
+ * but that row, which is gone again when this returns.
+ */
+async function carry(groomer: Groomer, groom: GroomRow, input: SurfaceMoveInput): Promise<{ spec: GroomSpec; report: TransferReport; revision: number; from: SurfaceRow; to: SurfaceRow }> {
   const from: SurfaceRow = await db()('growth_surfaces').where({ id: groom.surface_id }).first();
   const to = await readyTarget(groomer, input.surfaceId);
-  for (const row of [from, to]) {
-    if ((row.face_count ?? 0) > MOVE_MAX_FACES) {
-      throw new HttpError(413, 'too-large', `${row.name} has ${row.face_count!.toLocaleString('en')} faces; the studio moves grooms between surfaces of at most ${MOVE_MAX_FACES.toLocaleString('en')}. Use the command line (whorlwind-groom --from) for larger ones.`);
-    }
-  }
-  const boundary = groom.spec.field.boundary;
-  const [old, next] = [await preparedSurface(fileOf(from), boundary), await preparedSurface(fileOf(to), boundary)];
+  const [{ id }] = await db()('groom_surface_moves').insert({ groom_id: groom.id, target_surface_id: to.id, input: JSON.stringify(input) }).returning('id');
   try {
+    await enqueueSurfaceMove({ moveId: id });
+    const deadline = Date.now() + MOVE_WAIT_MS;
+    for (;;) {
+      const row: MoveRow | undefined = await db()('groom_surface_moves').where({ id }).first();
+      if (!row) throw notFound('groom');
+      if (row.status === 'done') return { spec: row.spec!, report: row.report!, revision: row.revision!, from, to };
+      if (row.status === 'failed') throw new HttpError(422, 'transfer-refused', row.error!);
+      if (Date.now() > deadline) throw new HttpError(503, 'service-unavailable', 'Carrying the groom over took too long (no job worker took it, or it is still busy); try again in a moment.');
+      await new Promise((resolve) => setTimeout(resolve, MOVE_POLL_MS));
+    }
+  } finally {
+    await db()('groom_surface_moves').where({ id }).delete();
+  }
+}
+
+/**
+ * The job: carries the groom's saved spec onto the move's surface and writes the result (or why
+ * not) on the move's row. A move whose row is gone (its request gave up) or no longer queued is
+ * left alone.
+ */
+export async function runSurfaceMove({ moveId }: SurfaceMoveJobData): Promise<void> {
+  const taken = await db()('groom_surface_moves').where({ id: moveId, status: 'queued' }).update({ status: 'running', updated_at: db().fn.now() });
+  if (taken === 0) return;
+  const row: MoveRow = await db()('groom_surface_moves').where({ id: moveId }).first();
+  const groom: GroomRow | undefined = await db()('grooms').where({ id: row.groom_id }).first();
+  if (!groom) return failSurfaceMove({ moveId }, 'The groom was deleted meanwhile.');
+  const from: SurfaceRow = await db()('growth_surfaces').where({ id: groom.surface_id }).first();
+  const to: SurfaceRow = await db()('growth_surfaces').where({ id: row.target_surface_id }).first();
+  const boundary = groom.spec.field.boundary;
+  try {
+    const old = await preparedSurface(fileOf(from), boundary);
+    const next = await preparedSurface(fileOf(to), boundary);
     const { spec, report } = transferSpec(
       groom.spec,
       { surface: old, identity: identityOfMesh(old.mesh), units: from.units },
       { surface: next, identity: identityOfMesh(next.mesh), units: to.units },
-      { landmarks: input.landmarks ?? [], regionMap: input.regionMap ?? {}, method: input.method ?? 'auto' },
+      { landmarks: row.input.landmarks ?? [], regionMap: row.input.regionMap ?? {}, method: row.input.method ?? 'auto' },
     );
-    return { spec, report, from, to };
+    await db()('groom_surface_moves')
+      .where({ id: moveId })
+      .update({ status: 'done', revision: groom.revision, spec: JSON.stringify(spec), report: JSON.stringify(report), updated_at: db().fn.now() });
   } catch (error) {
-    if (error instanceof GroomError || error instanceof FieldError) {
-      throw new HttpError(422, 'transfer-refused', `The groom cannot be moved onto ${to.name}: ${error.message}`);
-    }
-    throw error;
+    if (!(error instanceof GroomError || error instanceof FieldError)) throw error;
+    await failSurfaceMove({ moveId }, `The groom cannot be moved onto ${to.name}: ${error.message}`);
   }
+}
+
+/** Marks a move failed with words for the groomer (also when its job is stopped past its budget). */
+export async function failSurfaceMove({ moveId }: SurfaceMoveJobData, message: string): Promise<void> {
+  await db()('groom_surface_moves').where({ id: moveId }).whereIn('status', ['queued', 'running']).update({ status: 'failed', error: message, updated_at: db().fn.now() });
 }
 
 async function ownGroomRow(groomer: Groomer, groomId: string): Promise<GroomRow> {
@@ -66,8 +106,8 @@ async function ownGroomRow(groomer: Groomer, groomId: string): Promise<GroomRow>
 /** What moving the groom onto the surface would do: the carried spec's report, and the revision it was made from. Writes nothing. */
 export async function previewSurfaceMove(groomer: Groomer, groomId: string, input: SurfaceMoveInput): Promise<SurfaceMovePreview> {
   const groom = await ownGroomRow(groomer, groomId);
-  const { report, from, to } = await carry(groomer, groom, input);
-  return { report, revision: groom.revision, from: { id: from.id, name: from.name }, to: { id: to.id, name: to.name } };
+  const { report, revision, from, to } = await carry(groomer, groom, input);
+  return { report, revision, from: { id: from.id, name: from.name }, to: { id: to.id, name: to.name } };
 }
 
 /**
@@ -81,7 +121,8 @@ export async function acceptSurfaceMove(groomer: Groomer, groomId: string, input
     new HttpError(409, 'stale-revision', `The spec changed since revision ${input.baseRevision} (now ${revision}); look at the transfer report again before moving the groom.`, { details: { revision } });
   if (groom.revision !== input.baseRevision) throw stale(groom.revision);
   if (groom.surface_id === input.surfaceId) throw new HttpError(409, 'same-surface', 'The groom already grows on that surface.');
-  const { spec, to } = await carry(groomer, groom, input);
+  const { spec, revision, to } = await carry(groomer, groom, input);
+  if (revision !== input.baseRevision) throw stale(revision);
   const versionId = await db().transaction(async (trx) => {
     const locked: GroomRow | undefined = await trx('grooms').where({ id: groomId, owner_id: groomer.userId }).forUpdate().first();
     if (!locked) throw notFound('groom');

@@ -1,14 +1,15 @@
 // The studio's jobs as a job-worker process (services/jobs-worker.ts) runs them: surface checks,
-// exports and thumbnails are heavy (each in a child process with a time and memory budget, one at a time per
+// exports, thumbnails and moves of grooms between surfaces are heavy (each in a child process with a time and memory budget, one at a time per
 // queue and worker), the hourly sweep of abandoned uploads is light.
 import type { AreaJobs, JobKind } from '../platform/jobs';
 import { db } from '../platform/db';
-import type { ExportJobData, SurfaceCheckJobData, ThumbnailJobData } from './jobs';
-import { EXPORT_BUDGET, EXPORT_QUEUE, studioBoss, SURFACE_CHECK_BUDGET, SURFACE_CHECK_QUEUE, THUMBNAIL_BUDGET, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
+import type { ExportJobData, SurfaceCheckJobData, SurfaceMoveJobData, ThumbnailJobData } from './jobs';
+import { EXPORT_BUDGET, EXPORT_QUEUE, studioBoss, SURFACE_CHECK_BUDGET, SURFACE_CHECK_QUEUE, SURFACE_MOVE_BUDGET, SURFACE_MOVE_QUEUE, THUMBNAIL_BUDGET, THUMBNAIL_QUEUE, UPLOAD_SWEEP_CRON, UPLOAD_SWEEP_QUEUE } from './jobs';
 import { runExport } from './exports';
 import { sweepAbandonedUploads } from './surfaces';
 import { renderGroomThumbnail } from './thumbnails';
 import { checkRegisteredSurface, refuseSurface } from './surface-check';
+import { failSurfaceMove, runSurfaceMove } from './surface-change';
 
 const surfaceCheckKind: JobKind<SurfaceCheckJobData> = {
   queue: SURFACE_CHECK_QUEUE,
@@ -36,6 +37,16 @@ const exportKind: JobKind<ExportJobData> = {
   },
 };
 
+const surfaceMoveKind: JobKind<SurfaceMoveJobData> = {
+  queue: SURFACE_MOVE_QUEUE,
+  what: 'Carrying the groom over',
+  lighter: 'Surfaces with fewer faces are lighter to carry a groom between.',
+  pollingSeconds: 1,
+  budget: SURFACE_MOVE_BUDGET,
+  run: runSurfaceMove,
+  fail: failSurfaceMove,
+};
+
 // A thumbnail has no row of its own to mark: the groom keeps its previous picture.
 const thumbnailKind: JobKind<ThumbnailJobData> = {
   queue: THUMBNAIL_QUEUE,
@@ -59,7 +70,7 @@ const sweepKind: JobKind<unknown> = {
 export const STUDIO_JOBS: AreaJobs = {
   area: 'studio',
   boss: studioBoss,
-  kinds: [surfaceCheckKind, exportKind, thumbnailKind, sweepKind],
+  kinds: [surfaceCheckKind, exportKind, thumbnailKind, surfaceMoveKind, sweepKind],
   // One schedule for all processes: pg-boss keeps it by queue name and sends each slot once.
   onStart: async (boss) => {
     await boss.schedule(UPLOAD_SWEEP_QUEUE, UPLOAD_SWEEP_CRON);

@@ -21,6 +21,7 @@ import nextConfig from '@/next.config';
 import { closeDb, db } from '@/lib/platform/db';
 import { putObject } from '@/lib/platform/storage';
 import { stopJobs } from '@/lib/platform/jobs';
+import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import type { Actor } from '@/lib/accounts/actor';
 import type { GroomDetail, SurfaceSummary } from '@/lib/studio/types';
@@ -137,9 +138,13 @@ async function openPage(row: PageRow, who: Who): Promise<PageStatus> {
 const label = (row: { path: string; note?: string }, method?: string) => `${method ? `${method} ` : ''}${row.path}${row.note ? ` (${row.note})` : ''}`;
 
 describe('route handlers answer each person as the matrix says', () => {
+  // Some answers wait for a job (carrying a groom onto another surface), as they would in production.
+  let worker: JobsWorkerProcess;
   beforeAll(async () => {
+    worker = await startJobsWorkerProcess();
     await makeCastAndThings();
   });
+  afterAll(() => worker.stop());
 
   it.each(ROUTE_ROWS.map((row) => [label(row, row.method), row] as const))('%s', async (_, row) => {
     const actual = {} as Record<Who, number>;

@@ -5,6 +5,7 @@
 import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
+import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
 import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
@@ -33,7 +34,11 @@ const call = (account: TestAccount, module: object, method: 'GET' | 'POST' | 'PU
   callRoute(module, method, path(id, rest), { cookie: account.cookie, body, params: { groomId: id, ...extra } });
 const detail = async (id: string): Promise<GroomDetail> => (await expectJson(await call(pip, groomRoute, 'GET', id, ''), 200)).data.groom;
 
+// The transfer is a job: the requests wait for a job worker, as beside the app.
+let worker: JobsWorkerProcess;
+
 beforeAll(async () => {
+  worker = await startJobsWorkerProcess();
   ({ owner: pip, rival } = await studioCast('move'));
   surfaces = {
     first: await createSurface(pip, 'pip-1.obj', encode(first.obj), 'Pip, first sculpt'),
@@ -46,7 +51,10 @@ beforeAll(async () => {
   groom = await detail(groom.id);
 });
 
-afterAll(closeDb);
+afterAll(async () => {
+  await worker.stop();
+  await closeDb();
+});
 
 describe('moving a groom onto a new sculpt of its character', () => {
   it('shows the transfer report first and writes nothing', async () => {
@@ -57,6 +65,8 @@ describe('moving a groom onto a new sculpt of its character', () => {
     expect(preview.report.features.map((f) => [f.path, f.to !== null])).toEqual([['field.singularities[0]', true], ['field.singularities[1]', true]]);
     expect(preview.report.field).toEqual({ solved: true });
     expect((await detail(groom.id)).surface.id).toBe(surfaces.first.id);
+    // The job's working row is gone once the report is answered.
+    expect(await db()('groom_surface_moves').where({ groom_id: groom.id }).count({ n: '*' }).first()).toEqual({ n: '0' });
     const rivalAsks = await call(rival, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id });
     expect(rivalAsks.status).toBe(404);
   });
