@@ -235,7 +235,8 @@ test('the editor: features through the side list, measured indices equal the pla
     await page.getByRole('button', { name: `Export ${label}` }).click();
     const file = await download;
     files[format] = readFileSync((await file.path())!);
-    await expect(page.getByTestId('export-job').filter({ has: page.getByTestId('export-download') }).first()).toBeVisible();
+    // The newest export is brought into view of the panel, download link and all.
+    await expect(page.getByTestId('export-job').first().getByTestId('export-download')).toBeInViewport();
   }
   // With the box ticked, the guides come with the growth surface they are bound to.
   await page.getByTestId('export-with-surface').check();
@@ -250,6 +251,8 @@ test('the editor: features through the side list, measured indices equal the pla
   const spec = parseGroomSpecJson(files.json.toString('utf8'));
   expect(spec.field.singularities.map((s) => s.index)).toEqual([1, 1, -1]);
   expect(spec.field.partings).toHaveLength(1);
+  // Each place says where it sits in the surface file's own numbering.
+  expect(spec.field.singularities.every((s) => s.surface && s.surface.polygon >= 0)).toBe(true);
   for (const format of ['usda', 'usda-bspline'] as const) {
     const text = files[format].toString('utf8');
     expect(text.startsWith('#usda 1.0')).toBe(true);

@@ -41,6 +41,11 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
     setJobs((all) => [job, ...all.filter((other) => other.id !== job.id)]);
   }
 
+  /** The list sits under the format buttons, below the fold of the panel: its entry is brought into view when it changes. */
+  function bringIntoView(id: string) {
+    requestAnimationFrame(() => document.getElementById(`export-${id}`)?.scrollIntoView({ block: 'nearest', behavior: 'smooth' }));
+  }
+
   function poll(id: string) {
     timers.current.set(
       id,
@@ -55,6 +60,7 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
         if (job.status === 'done' && job.downloadUrl && !downloaded.current.has(job.id)) {
           downloaded.current.add(job.id);
           startDownload(job.downloadUrl, job.fileName);
+          bringIntoView(job.id);
         } else if (job.status === 'queued' || job.status === 'running') {
           poll(id);
         }
@@ -74,6 +80,7 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
     setStarting(null);
     if (!outcome.ok) return setFailure(outcome.error.message);
     replace(outcome.data.export);
+    bringIntoView(outcome.data.export.id);
     poll(outcome.data.export.id);
   }
 
@@ -107,7 +114,7 @@ export function ExportPanel({ groomId, flush }: { groomId: string; flush: () => 
       {jobs.length > 0 && (
         <ol className="flex flex-col gap-2" aria-label="Exports">
           {jobs.map((job) => (
-            <li key={job.id} className="flex flex-col gap-1.5 rounded-xl bg-chalk p-3" data-testid="export-job" data-format={job.format} data-status={job.status}>
+            <li key={job.id} id={`export-${job.id}`} className="flex flex-col gap-1.5 rounded-xl bg-chalk p-3" data-testid="export-job" data-format={job.format} data-status={job.status}>
               <span className="text-sm font-semibold text-loam">
                 {EXPORT_FORMATS.find((f) => f.format === job.format)?.label ?? job.format}
                 {job.withSurface && <span className="font-normal text-loam-soft"> · with the surface</span>}
