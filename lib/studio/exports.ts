@@ -15,7 +15,7 @@ import { enqueueExport, type ExportJobData } from './jobs';
 import { growStoredSpec, solveStoredSpec, type StageReport } from './grow';
 import { presignDownload } from '../platform/storage';
 import { deleteOrphanedObjects, STUDIO_URL_SECONDS } from './storage';
-import { preparedSurface, type StoredSurfaceFile } from './surface-cache';
+import { preparedSurface, surfaceMesh, type StoredSurfaceFile } from './surface-cache';
 
 type ExportRow = {
   id: string;
@@ -108,7 +108,13 @@ export async function getExport(groomer: Groomer, exportId: string): Promise<Exp
 }
 
 /** Where a studio export came from, written into the file. */
-type ExportOrigin = { groomId: string; specRevision: number; withSurface: boolean };
+type ExportOrigin = {
+  groomId: string;
+  specRevision: number;
+  withSurface: boolean;
+  /** The earlier sculpt the guides' roots are sampled on (see grooms.roots_surface_id), or null. */
+  roots: StoredSurfaceFile | null;
+};
 
 async function specOnSurface(spec: GroomSpec, surface: StoredSurfaceFile) {
   return { spec, surface: await preparedSurface(surface, spec.field.boundary) };
@@ -121,7 +127,7 @@ async function exportFile(format: ExportFormat, storedSpec: unknown, surface: St
     // The spec is written with each place's position on the surface, so the job prepares it too.
     source === 'spec' ? await specOnSurface(parseGroomSpec(storedSpec), surface)
     : source === 'field' ? await solveStoredSpec(storedSpec, surface, report)
-    : await growStoredSpec(storedSpec, surface, report);
+    : await growStoredSpec(storedSpec, surface, report, origin.roots ? { rootsFrom: await surfaceMesh(origin.roots) } : {});
   await report(WRITING);
   const provenance = { groomId: origin.groomId, specRevision: origin.specRevision, whorlwindVersion: packageJson.version };
   return writeExport(format, made, { withSurface: origin.withSurface, provenance });
@@ -136,8 +142,9 @@ export async function runExport({ exportId }: ExportJobData): Promise<void> {
   const row = await db()('groom_exports as e')
     .join('grooms as g', 'g.id', 'e.groom_id')
     .join('growth_surfaces as s', 's.id', 'g.surface_id')
+    .leftJoin('growth_surfaces as r', 'r.id', 'g.roots_surface_id')
     .where('e.id', exportId)
-    .first('e.id', 'e.groom_id', 'e.format', 'e.status', 'e.spec', 'e.spec_revision', 'e.with_surface', 'e.file_name', 's.id as surface_id', 's.object_key', 's.file_name as surface_file_name');
+    .first('e.id', 'e.groom_id', 'e.format', 'e.status', 'e.spec', 'e.spec_revision', 'e.with_surface', 'e.file_name', 's.id as surface_id', 's.object_key', 's.file_name as surface_file_name', 'r.id as roots_id', 'r.object_key as roots_key', 'r.file_name as roots_file_name');
   if (!row || row.status === 'done') return;
   const update = (values: Record<string, unknown>) => db()('groom_exports').where({ id: exportId }).update({ ...values, updated_at: db().fn.now() });
   const report: StageReport = async ({ stage, progress }) => {
@@ -146,7 +153,8 @@ export async function runExport({ exportId }: ExportJobData): Promise<void> {
   await report({ stage: 'starting', progress: 0.01 });
   try {
     const surface = { id: row.surface_id, objectKey: row.object_key, fileName: row.surface_file_name };
-    const bytes = await exportFile(row.format, row.spec, surface, report, { groomId: row.groom_id, specRevision: row.spec_revision, withSurface: row.with_surface });
+    const roots = row.roots_id ? { id: row.roots_id, objectKey: row.roots_key, fileName: row.roots_file_name } : null;
+    const bytes = await exportFile(row.format, row.spec, surface, report, { groomId: row.groom_id, specRevision: row.spec_revision, withSurface: row.with_surface, roots });
     await report(STORING);
     const key = `exports/${row.groom_id}/${exportId}/${row.file_name}`;
     await putObject(key, bytes, EXPORT_FORMAT_FACTS[row.format as ExportFormat].mediaType);

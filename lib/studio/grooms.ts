@@ -20,6 +20,8 @@ export type GroomRow = {
   id: string;
   owner_id: string;
   surface_id: string;
+  /** The surface whose roots the guides grow from, when it is an earlier sculpt of `surface_id` (same polygons). */
+  roots_surface_id: string | null;
   name: string;
   spec: GroomSpec;
   revision: number;
@@ -37,7 +39,7 @@ type GroomListRow = GroomRow & {
   latest_name: string | null;
 };
 
-type VersionRow = { id: string; groom_id: string; surface_id: string; number: number; name: string; spec: GroomSpec; source_revision: number; thumbnail_key: string | null; created_at: Date };
+type VersionRow = { id: string; groom_id: string; surface_id: string; roots_surface_id: string | null; number: number; name: string; spec: GroomSpec; source_revision: number; thumbnail_key: string | null; created_at: Date };
 
 /** The groomer's grooms with what their summaries show, newest edit first. */
 function groomListQuery(groomer: Groomer, connection: Knex | Knex.Transaction = db()) {
@@ -143,7 +145,7 @@ export async function duplicateGroom(groomer: Groomer, groomId: string, name?: s
   if (!original) throw notFound('groom');
   const copyName = name ?? `${original.name.slice(0, GROOM_NAME_MAX - ' (copy)'.length)} (copy)`;
   const [{ id }] = await db()('grooms')
-    .insert({ owner_id: groomer.userId, surface_id: original.surface_id, name: copyName, spec: JSON.stringify(original.spec) })
+    .insert({ owner_id: groomer.userId, surface_id: original.surface_id, roots_surface_id: original.roots_surface_id, name: copyName, spec: JSON.stringify(original.spec) })
     .returning('id');
   await enqueueThumbnail({ groomId: id });
   return getGroom(groomer, id);
@@ -208,7 +210,7 @@ export async function createVersion(groomer: Groomer, groomId: string, name: str
     const groom = await lockOwnGroom(trx, groomer, groomId);
     const [{ latest }] = await trx('groom_versions').where({ groom_id: groomId }).max<{ latest: number | null }[]>('number as latest');
     const [row] = await trx('groom_versions')
-      .insert({ groom_id: groomId, surface_id: groom.surface_id, number: (latest ?? 0) + 1, name, spec: JSON.stringify(groom.spec), source_revision: groom.revision })
+      .insert({ groom_id: groomId, surface_id: groom.surface_id, roots_surface_id: groom.roots_surface_id, number: (latest ?? 0) + 1, name, spec: JSON.stringify(groom.spec), source_revision: groom.revision })
       .returning('*');
     await trx('grooms').where({ id: groomId }).update({ updated_at: trx.fn.now() });
     return row as VersionRow;
@@ -235,7 +237,7 @@ export async function restoreVersion(groomer: Groomer, groomId: string, versionI
     if (!row) throw notFound('version');
     const [saved] = await trx('grooms')
       .where({ id: groomId })
-      .update({ spec: JSON.stringify(row.spec), surface_id: row.surface_id, revision: groom.revision + 1, spec_saved_at: trx.fn.now(), updated_at: trx.fn.now() })
+      .update({ spec: JSON.stringify(row.spec), surface_id: row.surface_id, roots_surface_id: row.roots_surface_id, revision: groom.revision + 1, spec_saved_at: trx.fn.now(), updated_at: trx.fn.now() })
       .returning(['spec', 'surface_id', 'revision', 'spec_saved_at']);
     return { spec: saved.spec as GroomSpec, surfaceId: saved.surface_id as string, revision: saved.revision as number, savedAt: (saved.spec_saved_at as Date).toISOString() };
   });

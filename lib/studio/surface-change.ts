@@ -97,6 +97,15 @@ export async function failSurfaceMove({ moveId }: SurfaceMoveJobData, message: s
   await db()('groom_surface_moves').where({ id: moveId }).whereIn('status', ['queued', 'running']).update({ status: 'failed', error: message, updated_at: db().fn.now() });
 }
 
+/**
+ * The surface guides grow their roots from after a move: on a sculpt pass (carried by polygon) the
+ * one the groom's roots already came from, so guide ids, polygons and weights stay; otherwise the
+ * new surface's own (null).
+ */
+function rootsAfter(report: TransferReport, groom: Pick<GroomRow, 'surface_id' | 'roots_surface_id'>): string | null {
+  return report.method === 'topology' ? (groom.roots_surface_id ?? groom.surface_id) : null;
+}
+
 async function ownGroomRow(groomer: Groomer, groomId: string): Promise<GroomRow> {
   const row: GroomRow | undefined = await db()('grooms').where({ id: groomId, owner_id: groomer.userId }).first();
   if (!row) throw notFound('groom');
@@ -121,7 +130,7 @@ export async function acceptSurfaceMove(groomer: Groomer, groomId: string, input
     new HttpError(409, 'stale-revision', `The spec changed since revision ${input.baseRevision} (now ${revision}); look at the transfer report again before moving the groom.`, { details: { revision } });
   if (groom.revision !== input.baseRevision) throw stale(groom.revision);
   if (groom.surface_id === input.surfaceId) throw new HttpError(409, 'same-surface', 'The groom already grows on that surface.');
-  const { spec, revision, to } = await carry(groomer, groom, input);
+  const { spec, report, revision, to } = await carry(groomer, groom, input);
   if (revision !== input.baseRevision) throw stale(revision);
   const versionId = await db().transaction(async (trx) => {
     const locked: GroomRow | undefined = await trx('grooms').where({ id: groomId, owner_id: groomer.userId }).forUpdate().first();
@@ -129,11 +138,11 @@ export async function acceptSurfaceMove(groomer: Groomer, groomId: string, input
     if (locked.revision !== input.baseRevision || locked.surface_id !== groom.surface_id) throw stale(locked.revision);
     const [{ latest }] = await trx('groom_versions').where({ groom_id: groomId }).max<{ latest: number | null }[]>('number as latest');
     const [kept] = await trx('groom_versions')
-      .insert({ groom_id: groomId, surface_id: locked.surface_id, number: (latest ?? 0) + 1, name: `Before moving to ${to.name}`.slice(0, GROOM_NAME_MAX), spec: JSON.stringify(locked.spec), source_revision: locked.revision })
+      .insert({ groom_id: groomId, surface_id: locked.surface_id, roots_surface_id: locked.roots_surface_id, number: (latest ?? 0) + 1, name: `Before moving to ${to.name}`.slice(0, GROOM_NAME_MAX), spec: JSON.stringify(locked.spec), source_revision: locked.revision })
       .returning('id');
     await trx('grooms')
       .where({ id: groomId })
-      .update({ surface_id: to.id, spec: JSON.stringify(spec), revision: locked.revision + 1, spec_saved_at: trx.fn.now(), updated_at: trx.fn.now() });
+      .update({ surface_id: to.id, roots_surface_id: rootsAfter(report, locked), spec: JSON.stringify(spec), revision: locked.revision + 1, spec_saved_at: trx.fn.now(), updated_at: trx.fn.now() });
     return kept.id as string;
   });
   await enqueueThumbnail({ groomId, versionId });
@@ -144,9 +153,9 @@ export async function acceptSurfaceMove(groomer: Groomer, groomId: string, input
 /** A new groom on another of the groomer's surfaces, starting from this groom's saved spec carried over. */
 export async function startGroomFrom(groomer: Groomer, groomId: string, input: SurfaceMoveInput & { name?: string }): Promise<GroomDetail> {
   const groom = await ownGroomRow(groomer, groomId);
-  const { spec, to } = await carry(groomer, groom, input);
+  const { spec, report, to } = await carry(groomer, groom, input);
   const name = input.name ?? `${groom.name.slice(0, GROOM_NAME_MAX - to.name.length - 4)} on ${to.name}`.slice(0, GROOM_NAME_MAX);
-  const [{ id }] = await db()('grooms').insert({ owner_id: groomer.userId, surface_id: to.id, name, spec: JSON.stringify(spec) }).returning('id');
+  const [{ id }] = await db()('grooms').insert({ owner_id: groomer.userId, surface_id: to.id, roots_surface_id: rootsAfter(report, groom), name, spec: JSON.stringify(spec) }).returning('id');
   await enqueueThumbnail({ groomId: id });
   return getGroom(groomer, id);
 }

@@ -12,9 +12,11 @@ import * as specRoute from '@/app/api/studio/grooms/[groomId]/spec/route';
 import * as previewRoute from '@/app/api/studio/grooms/[groomId]/surface/preview/route';
 import * as moveRoute from '@/app/api/studio/grooms/[groomId]/surface/route';
 import * as duplicateRoute from '@/app/api/studio/grooms/[groomId]/duplicate/route';
+import * as exportsRoute from '@/app/api/studio/grooms/[groomId]/exports/route';
+import * as exportRoute from '@/app/api/studio/exports/[exportId]/route';
 import * as restoreRoute from '@/app/api/studio/grooms/[groomId]/versions/[versionId]/restore/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
-import type { GroomDetail, ReadySurface, SurfaceMovePreview } from '@/lib/studio/types';
+import type { ExportJob, GroomDetail, ReadySurface, SurfaceMovePreview } from '@/lib/studio/types';
 import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
 
 const encode = (text: string) => new TextEncoder().encode(text);
@@ -56,6 +58,21 @@ afterAll(async () => {
   await closeDb();
 });
 
+/** The guides' binding primvars (ids, root polygons, weights) of a USD export of the groom as saved. */
+async function exportedBinding(groomId: string): Promise<string[]> {
+  const started = await callRoute(exportsRoute, 'POST', `/api/studio/grooms/${groomId}/exports`, { cookie: pip.cookie, body: { format: 'usda' }, params: { groomId } });
+  let job: ExportJob = (await expectJson(started, 202)).data.export;
+  const deadline = Date.now() + 120_000;
+  while (job.status !== 'done' && job.status !== 'failed') {
+    if (Date.now() > deadline) throw new Error(`export ${job.id} still ${job.status}`);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+    job = (await expectJson(await callRoute(exportRoute, 'GET', `/api/studio/exports/${job.id}`, { cookie: pip.cookie, params: { exportId: job.id } }), 200)).data.export;
+  }
+  expect(job.status, job.error ?? '').toBe('done');
+  const usda = await (await fetch(job.downloadUrl!)).text();
+  return ['guideId', 'rootFace', 'rootBarycentric'].map((name) => usda.match(new RegExp(`primvars:whorlwind:${name} = (\\[[^\\]]*\\])`))![1]);
+}
+
 describe('moving a groom onto a new sculpt of its character', () => {
   it('shows the transfer report first and writes nothing', async () => {
     const response = await call(pip, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id });
@@ -84,6 +101,7 @@ describe('moving a groom onto a new sculpt of its character', () => {
   });
 
   it('moves it, keeping the groom as it was as a version on the old surface, which opens there again', async () => {
+    const bindingBefore = await exportedBinding(groom.id);
     const moved: GroomDetail = (await expectJson(await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.sculpted.id, baseRevision: groom.revision }), 200)).data.groom;
     expect(moved.surface.id).toBe(surfaces.sculpted.id);
     expect(moved.revision).toBe(groom.revision + 1);
@@ -91,6 +109,9 @@ describe('moving a groom onto a new sculpt of its character', () => {
     expect(moved.versions).toEqual([expect.objectContaining({ number: 1, name: 'Before moving to Pip, second sculpt', surfaceId: surfaces.first.id })]);
     const { count } = await db()('groom_versions').where({ groom_id: groom.id }).count<{ count: string }[]>('* as count').first() as { count: string };
     expect(Number(count)).toBe(1);
+    // A sculpt pass: the exported guides keep their ids, polygons and weights (the roots are still
+    // sampled on the first sculpt and placed by polygon on the second).
+    expect(await exportedBinding(groom.id)).toEqual(bindingBefore);
 
     // The first sculpt now holds a version: it cannot be deleted from under it.
     const deleting = await callRoute(surfaceRoute, 'DELETE', `/api/studio/surfaces/${surfaces.first.id}`, { cookie: pip.cookie, params: { surfaceId: surfaces.first.id } });
