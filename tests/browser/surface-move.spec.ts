@@ -62,4 +62,19 @@ test('replacing a groom’s surface: the transfer report first, then the move; t
   await page.getByRole('button', { name: /Bring back version 1/ }).click();
   await page.getByRole('dialog').getByRole('button', { name: /Bring it back|Bring back/ }).click();
   await expect(page.getByText(/^On bramble \(/).first()).toBeVisible({ timeout: 60_000 });
+
+  // Starting another groom from this one on the second sculpt leaves this one where it is.
+  const here = page.url();
+  await waitForField(page);
+  await page.getByRole('tab', { name: 'Surface' }).click();
+  await page.getByLabel('Move onto').selectOption({ label: 'sculpt' });
+  await page.getByRole('button', { name: 'Show the transfer report' }).click();
+  await expect(report).toBeVisible({ timeout: 60_000 });
+  await page.getByRole('button', { name: 'Start a new groom there instead' }).click();
+  await expect(page).not.toHaveURL(here, { timeout: 60_000 });
+  await expect(page).toHaveURL(/\/studio\/grooms\/[0-9a-f-]+$/);
+  await waitForField(page);
+  await expect(page.getByText(/^On sculpt \(/).first()).toBeVisible();
+  await page.goto(here);
+  await expect(page.getByText(/^On bramble \(/).first()).toBeVisible({ timeout: 60_000 });
 });
