@@ -24,25 +24,11 @@ import {
   type ExportSource,
   type GroomSpecInput,
 } from '../lib/groom';
+import { best } from './best-of';
 
 const RUNS = 3;
 
-/** The fastest of RUNS runs after a warm-up, with that run's result. */
-function best<T>(work: () => T): { ms: number; result: T } {
-  let result = work();
-  let ms = Infinity;
-  for (let i = 0; i < RUNS; i++) {
-    const t0 = performance.now();
-    const r = work();
-    const elapsed = performance.now() - t0;
-    if (elapsed < ms) {
-      ms = elapsed;
-      result = r;
-    }
-  }
-  return { ms, result };
-}
-
+/** As `best`, for work that is awaited; the time only. */
 async function bestAsync(work: () => Promise<unknown>): Promise<number> {
   await work();
   let ms = Infinity;

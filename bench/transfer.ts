@@ -12,19 +12,7 @@
 import { cpus, loadavg } from 'node:os';
 import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '../tests/fixtures/transfer-sphere';
 import { parseGroomSpec, prepareGroomSurface, solveGroomField, transferSpec, withoutUv, type TransferOptions } from '../lib/groom';
-
-const RUNS = 3;
-function best<T>(work: () => T): { ms: number; result: T } {
-  let result = work();
-  let ms = Infinity;
-  for (let i = 0; i < RUNS; i++) {
-    const t0 = performance.now();
-    const r = work();
-    const elapsed = performance.now() - t0;
-    if (elapsed < ms) [ms, result] = [elapsed, r];
-  }
-  return { ms, result };
-}
+import { best } from './best-of';
 
 const spec = parseGroomSpec({
   specVersion: 2,
