@@ -23,7 +23,6 @@
  * BENCH_MAIL_SINK_PORT, BENCH_PAYMENTS_PORT (54391 … 54394). Run it on a quiet machine: the
  * numbers mean little while a build or another test run shares the two cores.
  */
-import { createRequire } from 'node:module';
 import { cpus, loadavg } from 'node:os';
 import { join } from 'node:path';
 import knex, { type Knex } from 'knex';
@@ -31,34 +30,18 @@ import { migrateAndSeed, projectRoot, stackEnvironment, startStack, testProfile,
 import { CommandFailed, log, runCommand, shutdown, startProcess, stopEverythingOnSignals, waitForHttp } from '../scripts/lib/processes';
 import { migrationConfig } from '../db/migration-config';
 import { ANIMALS, BODY_REGIONS, COAT_LENGTHS, PACKAGE_FORMATS, STYLES } from '../lib/market/vocabulary';
+import { load, numberOption, percentile, steadyLoad, tallyOver, useBenchStack, type Tally } from './load';
 
-type AutocannonClient = { on(event: 'response', listener: (status: number, bytes: number, ms: number) => void): void };
-type AutocannonResult = { requests: { average: number; total: number }; non2xx: number; errors: number; timeouts: number; duration: number };
-type Autocannon = (options: Record<string, unknown>) => Promise<AutocannonResult>;
-// autocannon ships no type declarations.
-const autocannon = createRequire(import.meta.url)('autocannon') as Autocannon;
-
-function option(name: string, fallback: number, zeroAllowed = false): number {
-  const at = process.argv.indexOf(`--${name}`);
-  if (at < 0) return fallback;
-  const value = Number(process.argv[at + 1]);
-  if (!Number.isFinite(value) || value < 0 || (value === 0 && !zeroAllowed)) throw new CommandFailed(`--${name} needs a ${zeroAllowed ? 'non-negative' : 'positive'} number`);
-  return value;
-}
-
-const LISTINGS = option('listings', 10_000);
-const RATE = option('rate', 200);
-const SECONDS = option('seconds', 20);
-const CONNECTIONS = option('connections', 20);
+const LISTINGS = numberOption('listings', 10_000);
+const RATE = numberOption('rate', 200);
+const SECONDS = numberOption('seconds', 20);
+const CONNECTIONS = numberOption('connections', 20);
 const BUILD = !process.argv.includes('--no-build');
 const HOLD = process.argv.includes('--hold');
 const DIST_DIR = '.next-bench';
 const TARGET_P95_MS = 50;
 
-// The bench stack reuses the test profile's machinery on ports and a folder of its own.
-const benchPorts: Record<string, string> = { APP: '3900', PG: '54390', S3: '54391', SMTP_SINK: '54392', MAIL_SINK: '54393', PAYMENTS: '54394' };
-for (const [name, port] of Object.entries(benchPorts)) process.env[`TEST_${name}_PORT`] = process.env[`BENCH_${name}_PORT`] ?? port;
-process.env.TEST_DATA_DIR = join(projectRoot, '.data', 'bench');
+useBenchStack();
 
 // ---- data ------------------------------------------------------------------------------------
 
@@ -175,18 +158,13 @@ function rareSearch(next: () => number): string {
 }
 
 /** The share of requests that are rare searches (--rare; 0.25 is a guess at a long tail, no source). */
-const RARE_SHARE = option('rare', 0.25, true);
+const RARE_SHARE = numberOption('rare', 0.25, true);
 
 /** Each call the next request's path: popular searches in turn, a rare one a quarter of the time. */
 function searchMix(): () => string {
   const next = xorshift(2024);
   let turn = 0;
   return () => (next() / 2 ** 31 < RARE_SHARE ? rareSearch(next) : POPULAR_SEARCHES[turn++ % POPULAR_SEARCHES.length]);
-}
-
-function percentile(sorted: number[], p: number): number {
-  if (sorted.length === 0) return NaN;
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
 }
 
 /**
@@ -220,31 +198,6 @@ async function latencyAlone(url: string, connection: Knex, repeats = 15) {
   return rows;
 }
 
-/** Answers counted in a window of time (performance.now() ms): the start-up of the load is left out. */
-type Tally = { from: number; to: number; latencies: number[]; non2xx: number; errors: number };
-
-function tallyOver(from: number, seconds: number): Tally {
-  return { from, to: from + seconds * 1000, latencies: [], non2xx: 0, errors: 0 };
-}
-
-/** One autocannon run over the search mix, `seconds` long; its answers in the window go into the tally. */
-async function load(url: string, tally: Tally, nextPath: () => string, seconds: number, options: Record<string, unknown>) {
-  const result = await autocannon({
-    url,
-    duration: seconds,
-    requests: [{ method: 'GET', setupRequest: (request: Record<string, unknown>) => ({ ...request, path: nextPath() }) }],
-    setupClient: (client: AutocannonClient) =>
-      client.on('response', (status, _bytes, ms) => {
-        const now = performance.now();
-        if (now < tally.from || now >= tally.to) return;
-        tally.latencies.push(ms);
-        if (status < 200 || status >= 300) tally.non2xx++;
-      }),
-    ...options,
-  });
-  tally.errors += result.errors + result.timeouts;
-}
-
 function summary(tally: Tally) {
   const sorted = tally.latencies.sort((a, b) => a - b);
   const total = sorted.length;
@@ -261,23 +214,10 @@ async function saturate(url: string) {
   return summary(tally);
 }
 
-/**
- * `rate` requests per second arriving evenly. autocannon's own rate limit lets each connection
- * send its quota for the second back to back at the start of the second (a burst of all
- * connections at once), so the steady rate is made of `rate` connections of one request per second
- * each, in runs started 1000 / runs ms apart: two requests every 10 ms at 200 req/s.
- */
+/** `rate` requests per second arriving evenly (see `steadyLoad`). */
 async function steady(url: string, rate: number) {
-  const runs = Math.min(100, rate);
   const tally = tallyOver(performance.now() + (WARM_UP_SECONDS + 1) * 1000, SECONDS);
-  const nextPath = searchMix();
-  const started: Promise<void>[] = [];
-  for (let i = 0; i < runs; i++) {
-    const connections = Math.floor(rate / runs) + (i < rate % runs ? 1 : 0);
-    const run = () => load(url, tally, nextPath, WARM_UP_SECONDS + SECONDS + 1, { connections, connectionRate: 1 });
-    started.push(new Promise((resolve) => setTimeout(resolve, (i * 1000) / runs)).then(run));
-  }
-  await Promise.all(started);
+  await steadyLoad(url, tally, searchMix(), rate, WARM_UP_SECONDS + SECONDS + 1);
   return summary(tally);
 }
 

@@ -19,80 +19,34 @@
  * The search runs over the seeded listings only (bench/market.ts measures it over 10,000). Each
  * export's own time is printed too. Run it on a quiet machine: the two cores are the point.
  */
-import { createRequire } from 'node:module';
 import { cpus, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { migrateAndSeed, projectRoot, stackEnvironment, testProfile, type StackProfile } from '../scripts/lib/stack';
 import { CommandFailed, log, runCommand, shutdown, startProcess, stopEverythingOnSignals, waitForHttp } from '../scripts/lib/processes';
 import { JOBS_WORKER_ARGS } from '../services/jobs-worker-process';
 import { DEMO_ACCOUNTS } from '../db/demo-scenario';
+import { numberOption, percentile, steadyLoad, tallyOver, useBenchStack, type Tally } from './load';
 
-type AutocannonClient = { on(event: 'response', listener: (status: number, bytes: number, ms: number) => void): void };
-type AutocannonResult = { errors: number; timeouts: number };
-// autocannon ships no type declarations.
-const autocannon = createRequire(import.meta.url)('autocannon') as (options: Record<string, unknown>) => Promise<AutocannonResult>;
-
-function option(name: string, fallback: number): number {
-  const at = process.argv.indexOf(`--${name}`);
-  if (at < 0) return fallback;
-  const value = Number(process.argv[at + 1]);
-  if (!Number.isFinite(value) || value <= 0) throw new CommandFailed(`--${name} needs a positive number`);
-  return value;
-}
-
-const SECONDS = option('seconds', 20);
-const HEALTH_RATE = option('health-rate', 50);
-const SEARCH_RATE = option('search-rate', 200);
+const SECONDS = numberOption('seconds', 20);
+const HEALTH_RATE = numberOption('health-rate', 50);
+const SEARCH_RATE = numberOption('search-rate', 200);
 const BUILD = !process.argv.includes('--no-build');
 const DIST_DIR = '.next-bench';
 const WARM_UP_SECONDS = 3;
 const TARGETS = { health: 100, search: 50 };
 const SEARCHES = ['/api/market/search', '/api/market/search?sort=best-selling', '/api/market/search?sort=rating', '/api/market/search?q=fox', '/api/market/search?animal=cat'];
 
-const benchPorts: Record<string, string> = { APP: '3900', PG: '54390', S3: '54391', SMTP_SINK: '54392', MAIL_SINK: '54393', PAYMENTS: '54394' };
-for (const [name, port] of Object.entries(benchPorts)) process.env[`TEST_${name}_PORT`] = process.env[`BENCH_${name}_PORT`] ?? port;
-process.env.TEST_DATA_DIR = join(projectRoot, '.data', 'bench');
-
-type Tally = { from: number; to: number; latencies: number[]; non2xx: number; errors: number };
-
-function percentile(sorted: number[], p: number): number {
-  if (sorted.length === 0) return NaN;
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
-}
+useBenchStack();
 
 /**
- * `rate` requests a second for WARM_UP + SECONDS s, spread over the second (one-connection runs
- * started in turn); with `until`, answers count only until it resolves (the exports ended).
+ * `rate` requests a second for WARM_UP + SECONDS s, arriving evenly (see `steadyLoad`), in turn to
+ * each of `paths`; with `until`, answers count only until it resolves (the exports ended).
  */
 async function steady(url: string, paths: readonly string[], rate: number, until?: Promise<unknown>): Promise<Tally> {
-  const tally: Tally = { from: performance.now() + WARM_UP_SECONDS * 1000, to: 0, latencies: [], non2xx: 0, errors: 0 };
-  tally.to = tally.from + SECONDS * 1000;
+  const tally = tallyOver(performance.now() + WARM_UP_SECONDS * 1000, SECONDS);
   void until?.then(() => (tally.to = Math.min(tally.to, performance.now())));
   let turn = 0;
-  const runs = Math.min(100, rate);
-  const started: Promise<void>[] = [];
-  for (let i = 0; i < runs; i++) {
-    const connections = Math.floor(rate / runs) + (i < rate % runs ? 1 : 0);
-    const run = async () => {
-      const result = await autocannon({
-        url,
-        duration: WARM_UP_SECONDS + SECONDS + 1,
-        connections,
-        connectionRate: 1,
-        requests: [{ method: 'GET', setupRequest: (request: Record<string, unknown>) => ({ ...request, path: paths[turn++ % paths.length] }) }],
-        setupClient: (client: AutocannonClient) =>
-          client.on('response', (status, _bytes, ms) => {
-            const now = performance.now();
-            if (now < tally.from || now >= tally.to) return;
-            tally.latencies.push(ms);
-            if (status < 200 || status >= 300) tally.non2xx++;
-          }),
-      });
-      tally.errors += result.errors + result.timeouts;
-    };
-    started.push(new Promise((resolve) => setTimeout(resolve, (i * 1000) / runs)).then(run));
-  }
-  await Promise.all(started);
+  await steadyLoad(url, tally, () => paths[turn++ % paths.length], rate, WARM_UP_SECONDS + SECONDS + 1);
   return tally;
 }
 

@@ -30,7 +30,7 @@
 import { readFileSync, writeFileSync } from 'node:fs';
 import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
-import { FieldError, indexBudget, readSurface, solveField, type SuggestedLayout } from '../lib/field';
+import { FieldError, readSurface, solveField, type SuggestedLayout } from '../lib/field';
 import { encodeImage } from '../lib/groom/render/encode-image';
 import {
   EXPORT_EXTENSIONS,
@@ -242,7 +242,7 @@ async function main(argv: string[]): Promise<void> {
   }
   if (options.stats && grown) {
     const { guides } = grown;
-    const budget = indexBudget(surface.field, request);
+    const { budget } = solved.connection;
     let checked = 0, mismatched = 0;
     solved.measuredIndex.forEach((measured, v) => {
       if (!solved.connection.constrainedVertex[v]) return;

@@ -8,6 +8,19 @@ import { nextAroundVertex, nextHalfedge } from './mesh/topology';
 import { TWO_PI, wrapAngleForOrder } from './mesh/transport';
 
 /**
+ * The field's angle in face `f` from the edge running from vertex `a` to vertex `b` (a side of f),
+ * counter-clockwise about the face normal: the same in both faces of an edge when the field is
+ * carried across it without turning, since unfolding the two faces keeps the angle to their edge.
+ */
+export function fieldAngleToEdge(positions: Float64Array, normals: Float64Array, faceDirection: Float64Array, f: number, a: number, b: number): number {
+  const p = positions;
+  const ex = p[3 * b] - p[3 * a], ey = p[3 * b + 1] - p[3 * a + 1], ez = p[3 * b + 2] - p[3 * a + 2];
+  const dx = faceDirection[3 * f], dy = faceDirection[3 * f + 1], dz = faceDirection[3 * f + 2];
+  const cx = ey * dz - ez * dy, cy = ez * dx - ex * dz, cz = ex * dy - ey * dx;
+  return Math.atan2(cx * normals[3 * f] + cy * normals[3 * f + 1] + cz * normals[3 * f + 2], ex * dx + ey * dy + ez * dz);
+}
+
+/**
  * Measures the index of a face field at every vertex from the field alone: around the vertex, the
  * field's angle to each outgoing edge, the change from face to face after unfolding across the
  * shared edge (wrapped to the field's symmetry), summed with the angle defect, over 2π.
@@ -30,14 +43,7 @@ export function measureIndices(
   const index = new Float64Array(topology.vertexCount);
   const measured = new Uint8Array(topology.vertexCount);
   // Angle of the field in the face of outgoing halfedge h, measured from h's edge.
-  const angleToEdge = (h: number): number => {
-    const f = (h / 3) | 0;
-    const a = 3 * tri[h], b = 3 * tri[nextHalfedge(h)];
-    const ex = p[b] - p[a], ey = p[b + 1] - p[a + 1], ez = p[b + 2] - p[a + 2];
-    const dx = faceDirection[3 * f], dy = faceDirection[3 * f + 1], dz = faceDirection[3 * f + 2];
-    const cx = ey * dz - ez * dy, cy = ez * dx - ex * dz, cz = ex * dy - ey * dx;
-    return Math.atan2(cx * normals[3 * f] + cy * normals[3 * f + 1] + cz * normals[3 * f + 2], ex * dx + ey * dy + ez * dz);
-  };
+  const angleToEdge = (h: number): number => fieldAngleToEdge(p, normals, faceDirection, (h / 3) | 0, tri[h], tri[nextHalfedge(h)]);
   for (let v = 0; v < topology.vertexCount; v++) {
     const start = topology.vertexHalfedge[v];
     if (start === -1) continue;

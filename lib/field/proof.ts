@@ -7,6 +7,7 @@
  * −δ on the other — so the edges are checked too.
  */
 import type { ConnectionResult, FieldSurface } from './connection';
+import { fieldAngleToEdge } from './indices';
 import { faceNormals } from './mesh/geometry';
 import { nextHalfedge } from './mesh/topology';
 import { wrapAngleForOrder } from './mesh/transport';
@@ -56,30 +57,27 @@ export function proveEdges(
   const normals = faceNormals(mesh);
   const limit = Math.PI / order;
   /** The field's angle in face f to the edge running from vertex a to vertex b. */
-  const angleToEdge = (f: number, a: number, b: number): number => {
-    const ex = p[3 * b] - p[3 * a], ey = p[3 * b + 1] - p[3 * a + 1], ez = p[3 * b + 2] - p[3 * a + 2];
-    const dx = faceDirection[3 * f], dy = faceDirection[3 * f + 1], dz = faceDirection[3 * f + 2];
-    const cx = ey * dz - ez * dy, cy = ez * dx - ex * dz, cz = ex * dy - ey * dx;
-    return Math.atan2(cx * normals[3 * f] + cy * normals[3 * f + 1] + cz * normals[3 * f + 2], ex * dx + ey * dy + ez * dz);
-  };
-  /** The measured turn crossing edge e from its canonical halfedge's face to the twin's face. */
-  const turnAcross = (e: number): number => {
+  const angleToEdge = (f: number, a: number, b: number) => fieldAngleToEdge(p, normals, faceDirection, f, a, b);
+  // The measured turn crossing each uncut interior edge from its canonical halfedge's face to the
+  // twin's face (NaN elsewhere), once: the curve turns below sum them again.
+  const turn = new Float64Array(topology.edgeCount).fill(NaN);
+  for (let e = 0; e < topology.edgeCount; e++) {
     const h = topology.edgeHalfedge[e];
+    if (topology.twin[h] === -1 || cutEdge[e]) continue;
     const a = tri[h], b = tri[nextHalfedge(h)];
-    return wrapAngleForOrder(angleToEdge((topology.twin[h] / 3) | 0, a, b) - angleToEdge((h / 3) | 0, a, b), order);
-  };
+    turn[e] = wrapAngleForOrder(angleToEdge((topology.twin[h] / 3) | 0, a, b) - angleToEdge((h / 3) | 0, a, b), order);
+  }
 
   const violations: ProofViolation[] = [];
   let checkedEdges = 0;
   let largestTurn = 0;
   for (let e = 0; e < topology.edgeCount; e++) {
-    const h = topology.edgeHalfedge[e];
-    if (topology.twin[h] === -1 || cutEdge[e]) continue;
+    if (Number.isNaN(turn[e])) continue;
     checkedEdges++;
-    const turn = turnAcross(e);
-    largestTurn = Math.max(largestTurn, Math.abs(turn));
-    if (Math.abs(angles[e]) >= limit - TOLERANCE) violations.push({ kind: 'too-fast', vertex: tri[h], angle: angles[e] });
-    else if (Math.abs(wrapAngleForOrder(turn - angles[e], order)) > TOLERANCE) violations.push({ kind: 'seam', vertex: tri[h], angle: wrapAngleForOrder(turn - angles[e], order) });
+    largestTurn = Math.max(largestTurn, Math.abs(turn[e]));
+    const vertex = tri[topology.edgeHalfedge[e]];
+    if (Math.abs(angles[e]) >= limit - TOLERANCE) violations.push({ kind: 'too-fast', vertex, angle: angles[e] });
+    else if (Math.abs(wrapAngleForOrder(turn[e] - angles[e], order)) > TOLERANCE) violations.push({ kind: 'seam', vertex, angle: wrapAngleForOrder(turn[e] - angles[e], order) });
   }
 
   for (const side of connection.curveSides) {
@@ -89,7 +87,7 @@ export function proveEdges(
   }
   for (const link of connection.curveLinks) {
     let turning = 0;
-    for (let i = 0; i < link.chain.edges.length; i++) turning += link.chain.signs[i] * turnAcross(link.chain.edges[i]);
+    for (let i = 0; i < link.chain.edges.length; i++) turning += link.chain.signs[i] * turn[link.chain.edges[i]];
     if (Math.abs(turning - link.preferred) > limit + TOLERANCE) violations.push({ kind: 'curve-turn', vertex: link.vertex, angle: turning - link.preferred });
   }
   return {

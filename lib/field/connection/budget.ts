@@ -6,32 +6,8 @@ import { FieldError } from '../mesh/errors';
 import { faceOfHalfedge } from '../mesh/topology';
 import { curveName, layOutCurves, type CurveGeometry } from './curves';
 import { cutIntoPieces, type SurfacePieces } from './pieces';
-import type { FieldRequest } from './request';
+import type { FieldRequest, IndexBudget, PieceBudget } from './request';
 import type { FieldSurface } from './surface';
-
-/** How the placed indices stand against what one piece of the surface demands. */
-export interface PieceBudget {
-  /** Piece number (from 0): the surface's components, split further by closed curves. */
-  readonly piece: number;
-  readonly component: number;
-  /** Closed curves bordering the piece, by name ("parting 1"), to tell the pieces apart. */
-  readonly borderedBy: readonly string[];
-  /** Σ index the piece demands (its Euler characteristic), or null when a free boundary absorbs any sum. */
-  readonly demanded: number | null;
-  /** Σ index placed on the piece: point singularities, plus 1 for every open parting or crest. */
-  readonly placed: number;
-  /** demanded − placed, or null when free. */
-  readonly remainder: number | null;
-}
-
-/** How the placed indices stand against what each piece demands. */
-export interface IndexBudget {
-  readonly pieces: readonly PieceBudget[];
-  /** True when every budgeted piece is balanced. */
-  readonly balanced: boolean;
-  /** The piece of each vertex; −1 for vertices on a curve (on two pieces at once) and unused ones. */
-  readonly pieceOfVertex: Int32Array;
-}
 
 /**
  * The index budget (Poincaré–Hopf) per piece of the surface: the indices on a piece with no free
@@ -82,7 +58,7 @@ export function pieceName(budget: IndexBudget, p: number): string {
  * Checks a request before anything is solved: order, each singularity, the remainder vertex and
  * the budget of every piece (the error names the piece that is off).
  */
-export function validateRequest(surface: FieldSurface, request: FieldRequest, curves: CurveGeometry, cut: SurfacePieces): { order: number; requestedIndex: Float64Array } {
+export function validateRequest(surface: FieldSurface, request: FieldRequest, curves: CurveGeometry, cut: SurfacePieces): { order: number; requestedIndex: Float64Array; budget: IndexBudget } {
   const cutVertex = curves.cutVertex;
   const topology = surface.topology;
   const order = request.order ?? 1;
@@ -130,5 +106,5 @@ export function validateRequest(surface: FieldSurface, request: FieldRequest, cu
       `The indices placed on ${pieceName(budget, u.piece)} sum to ${u.placed}, but ${what} needs ${u.demanded}: ${u.remainder! > 0 ? `add ${u.remainder}` : `remove ${-u.remainder!}`} (or name a vertex to take the remainder).`,
     );
   }
-  return { order, requestedIndex };
+  return { order, requestedIndex, budget };
 }

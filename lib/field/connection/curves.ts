@@ -17,8 +17,11 @@ export interface CurveGeometry {
   readonly sides: CurveSide[];
   /** First side face of each curve (or of each side of a closed curve), to tie it to the rest. */
   readonly anchors: number[];
-  /** Per closed curve: its distinct vertices and, for each, a face on its left and on its right. */
-  readonly closed: { curve: number; vertices: number[]; left: number[]; right: number[] }[];
+  /**
+   * Per closed curve: its distinct vertices, the halfedge leaving each along the curve, and for
+   * each a face on its left and on its right.
+   */
+  readonly closed: { curve: number; vertices: number[]; along: number[]; left: number[]; right: number[] }[];
   /** Per open curve: a face beside it (it never separates the surface). */
   readonly open: { curve: number; face: number }[];
 }
@@ -105,7 +108,7 @@ export function layOutCurves(surface: FieldSurface, curves: readonly CurveFeatur
     }
     if (closed) {
       anchors.push(left[0], right[0]);
-      closedCurves.push({ curve: ci, vertices: [...distinct], left, right });
+      closedCurves.push({ curve: ci, vertices: [...distinct], along, left, right });
     } else {
       // Around each end the flow turns half a circle, counter-clockwise seen from outside.
       link(partialFan(topology, along[0], topology.twin[along[0]], cutEdge), Math.PI, vs[0]);

@@ -15,9 +15,9 @@ import type { ConnectionResult, FieldRequest } from './request';
 import { isIndependentRow, ringSolution, solveRows, type ExtraRow } from './schur-rows';
 import type { FieldSurface } from './surface';
 
-export type { BoundaryMode, ConnectionResult, CurveFeature, FaceAlignment, FieldRequest, PointSingularity } from './request';
+export type { BoundaryMode, ConnectionResult, CurveFeature, FaceAlignment, FieldRequest, IndexBudget, PieceBudget, PointSingularity } from './request';
 export { prepareSurface, type FieldSurface } from './surface';
-export { indexBudget, pieceName, type IndexBudget, type PieceBudget } from './budget';
+export { indexBudget, pieceName } from './budget';
 export { dualPieces } from './curves';
 export { cutIntoPieces, type SurfacePiece, type SurfacePieces } from './pieces';
 
@@ -75,7 +75,7 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
   const { rowOfVertex, vertexOfRow, droppedVertexOfComponent, ringDefect } = surface.solver;
   const curves = layOutCurves(surface, request.curves ?? []);
   const cut = cutIntoPieces(topology, curves, surface.boundary);
-  const { order, requestedIndex } = validateRequest(surface, request, curves, cut);
+  const { order, requestedIndex, budget } = validateRequest(surface, request, curves, cut);
   const frames = surface.frames;
   const step = TWO_PI / order;
 
@@ -261,6 +261,7 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     cutEdge: curves.cutEdge,
     fixedFaces,
     curveLinks: curves.links,
+    budget,
     curveSides: curves.sides,
     largestAngle,
     solveMilliseconds: now() - started,

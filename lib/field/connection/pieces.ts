@@ -11,7 +11,7 @@
  */
 import type { DualChain } from '../mesh/dual-chains';
 import { vertexFan } from '../mesh/dual-chains';
-import { facePieces, faceOfHalfedge, nextHalfedge, type Topology } from '../mesh/topology';
+import { facePieces, faceOfHalfedge, type Topology } from '../mesh/topology';
 import type { CurveGeometry } from './curves';
 import type { BoundaryMode } from './request';
 
@@ -44,12 +44,8 @@ export function cutIntoPieces(topology: Topology, curves: Pick<CurveGeometry, 'c
   const closedEdge = new Uint8Array(topology.edgeCount);
   const onClosedCurve = new Uint8Array(topology.vertexCount);
   for (const c of curves.closed) {
-    c.vertices.forEach((v, i) => {
-      onClosedCurve[v] = 1;
-      const w = c.vertices[(i + 1) % c.vertices.length];
-      const h = halfedgeBetween(topology, v, w, c.left[i]);
-      closedEdge[topology.edgeOf[h]] = 1;
-    });
+    for (const v of c.vertices) onClosedCurve[v] = 1;
+    for (const h of c.along) closedEdge[topology.edgeOf[h]] = 1;
   }
   // χ = V − E + F per piece, a closed curve's vertices and edges counted once on each side.
   const twiceChi = new Float64Array(count);
@@ -91,15 +87,6 @@ export function cutIntoPieces(topology: Topology, curves: Pick<CurveGeometry, 'c
     budgeted: boundary !== 'free' || loopsOf[p].length === 0,
   }));
   return { pieceOfFace, pieces };
-}
-
-/** The halfedge from v to w whose face is `face` (the curve's left side). */
-function halfedgeBetween(topology: Topology, v: number, w: number, face: number): number {
-  for (let k = 0; k < 3; k++) {
-    const h = 3 * face + k;
-    if (topology.triangles[h] === v && topology.triangles[nextHalfedge(h)] === w) return h;
-  }
-  throw new Error(`internal: face ${face} has no side from vertex ${v} to ${w}`);
 }
 
 /**

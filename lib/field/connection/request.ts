@@ -83,6 +83,30 @@ export interface CurveSide {
   readonly sense: 1 | -1;
 }
 
+/** How the placed indices stand against what one piece of the surface demands. */
+export interface PieceBudget {
+  /** Piece number (from 0): the surface's components, split further by closed curves. */
+  readonly piece: number;
+  readonly component: number;
+  /** Closed curves bordering the piece, by name ("parting 1"), to tell the pieces apart. */
+  readonly borderedBy: readonly string[];
+  /** Σ index the piece demands (its Euler characteristic), or null when a free boundary absorbs any sum. */
+  readonly demanded: number | null;
+  /** Σ index placed on the piece: point singularities, plus 1 for every open parting or crest. */
+  readonly placed: number;
+  /** demanded − placed, or null when free. */
+  readonly remainder: number | null;
+}
+
+/** How the placed indices stand against what each piece demands. */
+export interface IndexBudget {
+  readonly pieces: readonly PieceBudget[];
+  /** True when every budgeted piece is balanced. */
+  readonly balanced: boolean;
+  /** The piece of each vertex; −1 for vertices on a curve (on two pieces at once) and unused ones. */
+  readonly pieceOfVertex: Int32Array;
+}
+
 /** The connection found by a solve: rotation angles per edge on top of Levi-Civita transport. */
 export interface ConnectionResult {
   readonly order: number;
@@ -100,6 +124,8 @@ export interface ConnectionResult {
   readonly curveLinks: readonly CurveLink[];
   /** The faces beside the curves, with the direction each must take across its curve edge. */
   readonly curveSides: readonly CurveSide[];
+  /** How the placed indices stand against what each piece demands (as `indexBudget` gives it). */
+  readonly budget: IndexBudget;
   /** Largest |angle| over all edges: below π/order, the index measurement sees exactly the prescribed indices. */
   readonly largestAngle: number;
   readonly solveMilliseconds: number;

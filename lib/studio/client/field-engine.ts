@@ -13,6 +13,7 @@ import {
   suggestLayout,
   type BoundaryMode,
   type FieldRequest,
+  type IndexBudget,
   type SolvedField,
   type TriangleMesh,
 } from '@/lib/field';
@@ -53,7 +54,7 @@ export class FieldEngine {
   /** Resolved places of single features, by their JSON, so a drag re-resolves only what moved. */
   private readonly placeMemo = new Map<string, unknown>();
   private lastFull: { key: string; solved: SolvedField } | null = null;
-  private lastField: ({ key: string } & DrawableField) | null = null;
+  private lastField: ({ key: string; budget: IndexBudget } & DrawableField) | null = null;
   private msPerGuide = FIRST_GUESS_MS_PER_GUIDE;
 
   constructor(private readonly progress: (report: ProgressReport) => void = () => {}) {}
@@ -175,44 +176,56 @@ export class FieldEngine {
     const surface = this.ensureBoundary(spec);
     const fieldKey = JSON.stringify(spec.field) + spec.upAxis;
     let request: FieldRequest | null = null;
-    let budget: SolveReport['budget'] = null;
     let error: WorkerError | null = null;
     try {
       request = this.requestFor(spec);
-      budget = indexBudget(surface.field, request);
     } catch (failure) {
       error = errorOf(failure);
     }
     let pinVertices: number[] = [];
+    let pinError: WorkerError | null = null;
     try {
       pinVertices = spec.pins.map((pin, i) => vertexOfPlace(surface, pin, `pins[${i}]`));
     } catch (failure) {
-      error ??= errorOf(failure);
+      pinError = errorOf(failure);
     }
 
-    let field: DrawableField | null = null;
+    // The budget comes with the connection of a solve; only a spec that is not solved (refused, or
+    // its pins off the surface) has it worked out on its own.
+    let budget: IndexBudget | null = null;
+    let field: (DrawableField & { budget: IndexBudget }) | null = null;
     let solved: SolvedField | null = null;
-    if (request && !error) {
+    if (request && !error && !pinError) {
       try {
         if (this.lastFull?.key === fieldKey) {
           solved = this.lastFull.solved;
         } else if (quick) {
           if (this.lastField?.key !== fieldKey) {
             const connection = solveConnection(surface.field, request);
-            this.lastField = { key: fieldKey, field: buildDirectionField(surface.field, connection, request), requestedIndex: connection.requestedIndex, cutEdge: connection.cutEdge };
+            this.lastField = { key: fieldKey, field: buildDirectionField(surface.field, connection, request), requestedIndex: connection.requestedIndex, cutEdge: connection.cutEdge, budget: connection.budget };
           }
         } else {
           solved = solveGroomField(spec, surface);
           this.lastFull = { key: fieldKey, solved };
         }
         if (solved) {
-          this.lastField = { key: fieldKey, field: solved.field, requestedIndex: solved.connection.requestedIndex, cutEdge: solved.connection.cutEdge };
+          this.lastField = { key: fieldKey, field: solved.field, requestedIndex: solved.connection.requestedIndex, cutEdge: solved.connection.cutEdge, budget: solved.connection.budget };
         }
         field = this.lastField;
+        budget = field!.budget;
       } catch (failure) {
         error = errorOf(failure);
       }
     }
+    if (request && !budget) {
+      try {
+        budget = indexBudget(surface.field, request);
+      } catch (failure) {
+        // The same refusal the solve gives; with pins off the surface it is the one to show first.
+        if (pinError) error = errorOf(failure);
+      }
+    }
+    error ??= pinError;
 
     const singularities: SingularityCheck[] = (request?.singularities ?? []).map((s) => ({
       vertex: s.vertex,
