@@ -182,7 +182,7 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
             {tab === 'versions' && versionsApi && persistence && <VersionPanel api={versionsApi} initial={persistence.versions} />}
             {tab === 'export' && versionsApi && <ExportPanel groomId={versionsApi.groomId} flush={versionsApi.flush} />}
             {tab === 'surface' && versionsApi && persistence?.surfaceId && (
-              <SurfaceMovePanel groomId={versionsApi.groomId} surfaceId={persistence.surfaceId} maxUploadBytes={persistence.maxUploadBytes ?? 0} flush={versionsApi.flush} />
+              <SurfaceMovePanel groomId={versionsApi.groomId} surfaceId={persistence.surfaceId} maxUploadBytes={persistence.maxUploadBytes ?? 0} flush={versionsApi.flush} groomSurface={surface} upAxis={spec.upAxis} />
             )}
           </PanelTabs>
         </aside>
