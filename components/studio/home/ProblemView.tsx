@@ -54,6 +54,8 @@ export function ProblemView({ file, problems }: { file: File; problems: readonly
     const out: number[] = [];
     for (const v of marks.vertices) {
       const [x, y, z] = [surface.positions[3 * v], surface.positions[3 * v + 1], surface.positions[3 * v + 2]];
+      // A vertex that is not a number is nowhere to be marked (its problem's words say which it is).
+      if (!Number.isFinite(x) || !Number.isFinite(y) || !Number.isFinite(z)) continue;
       out.push(x - r, y, z, x + r, y, z, x, y - r, z, x, y + r, z, x, y, z - r, x, y, z + r);
     }
     return Float32Array.from(out);
