@@ -2,7 +2,8 @@
 // edits, submits and unlists it; an admin approves or rejects it. Which command may move a
 // listing from which state is states.ts's table; every command asks it.
 // A listing freezes the version it sells: the resolved spec and a copy of the growth surface file
-// are stored with it, so later edits or deletion of the groom change nothing it sells.
+// are stored with it, so later edits or deletion of the groom change nothing it sells. A listing
+// on the market is improved by a new version of it instead (versions.ts).
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from '../../platform/db';
@@ -123,7 +124,7 @@ export async function updateListing(actor: Actor, id: string, patch: ListingPatc
     if (packageChanges) {
       const hadSales = await trx('purchases').where({ listing_id: id }).first('id');
       if (hadSales) {
-        throw new HttpError(409, 'wrong-state', 'This preset has buyers: its files, price and licence stay as sold. Make a new listing for a changed offer.');
+        throw new HttpError(409, 'wrong-state', 'This preset has buyers: its price and licence stay as sold. To improve its files or description, put it back on the market and publish a new version of it: its owners get that free.');
       }
       await trx('listing_packages').where({ listing_id: id, listing_version: row.current_version }).delete();
       changes.assets_status = 'pending';
