@@ -23,8 +23,8 @@ import {
   submitListing,
 } from '@/lib/market/listings';
 import { refundPurchase } from '@/lib/market/payments/refunds';
-import { FIELD_NEEDS_SURFACE, RIGHTS_REFUSED, RIGHTS_WORDING } from '@/lib/market/rights';
-import { listingDraftSchema, listingVersionSchema, type ListingDraftInput } from '@/lib/market/validation';
+import { RIGHTS_WORDING } from '@/lib/market/rights';
+import type { ListingDraftInput } from '@/lib/market/validation';
 import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import { mailTo } from './helpers';
 import { buyListing, deliver, eventsAbout, makePerson, studioGroom, waitFor } from './market-helpers';
@@ -114,21 +114,6 @@ beforeAll(async () => {
 });
 
 describe('the seller’s rights tick', () => {
-  it('refuses a listing and a new version without the tick, with words naming it (the API’s own schemas)', () => {
-    const { rightsConfirmed: _dropped, ...unticked } = { ...draft(), groomId: crypto.randomUUID(), versionId: crypto.randomUUID() };
-    const refused = listingDraftSchema.safeParse(unticked);
-    expect(refused.success).toBe(false);
-    expect(refused.error!.issues.find((issue) => issue.path[0] === 'rightsConfirmed')?.message).toBe(RIGHTS_REFUSED);
-    expect(listingDraftSchema.safeParse({ ...unticked, rightsConfirmed: false }).success).toBe(false);
-    const version = { groomId: crypto.randomUUID(), versionId: crypto.randomUUID(), description: SECOND_WORDS, formats: ['usda'] };
-    expect(listingVersionSchema.safeParse(version).error!.issues.map((issue) => issue.message)).toContain(RIGHTS_REFUSED);
-    expect(listingVersionSchema.safeParse({ ...version, rightsConfirmed: true }).success).toBe(true);
-    // The field file holds the whole surface: it goes only with the surface tick.
-    const field = listingVersionSchema.safeParse({ ...version, formats: ['usda', 'ply'], rightsConfirmed: true });
-    expect(field.error!.issues).toEqual([expect.objectContaining({ path: ['formats'], message: FIELD_NEEDS_SURFACE })]);
-    expect(listingVersionSchema.safeParse({ ...version, formats: ['usda', 'ply'], rightsConfirmed: true, shipsSurface: true }).success).toBe(true);
-  });
-
   it('stores who confirmed, when and under which wording, with each version', async () => {
     const listing = await createListing(seller, draft());
     const [first] = await listListingVersions(seller, listing.id);
