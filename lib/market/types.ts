@@ -43,6 +43,9 @@ export type ListingDetail = ListingCard & {
   taxNote: string;
   createdAt: string;
   submittedAt: string | null;
+  /** Listing versions: the number of the version on sale, and whether its package ships the seller's growth surface. */
+  currentVersion: number;
+  shipsSurface: boolean;
 };
 
 /** A seller's own listing or one in the admin's queue. */
@@ -75,6 +78,12 @@ export type LibraryItem = {
   downloads: number;
   purchasedAt: string;
   refundedAt: string | null;
+  /** Listing versions: the version bought, the one on sale, and each one the owner may download (none once refunded). */
+  boughtVersion: number;
+  currentVersion: number;
+  versions: { number: number; packageReady: boolean }[];
+  /** A newer version than the one bought, not yet downloaded: the library's notice. */
+  updateNotice: { number: number } | null;
 };
 
 export type SalesFigures = {
@@ -183,3 +192,36 @@ export type RefundResponse = { purchase: AdminPurchase };
 export type ReconcileResponse = { recovered: number; checked: number; refundsChecked: number; refundsRecovered: number };
 /** POST /api/payments/webhook */
 export type WebhookResponse = { received: true; id: string; type: string; outcome: 'handled' | 'duplicate' | 'ignored' | 'refused' };
+
+// Listing versions (lib/market/listings/versions.ts).
+
+/** One version of a listing: the first (reviewed with the listing) or an update, with the seller's confirmation of their rights. */
+export type ListingVersionSummary = {
+  id: string;
+  listingId: string;
+  listingTitle: string;
+  number: number;
+  review: 'listing' | 'submitted' | 'approved' | 'rejected';
+  rejectionReason: string | null;
+  /** Whether this is the version the market sells now. */
+  onSale: boolean;
+  groom: { id: string; name: string; versionNumber: number | null; versionName: string | null };
+  description: string;
+  formats: PackageFormat[];
+  notes: string;
+  shipsSurface: boolean;
+  rights: { confirmedAt: string; wordingVersion: string } | null;
+  assets: { status: 'pending' | 'ready' | 'failed'; error: string | null };
+  /** A short-lived URL of its front picture (256 px), once made. */
+  pictureUrl: string | null;
+  seller: { id: string; displayName: string; email: string };
+  createdAt: string;
+  submittedAt: string | null;
+  decidedAt: string | null;
+};
+/** GET /api/market/listings/[id]/versions */
+export type ListingVersionsResponse = { versions: ListingVersionSummary[] };
+/** POST /api/market/listings/[id]/versions, POST /api/admin/listing-versions/[id]/decision */
+export type ListingVersionResponse = { version: ListingVersionSummary };
+/** GET /api/admin/listing-versions */
+export type AdminListingVersionsResponse = { versions: ListingVersionSummary[] };

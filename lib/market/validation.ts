@@ -12,6 +12,7 @@ import {
   SEARCH_SORTS,
   STYLES,
 } from './vocabulary';
+import { FIELD_NEEDS_SURFACE, RIGHTS_REFUSED, SURFACE_CARRYING_FORMAT } from './rights';
 
 const oneOf = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
   z.enum(values, { error: `Choose ${what}: ${values.join(', ')}.` });
@@ -44,25 +45,57 @@ const formats = z
   .min(1, 'Include at least one file format.')
   .transform((values) => [...new Set(values)]);
 
-export const listingDraftSchema = z.object({
-  groomId: z.uuid('Choose one of your grooms.'),
-  versionId: z.uuid('Choose a saved version of the groom.'),
-  title,
-  description,
-  tags: tagsSchema,
-  priceCents,
-  currency,
-  licenceSlug,
-  formats,
-});
+// Listing versions and the seller's rights: every listing and every new version carries the
+// seller's tick (rights.ts); the package ships the growth surface only when asked, and the field
+// file, which holds the whole surface, only with it.
+const rightsConfirmed = z.literal(true, { error: RIGHTS_REFUSED });
+const shipsSurface = z.boolean({ error: 'Say whether the package ships your growth surface.' });
+
+/** Whether `formats` may go without the surface; a field message on `formats` otherwise. */
+export function surfaceRule(value: { formats?: readonly string[]; shipsSurface?: boolean }, context: z.RefinementCtx) {
+  if (value.formats?.includes(SURFACE_CARRYING_FORMAT) && value.shipsSurface === false) {
+    context.addIssue({ code: 'custom', path: ['formats'], message: FIELD_NEEDS_SURFACE });
+  }
+}
+
+export const listingDraftSchema = z
+  .object({
+    groomId: z.uuid('Choose one of your grooms.'),
+    versionId: z.uuid('Choose a saved version of the groom.'),
+    title,
+    description,
+    tags: tagsSchema,
+    priceCents,
+    currency,
+    licenceSlug,
+    formats,
+    rightsConfirmed,
+    shipsSurface: shipsSurface.default(false),
+  })
+  .superRefine(surfaceRule);
 export type ListingDraftInput = z.infer<typeof listingDraftSchema>;
 
-/** PATCH: any of the draft's fields except the version it freezes. */
+/** PATCH: any of the draft's fields except the version it freezes; a changed surface tick comes with the rights tick again. */
 export const listingPatchSchema = z
-  .object({ title, description, tags: tagsSchema, priceCents, currency, licenceSlug, formats })
+  .object({ title, description, tags: tagsSchema, priceCents, currency, licenceSlug, formats, rightsConfirmed, shipsSurface })
   .partial()
-  .strict();
+  .strict()
+  .refine((value) => value.shipsSurface === undefined || value.rightsConfirmed === true, { path: ['rightsConfirmed'], message: RIGHTS_REFUSED });
 export type ListingPatchInput = z.infer<typeof listingPatchSchema>;
+
+/** POST /api/market/listings/[id]/versions: a newer groom version, with its description and files, for the listing's owners. */
+export const listingVersionSchema = z
+  .object({
+    groomId: z.uuid('Choose one of your grooms.'),
+    versionId: z.uuid('Choose a saved version of the groom.'),
+    description,
+    formats,
+    notes: z.string().trim().max(2000, 'Keep the notes under 2000 characters.').default(''),
+    rightsConfirmed,
+    shipsSurface: shipsSurface.default(false),
+  })
+  .superRefine(surfaceRule);
+export type ListingVersionInput = z.infer<typeof listingVersionSchema>;
 
 export const decisionSchema = z
   .object({

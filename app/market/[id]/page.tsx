@@ -148,7 +148,13 @@ export default async function ListingPage({ params, searchParams }: Props) {
                 <li key={format}>{FORMAT_LABELS[format]}</li>
               ))}
               <li>The licence (LICENCE.txt) and a README</li>
+              {listing.shipsSurface && <li data-testid="ships-surface">The seller’s growth surface (its source file, and in the guides’ files with the binding data)</li>}
             </ul>
+            {listing.currentVersion > 1 && (
+              <p className="text-sm text-loam-soft" data-testid="listing-version">
+                Version {listing.currentVersion}. Owners of an earlier version got it free, and keep the one they bought.
+              </p>
+            )}
           </section>
 
           <Cautions />

@@ -42,6 +42,13 @@ export type ListingRow = {
   created_at: Date;
   submitted_at: Date | null;
   published_at: Date | null;
+  // Listing versions (db/migrations/20261208300000_listing_versions.ts).
+  spec: unknown;
+  surface_key: string;
+  surface_file_name: string;
+  current_version: number;
+  ships_surface: boolean;
+  assets_prefix: string | null;
 };
 
 const isAdmin = (actor: Actor | null) => Boolean(actor?.roles.includes('admin'));
@@ -203,7 +210,7 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     rejectionReason: row.rejection_reason,
     groom: { id: row.groom_id, name: row.groom_name, versionId: row.groom_version_id, versionNumber: row.version_number, versionName: row.version_name },
     gallery,
-    guidePreviewUrl: row.assets_status === 'ready' ? await presignDownload(`${listingPrefix(id)}/preview/guides.glb`, PICTURE_URL_SECONDS) : null,
+    guidePreviewUrl: row.assets_status === 'ready' ? await presignDownload(`${row.assets_prefix ?? listingPrefix(id)}/preview/guides.glb`, PICTURE_URL_SECONDS) : null,
     assets: { status: row.assets_status, error: isSeller || isAdmin(actor) ? row.assets_error : null },
     licence: { slug: row.licence_slug, title: row.licence_title, summary: row.licence_summary, body: row.licence_body },
     reviews,
@@ -217,6 +224,8 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     taxNote: TAX_NOTE,
     createdAt: row.created_at.toISOString(),
     submittedAt: row.submitted_at?.toISOString() ?? null,
+    currentVersion: row.current_version,
+    shipsSurface: row.ships_surface,
   };
 }
 
