@@ -48,6 +48,7 @@ export { EXPORT_FORMATS, EXPORT_FORMAT_FACTS, EXPORT_EXTENSIONS, formatOfExtensi
 export { writeExport, type GroomMade, type ExportOptions } from './export/write';
 export { guidesToUsda, type UsdCurveBasis } from './export/usda';
 export { guidesToGltf } from './export/gltf';
+export { previewGuides, previewToGlb, PUBLIC_PREVIEW, type PreviewGuides, type PreviewLimits } from './export/preview';
 export { guidesToObj, OBJ_ROOT_RECORD } from './export/obj';
 export { writtenSurface, type Provenance, type BindingExportOptions, type WrittenSurface } from './export/binding-data';
 export { fieldToPly } from './export/field-ply';

@@ -1,5 +1,6 @@
 // What a listing shows and sells, made from its frozen version by a background job: pictures
-// (front, side, top at 256² and 1024², WebP), a guide preview (.glb), the guide count, and the
+// (front, side, top at 256² and 1024², WebP), the public guide preview (.glb: a reduced asset of
+// its own, see previewGuides in lib/groom — never the package's guides), the guide count, and the
 // package zip (the promised export files, the licence in full and a README). The package is built
 // once per listing revision (the revision moves on with every edit that changes the package); a
 // second run of the job keeps the first.
@@ -16,6 +17,8 @@ import {
   EXPORT_FORMAT_FACTS,
   growGuides,
   parseGroomSpec,
+  previewGuides,
+  previewToGlb,
   prepareGroomSurface,
   renderThumbnail,
   solveGroomField,
@@ -30,7 +33,7 @@ import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { getObjectBytes, putObject } from '../platform/storage';
 import { copyObject } from '../platform/storage';
-import { listingPrefix } from './storage';
+import { deleteMarketObjects, listingPrefix } from './storage';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
 
 export type Picture = { view: ThumbnailView; size: number; key: string };
@@ -193,8 +196,8 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
         pictures.push({ view, size, key });
       }
     }
-    const preview = writeExport('glb', made);
-    await stored(() => putObject(`${prefix}/preview/guides.glb`, preview, EXPORT_FORMAT_FACTS.glb.mediaType));
+    const previewKey = `${prefix}/preview/sample.glb`;
+    await stored(() => putObject(previewKey, previewToGlb(previewGuides(guides)), EXPORT_FORMAT_FACTS.glb.mediaType));
 
     const existing = await db()('listing_packages').where({ listing_id: listing.id, listing_revision: listing.revision }).first('listing_id');
     let built: { object_key: string; file_name: string; byte_size: number } | null = null;
@@ -219,7 +222,7 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       built = { object_key: key, file_name: fileName, byte_size: zip.byteLength };
     }
     // Kept only if the listing is still the one it was built from (the edit locks the same row).
-    return await db().transaction(async (trx) => {
+    const outcome = await db().transaction<'done' | 'edited' | 'gone'>(async (trx) => {
       const now = await trx('listings').where({ id: listing.id }).forUpdate().first('revision');
       if (!now) return 'gone';
       if (now.revision !== listing.revision) return 'edited';
@@ -229,9 +232,12 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       }
       await trx('listings')
         .where({ id: listing.id })
-        .update({ assets_status: 'ready', assets_error: null, guide_count: guides.count, pictures: JSON.stringify(pictures), updated_at: trx.fn.now() });
+        .update({ assets_status: 'ready', assets_error: null, guide_count: guides.count, pictures: JSON.stringify(pictures), preview_key: previewKey, updated_at: trx.fn.now() });
       return 'done';
     });
+    // Listings built before the reduced preview kept the full guides there: no row names that file now.
+    if (outcome === 'done') await deleteMarketObjects([`${prefix}/preview/guides.glb`]);
+    return outcome;
   } catch (error) {
     const message = (error as Error).message ?? String(error);
     // A failure of an older revision says nothing about the edited listing: build that instead.

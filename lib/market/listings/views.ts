@@ -6,7 +6,7 @@ import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { notFound } from '../errors';
 import { presignDownload } from '../../platform/storage';
-import { PICTURE_URL_SECONDS, listingPrefix } from '../storage';
+import { PICTURE_URL_SECONDS } from '../storage';
 import type { ListingCard, ListingDetail, ListingSummary, Review } from '../types';
 import { TAX_NOTE, type ListingState } from '../vocabulary';
 import type { Picture } from '../assets';
@@ -36,6 +36,8 @@ export type ListingRow = {
   assets_error: string | null;
   guide_count: number | null;
   pictures: Picture[];
+  /** The reduced public preview (assets.ts); null until the asset job has written it. */
+  preview_key: string | null;
   sales_count: number;
   rating_count: number;
   rating_average: string | null;
@@ -203,7 +205,8 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     rejectionReason: row.rejection_reason,
     groom: { id: row.groom_id, name: row.groom_name, versionId: row.groom_version_id, versionNumber: row.version_number, versionName: row.version_name },
     gallery,
-    guidePreviewUrl: row.assets_status === 'ready' ? await presignDownload(`${listingPrefix(id)}/preview/guides.glb`, PICTURE_URL_SECONDS) : null,
+    // Only the reduced preview is ever presigned; a listing not rebuilt since it has none yet.
+    guidePreviewUrl: row.assets_status === 'ready' && row.preview_key ? await presignDownload(row.preview_key, PICTURE_URL_SECONDS) : null,
     assets: { status: row.assets_status, error: isSeller || isAdmin(actor) ? row.assets_error : null },
     licence: { slug: row.licence_slug, title: row.licence_title, summary: row.licence_summary, body: row.licence_body },
     reviews,
