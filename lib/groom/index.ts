@@ -40,6 +40,7 @@ export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './plac
 export { blendPins, type PinnedFactors } from './place/pins';
 export { growthMask } from './place/regions';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
+export { coatFacts, type CoatFacts } from './grow/coat-facts';
 export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';
 export { bindRoots, rootsOnSculpt, type RootBinding } from './grow/binding';
 export { createTracer, STOP, type StopReason, type Tracer } from './grow/trace';

@@ -12,8 +12,9 @@
 //     quick retries come first); the listing is marked failed only after the last try, or at
 //     once for an error that a retry cannot mend (a missing object, a bad spec).
 import { strToU8, zipSync, type Zippable } from 'fflate';
-import { readSurface } from '../field';
+import { checkSurfaceFile } from '../field';
 import {
+  coatFacts,
   EXPORT_FORMAT_FACTS,
   growGuides,
   parseGroomSpec,
@@ -34,6 +35,7 @@ import { fileSlug } from '../platform/file-names';
 import { getObjectBytes, putObject } from '../platform/storage';
 import { copyObject } from '../platform/storage';
 import { deleteMarketObjects, listingPrefix } from './storage';
+import { measureListing } from './listing-facts';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
 
 export type Picture = { view: ThumbnailView; size: number; key: string };
@@ -179,7 +181,9 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
   try {
     await freezeSurface(listing, stored);
     const spec = parseGroomSpec(listing.spec);
-    const read = readSurface(await stored(() => getObjectBytes(listing.surface_key)), listing.surface_file_name);
+    // The same check the studio ran on the surface: its facts describe the listing.
+    const { read, report } = checkSurfaceFile(await stored(() => getObjectBytes(listing.surface_key)), listing.surface_file_name);
+    if (!read || !report.facts) throw new Error(`the listing's surface could not be read: ${report.problems[0]?.message ?? 'no facts'}`);
     const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
     const solved = solveGroomField(spec, surface);
     const { guides } = growGuides(surface, solved, spec);
@@ -197,7 +201,9 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       }
     }
     const previewKey = `${prefix}/preview/sample.glb`;
-    await stored(() => putObject(previewKey, previewToGlb(previewGuides(guides)), EXPORT_FORMAT_FACTS.glb.mediaType));
+    const preview = previewGuides(guides);
+    await stored(() => putObject(previewKey, previewToGlb(preview), EXPORT_FORMAT_FACTS.glb.mediaType));
+    const measured = measureListing(coatFacts(surface, spec, guides), report.facts, preview);
 
     const existing = await db()('listing_packages').where({ listing_id: listing.id, listing_revision: listing.revision }).first('listing_id');
     let built: { object_key: string; file_name: string; byte_size: number } | null = null;
@@ -232,7 +238,7 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       }
       await trx('listings')
         .where({ id: listing.id })
-        .update({ assets_status: 'ready', assets_error: null, guide_count: guides.count, pictures: JSON.stringify(pictures), preview_key: previewKey, updated_at: trx.fn.now() });
+        .update({ assets_status: 'ready', assets_error: null, guide_count: guides.count, pictures: JSON.stringify(pictures), preview_key: previewKey, facts: JSON.stringify(measured.facts), guides_per_cm2: measured.guidesPerCm2, typical_length_cm: measured.typicalLengthCm, updated_at: trx.fn.now() });
       return 'done';
     });
     // Listings built before the reduced preview kept the full guides there: no row names that file now.

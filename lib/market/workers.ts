@@ -41,10 +41,11 @@ export const MARKET_JOBS: AreaJobs = {
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
     // Listings whose pictures were never queued (made by the seed, or a queue that was down), and
     // ready ones built before the reduced public preview (20261208200000_listing_preview), whose
-    // preview held every guide: rebuilt once, the package kept as it is.
+    // preview held every guide, or before their facts (20261208200001_listing_facts): rebuilt
+    // once, the package kept as it is.
     const pending = await db()('listings')
       .where({ assets_status: 'pending' })
-      .orWhere((ready) => ready.where({ assets_status: 'ready' }).whereNull('preview_key'))
+      .orWhere((ready) => ready.where({ assets_status: 'ready' }).where((old) => old.whereNull('preview_key').orWhereNull('facts')))
       .orderBy('created_at')
       .pluck('id');
     for (const listingId of pending) await boss.send(LISTING_ASSETS_QUEUE, { listingId } satisfies ListingAssetsJobData, { singletonKey: listingId });

@@ -63,6 +63,8 @@ describe('the public preview against the paid package', () => {
     expect(json.accessors.filter((accessor) => accessor.name)).toEqual([]);
     expect(json.meshes.map((mesh) => mesh.extras)).toEqual([undefined]);
     expect(JSON.stringify(json)).not.toMatch(/guideId|rootFace|rootBarycentric|binding/);
+    // The listing says what its preview holds, and it is what three.js counted.
+    expect(detail.facts!.preview).toEqual({ guides: preview.curves, pointsPerGuide: preview.points / preview.curves });
   });
 
   it('lets the package leave only for the paid buyer: not a visitor, another buyer or a refunded buyer', async () => {
@@ -86,6 +88,26 @@ describe('the public preview against the paid package', () => {
   });
 });
 
+describe('what the listing says it is', () => {
+  it('states the facts measured when its assets were built, in the market API and the search columns', async () => {
+    const { facts, guideCount } = await getListingDetail(null, listingId);
+    const spec = (await db()('listings').where({ id: listingId }).first('spec')).spec;
+    // The demo ring (lib/groom/demo): a torus declared in millimetres, Z up, 4 guides per cm² (no density pins) of 40 hairs each.
+    expect(facts).toMatchObject({ units: spec.units, upAxis: spec.upAxis, hairsPerGuide: spec.guides.hairsPerGuide, pointsPerGuide: spec.guides.pointsPerGuide });
+    expect(facts!.surface).toMatchObject({ genus: 1, openings: 0, pieces: 1 });
+    expect(facts!.transfer).toEqual({ uv: facts!.surface.uvs && facts!.surface.uvOverlappingFaces === 0, alignment: true });
+    // A density spec: the guide count is density × area rounded, so the mean is the spec's density to within half a guide.
+    expect(Math.abs(facts!.guidesPerCm2 * facts!.growthAreaCm2 - guideCount!)).toBeLessThan(1e-6);
+    expect(Math.abs(facts!.guidesPerCm2 - spec.guides.density)).toBeLessThanOrEqual(0.5 / facts!.growthAreaCm2 + 1e-9);
+    expect(facts!.length.shortest).toBeLessThanOrEqual(facts!.length.median);
+    expect(facts!.length.median).toBeLessThanOrEqual(facts!.length.longest);
+    const row = await db()('listings').where({ id: listingId }).first('guides_per_cm2', 'typical_length_cm');
+    expect(row.guides_per_cm2).toBeCloseTo(facts!.guidesPerCm2, 12);
+    // 1 mm = 0.1 cm.
+    expect(row.typical_length_cm).toBeCloseTo(facts!.length.median * (spec.units === 'mm' ? 0.1 : NaN), 12);
+  });
+});
+
 describe('a listing built before the reduced preview', () => {
   it('shows no 3D preview until rebuilt; the rebuild writes the reduced one, removes the old file and keeps the package', async () => {
     const seller = await makePerson('preview-seller', ['groomer']);
@@ -95,8 +117,8 @@ describe('a listing built before the reduced preview', () => {
     // As the migration leaves it: ready, no preview_key, and the old full-guide file in storage.
     const oldKey = `${listingPrefix(id)}/preview/guides.glb`;
     await putObject(oldKey, await getObjectBytes(packageBefore.object_key), 'model/gltf-binary');
-    await db()('listings').where({ id }).update({ preview_key: null });
-    expect((await getListingDetail(null, id)).guidePreviewUrl).toBeNull();
+    await db()('listings').where({ id }).update({ preview_key: null, facts: null });
+    expect(await getListingDetail(null, id)).toMatchObject({ guidePreviewUrl: null, facts: null });
     // The job workers queue it when they start (a stand-in for pg-boss records what is queued).
     const queued: unknown[] = [];
     const queue = { schedule: async () => undefined, send: async (_name: string, data: { listingId: string }) => void queued.push(data.listingId) };
@@ -106,6 +128,7 @@ describe('a listing built before the reduced preview', () => {
 
     await buildListingAssets(id);
     expect((await getListingDetail(null, id)).guidePreviewUrl).toMatch(/\/preview\/sample\.glb\?/);
+    expect((await getListingDetail(null, id)).facts).not.toBeNull();
     await expect(getObjectBytes(oldKey)).rejects.toThrow();
     expect(await db()('listing_packages').where({ listing_id: id }).first('object_key', 'built_at')).toEqual(packageBefore);
   }, 120_000);

@@ -7,7 +7,7 @@ import { HttpError } from '../../http/errors';
 import { notFound } from '../errors';
 import { presignDownload } from '../../platform/storage';
 import { PICTURE_URL_SECONDS } from '../storage';
-import type { ListingCard, ListingDetail, ListingSummary, Review } from '../types';
+import type { ListingCard, ListingDetail, ListingFacts, ListingSummary, Review } from '../types';
 import { TAX_NOTE, type ListingState } from '../vocabulary';
 import type { Picture } from '../assets';
 
@@ -38,6 +38,8 @@ export type ListingRow = {
   pictures: Picture[];
   /** The reduced public preview (assets.ts); null until the asset job has written it. */
   preview_key: string | null;
+  /** What the listing is (listing-facts.ts); null until the asset job has measured it. */
+  facts: ListingFacts | null;
   sales_count: number;
   rating_count: number;
   rating_average: string | null;
@@ -161,6 +163,8 @@ export function cardOf(
     },
     formats: row.formats as ListingCard['formats'],
     guideCount: row.guide_count,
+    // Only once the assets are ready: a failed rebuild leaves no facts of an older revision showing.
+    facts: row.assets_status === 'ready' ? (row.facts ?? null) : null,
     salesCount: row.sales_count,
     rating: { average: row.rating_average === null ? null : Number(row.rating_average), count: row.rating_count },
     seller: { id: row.seller_id, displayName: row.seller_name },
