@@ -1,6 +1,6 @@
 // The shapes the market's route handlers answer with, shared with the market's pages.
 // Money: integer cents with the currency beside it; times: ISO 8601 strings.
-import type { ThumbnailView } from '../groom';
+import type { ThumbnailView, Unit } from '../groom';
 import type { BodyRegion, CoatLength, Animal, Currency, ListingState, PackageFormat, SalesBucket, Style } from './vocabulary';
 
 export type Money = { cents: number; currency: Currency };
@@ -13,7 +13,7 @@ export type ListingTagsOut = { animal: Animal; coatLength: CoatLength; style: St
  * carries onto a buyer's surface, and what the public preview holds. Lengths in `units`.
  */
 export type ListingFacts = {
-  units: 'mm' | 'cm' | 'm' | 'in';
+  units: Unit;
   upAxis: 'y' | 'z';
   guidesPerCm2: number;
   hairsPerGuide: number;
