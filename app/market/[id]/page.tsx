@@ -154,7 +154,11 @@ export default async function ListingPage({ params, searchParams }: Props) {
                 ))}
               </dl>
             ) : (
-              <p className="text-sm text-loam-soft">Its measurements are being taken with its pictures.</p>
+              <p className="text-sm text-loam-soft">
+                {listing.assets.status === 'failed'
+                  ? 'Not measured: its pictures and package could not be made.'
+                  : 'Its measurements are being taken with its pictures.'}
+              </p>
             )}
           </section>
 
