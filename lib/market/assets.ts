@@ -1,5 +1,6 @@
 // What a listing shows and sells, made from its frozen version by a background job: pictures
-// (front, side, top at 256² and 1024², WebP), a guide preview (.glb), the guide count, and the
+// (front, side, top at 256² and 1024², WebP), the public guide preview (.glb: a reduced asset of
+// its own, see previewGuides in lib/groom — never the package's guides), the guide count, and the
 // package zip (the promised export files, the licence in full and a README). The package is built
 // once per listing revision (the revision moves on with every edit that changes the package); a
 // second run of the job keeps the first.
@@ -11,11 +12,14 @@
 //     quick retries come first); the listing is marked failed only after the last try, or at
 //     once for an error that a retry cannot mend (a missing object, a bad spec).
 import { strToU8, zipSync, type Zippable } from 'fflate';
-import { readSurface } from '../field';
+import { checkSurfaceFile } from '../field';
 import {
+  coatFacts,
   EXPORT_FORMAT_FACTS,
   growGuides,
   parseGroomSpec,
+  previewGuides,
+  previewToGlb,
   prepareGroomSurface,
   renderThumbnail,
   solveGroomField,
@@ -30,7 +34,8 @@ import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { getObjectBytes, putObject } from '../platform/storage';
 import { copyObject } from '../platform/storage';
-import { listingPrefix } from './storage';
+import { deleteMarketObjects, listingPrefix } from './storage';
+import { measureListing, type MeasuredListing } from './listing-facts';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
 
 export type Picture = { view: ThumbnailView; size: number; key: string };
@@ -192,9 +197,9 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       .first('listing_id');
     // Under the version and revision, so a build never overwrites the package a row (or an owner of an older version) names.
     const packagePrefix = existing ? null : version > 1 ? `${prefix}/package/v${version}/r${listing.revision}` : `${prefix}/package/r${listing.revision}`;
-    const { guideCount, pictures, built } = await makeListingFiles(listing, prefix, packagePrefix, stored);
+    const { guideCount, pictures, built, previewKey, measured } = await makeListingFiles(listing, prefix, packagePrefix, stored);
     // Kept only if the listing is still the one it was built from (the edit locks the same row).
-    return await db().transaction(async (trx) => {
+    const outcome = await db().transaction<'done' | 'edited' | 'gone'>(async (trx) => {
       const now = await trx('listings').where({ id: listing.id }).forUpdate().first('revision');
       if (!now) return 'gone';
       if (now.revision !== listing.revision) return 'edited';
@@ -204,9 +209,12 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       }
       await trx('listings')
         .where({ id: listing.id })
-        .update({ assets_status: 'ready', assets_error: null, guide_count: guideCount, pictures: JSON.stringify(pictures), assets_prefix: null, updated_at: trx.fn.now() });
+        .update({ assets_status: 'ready', assets_error: null, guide_count: guideCount, pictures: JSON.stringify(pictures), preview_key: previewKey, assets_prefix: null, facts: JSON.stringify(measured.facts), guides_per_cm2: measured.guidesPerCm2, typical_length_cm: measured.typicalLengthCm, updated_at: trx.fn.now() });
       return 'done';
     });
+    // Listings built before the reduced preview kept the full guides there: no row names that file now.
+    if (outcome === 'done') await deleteMarketObjects([`${prefix}/preview/guides.glb`]);
+    return outcome;
   } catch (error) {
     const message = (error as Error).message ?? String(error);
     // A failure of an older revision says nothing about the edited listing: build that instead.
@@ -219,7 +227,14 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
   }
 }
 
-export type ListingFiles = { guideCount: number; pictures: Picture[]; built: { object_key: string; file_name: string; byte_size: number } | null };
+export type ListingFiles = {
+  guideCount: number;
+  pictures: Picture[];
+  built: { object_key: string; file_name: string; byte_size: number } | null;
+  /** The reduced public preview (see lib/groom's previewGuides), never the package's guides. */
+  previewKey: string;
+  measured: MeasuredListing;
+};
 
 /**
  * Grows a listing version's guides once and stores its pictures and guide preview under `prefix`,
@@ -230,7 +245,9 @@ export type ListingFiles = { guideCount: number; pictures: Picture[]; built: { o
 export async function makeListingFiles(listing: ListingFilesSource, prefix: string, packagePrefix: string | null, stored: Stored): Promise<ListingFiles> {
   const spec = parseGroomSpec(listing.spec);
   const surfaceBytes = await stored(() => getObjectBytes(listing.surface_key));
-  const read = readSurface(surfaceBytes, listing.surface_file_name);
+  // The same check the studio ran on the surface: its facts describe the listing.
+  const { read, report } = checkSurfaceFile(surfaceBytes, listing.surface_file_name);
+  if (!read || !report.facts) throw new Error(`the listing's surface could not be read: ${report.problems[0]?.message ?? 'no facts'}`);
   const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
   const solved = solveGroomField(spec, surface);
   const { guides } = growGuides(surface, solved, spec);
@@ -246,8 +263,10 @@ export async function makeListingFiles(listing: ListingFilesSource, prefix: stri
       pictures.push({ view, size, key });
     }
   }
-  const preview = writeExport('glb', made);
-  await stored(() => putObject(`${prefix}/preview/guides.glb`, preview, EXPORT_FORMAT_FACTS.glb.mediaType));
+  const previewKey = `${prefix}/preview/sample.glb`;
+  const preview = previewGuides(guides);
+  await stored(() => putObject(previewKey, previewToGlb(preview), EXPORT_FORMAT_FACTS.glb.mediaType));
+  const measured = measureListing(coatFacts(surface, spec, guides), report.facts, preview);
 
   let built: ListingFiles['built'] = null;
   if (packagePrefix) {
@@ -270,5 +289,5 @@ export async function makeListingFiles(listing: ListingFilesSource, prefix: stri
     await stored(() => putObject(key, zip, 'application/zip'));
     built = { object_key: key, file_name: fileName, byte_size: zip.byteLength };
   }
-  return { guideCount: guides.count, pictures, built };
+  return { guideCount: guides.count, pictures, built, previewKey, measured };
 }

@@ -1,11 +1,35 @@
 // The shapes the market's route handlers answer with, shared with the market's pages.
 // Money: integer cents with the currency beside it; times: ISO 8601 strings.
-import type { ThumbnailView } from '../groom';
+import type { ThumbnailView, Unit } from '../groom';
 import type { BodyRegion, CoatLength, Animal, Currency, ListingState, PackageFormat, SalesBucket, Style } from './vocabulary';
 
 export type Money = { cents: number; currency: Currency };
 
 export type ListingTagsOut = { animal: Animal; coatLength: CoatLength; style: Style; bodyRegion: BodyRegion };
+
+/**
+ * What a listing is, measured when its assets are built (lib/market/listing-facts.ts): the coat in
+ * numbers that mean something on another character, the seller's surface, the ways the spec
+ * carries onto a buyer's surface, and what the public preview holds. Lengths in `units`.
+ */
+export type ListingFacts = {
+  units: Unit;
+  upAxis: 'y' | 'z';
+  guidesPerCm2: number;
+  hairsPerGuide: number;
+  hairsPerCm2: number;
+  /** The area the guides grow on, on the seller's surface. */
+  growthAreaCm2: number;
+  pointsPerGuide: number;
+  length: { combed: number; shortest: number; median: number; longest: number };
+  /** The regions (OBJ groups) the spec grows on (empty: the whole surface), and those the seller's surface has. */
+  regions: { expected: string[]; surface: string[] };
+  /** The seller's surface: triangles, genus, openings (boundary loops), connected pieces, UVs. */
+  surface: { faces: number; genus: number | null; openings: number | null; pieces: number; uvs: boolean; uvOverlappingFaces: number };
+  /** How the spec can be carried onto a buyer's surface (lib/groom's transferSpec). */
+  transfer: { uv: boolean; alignment: boolean };
+  preview: { guides: number; pointsPerGuide: number };
+};
 
 /** One result of the search. `pictureUrl` is a route of the app that redirects to a short-lived URL. */
 export type ListingCard = {
@@ -16,6 +40,8 @@ export type ListingCard = {
   tags: ListingTagsOut;
   formats: PackageFormat[];
   guideCount: number | null;
+  /** Null until the listing's assets are (re)built. */
+  facts: ListingFacts | null;
   salesCount: number;
   rating: { average: number | null; count: number };
   seller: { id: string; displayName: string };

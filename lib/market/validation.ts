@@ -116,6 +116,12 @@ export const reviewSchema = z.object({
 
 const intFromQuery = (name: string, min: number, max: number) =>
   z.coerce.number({ error: `${name} must be a whole number.` }).int(`${name} must be a whole number.`).min(min).max(max);
+/** A measure (density in guides per cm², length in cm) from 0 up to `max`. */
+const numberFromQuery = (name: string, unit: string, max: number) =>
+  z.coerce
+    .number({ error: `${name} must be a number (${unit}).` })
+    .min(0, `${name} must not be below 0 ${unit}.`)
+    .max(max, `${name} must be at most ${max.toLocaleString('en-GB')} ${unit}.`);
 const listFromQuery = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
   z
     .union([z.string(), z.array(z.string())])
@@ -133,8 +139,10 @@ export const searchSchema = z
     currency: currency.optional(),
     minPrice: intFromQuery('minPrice', 0, MAX_PRICE_CENTS).optional(),
     maxPrice: intFromQuery('maxPrice', 0, MAX_PRICE_CENTS).optional(),
-    minGuides: intFromQuery('minGuides', 0, 10_000_000).optional(),
-    maxGuides: intFromQuery('maxGuides', 0, 10_000_000).optional(),
+    minDensity: numberFromQuery('minDensity', 'guides per cm²', 10_000).optional(),
+    maxDensity: numberFromQuery('maxDensity', 'guides per cm²', 10_000).optional(),
+    minLength: numberFromQuery('minLength', 'cm', 1_000_000).optional(),
+    maxLength: numberFromQuery('maxLength', 'cm', 1_000_000).optional(),
     sort: oneOf(SEARCH_SORTS, 'the order').optional(),
     page: intFromQuery('page', 1, 10_000).default(1),
     pageSize: intFromQuery('pageSize', 1, 60).default(24),
@@ -143,9 +151,13 @@ export const searchSchema = z
     path: ['maxPrice'],
     message: 'The highest price must not be below the lowest.',
   })
-  .refine((v) => v.minGuides === undefined || v.maxGuides === undefined || v.minGuides <= v.maxGuides, {
-    path: ['maxGuides'],
-    message: 'The most guides must not be below the fewest.',
+  .refine((v) => v.minDensity === undefined || v.maxDensity === undefined || v.minDensity <= v.maxDensity, {
+    path: ['maxDensity'],
+    message: 'The highest density must not be below the lowest.',
+  })
+  .refine((v) => v.minLength === undefined || v.maxLength === undefined || v.minLength <= v.maxLength, {
+    path: ['maxLength'],
+    message: 'The longest length must not be below the shortest.',
   });
 export type SearchInput = z.infer<typeof searchSchema>;
 

@@ -40,7 +40,7 @@ export async function buildListingVersionAssets(versionId: string, options: Asse
   if (!version || version.review !== 'submitted') return;
   const prefix = versionPrefix(version.listing_id, versionId);
   try {
-    const { guideCount, pictures, built } = await makeListingFiles(version, prefix, `${prefix}/package`, stored);
+    const { guideCount, pictures, built, previewKey, measured } = await makeListingFiles(version, prefix, `${prefix}/package`, stored);
     await db()('listing_versions')
       .where({ id: versionId, review: 'submitted' })
       .update({
@@ -48,6 +48,10 @@ export async function buildListingVersionAssets(versionId: string, options: Asse
         assets_error: null,
         guide_count: guideCount,
         pictures: JSON.stringify(pictures),
+        preview_key: previewKey,
+        facts: JSON.stringify(measured.facts),
+        guides_per_cm2: measured.guidesPerCm2,
+        typical_length_cm: measured.typicalLengthCm,
         package_key: built!.object_key,
         package_file_name: built!.file_name,
         package_byte_size: built!.byte_size,

@@ -44,8 +44,15 @@ export const MARKET_JOBS: AreaJobs = {
   kinds: [listingAssetsKind, reconcileKind],
   onStart: async (boss) => {
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
-    // Listings whose pictures were never queued (made by the seed, or a queue that was down).
-    const pending = await db()('listings').where({ assets_status: 'pending' }).orderBy('created_at').limit(500).pluck('id');
+    // Listings whose pictures were never queued (made by the seed, or a queue that was down), and
+    // ready ones built before the reduced public preview (20261208200000_listing_preview), whose
+    // preview held every guide, or before their facts (20261208200001_listing_facts): rebuilt
+    // once, the package kept as it is.
+    const pending = await db()('listings')
+      .where({ assets_status: 'pending' })
+      .orWhere((ready) => ready.where({ assets_status: 'ready' }).where((old) => old.whereNull('preview_key').orWhereNull('facts')))
+      .orderBy('created_at')
+      .pluck('id');
     for (const listingId of pending) await boss.send(LISTING_ASSETS_QUEUE, { listingId } satisfies ListingAssetsJobData, { singletonKey: listingId });
     const updates = await db()('listing_versions').where({ assets_status: 'pending', review: 'submitted' }).orderBy('created_at').limit(500).select('id', 'listing_id');
     for (const update of updates) {

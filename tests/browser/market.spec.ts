@@ -82,6 +82,7 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await expect(buyer).toHaveURL(new RegExp(`/market\\?q=${token}`));
   await expect(buyer.getByTestId('listing-tile')).toHaveCount(1);
   await expect(buyer.getByTestId('listing-tile')).toContainText('19.50 EUR');
+  await expect(buyer.getByTestId('listing-tile')).toContainText(/guides per cm² · [\d.]+(–[\d.]+)? cm/);
   await buyer.getByRole('link', { name: title }).click();
 
   await expect(buyer.getByRole('heading', { name: title, level: 1 })).toBeVisible();
@@ -93,6 +94,15 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await expect(preview).toHaveAttribute('data-preview-state', 'ready', { timeout: 30_000 });
   await expect(preview.locator('canvas')).toBeVisible();
   await expect(preview).toContainText(/\d+ guides shown/);
+  // What the listing says it is: the surface was registered in centimetres, and the ring is closed, of genus 1.
+  const facts = buyer.getByTestId('listing-facts');
+  await expect(facts).toContainText('centimetres (cm)');
+  await expect(facts).toContainText(/[\d.]+ guides per cm², [\d,]+ hairs per guide/);
+  await expect(facts).toContainText('genus 1 · closed, no openings');
+  await expect(facts).toContainText('by alignment of the two surfaces');
+  // The preview the browser's GLTFLoader drew holds as many guides as the listing states.
+  const shown = (await preview.textContent())!.match(/([\d,]+) guides shown/)![1];
+  await expect(facts).toContainText(`${shown} guides, 4 points each`);
 
   // Pays with the test card on the payment provider's hosted page, and comes back to the library.
   await buyer.getByRole('button', { name: 'Buy for 19.50 EUR' }).click();

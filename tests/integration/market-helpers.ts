@@ -88,6 +88,9 @@ export type ListingOptions = Partial<{
   ratingCount: number;
   assetsStatus: string;
   licence: string;
+  /** The measures the search filters on (lib/market/listing-facts.ts); null as before the asset job. */
+  guidesPerCm2: number | null;
+  typicalLengthCm: number | null;
 }>;
 
 /**
@@ -125,6 +128,8 @@ export async function insertListing(seller: Actor, options: ListingOptions = {},
       rating_average: options.ratingAverage ?? null,
       rating_count: options.ratingCount ?? 0,
       assets_status: options.assetsStatus ?? 'ready',
+      guides_per_cm2: options.guidesPerCm2 ?? null,
+      typical_length_cm: options.typicalLengthCm ?? null,
     })
     .returning('id');
   return row.id;

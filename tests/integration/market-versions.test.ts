@@ -161,6 +161,9 @@ describe('updates to owners', () => {
 
     const published = await getListingDetail(null, listingId);
     expect(published).toMatchObject({ description: SECOND_WORDS, formats: ['usda', 'json', 'ply'], groom: { versionId: groom.v2 } });
+    // The update's own reduced preview and facts come with it.
+    expect(published.guidePreviewUrl).toContain(`/versions/${update.id}/preview/sample.glb`);
+    expect(published.facts).toMatchObject({ pointsPerGuide: expect.any(Number) });
 
     // The owner: both versions, a notice, and an e-mail in the sink.
     const [item] = await listLibrary(owner);

@@ -8,6 +8,7 @@ import { Gallery } from '@/components/market/Gallery';
 import { galleryPictures } from '@/components/market/gallery-pictures';
 import { GuidePreview } from '@/components/market/GuidePreview';
 import { formatDate } from '@/components/market/format';
+import { factRows } from '@/components/market/listing-facts';
 import { StateBadge } from '@/components/market/StateBadge';
 import { Stars } from '@/components/market/Stars';
 import { TAG_KEYS, TAG_LABELS, tagLabel } from '@/components/market/search-params';
@@ -129,7 +130,7 @@ export default async function ListingPage({ params, searchParams }: Props) {
                 <dd>{tagLabel(listing.tags[key])}</dd>
               </div>
             ))}
-            <dt className="font-semibold text-loam-soft">Guides</dt>
+            <dt className="font-semibold text-loam-soft">Guides on the seller’s surface</dt>
             <dd>{listing.guideCount === null ? 'being counted' : listing.guideCount.toLocaleString('en-GB')}</dd>
             <dt className="font-semibold text-loam-soft">Licence</dt>
             <dd>
@@ -138,6 +139,28 @@ export default async function ListingPage({ params, searchParams }: Props) {
               </a>
             </dd>
           </dl>
+
+          <section aria-labelledby="facts-heading" className="flex flex-col gap-2">
+            <h2 id="facts-heading" className="text-lg font-bold">
+              What it is
+            </h2>
+            {listing.facts ? (
+              <dl className="grid grid-cols-[auto_1fr] gap-x-5 gap-y-2 text-sm" data-testid="listing-facts">
+                {factRows(listing.facts).map((row) => (
+                  <div key={row.term} className="contents">
+                    <dt className="font-semibold text-loam-soft">{row.term}</dt>
+                    <dd>{row.value}</dd>
+                  </div>
+                ))}
+              </dl>
+            ) : (
+              <p className="text-sm text-loam-soft">
+                {listing.assets.status === 'failed'
+                  ? 'Not measured: its pictures and package could not be made.'
+                  : 'Its measurements are being taken with its pictures.'}
+              </p>
+            )}
+          </section>
 
           <section aria-labelledby="files-heading" className="flex flex-col gap-2">
             <h2 id="files-heading" className="text-lg font-bold">
