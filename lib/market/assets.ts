@@ -12,7 +12,7 @@
 //     quick retries come first); the listing is marked failed only after the last try, or at
 //     once for an error that a retry cannot mend (a missing object, a bad spec).
 import { strToU8, zipSync, type Zippable } from 'fflate';
-import { checkSurfaceFile } from '../field';
+import { checkSurfaceFile, readSurface } from '../field';
 import {
   coatFacts,
   EXPORT_FORMAT_FACTS,
@@ -52,6 +52,9 @@ function packageFileName(format: PackageFormat): string {
 
 /** What a listing version's files are made from (the listing row for the version on sale, or an update's row). */
 export type ListingFilesSource = {
+  /** The frozen sculpt the guides' roots are sampled on (see listings.roots_surface_key), or null. */
+  roots_surface_key: string | null;
+  roots_surface_file_name: string | null;
   title: string;
   description: string;
   spec: unknown;
@@ -173,6 +176,8 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       'l.spec',
       'l.surface_key',
       'l.surface_file_name',
+      'l.roots_surface_key',
+      'l.roots_surface_file_name',
       'l.formats',
       'l.groom_name',
       'l.version_number',
@@ -250,7 +255,9 @@ export async function makeListingFiles(listing: ListingFilesSource, prefix: stri
   if (!read || !report.facts) throw new Error(`the listing's surface could not be read: ${report.problems[0]?.message ?? 'no facts'}`);
   const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
   const solved = solveGroomField(spec, surface);
-  const { guides } = growGuides(surface, solved, spec);
+  // A version moved onto a new sculpt grows from the roots on the earlier one, as the studio's export does.
+  const rootsFrom = listing.roots_surface_key ? readSurface(await stored(() => getObjectBytes(listing.roots_surface_key!)), listing.roots_surface_file_name!).mesh : undefined;
+  const { guides } = growGuides(surface, solved, spec, rootsFrom ? { rootsFrom } : {});
   const made: GroomMade = { spec, surface, solved, guides };
 
   const pictures: Picture[] = [];

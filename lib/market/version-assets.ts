@@ -26,6 +26,8 @@ export async function buildListingVersionAssets(versionId: string, options: Asse
       'v.spec',
       'v.surface_key',
       'v.surface_file_name',
+      'v.roots_surface_key',
+      'v.roots_surface_file_name',
       'v.formats',
       'v.groom_name',
       'v.version_number',

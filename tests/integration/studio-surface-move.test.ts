@@ -16,6 +16,11 @@ import * as exportsRoute from '@/app/api/studio/grooms/[groomId]/exports/route';
 import * as exportRoute from '@/app/api/studio/exports/[exportId]/route';
 import * as restoreRoute from '@/app/api/studio/grooms/[groomId]/versions/[versionId]/restore/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
+import * as versionsRoute from '@/app/api/studio/grooms/[groomId]/versions/route';
+import { strFromU8, unzipSync } from 'fflate';
+import { createListing } from '@/lib/market/listings';
+import { listLicences } from '@/lib/market/licences';
+import { getObjectBytes } from '@/lib/platform/storage';
 import type { ExportJob, GroomDetail, ReadySurface, SurfaceMovePreview } from '@/lib/studio/types';
 import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
 
@@ -127,6 +132,42 @@ describe('moving a groom onto a new sculpt of its character', () => {
     expect(back.surface.id).toBe(surfaces.first.id);
     expect(back.rootsSurface).toBeNull();
     expect(back.spec.field.singularities.map((s) => s.point)).toEqual(groom.spec.field.singularities.map((s) => s.point));
+  });
+
+  it('sells a version kept after the move with the same guides as the studio exports: the market package grows from the roots on the earlier sculpt', async () => {
+    const now = await detail(groom.id);
+    if (now.surface.id !== surfaces.sculpted.id) {
+      await expectJson(await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.sculpted.id, baseRevision: now.revision }), 200);
+    }
+    const kept = (await expectJson(await call(pip, versionsRoute, 'POST', groom.id, '/versions', { name: 'On the second sculpt' }), 201)).data.version;
+    const studioBinding = await exportedBinding(groom.id);
+    const listing = await createListing({ userId: pip.userId, roles: ['groomer'], email: pip.email }, {
+      groomId: groom.id,
+      versionId: kept.id,
+      title: 'Pip coat on the second sculpt',
+      description: 'A coat for Pip, moved onto the second sculpt.',
+      tags: { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body' },
+      priceCents: 900,
+      currency: 'eur',
+      licenceSlug: (await listLicences())[0].slug,
+      formats: ['usda'],
+      rightsConfirmed: true,
+      shipsSurface: false,
+    });
+    const deadline = Date.now() + 120_000;
+    let row = await db()('listings').where({ id: listing.id }).first('assets_status', 'assets_error', 'roots_surface_key');
+    while (row.assets_status === 'pending') {
+      if (Date.now() > deadline) throw new Error('the listing’s files were not made');
+      await new Promise((resolve) => setTimeout(resolve, 200));
+      row = await db()('listings').where({ id: listing.id }).first('assets_status', 'assets_error', 'roots_surface_key');
+    }
+    expect(row.assets_status, row.assets_error ?? '').toBe('ready');
+    expect(row.roots_surface_key).toMatch(/\/roots-surface\.obj$/);
+    const stored = await db()('listing_packages').where({ listing_id: listing.id }).first('object_key');
+    const zip = unzipSync(await getObjectBytes(stored.object_key));
+    const usda = strFromU8(Object.entries(zip).find(([path]) => path.endsWith('/guides.usda'))![1]);
+    const packaged = ['guideId', 'rootFace', 'rootBarycentric'].map((name) => usda.match(new RegExp(`primvars:whorlwind:${name} = (\\[[^\\]]*\\])`))![1]);
+    expect(packaged).toEqual(studioBinding);
   });
 
   it('starts a new groom from this one on another surface, by landmarks', async () => {

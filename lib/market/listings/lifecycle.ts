@@ -11,10 +11,9 @@ import { MailNotSent, sendMail } from '../../platform/mail';
 import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { notFound } from '../errors';
-import { sellersGroomVersion } from '../groom-source';
+import { freezeSurfaces, frozenKeys, sellersGroomVersion } from '../groom-source';
 import { enqueueListingAssets } from '../jobs';
 import { listingApprovedMail, listingRejectedMail } from '../mail';
-import { copyObject } from '../../platform/storage';
 import { deleteMarketObjects, listingPrefix } from '../storage';
 import type { ListingSummary } from '../types';
 import type { ListingDraftInput, ListingPatchInput } from '../validation';
@@ -38,15 +37,13 @@ export async function createListing(actor: Actor, input: ListingDraftInput): Pro
   const spec = sellableSpec(version);
   const licence = await licenceBySlug(db(), input.licenceSlug);
   const id = randomUUID();
-  const extension = version.surface.fileName.includes('.') ? version.surface.fileName.slice(version.surface.fileName.lastIndexOf('.')) : '';
-  const surfaceKey = `${listingPrefix(id)}/surface${extension.toLowerCase()}`;
-  await copyObject(version.surface.objectKey, surfaceKey);
+  const frozen = await freezeSurfaces(version, listingPrefix(id));
   try {
     await db().transaction(async (trx) => {
       await trx('listings').insert({
         id,
         seller_id: actor.userId,
-        ...frozenVersionColumns(version, spec, surfaceKey),
+        ...frozenVersionColumns(version, spec, frozen),
         title: input.title,
         description: input.description,
         animal: input.tags.animal,
@@ -64,7 +61,7 @@ export async function createListing(actor: Actor, input: ListingDraftInput): Pro
         listing_id: id,
         number: 1,
         review: 'listing',
-        ...frozenVersionColumns(version, spec, surfaceKey),
+        ...frozenVersionColumns(version, spec, frozen),
         description: input.description,
         formats: input.formats,
         ships_surface: input.shipsSurface,
@@ -72,7 +69,7 @@ export async function createListing(actor: Actor, input: ListingDraftInput): Pro
       });
     });
   } catch (error) {
-    await deleteMarketObjects([surfaceKey]);
+    await deleteMarketObjects(frozenKeys(frozen));
     throw error;
   }
   await queueAssets(id);

@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { parseGroomSpec, type GroomSpec } from '../../groom';
-import type { GroomVersionSource } from '../groom-source';
+import type { FrozenSurfaces, GroomVersionSource } from '../groom-source';
 import { FIELD_NEEDS_SURFACE, RIGHTS_WORDING, SURFACE_CARRYING_FORMAT } from '../rights';
 import type { ListingPatchInput } from '../validation';
 import type { ListingRow } from './views';
@@ -19,8 +19,8 @@ export function sellableSpec(version: GroomVersionSource): GroomSpec {
   }
 }
 
-/** The groom version a listing version sells, frozen: its spec resolved, its surface copied to `surfaceKey`. */
-export function frozenVersionColumns(version: GroomVersionSource, spec: GroomSpec, surfaceKey: string) {
+/** The groom version a listing version sells, frozen: its spec resolved, its surfaces copied (see freezeSurfaces). */
+export function frozenVersionColumns(version: GroomVersionSource, spec: GroomSpec, { surfaceKey, rootsKey }: FrozenSurfaces) {
   return {
     groom_id: version.groomId,
     groom_version_id: version.versionId,
@@ -30,6 +30,8 @@ export function frozenVersionColumns(version: GroomVersionSource, spec: GroomSpe
     spec: JSON.stringify(spec),
     surface_key: surfaceKey,
     surface_file_name: version.surface.fileName,
+    roots_surface_key: rootsKey,
+    roots_surface_file_name: rootsKey ? version.rootsSurface!.fileName : null,
   };
 }
 
@@ -65,6 +67,8 @@ export async function confirmRightsAgain(trx: Knex.Transaction, actor: Actor, ro
     spec: JSON.stringify(row.spec),
     surface_key: row.surface_key,
     surface_file_name: row.surface_file_name,
+    roots_surface_key: row.roots_surface_key,
+    roots_surface_file_name: row.roots_surface_file_name,
     description: patch.description ?? row.description,
     formats: patch.formats ?? row.formats,
     ...confirmation,

@@ -8,11 +8,11 @@ import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from '../../platform/db';
 import { MailNotSent, sendMail } from '../../platform/mail';
-import { copyObject, presignDownload } from '../../platform/storage';
+import { presignDownload } from '../../platform/storage';
 import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { notFound } from '../errors';
-import { sellersGroomVersion } from '../groom-source';
+import { freezeSurfaces, frozenKeys, sellersGroomVersion } from '../groom-source';
 import { enqueueListingVersionAssets } from '../jobs';
 import { listingVersionApprovedMail, listingVersionRejectedMail, ownerUpdateMail, sendMailLogged } from '../mail';
 import { deleteMarketObjects, PICTURE_URL_SECONDS } from '../storage';
@@ -109,9 +109,7 @@ export async function createListingVersion(actor: Actor, listingId: string, inpu
   const source = await sellersGroomVersion(actor.userId, input.groomId, input.versionId);
   const spec = sellableSpec(source);
   const id = randomUUID();
-  const dot = source.surface.fileName.lastIndexOf('.');
-  const surfaceKey = `${versionPrefix(listingId, id)}/surface${dot >= 0 ? source.surface.fileName.slice(dot).toLowerCase() : ''}`;
-  await copyObject(source.surface.objectKey, surfaceKey);
+  const frozen = await freezeSurfaces(source, versionPrefix(listingId, id));
   try {
     await db().transaction(async (trx) => {
       const locked = await trx('listings').where({ id: listingId }).forUpdate().first('state', 'current_version');
@@ -125,7 +123,7 @@ export async function createListingVersion(actor: Actor, listingId: string, inpu
         listing_id: listingId,
         number: locked.current_version + 1,
         review: 'submitted',
-        ...frozenVersionColumns(source, spec, surfaceKey),
+        ...frozenVersionColumns(source, spec, frozen),
         description: input.description,
         formats: input.formats,
         notes: input.notes,
@@ -135,7 +133,7 @@ export async function createListingVersion(actor: Actor, listingId: string, inpu
       });
     });
   } catch (error) {
-    await deleteMarketObjects([surfaceKey]);
+    await deleteMarketObjects(frozenKeys(frozen));
     throw error;
   }
   try {
@@ -212,6 +210,8 @@ export async function decideListingVersion(actor: Actor, versionId: string, deci
           spec: JSON.stringify(version.spec),
           surface_key: version.surface_key,
           surface_file_name: version.surface_file_name,
+          roots_surface_key: version.roots_surface_key,
+          roots_surface_file_name: version.roots_surface_file_name,
           description: version.description,
           formats: version.formats,
           ships_surface: version.ships_surface,

@@ -50,6 +50,8 @@ export type ListingRow = {
   spec: unknown;
   surface_key: string;
   surface_file_name: string;
+  roots_surface_key: string | null;
+  roots_surface_file_name: string | null;
   current_version: number;
   ships_surface: boolean;
   assets_prefix: string | null;
