@@ -17,6 +17,8 @@
 // a thing one row changes is used by no other row whose answer the change would alter, so the
 // rows hold in any order (vitest --sequence.shuffle).
 
+import { LICENCE_TEXTS } from '@/lib/market/licences';
+
 export const WHO = ['anonymous', 'buyer', 'owner', 'other', 'admin'] as const;
 export type Who = (typeof WHO)[number];
 
@@ -145,7 +147,7 @@ export const ROUTE_ROWS: RouteRow[] = [
       tags: { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body' },
       priceCents: 900,
       currency: 'eur',
-      licenceSlug: 'personal',
+      licenceSlug: LICENCE_TEXTS[0].slug,
       formats: ['json'],
     }),
   }),

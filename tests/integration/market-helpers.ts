@@ -4,6 +4,7 @@
 import { randomUUID } from 'node:crypto';
 import type Stripe from 'stripe';
 import { db } from '@/lib/platform/db';
+import { LICENCE_TEXTS } from '@/lib/market/licences';
 import { env } from '@/lib/platform/env';
 import { payments } from '@/lib/platform/payments';
 import { putObject } from '@/lib/platform/storage';
@@ -63,7 +64,7 @@ export type ListingOptions = Partial<{
  * by the asset job (see lib/market/assets.ts) when that runs.
  */
 export async function insertListing(seller: Actor, options: ListingOptions = {}, surfaceKey?: string): Promise<string> {
-  const licence = await db()('licences').where({ slug: options.licence ?? 'personal' }).first('id');
+  const licence = await db()('licences').where({ slug: options.licence ?? LICENCE_TEXTS[0].slug }).first('id');
   const [row] = await db()('listings')
     .insert({
       seller_id: seller.userId,

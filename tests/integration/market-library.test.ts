@@ -5,6 +5,7 @@
 import { unzipSync, strFromU8 } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
+import { LICENCE_TEXTS } from '@/lib/market/licences';
 import { payments } from '@/lib/platform/payments';
 import { startCheckout } from '@/lib/market/payments/checkout';
 import { HttpError } from '@/lib/http/errors';
@@ -52,7 +53,7 @@ async function daysAgo(purchaseId: string, days: number) {
   await db()('purchases').where({ id: purchaseId }).update({ created_at: db().raw(`now() - interval '${days} days'`) });
 }
 
-const NAP: ListingOptions = { title: 'Loop plush nap', formats: ['usda', 'usda-bspline', 'glb', 'obj', 'json', 'ply'], priceCents: 2000, licence: 'studio' };
+const NAP: ListingOptions = { title: 'Loop plush nap', formats: ['usda', 'usda-bspline', 'glb', 'obj', 'json', 'ply'], priceCents: 2000, licence: LICENCE_TEXTS[1].slug };
 
 /** The listing whose pictures and package the job made (in beforeAll); copies share its files. */
 let made: { id: string; surfaceKey: string };
@@ -133,7 +134,7 @@ describe('library and downloads', () => {
     const buyer = await makePerson('library-buyer', ['buyer']);
     const purchaseId = await buy(buyer, await listingOf(await makePerson('library-seller', ['groomer'])));
     const [item] = await listLibrary(buyer);
-    expect(item).toMatchObject({ purchaseId, amountCents: 2000, currency: 'eur', status: 'paid', packageReady: true, downloads: 0, licence: { slug: 'studio' } });
+    expect(item).toMatchObject({ purchaseId, amountCents: 2000, currency: 'eur', status: 'paid', packageReady: true, downloads: 0, licence: { slug: LICENCE_TEXTS[1].slug } });
     const link = await requestDownload(buyer, purchaseId);
     expect(link.expiresInSeconds).toBe(300);
     const response = await fetch(link.url);
@@ -143,7 +144,7 @@ describe('library and downloads', () => {
     expect(Object.keys(files).sort()).toEqual(
       ['LICENCE.txt', 'README.txt', 'field.ply', 'groom-spec.json', 'guides-bspline.usda', 'guides.glb', 'guides.obj', 'guides.usda'].map((name) => `loop-plush-nap/${name}`),
     );
-    expect(strFromU8(files['loop-plush-nap/LICENCE.txt'])).toMatch(/^Studio licence/);
+    expect(strFromU8(files['loop-plush-nap/LICENCE.txt'])).toMatch(new RegExp(`^${LICENCE_TEXTS[1].title}`));
     expect(strFromU8(files['loop-plush-nap/README.txt'])).toMatch(/20\.00 EUR/);
     expect(strFromU8(files['loop-plush-nap/guides.usda'])).toMatch(/BasisCurves/);
     expect(JSON.parse(strFromU8(files['loop-plush-nap/groom-spec.json'])).specVersion).toBe(2);

@@ -60,7 +60,7 @@ export function foxHead(level = 5): TriangleMesh {
   });
 }
 
-/** Ottoline's body, in cm, Y up, nose toward +Z: a long ellipsoid with a raised head end. */
+/** Brisquette's body, in cm, Y up, nose toward +Z: a long ellipsoid with a raised head end. */
 export const CAT = {
   rings: 48,
   segments: 40,
@@ -74,7 +74,7 @@ export const CAT = {
   },
 };
 
-/** Ottoline the long-bodied cat (genus 0). Its spine is an edge line from nose to tail. Groups: head, back, belly. */
+/** Brisquette the long-bodied cat (genus 0). Its spine is an edge line from nose to tail. Groups: head, back, belly. */
 export function longCat(): TriangleMesh {
   const mesh = uvSphere(CAT.rings, CAT.segments, 1);
   const p = mesh.positions as Float64Array;
