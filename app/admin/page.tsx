@@ -5,12 +5,14 @@ import { PurchaseList } from '@/components/admin/PurchaseList';
 import { requireArea } from '@/lib/accounts/session';
 import { listListingsForAdmin } from '@/lib/market/listings';
 import { listPurchasesForAdmin } from '@/lib/market/payments/refunds';
+import { listRefundRequests } from '@/lib/market/payments/refund-requests';
+import { RefundRequests } from '@/components/admin/RefundRequests';
 
 export const metadata: Metadata = { title: 'Admin' };
 
 export default async function AdminPage() {
   await requireArea('admin');
-  const [queue, purchases] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin()]);
+  const [queue, purchases, refundRequests] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin(), listRefundRequests()]);
   return (
     <div className="flex flex-col gap-12">
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -34,6 +36,12 @@ export default async function AdminPage() {
           Waiting for review
         </h2>
         <ModerationQueue initial={{ listings: queue }} />
+      </section>
+      <section aria-labelledby="refund-requests-heading" className="flex flex-col gap-4">
+        <h2 id="refund-requests-heading" className="text-2xl font-bold">
+          Refund requests
+        </h2>
+        <RefundRequests initial={{ requests: refundRequests }} />
       </section>
       <section aria-labelledby="purchases-heading" className="flex flex-col gap-4">
         <h2 id="purchases-heading" className="text-2xl font-bold">

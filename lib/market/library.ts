@@ -10,6 +10,7 @@ import { cardPictureUrl } from './listings';
 import { presignDownload } from '../platform/storage';
 import { DOWNLOAD_URL_SECONDS } from './storage';
 import type { DownloadLink, LibraryItem } from './types';
+import { latestRefundRequests } from './payments/refund-requests';
 
 export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
   const counts = db()('downloads').select('purchase_id').count('* as downloads').groupBy('purchase_id').as('d');
@@ -30,6 +31,7 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
       'p.refund_id',
       'p.created_at',
       'p.refunded_at',
+      'p.cancellation_waived_at',
       'l.title',
       'l.formats',
       'l.assets_status',
@@ -39,6 +41,7 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
       'k.object_key',
       'd.downloads',
     );
+  const requests = await latestRefundRequests(rows.map((row) => row.id));
   return rows.map((row) => ({
     purchaseId: row.id,
     listing: {
@@ -57,6 +60,8 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
     downloads: Number(row.downloads ?? 0),
     purchasedAt: row.created_at.toISOString(),
     refundedAt: row.refunded_at?.toISOString() ?? null,
+    refundRequest: requests.get(row.id) ?? null,
+    cancellationWaived: row.cancellation_waived_at !== null,
   }));
 }
 

@@ -75,6 +75,10 @@ export type LibraryItem = {
   downloads: number;
   purchasedAt: string;
   refundedAt: string | null;
+  /** The buyer's latest refund request for this purchase, open or answered. */
+  refundRequest: RefundRequestState | null;
+  /** Whether the buyer agreed at checkout that a right to cancel may end once the download starts. */
+  cancellationWaived: boolean;
 };
 
 export type SalesFigures = {
@@ -183,3 +187,29 @@ export type RefundResponse = { purchase: AdminPurchase };
 export type ReconcileResponse = { recovered: number; checked: number; refundsChecked: number; refundsRecovered: number };
 /** POST /api/payments/webhook */
 export type WebhookResponse = { received: true; id: string; type: string; outcome: 'handled' | 'duplicate' | 'ignored' | 'refused' };
+
+// Refund requests and the checkout's agreement (words branch).
+export type RefundRequestState = {
+  id: string;
+  reason: string;
+  requestedAt: string;
+  /** null while it waits in the admins' queue. */
+  outcome: 'refunded' | 'declined' | null;
+  answer: string | null;
+  closedAt: string | null;
+};
+/** An open request as the admins' refund queue shows it. */
+export type AdminRefundRequest = {
+  id: string;
+  reason: string;
+  requestedAt: string;
+  purchase: AdminPurchase;
+  downloads: number;
+  cancellationWaived: boolean;
+};
+/** POST /api/library/[purchaseId]/refund-request */
+export type RefundRequestResponse = { request: RefundRequestState };
+/** GET /api/admin/refund-requests */
+export type AdminRefundRequestsResponse = { requests: AdminRefundRequest[] };
+/** POST /api/admin/refund-requests/[id]/decline */
+export type RefundDeclineResponse = { request: RefundRequestState };

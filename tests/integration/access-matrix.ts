@@ -165,6 +165,18 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('PUT', '/api/market/listings/[id]/review', '401 400 400 400 403', { params: { id: 'boughtListing' }, body: { rating: 9 }, note: 'bad input' }),
   route('GET', '/api/library', '401 200 200 200 403'),
   route('POST', '/api/library/[purchaseId]/download', '401 200 404 404 403', { params: { purchaseId: 'purchase' }, note: "the buyer's purchase" }),
+  // Refund requests (words branch): the buyer's request on their purchase (it does not stop downloads), the admins' queue.
+  route('POST', '/api/library/[purchaseId]/refund-request', '401 201 404 404 403', {
+    params: { purchaseId: 'purchase' },
+    body: { reason: 'Matrix request: the coat did not fit my character.' },
+    note: "the buyer's purchase",
+  }),
+  route('GET', '/api/admin/refund-requests', '401 403 403 403 200'),
+  route('POST', '/api/admin/refund-requests/[id]/decline', '401 403 403 403 404', {
+    params: { id: 'missing' },
+    body: { answer: 'Matrix answer: no such request.' },
+    note: 'no such request',
+  }),
 
   // The seller's figures and payouts.
   route('GET', '/api/sales', '401 403 200 200 403', { query: 'bucket=month' }),

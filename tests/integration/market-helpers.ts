@@ -170,8 +170,8 @@ export function shuffle<T>(items: T[], seed = 7): T[] {
 }
 
 /** Buys a listing as a buyer does: checkout, the test card on the fake's page, the signed event delivered; the purchase id. */
-export async function buyListing(buyer: Actor, listingId: string): Promise<string> {
-  const checkout = await startCheckout(buyer, listingId);
+export async function buyListing(buyer: Actor, listingId: string, options: Parameters<typeof startCheckout>[2] = {}): Promise<string> {
+  const checkout = await startCheckout(buyer, listingId, options);
   expect((await payOnHostedPage(checkout.url, '4242424242424242')).status).toBe(303);
   const [completed] = await eventsAbout({ id: checkout.sessionId }, ['checkout.session.completed']);
   expect((await deliver(completed)).status).toBe(200);

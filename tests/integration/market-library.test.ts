@@ -91,6 +91,9 @@ describe('moderation', () => {
     expect(rejected).toMatchObject({ state: 'rejected', rejectionReason: 'Show the nap from the side too.' });
     const rejection = await waitFor('the rejection mail', async () => (await mailTo(seller.email!)).find((mail) => mail.subject.includes('needs changes')));
     expect(rejection.text).toMatch(/Show the nap from the side too\./);
+    // The seller acts on it on the listing's edit page (app/sales/listings/[id]/edit), not the public page.
+    expect(rejection.text).toContain(`/sales/listings/${listingId}/edit`);
+    expect(rejection.text).not.toContain(`/market/${listingId}`);
 
     await updateListing(seller, listingId, { description: 'Short plush pile for a ring toy, one whorl and one saddle, seen from every side.' });
     // The changed draft gets a new package; wait for it.
@@ -124,7 +127,7 @@ describe('moderation', () => {
     expect(picture.headers.get('content-type')).toBe('image/webp');
     expect(detail.licence.body).toMatch(/not legal advice/);
     expect(detail.licence.body).toMatch(/law of the place where the buyer lives or works governs/);
-    expect(detail.taxNote).toMatch(/Taxes and invoicing follow the local rules/);
+    expect(detail.taxNote).toMatch(/ask a tax adviser where you are/);
     expect(detail.viewer).toMatchObject({ isSeller: false, owns: false, mayBuy: false });
   });
 });

@@ -70,6 +70,7 @@ export async function recordPaidSession(trx: Trx, session: Stripe.Checkout.Sessi
   const amount = session.amount_total ?? 0;
   const currency = (session.currency ?? '').toLowerCase();
   const fee = meta.data.platform_fee_cents !== undefined && meta.data.platform_fee_cents <= amount ? meta.data.platform_fee_cents : platformFeeCents(amount);
+  const opened = await trx('checkout_sessions').where({ session_id: session.id }).first('cancellation_waived_at');
   const row = {
     listing_id: listing.id,
     buyer_id: meta.data.buyer_id,
@@ -80,6 +81,7 @@ export async function recordPaidSession(trx: Trx, session: Stripe.Checkout.Sessi
     currency,
     platform_fee_cents: fee,
     created_at: new Date(session.created * 1000),
+    cancellation_waived_at: opened?.cancellation_waived_at ?? null,
   };
   // Any unique key may hold it back: the same session (already recorded) or the buyer's other paid purchase.
   const inserted = await trx('purchases').insert({ ...row, status: 'paid' }).onConflict().ignore().returning('id');

@@ -95,6 +95,8 @@ export async function refundPurchase(actor: Actor, purchaseId: string, reason?: 
     await trx('purchases')
       .where({ id: purchase.id })
       .update({ refund_id: refundId, refund_reason: reason ?? null, refund_requested_at: trx.fn.now() });
+    // The buyer's request, if they asked (lib/market/payments/refund-requests.ts), is answered by this refund.
+    await trx('refund_requests').where({ purchase_id: purchase.id }).whereNull('closed_at').update({ outcome: 'refunded', closed_by: actor.userId, closed_at: trx.fn.now() });
   });
   return adminPurchase(purchaseId);
 }
