@@ -149,10 +149,12 @@ export async function recordRefundedCharge(trx: Trx, charge: Stripe.Charge, noti
 
 /**
  * A refunded buyer no longer owns the preset, so their review leaves the listing's rating (kept,
- * marked withdrawn; a later purchase and review brings it back).
+ * marked withdrawn; a later purchase and review brings it back). A purchase whose refund is under
+ * way is no longer owned either: the review leaves the rating when the refund is asked, not only
+ * when the provider confirms it (which may take days, or come through reconciliation).
  */
-async function withdrawReview(trx: Trx, listingId: string, buyerId: string) {
-  const stillOwns = await trx('purchases').where({ listing_id: listingId, buyer_id: buyerId, status: 'paid' }).first('id');
+export async function withdrawReview(trx: Trx, listingId: string, buyerId: string) {
+  const stillOwns = await trx('purchases').where({ listing_id: listingId, buyer_id: buyerId, status: 'paid' }).whereNull('refund_id').first('id');
   if (stillOwns) return;
   const withdrawn = await trx('reviews').where({ listing_id: listingId, buyer_id: buyerId }).whereNull('withdrawn_at').update({ withdrawn_at: trx.fn.now() });
   if (withdrawn > 0) await refreshRating(trx, listingId);
