@@ -26,24 +26,24 @@ const OFFERS: DemoOffer[] = [
   {
     match: /brisquette|cat/i,
     animal: 'cat',
-    coatLength: 'long',
+    coatLength: 'short',
     style: 'natural',
     bodyRegion: 'full-body',
     priceCents: 3900,
     licence: 'pelt',
     description:
-      'A long-haired cat coat for a long body: a parting runs down the spine so the fur falls away on both flanks, meeting crosswise at a saddle on the chest. Tuned droop for a heavy, soft look.',
+      'A short velvet cat coat (about 1.2 cm) for a long-bodied cat: a parting runs down the spine so the nap lies away on both flanks, meeting crosswise at a saddle on the chest. A close, sleek look.',
   },
   {
     match: /loop|ring|plush/i,
     animal: 'toy',
-    coatLength: 'short',
+    coatLength: 'long',
     style: 'plush',
     bodyRegion: 'full-body',
     priceCents: 900,
     licence: 'tuft',
     description:
-      'Short plush pile for a ring-shaped toy (genus 1): one whorl and one saddle, the minimum a torus allows, with a gentle, even nap all round. A good starting point for stuffed-toy characters.',
+      'Long shaggy pile (about 14 mm on an 18 mm tube) for a ring-shaped toy (genus 1): one whorl and one saddle, the minimum a torus allows, with a loose curl wrapping round the tube. A good starting point for stuffed-toy characters.',
   },
 ];
 const FALLBACK: Omit<DemoOffer, 'match'> = {

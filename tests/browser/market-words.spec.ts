@@ -28,8 +28,8 @@ test('the filters wait for Apply together: a typed price survives a drop-down ch
   await expect(page).toHaveURL(/\/market$/);
   await page.getByRole('button', { name: 'Apply filters' }).click();
   await expect(page).toHaveURL(/animal=cat/);
-  await expect(page).toHaveURL(/minPrice=5\.00/);
-  await expect(page.getByLabel('Lowest price')).toHaveValue('5.00');
+  await expect(page).toHaveURL(/minPrice=5(&|$)/);
+  await expect(page.getByLabel('Lowest price')).toHaveValue('5');
   await expect(page.getByLabel('Animal')).toHaveValue('cat');
   await expect(page.getByTestId('filters-unapplied')).toHaveCount(0);
 });
