@@ -5,6 +5,7 @@ import { randomBytes } from 'node:crypto';
 import { expect, test, type Browser } from '@playwright/test';
 import { closeDb, db } from '../../lib/platform/db';
 import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
+import { DEMO_GROOMS, surfaceToObj } from '../../lib/groom/demo';
 import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
 
 test.afterAll(closeDb);
@@ -76,4 +77,40 @@ test('a buyer asks for a refund from the library and it lands in the admins’ r
   await expect(queued).toHaveCount(1);
   await expect(queued).toContainText(buyerAccount.email);
   await expect(queued).toContainText('Did not agree at checkout');
+});
+
+test('a seller sees why a groom is not offered for listing, the market fee, and dates as the page shows them', async ({ browser }) => {
+  test.setTimeout(120_000);
+  const password = 'versions-kept-here';
+  const sellerAccount = await confirmedAccount('unversioned', 'groomer', password);
+  const page = await signedIn(browser, sellerAccount.email, password, sellerAccount.displayName);
+  // A groom on a checked surface, with no kept version.
+  const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
+  const obj = new TextEncoder().encode(surfaceToObj(ring.surface(), 'Loop'));
+  const ticket = (await (await page.request.post('/api/studio/uploads', { data: { fileName: 'loop.obj', byteSize: obj.byteLength } })).json()).data;
+  expect((await page.request.put(ticket.url, { data: Buffer.from(obj) })).ok()).toBe(true);
+  const surface = (await (await page.request.post('/api/studio/surfaces', { data: { uploadId: ticket.uploadId, name: 'Loop ring', units: 'cm' } })).json()).data.surface;
+  await expect
+    .poll(async () => (await (await page.request.get(`/api/studio/surfaces/${surface.id}`)).json()).data.surface.state, { timeout: 60_000 })
+    .toBe('ready');
+  const name = `Unkept ${randomBytes(3).toString('hex')}`;
+  expect((await page.request.post('/api/studio/grooms', { data: { surfaceId: surface.id, name } })).status()).toBe(201);
+
+  await page.goto('/sales/new');
+  const missing = page.getByTestId('unversioned-grooms');
+  await expect(missing).toContainText('no kept version yet');
+  await expect(missing).toContainText('Keep version');
+  await expect(missing.getByRole('link', { name })).toHaveAttribute('href', /\/studio\/grooms\//);
+
+  await page.goto('/sales');
+  // The period's days read as the rest of the page's dates ("5 Dec 2026"), not the browser's date field.
+  await expect(page.getByLabel('From', { exact: true })).toHaveValue(/^\d{1,2} [A-Z][a-z]{2} \d{4}$/);
+  await expect(page.getByTestId('refund-after-payout')).toContainText('kept back from your later sales');
+
+  // The admins' outgoing mail shows the confirmation link of this seller's sign-up as a link.
+  const adminAccount = DEMO_ACCOUNTS.find((account) => account.roles.includes('admin'))!;
+  const admin = await signedIn(browser, adminAccount.email, adminAccount.password, adminAccount.displayName);
+  await admin.goto('/admin/mail');
+  const mail = admin.getByTestId('caught-mail').filter({ hasText: sellerAccount.email }).first();
+  await expect(mail.getByRole('link', { name: /\/verify-email\?token=/ })).toHaveAttribute('href', /^https?:\/\/[^\s]+\/verify-email\?token=/);
 });

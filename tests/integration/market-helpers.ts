@@ -15,6 +15,7 @@ import type { Role } from '@/lib/accounts/roles';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 import { startCheckout } from '@/lib/market/payments/checkout';
 import { expect } from 'vitest';
+import { HttpError } from '@/lib/http/errors';
 import { uniqueEmail } from './helpers';
 import { serveRoute } from './route-server';
 
@@ -176,4 +177,14 @@ export async function buyListing(buyer: Actor, listingId: string, options: Param
   const [completed] = await eventsAbout({ id: checkout.sessionId }, ['checkout.session.completed']);
   expect((await deliver(completed)).status).toBe(200);
   return (await db()('purchases').where({ checkout_session_id: checkout.sessionId }).first('id')).id;
+}
+
+/** The HttpError a call fails with (the test fails if it succeeds or fails otherwise). */
+export async function failureOf(promise: Promise<unknown>): Promise<HttpError> {
+  const error = await promise.then(
+    () => null,
+    (caught: unknown) => caught,
+  );
+  expect(error).toBeInstanceOf(HttpError);
+  return error as HttpError;
 }

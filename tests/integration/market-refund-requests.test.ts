@@ -5,27 +5,17 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { stopJobs } from '@/lib/platform/jobs';
-import { HttpError } from '@/lib/http/errors';
 import { listLibrary } from '@/lib/market/library';
 import { declineRefundRequest, listRefundRequests, requestRefund } from '@/lib/market/payments/refund-requests';
 import { refundPurchase } from '@/lib/market/payments/refunds';
 import { refundRequestSchema } from '@/lib/market/validation';
-import { buyListing, insertListing, makePerson, waitFor } from './market-helpers';
+import { buyListing, failureOf as failure, insertListing, makePerson, waitFor } from './market-helpers';
 import { mailTo } from './helpers';
 
 afterAll(async () => {
   await stopJobs();
   await closeDb();
 });
-
-async function failure(promise: Promise<unknown>): Promise<HttpError> {
-  const error = await promise.then(
-    () => null,
-    (caught: unknown) => caught,
-  );
-  expect(error).toBeInstanceOf(HttpError);
-  return error as HttpError;
-}
 
 async function bought(label: string, options: { waiveCancellation?: boolean } = {}) {
   const seller = await makePerson(`${label}-seller`, ['groomer']);
