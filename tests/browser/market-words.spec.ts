@@ -79,7 +79,7 @@ test('a buyer asks for a refund from the library and it lands in the admins’ r
   await expect(queued).toContainText('Did not agree at checkout');
 });
 
-test('a seller sees why a groom is not offered for listing, the market fee, and dates as the page shows them', async ({ browser }) => {
+test('a seller sees why a groom is not offered for listing, the payout words and dates as the page shows them; the admin sees mail links', async ({ browser }) => {
   test.setTimeout(120_000);
   const password = 'versions-kept-here';
   const sellerAccount = await confirmedAccount('unversioned', 'groomer', password);
