@@ -68,7 +68,7 @@ function xorshift(seed: number): () => number {
 }
 
 async function seedListings(connection: Knex, count: number) {
-  const seller = await connection('users').where({ email: 'wren@thistledown.example' }).first('id');
+  const seller = await connection('users').where({ email: 'wren@quillmoor.example' }).first('id');
   const licences: string[] = await connection('licences').orderBy('position').pluck('id');
   if (!seller || licences.length === 0) throw new CommandFailed('the demo seed did not create the groomer or the licences');
   const spec = JSON.stringify({ specVersion: 2, units: 'cm', field: { singularities: [] } });

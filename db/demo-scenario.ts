@@ -3,7 +3,7 @@
 import type { Role } from '../lib/accounts/roles';
 
 export const DEMO_STUDIOS = [
-  { slug: 'thistledown', name: 'Thistledown Creature Works' },
+  { slug: 'quillmoor', name: 'Quillmoor Coatwrights' },
   { slug: 'gorse-hill', name: 'Gorse Hill Games' },
 ] as const;
 
@@ -18,12 +18,12 @@ export type DemoAccount = {
 
 export const DEMO_ACCOUNTS: DemoAccount[] = [
   {
-    email: 'wren@thistledown.example',
+    email: 'wren@quillmoor.example',
     password: 'whorl-on-the-crown',
     displayName: 'Wren Abernathy',
     roles: ['groomer'],
-    studio: 'thistledown',
-    about: 'lead groomer at Thistledown; grooms the studio’s otters and sells presets',
+    studio: 'quillmoor',
+    about: 'lead groomer at Quillmoor; grooms the studio’s otters and sells presets',
   },
   {
     email: 'tomasz@gorsehill.example',
@@ -34,11 +34,11 @@ export const DEMO_ACCOUNTS: DemoAccount[] = [
     about: 'character artist at Gorse Hill Games; buys presets for a game cast',
   },
   {
-    email: 'maud@thistledown.example',
+    email: 'maud@quillmoor.example',
     password: 'keeper-of-the-keys',
     displayName: 'Maud Pennyweather',
     roles: ['admin'],
-    studio: 'thistledown',
+    studio: 'quillmoor',
     about: 'runs the market: approves listings, handles refunds and roles',
   },
 ];

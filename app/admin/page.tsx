@@ -6,12 +6,14 @@ import { requireArea } from '@/lib/accounts/session';
 import { listListingsForAdmin, listVersionsForAdmin } from '@/lib/market/listings';
 import { VersionQueue } from '@/components/admin/VersionQueue';
 import { listPurchasesForAdmin } from '@/lib/market/payments/refunds';
+import { listRefundRequests } from '@/lib/market/payments/refund-requests';
+import { RefundRequests } from '@/components/admin/RefundRequests';
 
 export const metadata: Metadata = { title: 'Admin' };
 
 export default async function AdminPage() {
   await requireArea('admin');
-  const [queue, purchases, updates] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin(), listVersionsForAdmin()]);
+  const [queue, purchases, updates, refundRequests] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin(), listVersionsForAdmin(), listRefundRequests()]);
   return (
     <div className="flex flex-col gap-12">
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -41,6 +43,12 @@ export default async function AdminPage() {
           New versions waiting for review
         </h2>
         <VersionQueue initial={{ versions: updates }} />
+      </section>
+      <section aria-labelledby="refund-requests-heading" className="flex flex-col gap-4">
+        <h2 id="refund-requests-heading" className="text-2xl font-bold">
+          Refund requests
+        </h2>
+        <RefundRequests initial={{ requests: refundRequests }} />
       </section>
       <section aria-labelledby="purchases-heading" className="flex flex-col gap-4">
         <h2 id="purchases-heading" className="text-2xl font-bold">

@@ -2,6 +2,7 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { Button } from '@/components/ui/Button';
+import { AGE_NOTE } from '@/lib/market/vocabulary';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
@@ -74,6 +75,9 @@ export function SignUpForm() {
           </p>
         )}
       </fieldset>
+      <p className="text-sm text-loam-soft" data-testid="age-note">
+        {AGE_NOTE}
+      </p>
       <Button type="submit" disabled={!form.ready || form.busy}>
         {form.busy ? 'Creating your account…' : 'Create my account'}
       </Button>

@@ -3,8 +3,8 @@ import useSWR from 'swr';
 import { Notice } from '@/components/ui/Notice';
 import { fetchData, type ApiRequestError } from '@/lib/http/client';
 import type { CaughtMailResponse } from '@/lib/platform/types';
-
-const timeFormat = new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'medium' });
+import { formatDateTime } from '@/components/market/format';
+import { mailParts } from './mail-links';
 
 export function CaughtMailList() {
   const { data, error, isLoading } = useSWR<CaughtMailResponse, ApiRequestError>('/api/admin/mail', fetchData, {
@@ -24,13 +24,23 @@ export function CaughtMailList() {
           <div className="flex flex-wrap items-baseline justify-between gap-2">
             <h2 className="text-lg font-bold">{mail.subject || '(no subject)'}</h2>
             <time dateTime={mail.receivedAt} className="text-sm text-loam-soft">
-              {timeFormat.format(new Date(mail.receivedAt))}
+              {formatDateTime(mail.receivedAt)}
             </time>
           </div>
           <p className="pb-3 text-sm text-loam-soft">
             to {mail.to.join(', ')} · from {mail.from}
           </p>
-          <pre className="overflow-x-auto rounded-2xl bg-chalk p-4 font-sans text-sm whitespace-pre-wrap">{mail.text}</pre>
+          <pre className="overflow-x-auto rounded-2xl bg-chalk p-4 font-sans text-sm whitespace-pre-wrap">
+            {mailParts(mail.text).map((part, index) =>
+              part.kind === 'link' ? (
+                <a key={index} href={part.href} className="font-semibold text-tarn break-all">
+                  {part.href}
+                </a>
+              ) : (
+                part.text
+              ),
+            )}
+          </pre>
         </li>
       ))}
     </ul>

@@ -13,6 +13,7 @@ import { formatDate } from './format';
 import { forgetCheckout, pendingCheckout, type PendingCheckout } from './pending-checkout';
 import { ReviewForm } from './ReviewForm';
 import { UpdateNotices, VersionDownloads } from './LibraryVersions';
+import { RefundRequest } from './RefundRequest';
 
 /** How long the page waits for a paid checkout to show up before saying so. */
 const ARRIVAL_WAIT_MS = 90_000;
@@ -150,6 +151,7 @@ function PurchaseCard({ item, onDownloaded }: { item: LibraryItem; onDownloaded:
                 <ReviewForm listingId={item.listing.id} title={item.listing.title} />
               </div>
             )}
+            <RefundRequest item={item} onAsked={onDownloaded} />
           </div>
         )}
       </div>

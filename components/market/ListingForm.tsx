@@ -16,7 +16,8 @@ import { fetchData, postJson, request, type ApiRequestError } from '@/lib/http/c
 import type { FieldErrors } from '@/lib/http/field-errors';
 import type { CreateListingResponse, Licence, ListingDetail, UpdateListingResponse } from '@/lib/market/types';
 import { listingDraftSchema, tagsSchema } from '@/lib/market/validation';
-import { CURRENCIES, MAX_PRICE_CENTS, MIN_PRICE_CENTS, type PackageFormat } from '@/lib/market/vocabulary';
+import { CURRENCIES, MAX_PRICE_CENTS, MIN_PRICE_CENTS, TAX_NOTE, type PackageFormat } from '@/lib/market/vocabulary';
+import { UnversionedGrooms } from './UnversionedGrooms';
 import type { GroomListResponse, VersionListResponse } from '@/lib/studio/types';
 import { centsToText, TAG_KEYS, TAG_LABELS, TAG_VALUES, tagLabel } from './search-params';
 import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
@@ -89,9 +90,11 @@ export type ListingFormProps = {
   listing: ListingDetail | null;
   /** A groom and version to start from (from a link in the studio). */
   preselect?: { groomId?: string; versionId?: string };
+  /** The market's fee on each sale, in per cent (lib/market/fees.ts), shown beside the price. */
+  feePercent?: number;
 };
 
-export function ListingForm({ licences, listing, preselect }: ListingFormProps) {
+export function ListingForm({ licences, listing, preselect, feePercent }: ListingFormProps) {
   const router = useRouter();
   const form = useValidatedForm(listingFormSchema);
   const [groomId, setGroomId] = useState(listing?.groom.id ?? preselect?.groomId ?? '');
@@ -106,6 +109,8 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
     fetchData,
   );
   const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0) ?? [];
+  // Grooms with no kept version cannot be listed; they are named, with the way to list them.
+  const unversioned = grooms.data?.grooms.filter((groom) => groom.versionCount === 0) ?? [];
   const chosenLicence = licences.find((licence) => licence.slug === licenceSlug);
 
   async function save(input: ListingFormValues) {
@@ -136,13 +141,16 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
   if (!editing && !grooms.data) return <p className="text-loam-soft">Loading your grooms…</p>;
   if (!editing && listable.length === 0) {
     return (
-      <Notice tone="info">
-        A preset is made from a saved version of a groom. Save a version in the{' '}
-        <Link href="/studio" className="font-semibold">
-          studio
-        </Link>{' '}
-        first, then come back to list it.
-      </Notice>
+      <div className="flex flex-col gap-3">
+        <Notice tone="info">
+          A preset is made from a kept version of a groom. Keep a version in the{' '}
+          <Link href="/studio" className="font-semibold">
+            studio
+          </Link>{' '}
+          first, then come back to list it.
+        </Notice>
+        <UnversionedGrooms grooms={unversioned} />
+      </div>
     );
   }
 
@@ -204,6 +212,9 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
                   ))
               )}
             </SelectField>
+            <div className="sm:col-span-2">
+              <UnversionedGrooms grooms={unversioned} />
+            </div>
           </div>
         )}
       </fieldset>
@@ -257,9 +268,10 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
             ))}
           </SelectField>
         </div>
-        <p className="max-w-2xl text-sm text-loam-soft">
-          Buyers pay this amount in this currency. The market keeps a fee on each sale; taxes and invoicing follow your own and the
-          buyer’s local rules. This is not legal advice.
+        <p className="max-w-2xl text-sm text-loam-soft" data-testid="market-fee">
+          Buyers pay this amount in this currency.{' '}
+          {feePercent === undefined ? 'The market keeps a fee on each sale.' : `The market keeps ${feePercent} % of each sale as its fee; the rest is yours.`}{' '}
+          {TAX_NOTE}
         </p>
       </fieldset>
 

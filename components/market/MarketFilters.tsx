@@ -1,8 +1,12 @@
 'use client';
 // The search box, filters and order of the market. Everything goes into the page's URL (so a
 // search can be shared, bookmarked and paged through); the page itself reads it on the server.
+// Every filter, drop-down or typed, behaves one way: it waits for "Apply filters" (or Enter), which
+// applies all of them together, and the panel says when something changed and is not applied yet.
+// (Drop-downs that applied at once used to reload the form under a price being typed.) The order
+// applies at once, and takes the filters as they are typed along with it.
 import { useRouter } from 'next/navigation';
-import { useTransition, type ChangeEvent, type FormEvent } from 'react';
+import { useState, useTransition, type ChangeEvent, type FormEvent } from 'react';
 import { Button } from '@/components/ui/Button';
 import { TextField } from '@/components/ui/TextField';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
@@ -66,12 +70,15 @@ export function MarketFilters({ query }: { query: MarketQuery }) {
   const router = useRouter();
   const [navigating, startNavigation] = useTransition();
   const form = useValidatedForm(marketQuerySchema);
+  // A filter changed since the search the page shows.
+  const [unapplied, setUnapplied] = useState(false);
   const values = {
     minPrice: query.minPrice === undefined ? '' : centsToText(query.minPrice),
     maxPrice: query.maxPrice === undefined ? '' : centsToText(query.maxPrice),
   };
 
   const go = form.onSubmit(async (input) => {
+    setUnapplied(false);
     startNavigation(() => router.push(marketHref({ ...input, page: 1 })));
   });
 
@@ -107,7 +114,13 @@ export function MarketFilters({ query }: { query: MarketQuery }) {
       </div>
       <details className="rounded-3xl bg-vellum/60 p-4" open={filtersInUse(query) || undefined}>
         <summary className="cursor-pointer text-sm font-bold text-tarn">Filters</summary>
-        <div className="grid gap-4 pt-4 sm:grid-cols-2 lg:grid-cols-4">
+        {/* Disabled while a search loads: what was typed then would be lost when the new search arrives. */}
+        <fieldset
+          disabled={navigating}
+          onChange={() => setUnapplied(true)}
+          className="grid gap-4 pt-4 sm:grid-cols-2 lg:grid-cols-4"
+          aria-label="Filters"
+        >
           {TAG_KEYS.map((key) => (
             <Select
               key={key}
@@ -116,11 +129,10 @@ export function MarketFilters({ query }: { query: MarketQuery }) {
               defaultValue={query[key] ?? ''}
               options={TAG_VALUES[key].map((value) => ({ value, label: tagLabel(value) }))}
               anyLabel="Any"
-              onChange={submitNow}
             />
           ))}
-          <Select name="format" label="File format" defaultValue={query.format ?? ''} options={FORMAT_CHOICES} anyLabel="Any" onChange={submitNow} />
-          <Select name="currency" label="Currency" defaultValue={query.currency ?? ''} options={CURRENCY_CHOICES} anyLabel="Any" onChange={submitNow} />
+          <Select name="format" label="File format" defaultValue={query.format ?? ''} options={FORMAT_CHOICES} anyLabel="Any" />
+          <Select name="currency" label="Currency" defaultValue={query.currency ?? ''} options={CURRENCY_CHOICES} anyLabel="Any" />
           <TextField label="Lowest price" inputMode="decimal" defaultValue={values.minPrice} {...form.field('minPrice')} />
           <TextField label="Highest price" inputMode="decimal" defaultValue={values.maxPrice} {...form.field('maxPrice')} />
           <div className="grid grid-cols-2 gap-2">
@@ -131,9 +143,14 @@ export function MarketFilters({ query }: { query: MarketQuery }) {
             <TextField label="Typical length (cm), from" inputMode="decimal" defaultValue={query.minLength ?? ''} {...form.field('minLength')} />
             <TextField label="Typical length (cm), to" inputMode="decimal" defaultValue={query.maxLength ?? ''} {...form.field('maxLength')} />
           </div>
-        </div>
-        <div className="flex justify-end pt-4">
-          <Button type="submit" look="quiet" disabled={!form.ready || navigating}>
+        </fieldset>
+        <div className="flex items-center justify-end gap-3 pt-4">
+          {unapplied && (
+            <p role="status" className="text-sm text-loam-soft" data-testid="filters-unapplied">
+              Changed: not applied yet.
+            </p>
+          )}
+          <Button type="submit" look={unapplied ? 'primary' : 'quiet'} disabled={!form.ready || navigating}>
             Apply filters
           </Button>
         </div>

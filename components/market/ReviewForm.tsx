@@ -82,6 +82,10 @@ export function ReviewForm({ listingId, title }: { listingId: string; title: str
         defaultValue={mine?.body ?? ''}
         {...textAreaField(form.field('body'))}
       />
+      <p className="text-sm text-loam-soft" data-testid="review-public-name">
+        Reviews are public: your display name{mine ? ` (“${mine.buyer.displayName}”)` : ''} is shown with your rating and words on the preset’s page,
+        for anyone to see.
+      </p>
       <div>
         <Button type="submit" disabled={!form.ready || form.busy}>
           {form.busy ? 'Saving…' : mine ? 'Save my changes' : 'Publish my review'}

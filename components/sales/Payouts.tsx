@@ -61,8 +61,11 @@ export function Payouts({ initialPayouts, balance, holdDays }: { initialPayouts:
         </div>
       )}
       <p className="max-w-xl text-xs text-loam-soft">
-        Payouts go to the payout account the payment provider keeps for you. {TAX_NOTE} Payouts and what you declare of them follow the local rules where you
-        live and work.
+        Payouts go to the payout account the payment provider keeps for you. {TAX_NOTE}
+      </p>
+      <p className="max-w-xl text-xs text-loam-soft" data-testid="refund-after-payout">
+        A sale refunded after it was paid out is not taken back from your bank account: your share of it is kept back from your later sales
+        before anything more is paid out.
       </p>
       {payouts.length > 0 && (
         <table className="w-full max-w-xl text-sm" data-testid="payout-history">

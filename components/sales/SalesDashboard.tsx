@@ -4,6 +4,7 @@
 // the same figures as CSV. Money stays in its own currency; a seller paid in several sees one at
 // a time.
 import { useMemo, useState } from 'react';
+import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
 import { TextField } from '@/components/ui/TextField';
@@ -12,6 +13,7 @@ import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { SalesFigures, SalesResponse } from '@/lib/market/types';
 import { salesQuerySchema } from '@/lib/market/validation';
 import { formatPrice, SALES_BUCKETS, type Currency, type SalesBucket } from '@/lib/market/vocabulary';
+import { formatDate, parseDay } from '@/components/market/format';
 import { BarChart } from './BarChart';
 import { daysBefore, isoDay, periodLabel, periodStarts } from './periods';
 
@@ -115,8 +117,24 @@ export function SalesDashboard({ initial }: { initial: SalesResponse }) {
   );
 }
 
+// The period's days are typed as the page shows dates ("5 Dec 2026"; YYYY-MM-DD too), not in a
+// browser date field, whose format follows the browser's language instead of the page's.
+const dayField = (what: string) =>
+  z
+    .string()
+    .optional()
+    .transform((text, context) => {
+      if (!text?.trim()) return undefined;
+      const day = parseDay(text);
+      if (!day) context.addIssue({ code: 'custom', message: `Give the ${what} day like ${formatDate(isoDay(new Date()))}.` });
+      return day ?? undefined;
+    });
+const rangeFormSchema = z
+  .object({ from: dayField('first'), to: dayField('last'), bucket: salesQuerySchema.shape.bucket })
+  .refine((v) => !v.from || !v.to || v.from <= v.to, { path: ['to'], message: 'The end must not be before the start.' });
+
 function RangeForm({ range, onChange, busy }: { range: Range; onChange: (range: Range) => void; busy: boolean }) {
-  const form = useValidatedForm(salesQuerySchema);
+  const form = useValidatedForm(rangeFormSchema);
   const today = isoDay(new Date());
   return (
     <form
@@ -136,8 +154,8 @@ function RangeForm({ range, onChange, busy }: { range: Range; onChange: (range: 
         ))}
       </div>
       <div className="flex flex-wrap items-end gap-3">
-        <TextField label="From" type="date" defaultValue={range.from} {...form.field('from')} />
-        <TextField label="To" type="date" defaultValue={range.to} {...form.field('to')} />
+        <TextField label="From" defaultValue={formatDate(range.from)} {...form.field('from')} />
+        <TextField label="To" defaultValue={formatDate(range.to)} {...form.field('to')} />
         <div className="flex flex-col gap-1.5">
           <label htmlFor="sales-bucket" className="text-sm font-semibold text-loam">
             Grouped

@@ -1,4 +1,4 @@
-// The demo groomer's studio: the three characters of lib/groom's demo (Bramble, Ottoline, Loop)
+// The demo groomer's studio: the three characters of lib/groom's demo (Bramble, Brisquette, Loop)
 // as growth surfaces — uploaded to object storage through a presigned PUT, registered exactly as
 // the studio does it and checked — and a groom on each with its spec and a first named version (which the
 // market's seed lists). Runs after the accounts seed and before the market's (names sort so).

@@ -1,5 +1,5 @@
 // The market's licence texts (upserted by slug) and the demo's published presets: one listing per
-// groom of the demo groomer (Wren at Thistledown), from the groom's latest saved version.
+// groom of the demo groomer (Wren at Quillmoor), from the groom's latest saved version.
 // Runs after the accounts and studio seeds (its name sorts after theirs). With no studio grooms
 // yet, it says so and seeds only the licences. Idempotent: a groom version already listed is left
 // as it is. Pictures and packages are made by the market's job workers when the app first serves
@@ -10,7 +10,7 @@ import { LICENCE_TEXTS } from '../../lib/market/licences';
 
 type DemoOffer = { match: RegExp; animal: string; coatLength: string; style: string; bodyRegion: string; priceCents: number; licence: string; description: string };
 
-// What Thistledown asks for its three characters' coats (matched on the groom's name).
+// What Quillmoor asks for its three characters' coats (matched on the groom's name).
 const OFFERS: DemoOffer[] = [
   {
     match: /bramble|fox/i,
@@ -19,31 +19,31 @@ const OFFERS: DemoOffer[] = [
     style: 'stylised',
     bodyRegion: 'head',
     priceCents: 2400,
-    licence: 'studio',
+    licence: 'pelt',
     description:
       'Autumn fox head coat: fur streams back from the nose, over a clockwise cowlick on the crown, to an inflow whorl at the nape; long tufts on the ears. Balanced index budget, guides on muzzle, ears and crown.',
   },
   {
-    match: /ottoline|cat/i,
+    match: /brisquette|cat/i,
     animal: 'cat',
-    coatLength: 'long',
+    coatLength: 'short',
     style: 'natural',
     bodyRegion: 'full-body',
     priceCents: 3900,
-    licence: 'studio',
+    licence: 'pelt',
     description:
-      'A long-haired cat coat for a long body: a parting runs down the spine so the fur falls away on both flanks, meeting crosswise at a saddle on the chest. Tuned droop for a heavy, soft look.',
+      'A short velvet cat coat (about 1.2 cm) for a long-bodied cat: a parting runs down the spine so the nap lies away on both flanks, meeting crosswise at a saddle on the chest. A close, sleek look.',
   },
   {
     match: /loop|ring|plush/i,
     animal: 'toy',
-    coatLength: 'short',
+    coatLength: 'long',
     style: 'plush',
     bodyRegion: 'full-body',
     priceCents: 900,
-    licence: 'personal',
+    licence: 'tuft',
     description:
-      'Short plush pile for a ring-shaped toy (genus 1): one whorl and one saddle, the minimum a torus allows, with a gentle, even nap all round. A good starting point for stuffed-toy characters.',
+      'Long shaggy pile (about 14 mm on an 18 mm tube) for a ring-shaped toy (genus 1): one whorl and one saddle, the minimum a torus allows, with a loose curl wrapping round the tube. A good starting point for stuffed-toy characters.',
   },
 ];
 const FALLBACK: Omit<DemoOffer, 'match'> = {
@@ -52,8 +52,8 @@ const FALLBACK: Omit<DemoOffer, 'match'> = {
   style: 'natural',
   bodyRegion: 'full-body',
   priceCents: 1500,
-  licence: 'personal',
-  description: 'A complete creature coat from the Thistledown studio: direction field, guides and groom spec.',
+  licence: 'tuft',
+  description: 'A complete creature coat from the Quillmoor studio: direction field, guides and groom spec.',
 };
 
 export async function seed(knex: Knex) {

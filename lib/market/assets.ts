@@ -36,7 +36,8 @@ import { getObjectBytes, putObject } from '../platform/storage';
 import { copyObject } from '../platform/storage';
 import { deleteMarketObjects, listingPrefix } from './storage';
 import { measureListing, type MeasuredListing } from './listing-facts';
-import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
+import { TAX_NOTE, type PackageFormat } from './vocabulary';
+import { packageReadme } from './package-readme';
 
 export type Picture = { view: ThumbnailView; size: number; key: string };
 
@@ -79,32 +80,24 @@ type ListingForAssets = ListingFilesSource & {
   current_version: number;
 };
 
+/** The README's facts of a listing (the words are lib/market/package-readme.ts). */
 function readme(listing: ListingFilesSource, guideCount: number, files: string[]): string {
-  const version = listing.version_number ? `version ${listing.version_number}${listing.version_name ? ` (“${listing.version_name}”)` : ''}` : 'a saved version';
-  return `${listing.title}
-${'='.repeat(Math.min(listing.title.length, 72))}
-
-A Whorlwind preset by ${listing.seller_name}, made from ${version} of the groom “${listing.groom_name}”.
-Price when bought: ${formatPrice(listing.price_cents, listing.currency)}.
-
-${listing.description}
-
-What is in this package
-${files.map((file) => `- ${file}`).join('\n')}
-- LICENCE.txt — ${listing.licence_title}, in full: what you may and may not do with these files.
-- README.txt — this file.
-${listing.ships_surface ? `- surface/${listing.surface_file_name} — the seller's growth surface, as uploaded; the guides' files also carry it, with each guide's root polygon and barycentric position on it.\n` : ''}
-${guideCount.toLocaleString('en-GB')} guide curves, grown from the groom spec on the seller's growth surface.
-
-Using it
-- The .usda files hold one BasisCurves prim at /Groom/Guides, with widths; the stage's metersPerUnit and upAxis follow the spec.
-- The .gltf/.glb files hold the guides as line primitives, positions in metres, +Y up.
-- The .obj file holds one polyline per guide, in the spec's units.
-- groom-spec.json is the Whorlwind groom spec: open it in the Whorlwind studio on your own growth surface to grow the same coat there. Its places are points in space, snapped to the nearest vertex of the surface it is used on.
-- field.ply is the direction field on the seller's surface: per-face and per-vertex unit directions (dx dy dz).
-
-${TAX_NOTE}
-`;
+  return packageReadme(
+    {
+      title: listing.title,
+      description: listing.description,
+      sellerName: listing.seller_name,
+      groomName: listing.groom_name,
+      versionNumber: listing.version_number,
+      versionName: listing.version_name,
+      priceCents: listing.price_cents,
+      currency: listing.currency,
+      licenceTitle: listing.licence_title,
+      guideCount,
+      taxNote: TAX_NOTE,
+    },
+    files,
+  );
 }
 
 /**
@@ -279,16 +272,17 @@ export async function makeListingFiles(listing: ListingFilesSource, prefix: stri
   if (packagePrefix) {
     const folder = fileSlug(listing.title, 60, 'preset');
     const entries: Zippable = {};
-    const fileNames: string[] = [];
     for (const format of listing.formats) {
       const name = packageFileName(format);
       const bytes = writeExport(format, made, { withSurface: listing.ships_surface && EXPORT_FORMAT_FACTS[format].source === 'guides' });
       entries[`${folder}/${name}`] = typeof bytes === 'string' ? strToU8(bytes) : bytes;
-      fileNames.push(`${name} — ${FORMAT_LABELS[format]}`);
     }
     if (listing.ships_surface) entries[`${folder}/surface/${listing.surface_file_name}`] = surfaceBytes;
     entries[`${folder}/LICENCE.txt`] = strToU8(`${listing.licence_body}\n`);
-    entries[`${folder}/README.txt`] = strToU8(readme(listing, guides.count, fileNames));
+    // The README explains what the zip holds, read from the zip's own entries (so a file added to
+    // the package is named, and one left out is never described).
+    const packed = Object.keys(entries).map((path) => path.slice(folder.length + 1)).filter((name) => name !== 'LICENCE.txt');
+    entries[`${folder}/README.txt`] = strToU8(readme(listing, guides.count, packed));
     // A fixed time stamp, so the same version always zips to the same bytes.
     const zip = zipSync(entries, { level: 6, mtime: new Date('2026-01-01T00:00:00Z') });
     const fileName = `${folder}.zip`;

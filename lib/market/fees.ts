@@ -6,3 +6,8 @@ import { env } from '../platform/env';
 export function platformFeeCents(amountCents: number, percent = env().MARKET_PLATFORM_FEE_PERCENT): number {
   return Math.min(amountCents, Math.max(0, Math.round((amountCents * percent) / 100)));
 }
+
+/** The market's fee in per cent, as the listing form shows it to sellers (MARKET_PLATFORM_FEE_PERCENT). */
+export function marketFeePercent(): number {
+  return env().MARKET_PLATFORM_FEE_PERCENT;
+}

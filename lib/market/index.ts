@@ -18,6 +18,7 @@ export * from './payouts';
 export * from './payments/checkout';
 export * from './payments/purchases';
 export * from './payments/refunds';
+export * from './payments/refund-requests';
 export * from './payments/reconcile';
 export * from './payments/webhooks';
 export * from './jobs';

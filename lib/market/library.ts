@@ -10,6 +10,7 @@ import { cardPictureUrl } from './listings';
 import { presignDownload } from '../platform/storage';
 import { DOWNLOAD_URL_SECONDS } from './storage';
 import type { DownloadLink, LibraryItem } from './types';
+import { latestRefundRequests } from './payments/refund-requests';
 
 export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
   const counts = db()('downloads').select('purchase_id').count('* as downloads').groupBy('purchase_id').as('d');
@@ -29,6 +30,7 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
       'p.refund_id',
       'p.created_at',
       'p.refunded_at',
+      'p.cancellation_waived_at',
       'l.title',
       'l.formats',
       'l.assets_status',
@@ -41,6 +43,7 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
       'd.downloads',
     );
   const packages = await packagesOf(rows.map((row) => row.listing_id));
+  const requests = await latestRefundRequests(rows.map((row) => row.id));
   return rows.map((row) => ({
     purchaseId: row.id,
     listing: {
@@ -60,6 +63,8 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
     purchasedAt: row.created_at.toISOString(),
     refundedAt: row.refunded_at?.toISOString() ?? null,
     ...versionsOf(row, packages),
+    refundRequest: requests.get(row.id) ?? null,
+    cancellationWaived: row.cancellation_waived_at !== null,
   }));
 }
 

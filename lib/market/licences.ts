@@ -1,6 +1,8 @@
 // The market's own licence texts. A seller picks one for each listing; the buyer sees it in full
 // before paying, and the package carries it as LICENCE.txt. Seeded by db/seeds/*market* (upsert
-// by slug), read from the database by everything else.
+// by slug), read from the database by everything else. The three levels are named after how much
+// of an animal the fur covers — a tuft (one person), a pelt (one studio), a herd (a whole company) —
+// Whorlwind's own names rather than the tiers other asset stores use.
 import { db } from '../platform/db';
 import type { Licence } from './types';
 
@@ -24,11 +26,11 @@ const COMMON_TERMS = `What every Whorlwind licence says
 
 export const LICENCE_TEXTS: readonly LicenceText[] = [
   {
-    slug: 'personal',
-    title: 'Personal licence',
+    slug: 'tuft',
+    title: 'Tuft licence',
     position: 1,
     summary: 'One person, for their own projects, portfolio and learning — including paid freelance work they do alone.',
-    body: `Personal licence
+    body: `Tuft licence
 
 Who: the one person who bought the preset.
 
@@ -38,18 +40,18 @@ What you may do
 - Install it on the computers you use yourself.
 
 What you may not do
-- Let other people use the files: colleagues, a team, a studio, a client's artists. Each of them needs their own licence, or your employer needs a Studio or Unlimited licence.
+- Let other people use the files: colleagues, a team, a studio, a client's artists. Each of them needs their own licence, or your employer needs a Pelt or Herd licence.
 
 ${COMMON_TERMS}
 
 ${NOT_LEGAL_ADVICE}`,
   },
   {
-    slug: 'studio',
-    title: 'Studio licence',
+    slug: 'pelt',
+    title: 'Pelt licence',
     position: 2,
     summary: 'One company or studio, up to 20 people, any number of productions.',
-    body: `Studio licence
+    body: `Pelt licence
 
 Who: one company, studio or school (one legal entity) and up to 20 people working for it at the same time, employed or contracted.
 
@@ -59,23 +61,23 @@ What you may do
 
 What you may not do
 - Pass the files to another company, including a client or a co-producer, unless they buy their own licence. Sending them your finished work is fine.
-- Use it with more than 20 people at a time: for more, buy the Unlimited licence.
+- Use it with more than 20 people at a time: for more, buy the Herd licence.
 
 ${COMMON_TERMS}
 
 ${NOT_LEGAL_ADVICE}`,
   },
   {
-    slug: 'unlimited',
-    title: 'Unlimited licence',
+    slug: 'herd',
+    title: 'Herd licence',
     position: 3,
     summary: 'One company and all its people and sites, any number of productions, including the groom inside shipped interactive work.',
-    body: `Unlimited licence
+    body: `Herd licence
 
 Who: one company or group of companies under the same ownership, all its people and sites, and the contractors working on its productions.
 
 What you may do
-- Everything the Studio licence allows, with no limit on people or sites.
+- Everything the Pelt licence allows, with no limit on people or sites.
 - Ship the preset's guide curves inside an interactive product (a game, an app, a real-time character) in the product's own packed format, as long as they are not offered to its users as reusable files.
 - Give the files to outside companies that work with you on a production, for use in that production only.
 

@@ -25,7 +25,7 @@ export function listingRejectedMail(to: string, listing: { id: string; title: st
   return mail(to, `Your preset “${listing.title}” needs changes`, [
     `“${listing.title}” was not approved for the market yet. The reviewer's reason:`,
     reason,
-    `Edit the listing and submit it again: ${link(`/market/${listing.id}`)}`,
+    `Edit the listing and submit it again: ${link(`/sales/listings/${listing.id}/edit`)}`,
   ]);
 }
 
@@ -54,6 +54,15 @@ export function refundMail(to: string, sale: { title: string; amountCents: numbe
   return mail(to, `Refund: ${sale.title}`, [
     `Your purchase of “${sale.title}” was refunded: ${formatPrice(sale.amountCents, sale.currency)} go back to the card you paid with.`,
     `The preset's licence ends with the refund, and its files are no longer in your library.`,
+  ]);
+}
+
+/** The buyer's answer when an admin declines their refund request. */
+export function refundDeclinedMail(to: string, request: { title: string; answer: string }) {
+  return mail(to, `Your refund request for “${request.title}”`, [
+    `We looked at your request for a refund of “${request.title}” and did not refund it. The answer from the market:`,
+    request.answer,
+    `The preset stays in your library. If you think this is wrong, or the law where you live gives you a right to cancel that this answer overlooks, ask again from your library with what we missed: ${link('/library')}`,
   ]);
 }
 

@@ -129,7 +129,10 @@ const csvCell = (value: string | number) => {
 };
 const money = (cents: number) => (cents / 100).toFixed(2);
 
-/** The figures as CSV: one row per period, listing and currency, then a total per currency; amounts in currency units. */
+/** U+FEFF, which UTF-8 writes as the bytes EF BB BF. */
+export const UTF8_BOM = '\uFEFF';
+
+/** The figures as CSV, starting with a UTF-8 byte-order mark: one row per period, listing and currency, then a total per currency; amounts in currency units. */
 export async function salesCsv(actor: Actor, query: SalesQuery): Promise<{ fileName: string; text: string }> {
   const { from, to } = range(query);
   const rows = await figureRows(actor.userId, from, to, query.bucket);
@@ -148,5 +151,7 @@ export async function salesCsv(actor: Actor, query: SalesQuery): Promise<{ fileN
     lines.push(line(row.period, row.listing_id, row.title, figures));
   }
   for (const total of totals.values()) lines.push(line('total', '', '', total));
-  return { fileName: `whorlwind-sales-${from}-to-${to}.csv`, text: `${lines.join('\r\n')}\r\n` };
+  // A UTF-8 byte-order mark first: spreadsheet programs read a CSV without one in a legacy code
+  // page, garbling titles such as “Brisquette — velours”.
+  return { fileName: `whorlwind-sales-${from}-to-${to}.csv`, text: `${UTF8_BOM}${lines.join('\r\n')}\r\n` };
 }

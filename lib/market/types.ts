@@ -110,6 +110,10 @@ export type LibraryItem = {
   versions: { number: number; packageReady: boolean }[];
   /** A newer version than the one bought, not yet downloaded: the library's notice. */
   updateNotice: { number: number } | null;
+  /** The buyer's latest refund request for this purchase, open or answered. */
+  refundRequest: RefundRequestState | null;
+  /** Whether the buyer agreed at checkout that a right to cancel may end once the download starts. */
+  cancellationWaived: boolean;
 };
 
 export type SalesFigures = {
@@ -251,3 +255,28 @@ export type ListingVersionsResponse = { versions: ListingVersionSummary[] };
 export type ListingVersionResponse = { version: ListingVersionSummary };
 /** GET /api/admin/listing-versions */
 export type AdminListingVersionsResponse = { versions: ListingVersionSummary[] };
+// Refund requests and the checkout's agreement (words branch).
+export type RefundRequestState = {
+  id: string;
+  reason: string;
+  requestedAt: string;
+  /** null while it waits in the admins' queue. */
+  outcome: 'refunded' | 'declined' | null;
+  answer: string | null;
+  closedAt: string | null;
+};
+/** An open request as the admins' refund queue shows it. */
+export type AdminRefundRequest = {
+  id: string;
+  reason: string;
+  requestedAt: string;
+  purchase: AdminPurchase;
+  downloads: number;
+  cancellationWaived: boolean;
+};
+/** POST /api/library/[purchaseId]/refund-request */
+export type RefundRequestResponse = { request: RefundRequestState };
+/** GET /api/admin/refund-requests */
+export type AdminRefundRequestsResponse = { requests: AdminRefundRequest[] };
+/** POST /api/admin/refund-requests/[id]/decline */
+export type RefundDeclineResponse = { request: RefundRequestState };

@@ -172,3 +172,27 @@ export const salesQuerySchema = z
 export type SalesQuery = z.infer<typeof salesQuerySchema>;
 
 export const payoutSchema = z.object({ currency: currency.optional() });
+
+// A buyer's refund request, an admin's answer declining one, and the checkout's agreement (words branch).
+export const refundRequestSchema = z.object({
+  reason: z
+    .string({ error: 'Say why you ask for a refund.' })
+    .trim()
+    .min(10, 'Say why you ask for a refund, in at least 10 characters: what did not work for you?')
+    .max(2000, 'Keep the reason under 2000 characters.'),
+});
+export type RefundRequestInput = z.infer<typeof refundRequestSchema>;
+
+export const refundDeclineSchema = z.object({
+  answer: z
+    .string({ error: 'Tell the buyer why the refund is declined.' })
+    .trim()
+    .min(10, 'Tell the buyer why, in at least 10 characters: they get it by e-mail.')
+    .max(2000, 'Keep the answer under 2000 characters.'),
+});
+
+export const checkoutSchema = z.object({
+  /** The buyer agrees, before paying, that where the law lets a right to cancel end once the download starts, it ends then. */
+  waiveCancellation: z.boolean({ error: 'Say whether you agree (true or false).' }).default(false),
+});
+export type CheckoutInput = z.infer<typeof checkoutSchema>;

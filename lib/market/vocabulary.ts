@@ -47,7 +47,29 @@ export function formatPrice(cents: number, currency: string): string {
   return `${sign}${Math.floor(abs / 100).toLocaleString('en-GB')}.${String(abs % 100).padStart(2, '0')} ${currency.toUpperCase()}`;
 }
 
-/** Shown wherever money changes hands. */
+/**
+ * Shown wherever money changes hands. It defers to the law and to a tax adviser where each person is,
+ * and does not claim the market never collects tax: in some places the law puts that on a market.
+ */
 export const TAX_NOTE =
-  'Prices are what the buyer pays. Taxes and invoicing follow the local rules of the seller and of the buyer; ' +
-  'Whorlwind does not give tax advice.';
+  'Prices are what the buyer pays. Where the law makes the market or its payment provider collect sales tax or VAT on a sale, ' +
+  'it does; everything else — what you declare and how you invoice — follows the rules where you are and where the buyer is. ' +
+  'Whorlwind does not give tax advice: ask a tax adviser where you are.';
+
+/** Sign-up and checkout: who may pay and accept a licence depends on the law where the buyer lives. */
+export const AGE_NOTE =
+  'To pay and to accept a licence you must be old enough to do so where you live; if you are not, a parent or guardian must buy for you.';
+
+/**
+ * Checkout and the library: a right to cancel a digital purchase, and when it ends, is set by the law
+ * where the buyer lives; in some places it ends once the download starts, and only if the buyer agreed
+ * to that before paying.
+ */
+export const CANCELLATION_NOTE =
+  'Whether you may cancel a purchase of digital files, and for how long, depends on the law where you live. In some places that right ends once you start the download, but only if you agreed to it before paying. You can ask for a refund from your library at any time, with your reason.';
+
+/** What the checkout's agreement means, said beside its check box. */
+export const WAIVER_AGREEMENT =
+  'I want the files at once: where the law where I live lets my right to cancel end once the download starts, I agree that it ends then.';
+export const WITHOUT_WAIVER =
+  'Without this agreement, where the law gives you a right to cancel, you keep it for its full period even after you download.';

@@ -8,6 +8,8 @@ import { expect, test } from '@playwright/test';
 import { unzipSync, strFromU8 } from 'fflate';
 import { closeDb, db } from '../../lib/platform/db';
 import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
+import { LICENCE_TEXTS } from '../../lib/market/licences';
+import { marketFeePercent } from '../../lib/market/fees';
 import { confirmedAccount } from './helpers';
 import { groomWithSavedVersion, personPage } from './market-helpers';
 
@@ -44,9 +46,11 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await seller.getByLabel('Style').selectOption('wild');
   await seller.getByLabel('Body region').selectOption('full-body');
   await seller.getByLabel('Price', { exact: true }).fill('19.50');
+  // The market's fee is stated beside the price, as the server is configured (MARKET_PLATFORM_FEE_PERCENT).
+  await expect(seller.getByTestId('market-fee')).toContainText(`The market keeps ${marketFeePercent()} % of each sale as its fee`);
   await seller.getByLabel('Currency').selectOption('eur');
-  await seller.getByLabel('Studio licence').check();
-  await expect(seller.getByTestId('licence-text')).toContainText('Studio licence');
+  await seller.getByLabel(LICENCE_TEXTS[1].title).check();
+  await expect(seller.getByTestId('licence-text')).toContainText(LICENCE_TEXTS[1].title);
   await seller.getByLabel(/OpenUSD BasisCurves, linear/).check();
   await seller.getByLabel(/glTF 2\.0 binary/).check();
   await seller.getByLabel(/Whorlwind groom spec/).check();
@@ -86,7 +90,7 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await buyer.getByRole('link', { name: title }).click();
 
   await expect(buyer.getByRole('heading', { name: title, level: 1 })).toBeVisible();
-  await expect(buyer.getByTestId('licence-text')).toContainText('Studio licence');
+  await expect(buyer.getByTestId('licence-text')).toContainText(LICENCE_TEXTS[1].title);
   await expect(buyer.getByRole('complementary', { name: 'Before you buy' })).toContainText('not legal advice');
   await expect(buyer.getByTestId('package-formats')).toContainText('OpenUSD BasisCurves, linear');
   await expect(buyer.getByTestId('gallery').getByRole('img').first()).toBeVisible();
@@ -126,7 +130,7 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   expect(strFromU8(glb.slice(0, 4))).toBe('glTF');
   const spec = JSON.parse(strFromU8(Object.entries(files).find(([path]) => path.endsWith('groom-spec.json'))![1]));
   expect(spec.specVersion).toBeGreaterThanOrEqual(1);
-  expect(strFromU8(Object.entries(files).find(([path]) => path.endsWith('LICENCE.txt'))![1])).toContain('Studio licence');
+  expect(strFromU8(Object.entries(files).find(([path]) => path.endsWith('LICENCE.txt'))![1])).toContain(LICENCE_TEXTS[1].title);
   await expect(owned).toContainText('downloaded 1 time');
 
   // Leaves a review, which the listing shows.

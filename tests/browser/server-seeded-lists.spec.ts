@@ -70,6 +70,8 @@ test('the admin coming back to the admin page sees a purchase made meanwhile', a
   await page.getByRole('navigation', { name: 'Areas' }).getByRole('link', { name: 'Admin' }).click();
   await expect(page.getByRole('heading', { name: 'Admin', level: 1 })).toBeVisible();
   await expect(page.getByRole('table', { name: 'Recent purchases' }).getByRole('row').filter({ hasText: buyerEmail })).toBeVisible();
-  await page.unroute('**/api/admin/purchases*');
+  // Release the held requests while the route still holds them: removing the last route first
+  // ends interception, which lets them through, and aborting one then fails ("already handled").
   await Promise.all(held.map((route) => route.abort()));
+  await page.unroute('**/api/admin/purchases*');
 });

@@ -17,6 +17,8 @@
 // a thing one row changes is used by no other row whose answer the change would alter, so the
 // rows hold in any order (vitest --sequence.shuffle).
 
+import { LICENCE_TEXTS } from '@/lib/market/licences';
+
 export const WHO = ['anonymous', 'buyer', 'owner', 'other', 'admin'] as const;
 export type Who = (typeof WHO)[number];
 
@@ -146,7 +148,7 @@ export const ROUTE_ROWS: RouteRow[] = [
       tags: { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body' },
       priceCents: 900,
       currency: 'eur',
-      licenceSlug: 'personal',
+      licenceSlug: LICENCE_TEXTS[0].slug,
       formats: ['json'],
       rightsConfirmed: true,
     }),
@@ -182,6 +184,18 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('POST', '/api/admin/listing-versions/[id]/decision', '401 403 403 403 400', { params: { id: 'waitingVersion' }, body: { approve: false }, note: 'no reason' }),
   route('POST', '/api/admin/listing-versions/[id]/decision', '401 403 403 403 404', { params: { id: 'missing' }, body: { approve: true }, note: 'no such version' }),
   route('POST', '/api/admin/listing-versions/[id]/decision', '401 403 403 403 200', { params: { id: 'waitingVersion' }, body: { approve: false, reason: 'Matrix: show the whole coat.' } }),
+  // Refund requests (words branch): the buyer's request on their purchase (it does not stop downloads), the admins' queue.
+  route('POST', '/api/library/[purchaseId]/refund-request', '401 201 404 404 403', {
+    params: { purchaseId: 'purchase' },
+    body: { reason: 'Matrix request: the coat did not fit my character.' },
+    note: "the buyer's purchase",
+  }),
+  route('GET', '/api/admin/refund-requests', '401 403 403 403 200'),
+  route('POST', '/api/admin/refund-requests/[id]/decline', '401 403 403 403 404', {
+    params: { id: 'missing' },
+    body: { answer: 'Matrix answer: no such request.' },
+    note: 'no such request',
+  }),
 
   // The seller's figures and payouts.
   route('GET', '/api/sales', '401 403 200 200 403', { query: 'bucket=month' }),

@@ -86,7 +86,12 @@ describe('an edit while the package is built', () => {
     const pack = await m.db.db()('listing_packages').where({ listing_id: id }).first();
     expect(pack).toMatchObject({ listing_revision: 2, file_name: 'nap-after-the-edit.zip' });
     const files = unzipSync(await m.storage.getObjectBytes(pack.object_key));
-    expect(strFromU8(files['nap-after-the-edit/README.txt'])).toMatch(/^Nap after the edit\n/);
+    const readme = strFromU8(files['nap-after-the-edit/README.txt']);
+    expect(readme).toMatch(/^Nap after the edit\n/);
+    // The README explains the files of this package (spec and OBJ) and no others: no field.ply, no .usda.
+    const packed = Object.keys(files).map((path) => path.split('/').pop()!).filter((name) => /\.(usda|gltf|glb|obj|json|ply)$/.test(name));
+    expect(packed.sort()).toEqual(['groom-spec.json', 'guides.obj']);
+    expect([...new Set(readme.match(/[\w-]*\.(usda|gltf|glb|obj|json|ply)\b/g))].sort()).toEqual(packed);
   });
 });
 

@@ -4,6 +4,7 @@
 import { randomUUID } from 'node:crypto';
 import type Stripe from 'stripe';
 import { db } from '@/lib/platform/db';
+import { LICENCE_TEXTS } from '@/lib/market/licences';
 import { env } from '@/lib/platform/env';
 import { payments } from '@/lib/platform/payments';
 import { getObjectBytes, putObject } from '@/lib/platform/storage';
@@ -14,6 +15,7 @@ import type { Role } from '@/lib/accounts/roles';
 import { POST as webhookPost } from '@/app/api/payments/webhook/route';
 import { startCheckout } from '@/lib/market/payments/checkout';
 import { expect } from 'vitest';
+import { HttpError } from '@/lib/http/errors';
 import { uniqueEmail } from './helpers';
 import { serveRoute } from './route-server';
 
@@ -99,7 +101,7 @@ export type ListingOptions = Partial<{
  * by the asset job (see lib/market/assets.ts) when that runs.
  */
 export async function insertListing(seller: Actor, options: ListingOptions = {}, surfaceKey?: string): Promise<string> {
-  const licence = await db()('licences').where({ slug: options.licence ?? 'personal' }).first('id');
+  const licence = await db()('licences').where({ slug: options.licence ?? LICENCE_TEXTS[0].slug }).first('id');
   const [row] = await db()('listings')
     .insert({
       seller_id: seller.userId,
@@ -207,10 +209,20 @@ export function shuffle<T>(items: T[], seed = 7): T[] {
 }
 
 /** Buys a listing as a buyer does: checkout, the test card on the fake's page, the signed event delivered; the purchase id. */
-export async function buyListing(buyer: Actor, listingId: string): Promise<string> {
-  const checkout = await startCheckout(buyer, listingId);
+export async function buyListing(buyer: Actor, listingId: string, options: Parameters<typeof startCheckout>[2] = {}): Promise<string> {
+  const checkout = await startCheckout(buyer, listingId, options);
   expect((await payOnHostedPage(checkout.url, '4242424242424242')).status).toBe(303);
   const [completed] = await eventsAbout({ id: checkout.sessionId }, ['checkout.session.completed']);
   expect((await deliver(completed)).status).toBe(200);
   return (await db()('purchases').where({ checkout_session_id: checkout.sessionId }).first('id')).id;
+}
+
+/** The HttpError a call fails with (the test fails if it succeeds or fails otherwise). */
+export async function failureOf(promise: Promise<unknown>): Promise<HttpError> {
+  const error = await promise.then(
+    () => null,
+    (caught: unknown) => caught,
+  );
+  expect(error).toBeInstanceOf(HttpError);
+  return error as HttpError;
 }

@@ -3,6 +3,10 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
+import { LICENCE_TEXTS } from '@/lib/market/licences';
+import { getObjectBytes } from '@/lib/platform/storage';
+import { parseGroomSpec } from '@/lib/groom';
+import { DEMO_GROOMS } from '@/lib/groom/demo';
 import { buildListingAssets } from '@/lib/market/assets';
 import { HttpError } from '@/lib/http/errors';
 import type { Actor } from '@/lib/accounts/actor';
@@ -29,7 +33,7 @@ const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput =
   tags: { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body' },
   priceCents: 900,
   currency: 'eur',
-  licenceSlug: 'personal',
+  licenceSlug: LICENCE_TEXTS[0].slug,
   formats: ['usda', 'json'],
   rightsConfirmed: true,
   shipsSurface: false,

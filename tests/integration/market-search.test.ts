@@ -2,6 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
+import { LICENCE_TEXTS } from '@/lib/market/licences';
 import { stopJobs } from '@/lib/platform/jobs';
 import type { ListingCard, SearchResponse } from '@/lib/market/types';
 import { GET as searchGet } from '@/app/api/market/search/route';
@@ -130,7 +131,7 @@ describe('GET /api/market/search', () => {
       guideCount: 4000,
       salesCount: 30,
       rating: { average: 4.9, count: 12 },
-      licence: { slug: 'personal', title: 'Personal licence' },
+      licence: { slug: LICENCE_TEXTS[0].slug, title: LICENCE_TEXTS[0].title },
       pictureUrl: `/api/market/listings/${card.id}/pictures/front-256`,
     });
     expect(card.seller.displayName).toMatch(/search-seller/);

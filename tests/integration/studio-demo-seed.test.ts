@@ -14,7 +14,7 @@ import { migrationConfig } from '@/db/migration-config';
 
 afterAll(closeDb);
 
-const wren = DEMO_ACCOUNTS.find((account) => account.email === 'wren@thistledown.example')!;
+const wren = DEMO_ACCOUNTS.find((account) => account.email === 'wren@quillmoor.example')!;
 
 async function wrensStudio() {
   const user = await db()('users').where({ email: wren.email }).first('id');
@@ -29,8 +29,8 @@ describe('the studio demo seed', () => {
     const { surfaces } = await wrensStudio();
     expect(surfaces.map((s) => [s.name, s.file_name, s.units, s.euler_characteristic, s.genus])).toEqual([
       ['Bramble — fox head', 'bramble-fox-head.obj', 'cm', 2, 0],
+      ['Brisquette — long cat', 'brisquette-long-cat.obj', 'cm', 2, 0],
       ['Loop — plush ring', 'loop-plush-ring.obj', 'mm', 0, 1],
-      ['Ottoline — long cat', 'ottoline-long-cat.obj', 'cm', 2, 0],
     ]);
     for (const surface of surfaces) {
       expect(await storedObjectSize(surface.object_key)).toBe(Number(surface.byte_size));
@@ -40,7 +40,7 @@ describe('the studio demo seed', () => {
 
   it('gave each a groom with the demo spec and a first version', async () => {
     const { surfaces, grooms, versions } = await wrensStudio();
-    expect(grooms.map((g) => g.name)).toEqual(['Bramble — autumn coat', 'Loop — shaggy pile', 'Ottoline — short velvet']);
+    expect(grooms.map((g) => g.name)).toEqual(['Bramble — autumn coat', 'Brisquette — short velvet', 'Loop — shaggy pile']);
     for (const demo of DEMO_GROOMS) {
       const groom = grooms.find((g) => g.name === demo.spec.name)!;
       expect(groom.surface_id).toBe(surfaces.find((s) => s.name.startsWith(demo.character))!.id);

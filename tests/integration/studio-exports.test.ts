@@ -32,13 +32,13 @@ let surfaceId: string;
 beforeAll(async () => {
   worker = await startJobsWorkerProcess();
   ({ owner: wren, rival, buyer } = await studioCast('export'));
-  surfaceId = (await createSurface(wren, 'ottoline.obj', catObj, 'Ottoline body')).id;
+  surfaceId = (await createSurface(wren, 'brisquette.obj', catObj, 'Brisquette body')).id;
   // Only read from here on: a test that changes or deletes a groom makes its own.
-  groom = await ottoline('Ottoline — short velvet');
+  groom = await brisquette('Brisquette — short velvet');
 });
 
 /** A groom of the cat's spec, saved once (revision 2). */
-async function ottoline(name: string): Promise<GroomDetail> {
+async function brisquette(name: string): Promise<GroomDetail> {
   const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId, name } });
   const { id } = (await expectJson(created, 201)).data.groom;
   await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${id}/spec`, { cookie: wren.cookie, body: { spec: cat.spec, baseRevision: 1 }, params: { groomId: id } }), 200);
@@ -105,7 +105,7 @@ describe('each format', () => {
   it('is made by the job, with the file named after the groom and its revision', () => {
     for (const [format, job] of jobs) {
       expect(job, format).toMatchObject({ status: 'done', progress: 1, stage: 'done', error: null });
-      expect(job.fileName).toMatch(/^ottoline-short-velvet-r2(-bspline|-guides|-field)?\.(usda|gltf|glb|obj|json|ply)$/);
+      expect(job.fileName).toMatch(/^brisquette-short-velvet-r2(-bspline|-guides|-field)?\.(usda|gltf|glb|obj|json|ply)$/);
     }
     // Progress only ever moves forward while a job runs.
     for (const format of EXPORT_FORMATS) {
@@ -225,7 +225,7 @@ describe('the growth surface beside the guides', () => {
 
 describe('what the file is made from', () => {
   it('is the spec saved when the export was asked for, even if it changes before the job runs', async () => {
-    const changing = await ottoline('Ottoline — changing');
+    const changing = await brisquette('Brisquette — changing');
     await worker.stop();
     const queued: ExportJob = (await expectJson(await requestExport(wren, changing.id, 'json'), 202)).data.export;
     const current = (await expectJson(await callRoute(groomRoute, 'GET', `/api/studio/grooms/${changing.id}`, { cookie: wren.cookie, params: { groomId: changing.id } }), 200)).data.groom;
@@ -261,7 +261,7 @@ describe('who may export and download', () => {
   let groom: GroomDetail; // this block's own: its last test deletes it
 
   beforeAll(async () => {
-    groom = await ottoline('Ottoline — guarded');
+    groom = await brisquette('Brisquette — guarded');
     done = await finished((await expectJson(await requestExport(wren, groom.id, 'json'), 202)).data.export.id);
   });
 

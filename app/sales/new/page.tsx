@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { ListingForm } from '@/components/market/ListingForm';
 import { requireArea } from '@/lib/accounts/session';
 import { listLicences } from '@/lib/market/licences';
+import { marketFeePercent } from '@/lib/market/fees';
 
 export const metadata: Metadata = { title: 'List a preset' };
 
@@ -27,7 +28,7 @@ export default async function NewListingPage({ searchParams }: Props) {
           now; later changes to the groom do not reach them.
         </p>
       </div>
-      <ListingForm licences={licences} listing={null} preselect={{ groomId: text(params.groom), versionId: text(params.version) }} />
+      <ListingForm licences={licences} feePercent={marketFeePercent()} listing={null} preselect={{ groomId: text(params.groom), versionId: text(params.version) }} />
     </div>
   );
 }

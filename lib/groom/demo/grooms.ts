@@ -3,10 +3,10 @@ import type { GroomSpecInput } from '../spec/spec';
 import { CAT, FOX, RING, foxHead, longCat, plushRing } from './surfaces';
 
 /**
- * The demo studio, Thistledown Creature Works, and its three characters, each with a growth
+ * The demo studio, Quillmoor Coatwrights, and its three characters, each with a growth
  * surface and a groom spec that solves on it. The demo seed and the tests use these.
  */
-export const DEMO_STUDIO = 'Thistledown Creature Works';
+export const DEMO_STUDIO = 'Quillmoor Coatwrights';
 
 export interface DemoGroom {
   readonly id: string;
@@ -59,13 +59,13 @@ export const DEMO_GROOMS: readonly DemoGroom[] = [
     },
   },
   {
-    id: 'ottoline-long-cat',
-    character: 'Ottoline',
+    id: 'brisquette-long-cat',
+    character: 'Brisquette',
     description: 'A long-bodied cat: a parting runs down the spine, fur flows from the nose along the flanks to the tail end, turning at a saddle on the chest.',
     surface: () => longCat(),
     spec: {
       specVersion: 2,
-      name: 'Ottoline — short velvet',
+      name: 'Brisquette — short velvet',
       units: 'cm',
       upAxis: 'y',
       field: {

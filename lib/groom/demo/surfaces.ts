@@ -60,21 +60,36 @@ export function foxHead(level = 5): TriangleMesh {
   });
 }
 
-/** Ottoline's body, in cm, Y up, nose toward +Z: a long ellipsoid with a raised head end. */
+const bump = (x: number, centre: number, width: number) => Math.exp(-0.5 * ((x - centre) / width) ** 2);
+/** A bump in an angle, measured the short way round. */
+const angleBump = (angle: number, centre: number, width: number) => bump(Math.atan2(Math.sin(angle - centre), Math.cos(angle - centre)), 0, width);
+
+/**
+ * Brisquette's body, in cm, Y up, nose toward +Z: a long body (44 cm nose to rump) with a round
+ * head on a narrower neck, two ears, four legs and a tail lifted behind, so that it reads as a cat
+ * from the front (the market's card picture) and not as a ball.
+ */
 export const CAT = {
-  rings: 48,
-  segments: 40,
+  rings: 72,
+  segments: 56,
   radii: [7, 6, 22] as const,
-  /** The surface point at polar angle θ (0 at the nose) and longitude φ (π/2 along the spine). */
+  /** The surface point at polar angle θ (0 at the nose, π at the tail's tip) and longitude φ (π/2 along the spine, −π/2 along the belly). */
   at(theta: number, phi: number): Vec3 {
     const [a, b, c] = CAT.radii;
+    const t = theta / Math.PI;
     const s = Math.sin(theta);
-    const head = Math.max(0, Math.cos(theta) - 0.55) / 0.45;
-    return [a * s * Math.cos(phi), b * s * Math.sin(phi) + 3 * head ** 2, c * Math.cos(theta)];
+    const raised = Math.max(0, Math.cos(theta) - 0.55) / 0.45;
+    // The cross-section swells into the head and narrows at the neck.
+    const girth = (1 - 0.3 * bump(t, 0.21, 0.045)) * (1 + 1.3 * bump(t, 0.06, 0.06));
+    const ears = 3 * bump(t, 0.1, 0.028) * (angleBump(phi, Math.PI / 2 - 0.6, 0.28) + angleBump(phi, Math.PI / 2 + 0.6, 0.28));
+    const legs = 10 * (bump(t, 0.32, 0.04) + bump(t, 0.76, 0.04)) * (angleBump(phi, -Math.PI / 2 - 0.62, 0.3) + angleBump(phi, -Math.PI / 2 + 0.62, 0.3));
+    // The rear pole drawn out backwards and up; z falls with θ throughout, so the surface never folds.
+    const tail = Math.max(0, (t - 0.84) / 0.16) ** 2;
+    return [a * s * Math.cos(phi) * girth, b * s * Math.sin(phi) * girth + 3 * raised ** 2 + ears - legs + 7 * tail, c * Math.cos(theta) - 14 * tail];
   },
 };
 
-/** Ottoline the long-bodied cat (genus 0). Its spine is an edge line from nose to tail. Groups: head, back, belly. */
+/** Brisquette the long-bodied cat (genus 0). Its spine is an edge line from nose to tail. Groups: head, back, belly. */
 export function longCat(): TriangleMesh {
   const mesh = uvSphere(CAT.rings, CAT.segments, 1);
   const p = mesh.positions as Float64Array;

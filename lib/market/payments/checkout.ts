@@ -18,7 +18,14 @@ const appUrl = (path: string) => `${env().NEXTAUTH_URL.replace(/\/$/, '')}${path
 
 export type CheckoutStart = { url: string; sessionId: string; reused: boolean };
 
-export async function startCheckout(actor: Actor, listingId: string): Promise<CheckoutStart> {
+/**
+ * Opens (or reuses) the buyer's checkout of a listing. `waiveCancellation` is the buyer's agreement,
+ * given before paying, that where the law lets a right to cancel a digital purchase end once the
+ * download starts, it ends then; it is kept with the checkout (the latest answer wins when an open
+ * checkout is reused) and carried onto the purchase it becomes.
+ */
+export async function startCheckout(actor: Actor, listingId: string, options: { waiveCancellation?: boolean } = {}): Promise<CheckoutStart> {
+  const waivedAt = options.waiveCancellation ? new Date() : null;
   return db().transaction(async (trx) => {
     // One checkout decision at a time per buyer and listing (two quick clicks, two tabs).
     await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`checkout:${listingId}:${actor.userId}`]);
@@ -39,7 +46,10 @@ export async function startCheckout(actor: Actor, listingId: string): Promise<Ch
     if (open) {
       try {
         const session = await payments().checkout.sessions.retrieve(open.session_id);
-        if (session.status === 'open' && session.url) return { url: session.url, sessionId: session.id, reused: true };
+        if (session.status === 'open' && session.url) {
+          await trx('checkout_sessions').where({ session_id: open.session_id }).update({ cancellation_waived_at: waivedAt });
+          return { url: session.url, sessionId: session.id, reused: true };
+        }
         if (session.status === 'complete') {
           throw new HttpError(409, 'already-owned', 'You have just paid for this preset; it appears in your library in a moment.');
         }
@@ -83,6 +93,7 @@ export async function startCheckout(actor: Actor, listingId: string): Promise<Ch
       currency: listing.currency,
       url: session.url,
       expires_at: new Date(session.expires_at * 1000),
+      cancellation_waived_at: waivedAt,
     });
     return { url: session.url, sessionId: session.id, reused: false };
   });

@@ -70,6 +70,7 @@ export async function recordPaidSession(trx: Trx, session: Stripe.Checkout.Sessi
   const amount = session.amount_total ?? 0;
   const currency = (session.currency ?? '').toLowerCase();
   const fee = meta.data.platform_fee_cents !== undefined && meta.data.platform_fee_cents <= amount ? meta.data.platform_fee_cents : platformFeeCents(amount);
+  const opened = await trx('checkout_sessions').where({ session_id: session.id }).first('cancellation_waived_at');
   const row = {
     listing_id: listing.id,
     buyer_id: meta.data.buyer_id,
@@ -83,6 +84,7 @@ export async function recordPaidSession(trx: Trx, session: Stripe.Checkout.Sessi
     currency,
     platform_fee_cents: fee,
     created_at: new Date(session.created * 1000),
+    cancellation_waived_at: opened?.cancellation_waived_at ?? null,
   };
   // Any unique key may hold it back: the same session (already recorded) or the buyer's other paid purchase.
   const inserted = await trx('purchases').insert({ ...row, status: 'paid' }).onConflict().ignore().returning('id');
@@ -150,10 +152,12 @@ export async function recordRefundedCharge(trx: Trx, charge: Stripe.Charge, noti
 
 /**
  * A refunded buyer no longer owns the preset, so their review leaves the listing's rating (kept,
- * marked withdrawn; a later purchase and review brings it back).
+ * marked withdrawn; a later purchase and review brings it back). A purchase whose refund is under
+ * way is no longer owned either: the review leaves the rating when the refund is asked, not only
+ * when the provider confirms it (which may take days, or come through reconciliation).
  */
-async function withdrawReview(trx: Trx, listingId: string, buyerId: string) {
-  const stillOwns = await trx('purchases').where({ listing_id: listingId, buyer_id: buyerId, status: 'paid' }).first('id');
+export async function withdrawReview(trx: Trx, listingId: string, buyerId: string) {
+  const stillOwns = await trx('purchases').where({ listing_id: listingId, buyer_id: buyerId, status: 'paid' }).whereNull('refund_id').first('id');
   if (stillOwns) return;
   const withdrawn = await trx('reviews').where({ listing_id: listingId, buyer_id: buyerId }).whereNull('withdrawn_at').update({ withdrawn_at: trx.fn.now() });
   if (withdrawn > 0) await refreshRating(trx, listingId);

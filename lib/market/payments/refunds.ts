@@ -5,6 +5,7 @@ import { db } from '../../platform/db';
 import { payments } from '../../platform/payments';
 import { HttpError } from '../../http/errors';
 import { notFound, providerFailed } from '../errors';
+import { withdrawReview } from './purchases';
 import type { Actor } from '../../accounts/actor';
 import type { AdminPurchase } from '../types';
 
@@ -73,7 +74,7 @@ export async function listPurchasesForAdmin(filter: { listingId?: string; email?
 
 export async function refundPurchase(actor: Actor, purchaseId: string, reason?: string): Promise<AdminPurchase> {
   await db().transaction(async (trx) => {
-    const purchase = await trx('purchases').where({ id: purchaseId }).forUpdate().first('id', 'status', 'refund_id', 'payment_intent_id');
+    const purchase = await trx('purchases').where({ id: purchaseId }).forUpdate().first('id', 'status', 'refund_id', 'payment_intent_id', 'listing_id', 'buyer_id');
     if (!purchase) throw notFound('purchase');
     if (purchase.status === 'refunded') throw new HttpError(409, 'refunded', 'This purchase is already refunded.');
     if (purchase.refund_id) return; // asked before; the provider's webhook will complete it
@@ -95,6 +96,10 @@ export async function refundPurchase(actor: Actor, purchaseId: string, reason?: 
     await trx('purchases')
       .where({ id: purchase.id })
       .update({ refund_id: refundId, refund_reason: reason ?? null, refund_requested_at: trx.fn.now() });
+    // From now on the buyer does not own it: their review stops counting in the rating.
+    await withdrawReview(trx, purchase.listing_id, purchase.buyer_id);
+    // The buyer's request, if they asked (lib/market/payments/refund-requests.ts), is answered by this refund.
+    await trx('refund_requests').where({ purchase_id: purchase.id }).whereNull('closed_at').update({ outcome: 'refunded', closed_by: actor.userId, closed_at: trx.fn.now() });
   });
   return adminPurchase(purchaseId);
 }

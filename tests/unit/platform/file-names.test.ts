@@ -5,7 +5,7 @@ import { fileSlug } from '@/lib/platform/file-names';
 describe('fileSlug', () => {
   it('keeps letters and digits, drops accents, joins the rest with single dashes', () => {
     expect(fileSlug('Bramble — autumn coat', 80, 'groom')).toBe('bramble-autumn-coat');
-    expect(fileSlug('  Ottoline: short velvet (v2)!  ', 80, 'groom')).toBe('ottoline-short-velvet-v2');
+    expect(fileSlug('  Brisquette: short velvet (v2)!  ', 80, 'groom')).toBe('brisquette-short-velvet-v2');
     expect(fileSlug('Crème brûlée ruff', 80, 'groom')).toBe('creme-brulee-ruff');
   });
 

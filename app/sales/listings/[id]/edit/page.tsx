@@ -8,6 +8,7 @@ import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
 import { HttpError } from '@/lib/http/errors';
 import { listLicences } from '@/lib/market/licences';
+import { marketFeePercent } from '@/lib/market/fees';
 import { getListingDetail } from '@/lib/market/listings';
 
 export const metadata: Metadata = { title: 'Edit a listing' };
@@ -44,7 +45,7 @@ export default async function EditListingPage({ params }: { params: Promise<{ id
         </p>
       </div>
       {editable ? (
-        <ListingForm licences={licences} listing={listing} />
+        <ListingForm licences={licences} feePercent={marketFeePercent()} listing={listing} />
       ) : (
         <Notice tone="info">
           A listing that is waiting for review or on the market cannot be changed. To improve one on the market, publish a{' '}
