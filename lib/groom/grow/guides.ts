@@ -248,6 +248,10 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   const tuftTime = now() - tuftStart - (traceTime - traceBefore);
   const waverSettings = settings.waver && settings.waver.amplitude > 0 ? settings.waver : undefined;
   const knots = waverSettings ? new Float64Array(2 * (Math.ceil(waverSettings.waves) + 2)) : undefined;
+  // One shaping record of each kind, reused guide after guide (only the curve number changes).
+  const gatherTo = tufting ? { curves: tufting.curves, curve: -1, gather: tufting.gather } : undefined;
+  const waverParams = waverSettings && knots ? { amplitude: waverSettings.amplitude, waves: waverSettings.waves, knots } : undefined;
+  const gathered: Shaping = { gatherTo }, wandered: Shaping = { waver: waverParams }, both: Shaping = { gatherTo, waver: waverParams };
   const rootWidth = new Float64Array(count);
   const tipWidth = new Float64Array(count);
 
@@ -258,13 +262,11 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   for (const g of traceOrder) {
     const f0 = roots.face[g];
     const bary = roots.barycentric.subarray(3 * g, 3 * g + 3);
-    let shaping: Shaping | undefined;
-    if (tufting && tufting.curveOf[g] >= 0) shaping = { gatherTo: { curves: tufting.curves, curve: tufting.curveOf[g], gather: tufting.gather } };
-    if (waverSettings && knots) {
-      // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation.
-      for (let k = 0; k < knots.length; k++) knots[k] = 2 * guideRandom(settings.seed, g, WAVER_CHANNEL + k) - 1;
-      shaping = { ...shaping, waver: { amplitude: waverSettings.amplitude, waves: waverSettings.waves, knots } };
-    }
+    const drawnOnto = tufting ? tufting.curveOf[g] : -1;
+    if (gatherTo) gatherTo.curve = drawnOnto;
+    // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation.
+    if (knots) for (let k = 0; k < knots.length; k++) knots[k] = 2 * guideRandom(settings.seed, g, WAVER_CHANNEL + k) - 1;
+    const shaping = drawnOnto >= 0 ? (waverParams ? both : gathered) : waverParams ? wandered : undefined;
     growCurve(points, g, f0, roots.position.subarray(3 * g, 3 * g + 3), bary, settings.seed, g, shaping);
     stop[g] = tracer.end.reason;
     weights.set(bary);

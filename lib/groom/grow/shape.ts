@@ -146,6 +146,9 @@ function bend(out: Float64Array, o: number, n: number, step: number, skinNormal:
   for (let i = 2; i < n; i++) for (let k = 0; k < 3; k++) out[o + 3 * i + k] += offsets[3 * i + k];
 }
 
+/** Scratch for the wander's offsets: 3 per point of the longest guide the spec allows (64 points). */
+const waverOffsets = new Float64Array(3 * 64);
+
 /** The wander of one guide: its largest offset (surface units, at the tip), waves along it, and its own random values. */
 export interface WaverParameters {
   readonly amplitude: number;
@@ -166,7 +169,7 @@ export function waver(out: Float64Array, at: number, n: number, rootNormal: Arra
   const { amplitude, waves, knots } = params;
   if (!(amplitude > 0) || n < 3) return;
   const o = 3 * at;
-  const offsets = new Float64Array(3 * n);
+  const offsets = waverOffsets;
   for (let i = 2; i < n; i++) {
     const q = o + 3 * i;
     let tx = out[q] - out[q - 3], ty = out[q + 1] - out[q - 2], tz = out[q + 2] - out[q - 1];
