@@ -7,7 +7,7 @@ import { writeExport, type GroomMade } from '@/lib/groom/export/write';
 import { NO_TUFT } from '@/lib/groom/export/gltf';
 import { OBJ_SHAPE_RECORD } from '@/lib/groom/export/obj';
 import { icosphere } from '@/tests/fixtures/shapes';
-import { groomOn } from './support';
+import { groomOn, readGlb } from './support';
 
 let made: GroomMade & { guides: NonNullable<GroomMade['guides']> };
 
@@ -61,17 +61,7 @@ describe('the shaping data in every guide export', () => {
       const report = await validateBytes(bytes, { format, maxIssues: 0 });
       expect(report.issues.messages.filter((m) => m.severity <= 1)).toEqual([]);
     }
-    const bytes = writeExport('glb', made) as Uint8Array;
-    const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-    const jsonLength = view.getUint32(12, true);
-    const json = JSON.parse(new TextDecoder().decode(bytes.subarray(20, 20 + jsonLength)));
-    const bin = bytes.subarray(28 + jsonLength);
-    const values = (index: number): number[] => {
-      const accessor = json.accessors[index];
-      const bufferView = json.bufferViews[accessor.bufferView];
-      const data = new DataView(bin.buffer, bin.byteOffset + bufferView.byteOffset, bufferView.byteLength);
-      return Array.from({ length: accessor.count }, (_x, i) => (accessor.componentType === 5126 ? data.getFloat32(4 * i, true) : data.getUint32(4 * i, true)));
-    };
+    const { json, values } = readGlb(writeExport('glb', made) as Uint8Array);
     const binding = json.meshes[0].extras.whorlwind.binding;
     const g = made.guides;
     expect(values(binding.tuft)).toEqual(Array.from(g.tuft, (t) => (t < 0 ? NO_TUFT : t)));
