@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { icosphere } from '@/tests/fixtures/shapes';
 import { parseGroomSpec, SPEC_VERSION, specToJson, parseGroomSpecJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
+import { growGuides } from '@/lib/groom/grow/guides';
 import { groomOn } from './support';
 
 const sphereSpec = {
@@ -59,6 +60,16 @@ describe('tufts', () => {
     const n = plain.guides.pointsPerGuide;
     for (let g = 0; g < full.guides.count; g++) for (let k = 0; k < 3; k++) expect(full.guides.points[3 * g * n + k]).toBe(plain.guides.points[3 * g * n + k]);
     expect(hashOf(full.guides.points)).not.toBe(hashOf(plain.guides.points));
+  });
+
+  it('never change the field: the same directions and measured indices as the spec without tufts and waver, before and after growing', () => {
+    const shaped = groomOn(mesh, withGuides({ tufts: { density: 2, inner: { density: 6 }, loners: 0.1 }, waver: { amplitude: 0.05 } }));
+    expect(hashOf(shaped.solved.field.faceDirection)).toBe(hashOf(plain.solved.field.faceDirection));
+    expect(Array.from(shaped.solved.measuredIndex)).toEqual(Array.from(plain.solved.measuredIndex));
+    // Growing again on the same solved field leaves it as it was.
+    const before = hashOf(shaped.solved.field.faceDirection);
+    growGuides(shaped.surface, shaped.solved, shaped.spec);
+    expect(hashOf(shaped.solved.field.faceDirection)).toBe(before);
   });
 
   it('put every tip on its tuft centre curve with a full gather at the tip (one level and two)', () => {
