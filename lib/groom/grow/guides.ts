@@ -59,7 +59,7 @@ export interface GrowResult {
   readonly guides: Guides;
   /** Area the guides grow on (the chosen regions, weighted by density pins), in cm². */
   readonly areaSquareCm: number;
-  /** Points moved out from under the skin by the collision check. */
+  /** Points moved out from under the skin by the collision check (of the guides and of the tufts' centre curves). */
   readonly pushedOut: number;
   /**
    * With tufts: the centre curves guides were drawn onto (the inner level's when there is one; a
