@@ -50,7 +50,8 @@ export interface TuftContext {
 
 /**
  * Samples the tuft centres of both levels and grows their centre curves: each level's centres by
- * the root sampler at the level's density over the growth area (at most one per guide), each
+ * the root sampler at the level's density over the growth area (at most one per two guides, so
+ * the centre curves of both levels together never hold more points than the guides), each
  * centre curve grown as a guide would be from that root (its variation keyed by the level's seed
  * and the centre's number), each inner centre curve drawn onto its tuft's centre curve by the
  * tufts' gather; then assigns every guide to the nearest centre (`nearestCentres`: in a straight
@@ -65,7 +66,7 @@ export function planTufts(surface: GroomSurface, tufts: NonNullable<GuideSetting
   const faceNormal = surface.field.frames.normal;
   const count = roots.count;
   const level = (density: number, seed: number, onto?: { curves: Float64Array; centres: Roots; gather: Gather }) => {
-    const wanted = Math.min(count, Math.max(1, Math.round(density * context.areaSquareCm)));
+    const wanted = Math.min(Math.ceil(count / 2), Math.max(1, Math.round(density * context.areaSquareCm)));
     const centres = sampleRoots({ positions: mesh.positions, triangles: mesh.triangles, faceArea: surface.faceArea, count: wanted, allowedFace: context.mask, vertexDensity: context.density, seed });
     const normals = normalsAt(faceNormal, centres.face);
     const curves = new Float64Array(3 * n * centres.count);
