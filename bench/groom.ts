@@ -1,9 +1,11 @@
 /**
  * Benchmark of lib/groom on a 100,000-face growth surface (a torus, 400 × 125 quads split in two):
- * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, each export (the
+ * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, 50,000 with two
+ * levels of tufts, loners and waver (spec version 3), each export (the
  * guide formats also with the surface beside them), and a 1024² thumbnail (render, then encoding).
  *
  *   npx tsx bench/groom.ts            prints a Markdown table
+ *   npx tsx bench/groom.ts --grow     only the growing rows (plain, and with tufts and waver)
  *
  * Each measurement is the best of three runs after one warm-up, so that the table reflects the
  * code rather than the JIT or a neighbour's burst of work on a shared machine; the step rows of a
@@ -45,8 +47,9 @@ const row = (what: string, ms: number) => rows.push([what, ms < 10 ? ms.toFixed(
 
 const mesh = torus(30, 12, 400, 125);
 const faces = mesh.triangles.length / 3;
-const specFor = (count: number): GroomSpecInput => ({
-  specVersion: 2,
+const growOnly = process.argv.includes('--grow');
+const specFor = (count: number, shaping: Record<string, unknown> = {}): GroomSpecInput => ({
+  specVersion: 3,
   units: 'cm',
   upAxis: 'z',
   field: {
@@ -55,8 +58,13 @@ const specFor = (count: number): GroomSpecInput => ({
       { point: [0, -18, 0], index: -1 },
     ],
   },
-  guides: { count, length: 3, lift: 20, droop: 0.4, curl: { amplitude: 0.1, wavelength: 1 }, jitter: 0.3, pointsPerGuide: 16 },
+  guides: { count, length: 3, lift: 20, droop: 0.4, curl: { amplitude: 0.1, wavelength: 1 }, jitter: 0.3, pointsPerGuide: 16, ...shaping },
 });
+/**
+ * The torus is about 14,200 cm²: 50,000 guides are 3.5 per cm², so 0.2 tufts per cm² gather some 18
+ * guides each, and 0.8 inner tufts per cm² split each into about four.
+ */
+const SHAPED = { tufts: { density: 0.2, gather: { root: 0, tip: 0.9, rise: 1.5 }, inner: { density: 0.8, gather: { root: 0, tip: 0.7 } }, loners: 0.05 }, waver: { amplitude: 0.15, waves: 3 } };
 
 const t0 = performance.now();
 const surface = prepareGroomSurface(mesh);
@@ -75,6 +83,25 @@ for (const count of [5_000, 50_000]) {
   row(`${count} guides × 16: total`, grown.ms);
   large = grown.result;
 }
+{
+  const spec = parseGroomSpec(specFor(50_000, SHAPED));
+  const grown = best(() => growGuides(surface, solved.result, spec));
+  const t = grown.result.timings;
+  const what = `50000 guides × 16 with ${grown.result.tufts!.centres} tufts, ${grown.result.tufts!.innerCentres} inner tufts, loners and waver`;
+  row(`${what}: roots`, t.rootsMilliseconds);
+  row(`${what}: tracing (guides and centre curves)`, t.traceMilliseconds);
+  row(`${what}: tuft centres (sampling, shaping their curves, assigning guides)`, t.tuftsMilliseconds);
+  row(`${what}: shaping, gathering, waver and skin check`, t.shapeMilliseconds);
+  row(`${what}: total`, grown.ms);
+}
+const finish = () => {
+  process.stdout.write(`${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (1 / 5 / 15 min) at the end, Node ${process.version}\n\n`);
+  process.stdout.write(`| step | ms |\n| --- | ---: |\n${rows.map(([a, b]) => `| ${a} | ${b} |`).join('\n')}\n`);
+};
+if (growOnly) {
+  finish();
+  process.exit(0);
+}
 const made = { spec: parseGroomSpec(specFor(50_000)), surface, solved: solved.result, guides: large!.guides };
 const SCALE: Record<ExportSource, string> = { guides: ' (50,000 guides)', field: ` (${faces} faces)`, spec: '' };
 for (const format of EXPORT_FORMATS) {
@@ -89,5 +116,4 @@ row('thumbnail 1024² render (5,000 guides)', image.ms);
 row('thumbnail 1024² encode .png', await bestAsync(() => encodeImage(image.result, 'png')));
 row('thumbnail 1024² encode .webp', await bestAsync(() => encodeImage(image.result, 'webp')));
 
-process.stdout.write(`${cpus().length} cores, load average ${loadavg().map((x) => x.toFixed(1)).join(' / ')} (1 / 5 / 15 min) at the end, Node ${process.version}\n\n`);
-process.stdout.write(`| step | ms |\n| --- | ---: |\n${rows.map(([a, b]) => `| ${a} | ${b} |`).join('\n')}\n`);
+finish();

@@ -17,6 +17,7 @@ export {
   specToJson,
   MAX_GUIDE_POINTS,
   MAX_GUIDES,
+  TIP_TAPER,
   guidePointsProblem,
   type GroomSpec,
   type GroomSpecInput,
@@ -37,20 +38,23 @@ export { buildSkin, SKIN_QUERY_SIZE, type Skin } from './place/skin';
 export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
 export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
 export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './place/suggest';
-export { blendPins, type PinnedFactors } from './place/pins';
+export { blendPins, blendValues, type PinnedFactors } from './place/pins';
+export { geodesicDistances, vertexFaces, type VertexFaces } from './place/geodesic';
 export { growthMask } from './place/regions';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
 export { coatFacts, type CoatFacts } from './grow/coat-facts';
 export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';
 export { bindRoots, rootsOnSculpt, type RootBinding } from './grow/binding';
 export { createTracer, STOP, type StopReason, type Tracer } from './grow/trace';
-export { shapeGuide, type ShapeParameters } from './grow/shape';
+export { shapeGuide, waver, type ShapeParameters, type WaverParameters } from './grow/shape';
+export { gatherOnto, nearestCentres, type Gather } from './grow/tufts';
+export { planTufts, type TuftPlan } from './grow/tuft-plan';
 export { EXPORT_FORMATS, EXPORT_FORMAT_FACTS, EXPORT_EXTENSIONS, formatOfExtension, type ExportFormat, type ExportFormatFacts, type ExportSource } from './export/formats';
 export { writeExport, type GroomMade, type ExportOptions } from './export/write';
 export { guidesToUsda, type UsdCurveBasis } from './export/usda';
-export { guidesToGltf } from './export/gltf';
+export { guidesToGltf, NO_TUFT } from './export/gltf';
 export { previewGuides, previewToGlb, PUBLIC_PREVIEW, type PreviewGuides, type PreviewLimits } from './export/preview';
-export { guidesToObj, OBJ_ROOT_RECORD } from './export/obj';
+export { guidesToObj, OBJ_ROOT_RECORD, OBJ_SHAPE_RECORD } from './export/obj';
 export { writtenSurface, type Provenance, type BindingExportOptions, type WrittenSurface } from './export/binding-data';
 export { fieldToPly } from './export/field-ply';
 export { renderThumbnail, THUMBNAIL_VIEWS, type ThumbnailView, type GuideColouring, type RgbaImage, type RenderOptions } from './render/render';

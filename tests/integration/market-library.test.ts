@@ -150,7 +150,7 @@ describe('library and downloads', () => {
     expect(strFromU8(files['loop-plush-nap/LICENCE.txt'])).toMatch(new RegExp(`^${LICENCE_TEXTS[1].title}`));
     expect(strFromU8(files['loop-plush-nap/README.txt'])).toMatch(/20\.00 EUR/);
     expect(strFromU8(files['loop-plush-nap/guides.usda'])).toMatch(/BasisCurves/);
-    expect(JSON.parse(strFromU8(files['loop-plush-nap/groom-spec.json'])).specVersion).toBe(2);
+    expect(JSON.parse(strFromU8(files['loop-plush-nap/groom-spec.json'])).specVersion).toBe(3);
     await requestDownload(buyer, purchaseId);
     expect((await listLibrary(buyer))[0].downloads).toBe(2);
     expect(await db()('downloads').where({ purchase_id: purchaseId })).toHaveLength(2);

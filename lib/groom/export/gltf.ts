@@ -2,6 +2,9 @@ import type { Guides } from '../grow/guides';
 import { CENTIMETRES_PER_UNIT } from '../spec/spec';
 import { firstCornerByPolygonOrder, type BindingExportOptions } from './binding-data';
 
+/** The tuft number of a guide in no tuft (glTF accessors have no signed 32-bit type). */
+export const NO_TUFT = 0xffffffff;
+
 /**
  * The guides as glTF 2.0: one mesh with one `LINES` primitive (mode 1) whose index pairs join
  * consecutive points of each guide, a `POSITION` attribute and a `_WIDTH` attribute (per point,
@@ -10,7 +13,8 @@ import { firstCornerByPolygonOrder, type BindingExportOptions } from './binding-
  *
  * The binding travels as accessors of one value per guide, named in the mesh's
  * `extras.whorlwind.binding` (guideId, rootFace, rootTriangle, rootCorners, rootBarycentric,
- * rootUv when the surface has UVs, length; with the surface also surfaceTriangle); with
+ * rootUv when the surface has UVs, length, then the shaping data tuft and innerTuft (`NO_TUFT`
+ * for none), rootWidth and tipWidth in metres; with the surface also surfaceTriangle); with
  * `surface`, a second node "Surface" draws the growth surface as triangles, three vertices each
  * (with TEXCOORD_0 when it has UVs, v turned back to glTF's top-left origin), each triangle's
  * corners in rising polygon-corner order, so a root's weights apply to its surfaceTriangle's
@@ -41,7 +45,8 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
   const widths = new Float32Array(total);
   for (let i = 0; i < total; i++) {
     const t = n > 1 ? (i % n) / (n - 1) : 0;
-    widths[i] = (guides.rootWidth + (guides.tipWidth - guides.rootWidth) * t) * metres;
+    const g = Math.floor(i / n), root = guides.guideRootWidth[g];
+    widths[i] = (root + (guides.guideTipWidth[g] - root) * t) * metres;
   }
   const indices = guideLineIndices(guides.count, n);
   const toGltf = (x: number, y: number, z: number, out: Float32Array, at: number) => {
@@ -59,6 +64,11 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
     ['rootBarycentric', 'VEC3', 5126, Float32Array.from(b.weights)],
     ...(b.uv ? [['rootUv', 'VEC2', 5126, Float32Array.from(b.uv, (x, i) => (i % 2 === 1 ? 1 - x : x))] as [string, string, number, Float32Array]] : []),
     ['length', 'SCALAR', 5126, Float32Array.from(guides.length, (x) => x * metres)],
+    // glTF has no signed 32-bit accessors: a guide in no tuft is 2³² − 1 there.
+    ['tuft', 'SCALAR', 5125, Uint32Array.from(guides.tuft, (x) => (x < 0 ? NO_TUFT : x))],
+    ['innerTuft', 'SCALAR', 5125, Uint32Array.from(guides.innerTuft, (x) => (x < 0 ? NO_TUFT : x))],
+    ['rootWidth', 'SCALAR', 5126, Float32Array.from(guides.guideRootWidth, (x) => x * metres)],
+    ['tipWidth', 'SCALAR', 5126, Float32Array.from(guides.guideTipWidth, (x) => x * metres)],
     ...(options.surface ? [['surfaceTriangle', 'SCALAR', 5125, guides.rootFace] as [string, string, number, Uint32Array]] : []),
   ];
   const surfaceParts: Float32Array[] = [];

@@ -4,6 +4,8 @@ import { writtenSurface, type BindingExportOptions } from './binding-data';
 
 /** The comment every binding record starts with; OBJ readers skip it, a pipeline greps it. */
 export const OBJ_ROOT_RECORD = '#whorlwind-root';
+/** The comment each guide's shaping record starts with. */
+export const OBJ_SHAPE_RECORD = '#whorlwind-shape';
 
 /**
  * The guides as Wavefront OBJ text: every point a `v` line, every guide one `l` polyline through
@@ -11,7 +13,9 @@ export const OBJ_ROOT_RECORD = '#whorlwind-root';
  * follows as one comment record per guide, in id order:
  * `#whorlwind-root guideId rootFace rootTriangle c0 c1 c2 w0 w1 w2 length [u v]` (the file polygon,
  * which of its triangles, that triangle's polygon corners rising, the root's weights on them, the
- * curve's length, and the root's UV when the surface has UVs). With `options.surface`, the growth
+ * curve's length, and the root's UV when the surface has UVs); then one shaping record per guide,
+ * `#whorlwind-shape guideId tuft innerTuft rootWidth tipWidth` (tufts −1 for none, widths in the
+ * surface's units). With `options.surface`, the growth
  * surface comes first as object `surface`, its `v` lines the file's vertices in the file's order
  * and its `f` lines the file's polygons (with `vt` per corner when it has UVs), so vertex and face
  * numbers are the artist's; the guides' vertices follow.
@@ -68,6 +72,14 @@ export function guidesToObj(guides: Guides, options: BindingExportOptions = {}):
     out.precision(lengthDecimals).text(' ').number(guides.length[g]);
     if (b.uv) out.precision(9).text(' ').number(b.uv[2 * g]).text(' ').number(b.uv[2 * g + 1]);
     out.text('\n');
+  }
+  out.text(`# ${OBJ_SHAPE_RECORD.slice(1)} records: guideId tuft innerTuft rootWidth tipWidth\n`);
+  out.precision(Math.max(AsciiWriter.decimalsFor(guides.guideRootWidth), AsciiWriter.decimalsFor(guides.guideTipWidth)));
+  const signed = (x: number) => (x < 0 ? out.text('-').whole(-x) : out.whole(x));
+  for (let g = 0; g < guides.count; g++) {
+    out.text(OBJ_SHAPE_RECORD).text(' ').whole(guides.guideId[g]).text(' ');
+    signed(guides.tuft[g]).text(' ');
+    signed(guides.innerTuft[g]).text(' ').number(guides.guideRootWidth[g]).text(' ').number(guides.guideTipWidth[g]).text('\n');
   }
   return out.toString();
 }

@@ -23,11 +23,12 @@ function list(out: AsciiWriter, count: number, item: (i: number) => void): void 
 
 /**
  * The guides as OpenUSD text (`.usda`): one `BasisCurves` prim `/Groom/Guides` holding every
- * guide, with `curveVertexCounts`, `points`, per-vertex `widths` (root width tapering to the tip)
+ * guide, with `curveVertexCounts`, `points`, per-vertex `widths` (each guide's root width tapering to its tip width)
  * and `extent`, in the surface's units (`metersPerUnit`) and up axis; per curve ("uniform")
  * the binding primvars `whorlwind:guideId`, `rootFace` (file polygon), `rootTriangle`,
  * `rootCorners` (int3, the polygon corners of that triangle, ascending), `rootBarycentric`
- * (float3 on those corners), `rootUv` (texCoord2f, when the surface has UVs) and `length`;
+ * (float3 on those corners), `rootUv` (texCoord2f, when the surface has UVs) and `length`,
+ * and the shaping data `tuft`, `innerTuft` (int, −1 for none), `rootWidth`, `tipWidth` (float);
  * with `options.surface`, the growth surface as a `Mesh` prim `/Groom/Surface` in the file's
  * numbering (UVs as faceVarying `primvars:st`); with `options.provenance`, `customLayerData`.
  *
@@ -42,7 +43,7 @@ export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear', op
   const total = guides.count * n;
   const p = guides.points;
   const positions = AsciiWriter.decimalsFor(p);
-  const widthDecimals = AsciiWriter.decimalsFor([guides.rootWidth, guides.tipWidth]);
+  const widthDecimals = Math.max(AsciiWriter.decimalsFor(guides.guideRootWidth), AsciiWriter.decimalsFor(guides.guideTipWidth));
   const extent = curveExtent(guides, basis);
   const out = new AsciiWriter();
   out.text(`#usda 1.0
@@ -68,7 +69,10 @@ def Xform "Groom"
   out.text('\n        point3f[] points = ').precision(positions);
   list(out, total, (i) => out.text('(').number(p[3 * i]).text(', ').number(p[3 * i + 1]).text(', ').number(p[3 * i + 2]).text(')'));
   out.text('\n        float[] widths = ').precision(widthDecimals);
-  list(out, total, (i) => out.number(guides.rootWidth + ((guides.tipWidth - guides.rootWidth) * (i % n)) / Math.max(1, n - 1)));
+  list(out, total, (i) => {
+    const g = Math.floor(i / n), root = guides.guideRootWidth[g];
+    out.number(root + ((guides.guideTipWidth[g] - root) * (i % n)) / Math.max(1, n - 1));
+  });
   out.text(' (\n            interpolation = "vertex"\n        )\n').precision(positions);
   out.text('        float3[] extent = [(').number(extent.min[0]).text(', ').number(extent.min[1]).text(', ').number(extent.min[2]);
   out.text('), (').number(extent.max[0]).text(', ').number(extent.max[1]).text(', ').number(extent.max[2]).text(')]\n');
@@ -107,6 +111,18 @@ function writeBinding(out: AsciiWriter, guides: Guides): void {
   }
   out.precisionFor(guides.length);
   uniform(out, 'float[] primvars:whorlwind:length', count, (g) => out.number(guides.length[g]));
+  writeShapeData(out, guides);
+}
+
+/** The per-guide shaping data (spec version 3): tuft and inner tuft (−1 for none), width at the root and at the tip. */
+function writeShapeData(out: AsciiWriter, guides: Guides): void {
+  const count = guides.count;
+  const signed = (x: number) => (x < 0 ? out.text('-').whole(-x) : out.whole(x));
+  uniform(out, 'int[] primvars:whorlwind:tuft', count, (g) => signed(guides.tuft[g]));
+  uniform(out, 'int[] primvars:whorlwind:innerTuft', count, (g) => signed(guides.innerTuft[g]));
+  out.precision(Math.max(AsciiWriter.decimalsFor(guides.guideRootWidth), AsciiWriter.decimalsFor(guides.guideTipWidth)));
+  uniform(out, 'float[] primvars:whorlwind:rootWidth', count, (g) => out.number(guides.guideRootWidth[g]));
+  uniform(out, 'float[] primvars:whorlwind:tipWidth', count, (g) => out.number(guides.guideTipWidth[g]));
 }
 
 /** The growth surface as a `Mesh` prim: file vertices, file polygons, UVs per corner. */
@@ -175,7 +191,9 @@ function curveExtent(guides: Guides, basis: UsdCurveBasis): { min: number[]; max
     }
   }
   // A B-spline lies in the hull of its control points, and the pinned ends only repeat points.
-  const pad = Math.max(guides.rootWidth, guides.tipWidth) / 2;
+  let widest = 0;
+  for (let g = 0; g < guides.count; g++) widest = Math.max(widest, guides.guideRootWidth[g], guides.guideTipWidth[g]);
+  const pad = widest / 2;
   if (guides.count === 0) return { min: [0, 0, 0], max: [0, 0, 0] };
   return { min: min.map((x) => x - pad), max: max.map((x) => x + pad) };
 }

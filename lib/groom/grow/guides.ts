@@ -6,7 +6,9 @@ import { growthMask } from '../place/regions';
 import { downOf } from '../place/request';
 import { cellOrder, sampleRoots } from './roots';
 import { bindRoots, rootsOnSculpt, type RootBinding } from './binding';
-import { shapeGuide } from './shape';
+import { shapeGuide, waver, type WaverParameters } from './shape';
+import { gatherOnto, type Gather } from './tufts';
+import { planTufts } from './tuft-plan';
 import { SKIN_QUERY_SIZE } from '../place/skin';
 import { CENTIMETRES_PER_UNIT, guidePointsProblem, type GroomSpec, type Unit } from '../spec/spec';
 import type { GroomSurface } from '../place/surface';
@@ -37,9 +39,16 @@ export interface Guides {
   readonly length: Float64Array;
   /** Why each guide's skin path ended (see `STOP` in trace.ts): it reached its length, or a boundary, singularity, curve or convergence. */
   readonly stop: Uint8Array;
-  /** Width at the root and at the tip, in surface units (widths taper linearly along each guide). */
+  /** The spec's width at the root and at the tip, in surface units (widths taper linearly along each guide). */
   readonly rootWidth: number;
   readonly tipWidth: number;
+  /** Each guide's own width at the root and at the tip (the spec's, times the width pins' factor at its root), surface units. */
+  readonly guideRootWidth: Float64Array;
+  readonly guideTipWidth: Float64Array;
+  /** The tuft each guide is drawn into (its number among the tuft centres), −1 for none (no tufts, or a loner). */
+  readonly tuft: Int32Array;
+  /** The inner tuft (of the finer level) each guide is drawn into, −1 for none. */
+  readonly innerTuft: Int32Array;
   readonly units: Unit;
   readonly upAxis: 'y' | 'z';
   /** How many rendered hairs each guide stands for. */
@@ -50,9 +59,15 @@ export interface GrowResult {
   readonly guides: Guides;
   /** Area the guides grow on (the chosen regions, weighted by density pins), in cm². */
   readonly areaSquareCm: number;
-  /** Points moved out from under the skin by the collision check. */
+  /** Points moved out from under the skin by the collision check (of the guides and of the tufts' centre curves). */
   readonly pushedOut: number;
-  readonly timings: { readonly rootsMilliseconds: number; readonly traceMilliseconds: number; readonly shapeMilliseconds: number };
+  /**
+   * With tufts: the centre curves guides were drawn onto (the inner level's when there is one; a
+   * guide's curve is its `innerTuft`, else its `tuft`), n points each, and how many centres each level has.
+   */
+  readonly tufts?: { readonly curves: Float64Array; readonly centres: number; readonly innerCentres: number };
+  /** Milliseconds by step; `tuftsMilliseconds` is the tufts' planning (sampling their centres, shaping their curves, assigning guides; their tracing is in `traceMilliseconds`). */
+  readonly timings: { readonly rootsMilliseconds: number; readonly traceMilliseconds: number; readonly shapeMilliseconds: number; readonly tuftsMilliseconds: number };
 }
 
 export type GrowOptions = {
@@ -69,8 +84,11 @@ export type GrowOptions = {
   readonly rootsFrom?: TriangleMesh;
 };
 
-/** Tip width as a fraction of the root width. */
-const TIP_TAPER = 0.2;
+/** What is done to a curve after its shape: drawn onto a tuft's centre curve, wandered. */
+type Shaping = { gatherTo?: { curves: Float64Array; curve: number; gather: Gather }; waver?: WaverParameters };
+
+/** First random channel of the wander's knots (channels 0–2 are the length, curl phase and lean). */
+const WAVER_CHANNEL = 16;
 /** At jitter 1, a guide's length varies by up to ±25 % and its tip leans sideways by up to 15 % of its length. */
 const JITTER_LENGTH = 0.5;
 const JITTER_LEAN = 0.15;
@@ -100,6 +118,12 @@ function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y:
  * weighted by density pins) rounded; every point is finite and no point but the root is under
  * the skin or nearer to it than the clearance (1e-4 of the bounding box diagonal), as the skin's
  * spatial index finds; each guide's first segment leaves the root along the field (see shapeGuide).
+ * Tufts and waver (spec version 3) reshape guides after their combed shape and before the
+ * collision check: they never move a root, never change the field, the roots or the ids (the same
+ * spec with and without them has the same `guideId`, `rootFace` and `rootBarycentric`); a gather
+ * or waver of 0 leaves the points bit for bit as without them; a point drawn with a share of 1
+ * lies exactly on its tuft's centre curve (re-set there after the collision check, the curve
+ * keeping its own clearance). Without them the guides are those of version 2, bit for bit.
  */
 export function growGuides(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, options: GrowOptions = {}): GrowResult {
   const settings = spec.guides;
@@ -157,16 +181,16 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   let traceTime = 0;
   let pushedOut = 0;
 
-  // Guides are stored in id order but grown in space order, so that the tracing of one guide
-  // finds the faces the one before it touched still in the cache.
-  const rootCell = Math.sqrt(area / Math.max(1, count)) * 4 || 1;
-  const traceOrder = cellOrder(roots.position.filter((_x, i) => i % 3 === 0), roots.position.filter((_x, i) => i % 3 === 1), roots.position.filter((_x, i) => i % 3 === 2), rootCell);
-  for (const g of traceOrder) {
-    const f0 = roots.face[g];
-    const rx = roots.position[3 * g], ry = roots.position[3 * g + 1], rz = roots.position[3 * g + 2];
-    weights.set(roots.barycentric.subarray(3 * g, 3 * g + 3));
+  /**
+   * Grows one curve from a root into `out` (as curve `slot`): traced, shaped, drawn onto `gatherTo`
+   * (a tuft's centre curve) and wandered when asked, then kept above the skin. `seed` and `id` key
+   * its own variation.
+   */
+  const growCurve = (out: Float64Array, slot: number, f0: number, root: Float64Array, bary: Float64Array, seed: number, id: number, shaping?: Shaping): void => {
+    const rx = root[0], ry = root[1], rz = root[2];
+    weights.set(bary);
     const jitter = settings.jitter * factor(pins.jitter, f0);
-    const guideLength = settings.length * factor(pins.length, f0) * (1 + JITTER_LENGTH * jitter * (guideRandom(settings.seed, g, 0) - 0.5));
+    const guideLength = settings.length * factor(pins.length, f0) * (1 + JITTER_LENGTH * jitter * (guideRandom(seed, id, 0) - 0.5));
     const lift = Math.min(90, settings.lift * factor(pins.lift, f0)) * (Math.PI / 180);
     const params = {
       length: guideLength,
@@ -175,9 +199,9 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
       gravity,
       curlAmplitude: settings.curl.amplitude * factor(pins.curl, f0),
       curlWavelength: settings.curl.wavelength,
-      curlPhase: 2 * Math.PI * guideRandom(settings.seed, g, 1),
+      curlPhase: 2 * Math.PI * guideRandom(seed, id, 1),
       jitterOffset: JITTER_LEAN * jitter * guideLength,
-      jitterAngle: 2 * Math.PI * guideRandom(settings.seed, g, 2),
+      jitterAngle: 2 * Math.PI * guideRandom(seed, id, 2),
       clearance,
     };
 
@@ -187,7 +211,6 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
     for (let i = 1; i < n; i++) targets[i - 1] = i * step * Math.cos(lift);
     const reached = tracer.trace(f0, rx, ry, rz, targets, n - 1, skin, skinFace, 1);
     traceTime += now() - tt;
-    stop[g] = tracer.end.reason;
     const e = tracer.end;
     for (let i = 1; i < n; i++) {
       if (i <= reached) {
@@ -209,8 +232,47 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
       }
     }
     const rootNormal = faceNormal.subarray(3 * f0, 3 * f0 + 3);
-    shapeGuide(points, g * n, n, roots.position.subarray(3 * g, 3 * g + 3), faceDirection.subarray(3 * f0, 3 * f0 + 3), rootNormal, skin, skinNormal, params);
-    pushedOut += keepAboveSkin(surface, points, g * n, n, skin, skinFace, reached, e, clearance, query);
+    shapeGuide(out, slot * n, n, root, faceDirection.subarray(3 * f0, 3 * f0 + 3), rootNormal, skin, skinNormal, params);
+    if (shaping?.gatherTo) gatherOnto(out, slot, shaping.gatherTo.curves, shaping.gatherTo.curve, n, shaping.gatherTo.gather);
+    if (shaping?.waver) waver(out, slot * n, n, rootNormal, shaping.waver);
+    const moved = keepAboveSkin(surface, out, slot * n, n, skin, skinFace, reached, e, clearance, query);
+    pushedOut += moved;
+    // A point drawn the whole way onto the centre curve stays on it: the curve keeps its own clearance.
+    if (moved > 0 && shaping?.gatherTo) gatherOnto(out, slot, shaping.gatherTo.curves, shaping.gatherTo.curve, n, shaping.gatherTo.gather, true);
+  };
+
+  const tuftStart = now();
+  const traceBefore = traceTime;
+  const tufting = settings.tufts ? planTufts(surface, settings.tufts, { mask, density: pins.density, areaSquareCm, area, seed: settings.seed, roots, growCurve, n }) : undefined;
+  // The tufts' own tracing counts as tracing; the rest of their planning is reported apart.
+  const tuftTime = now() - tuftStart - (traceTime - traceBefore);
+  const waverSettings = settings.waver && settings.waver.amplitude > 0 ? settings.waver : undefined;
+  const knots = waverSettings ? new Float64Array(2 * (Math.ceil(waverSettings.waves) + 2)) : undefined;
+  // One shaping record of each kind, reused guide after guide (only the curve number changes).
+  const gatherTo = tufting ? { curves: tufting.curves, curve: -1, gather: tufting.gather } : undefined;
+  const waverParams = waverSettings && knots ? { amplitude: waverSettings.amplitude, waves: waverSettings.waves, knots } : undefined;
+  const gathered: Shaping = { gatherTo }, wandered: Shaping = { waver: waverParams }, both: Shaping = { gatherTo, waver: waverParams };
+  const rootWidth = new Float64Array(count);
+  const tipWidth = new Float64Array(count);
+
+  // Guides are stored in id order but grown in space order, so that the tracing of one guide
+  // finds the faces the one before it touched still in the cache.
+  const rootCell = Math.sqrt(area / Math.max(1, count)) * 4 || 1;
+  const traceOrder = cellOrder(roots.position.filter((_x, i) => i % 3 === 0), roots.position.filter((_x, i) => i % 3 === 1), roots.position.filter((_x, i) => i % 3 === 2), rootCell);
+  for (const g of traceOrder) {
+    const f0 = roots.face[g];
+    const bary = roots.barycentric.subarray(3 * g, 3 * g + 3);
+    const drawnOnto = tufting ? tufting.curveOf[g] : -1;
+    if (gatherTo) gatherTo.curve = drawnOnto;
+    // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation.
+    if (knots) for (let k = 0; k < knots.length; k++) knots[k] = 2 * guideRandom(settings.seed, g, WAVER_CHANNEL + k) - 1;
+    const shaping = drawnOnto >= 0 ? (waverParams ? both : gathered) : waverParams ? wandered : undefined;
+    growCurve(points, g, f0, roots.position.subarray(3 * g, 3 * g + 3), bary, settings.seed, g, shaping);
+    stop[g] = tracer.end.reason;
+    weights.set(bary);
+    const widthFactor = factor(pins.width, f0);
+    rootWidth[g] = settings.width * widthFactor;
+    tipWidth[g] = settings.tipWidth * widthFactor;
 
     let arc = 0;
     for (let i = 1; i < n; i++) {
@@ -235,14 +297,19 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
       length,
       stop,
       rootWidth: settings.width,
-      tipWidth: settings.width * TIP_TAPER,
+      tipWidth: settings.tipWidth,
+      guideRootWidth: rootWidth,
+      guideTipWidth: tipWidth,
+      tuft: tufting?.tuft ?? new Int32Array(count).fill(-1),
+      innerTuft: tufting?.innerTuft ?? new Int32Array(count).fill(-1),
       units: spec.units,
       upAxis: spec.upAxis,
       hairsPerGuide: settings.hairsPerGuide,
     },
     areaSquareCm,
     pushedOut,
-    timings: { rootsMilliseconds: t1 - t0, traceMilliseconds: traceTime, shapeMilliseconds: t2 - t1 - traceTime },
+    ...(tufting ? { tufts: { curves: tufting.curves, centres: tufting.centres, innerCentres: tufting.innerCentres } } : {}),
+    timings: { rootsMilliseconds: t1 - t0, traceMilliseconds: traceTime, shapeMilliseconds: t2 - t1 - traceTime - tuftTime, tuftsMilliseconds: tuftTime },
   };
 }
 

@@ -145,3 +145,45 @@ function bend(out: Float64Array, o: number, n: number, step: number, skinNormal:
   }
   for (let i = 2; i < n; i++) for (let k = 0; k < 3; k++) out[o + 3 * i + k] += offsets[3 * i + k];
 }
+
+/** Scratch for the wander's offsets: 3 per point of the longest guide the spec allows (64 points). */
+const waverOffsets = new Float64Array(3 * 64);
+
+/** The wander of one guide: its largest offset (surface units, at the tip), waves along it, and its own random values. */
+export interface WaverParameters {
+  readonly amplitude: number;
+  readonly waves: number;
+  /** Two values in [−1, 1] per knot (knot k at k waves along the guide), at least ⌈waves⌉ + 2 knots. */
+  readonly knots: Float64Array;
+}
+
+/**
+ * Wanders the guide's points 2 … n−1 across the guide: a smooth noise (values at one knot per
+ * wave, joined by smoothstep) in the two directions across it, scaled by the share of the way to
+ * the tip so the root stays combed.
+ *
+ * Guarantees: points 0 and 1 are not moved; no point moves by more than amplitude · √2; with an
+ * amplitude of 0 nothing is touched; the same parameters give the same points.
+ */
+export function waver(out: Float64Array, at: number, n: number, rootNormal: ArrayLike<number>, params: WaverParameters): void {
+  const { amplitude, waves, knots } = params;
+  if (!(amplitude > 0) || n < 3) return;
+  const o = 3 * at;
+  const offsets = waverOffsets;
+  for (let i = 2; i < n; i++) {
+    const q = o + 3 * i;
+    let tx = out[q] - out[q - 3], ty = out[q + 1] - out[q - 2], tz = out[q + 2] - out[q - 1];
+    const tl = Math.sqrt(tx * tx + ty * ty + tz * tz) || 1;
+    tx /= tl; ty /= tl; tz /= tl;
+    unitCross(rootNormal[0], rootNormal[1], rootNormal[2], tx, ty, tz, side);
+    const bx = side[0], by = side[1], bz = side[2];
+    const cx = ty * bz - tz * by, cy = tz * bx - tx * bz, cz = tx * by - ty * bx;
+    const s = i / (n - 1);
+    const t = s * waves;
+    const k = Math.floor(t), u = t - k, e = u * u * (3 - 2 * u);
+    const a = amplitude * s * (knots[2 * k] + e * (knots[2 * k + 2] - knots[2 * k]));
+    const b = amplitude * s * (knots[2 * k + 1] + e * (knots[2 * k + 3] - knots[2 * k + 1]));
+    offsets[3 * i] = a * bx + b * cx; offsets[3 * i + 1] = a * by + b * cy; offsets[3 * i + 2] = a * bz + b * cz;
+  }
+  for (let i = 2; i < n; i++) for (let k = 0; k < 3; k++) out[o + 3 * i + k] += offsets[3 * i + k];
+}

@@ -8,7 +8,7 @@ import { GroomError } from '../errors';
  * in guides per cm² whatever the units, because that is how densities are quoted in the trade.
  */
 
-export const SPEC_VERSION = 2;
+export const SPEC_VERSION = 3;
 
 export const UNITS = ['mm', 'cm', 'm', 'in'] as const;
 export type Unit = (typeof UNITS)[number];
@@ -16,7 +16,7 @@ export type Unit = (typeof UNITS)[number];
 /** Centimetres in one surface unit. */
 export const CENTIMETRES_PER_UNIT: Readonly<Record<Unit, number>> = { mm: 0.1, cm: 1, m: 100, in: 2.54 };
 
-export const PIN_ATTRIBUTES = ['length', 'lift', 'droop', 'curl', 'jitter', 'density'] as const;
+export const PIN_ATTRIBUTES = ['length', 'lift', 'droop', 'curl', 'jitter', 'density', 'width'] as const;
 export type PinAttribute = (typeof PIN_ATTRIBUTES)[number];
 
 const vec3 = z.tuple([z.number(), z.number(), z.number()]);
@@ -126,6 +126,9 @@ export function guidePointsProblem(guides: number, pointsPerGuide: number): stri
   );
 }
 
+/** The tip's width as a share of the root's when the spec gives none (what every guide had before version 3). */
+export const TIP_TAPER = 0.2;
+
 const guideAmount = {
   density: z.number().positive().max(10_000).optional(),
   count: z.int().min(1).max(MAX_GUIDES).optional(),
@@ -137,7 +140,41 @@ function notBothAmounts(value: { density?: number; count?: number }, ctx: z.Refi
   }
 }
 
-const guidesSchemaV2 = z
+/**
+ * How strongly a guide is drawn onto its tuft's centre curve along its length: the share of the
+ * way at the root and at the tip, with `rise` shaping the curve between them (the share at
+ * s ∈ [0, 1] along the guide is root + (tip − root) · s^rise; 1 is a straight ramp, more holds the
+ * guide free longer and closes the tuft near the tip).
+ */
+const gatherSchema = z.strictObject({
+  root: z.number().min(0).max(1).default(0),
+  tip: z.number().min(0).max(1).default(0.8),
+  rise: z.number().min(0.1).max(10).default(1),
+});
+
+/** One level of tufts: centres sampled over the growth area at `density` per cm², and the draw toward them. */
+const tuftLevelSchema = z.strictObject({
+  density: z.number().positive().max(10_000),
+  gather: gatherSchema.prefault({}),
+});
+
+/** Guides gathered into tufts, optionally split again into finer tufts inside each one. */
+const tuftsSchema = z.strictObject({
+  ...tuftLevelSchema.shape,
+  inner: tuftLevelSchema.optional(),
+  /** Share (0–1) of guides, chosen by the seed, that keep out of every tuft. */
+  loners: z.number().min(0).max(1).default(0),
+});
+
+/** A wander of each guide off its combed line: smooth noise across the guide, growing from the root. */
+const waverSchema = z.strictObject({
+  /** Largest sideways wander, in units, reached at the tip. */
+  amplitude: z.number().min(0).max(1e6),
+  /** Waves of the noise along one guide's length. */
+  waves: z.number().min(0).max(64).default(3),
+});
+
+const guidesSchemaV3 = z
   .strictObject({
     ...guideAmount,
     regions: z.array(z.string().min(1).max(200)).max(1000).default([]),
@@ -149,7 +186,10 @@ const guidesSchemaV2 = z
     pointsPerGuide: z.int().min(2).max(64).default(16),
     seed: z.int().min(0).max(2 ** 32 - 1).default(1),
     width: size.optional(),
+    tipWidth: z.number().min(0).max(1e6).optional(),
     hairsPerGuide: z.int().min(1).max(100_000).default(100),
+    tufts: tuftsSchema.optional(),
+    waver: waverSchema.optional(),
   })
   .superRefine(notBothAmounts)
   .superRefine((value, ctx) => {
@@ -157,14 +197,15 @@ const guidesSchemaV2 = z
     if (problem) ctx.addIssue({ code: 'custom', path: ['count'], message: problem });
   });
 
-const specSchemaV2 = z
+const specSchemaV3 = z
   .strictObject({
-    specVersion: z.literal(2),
+    // Version 2 is version 3 without tufts, waver, tip width or width pins: read as it is.
+    specVersion: z.union([z.literal(2), z.literal(3)]),
     name: z.string().max(200).optional(),
     units: z.enum(UNITS),
     upAxis: z.enum(['y', 'z']).default('y'),
     field: fieldSchemaV2,
-    guides: guidesSchemaV2.prefault({}),
+    guides: guidesSchemaV3.prefault({}),
     pins: z.array(pinSchema).max(1024).default([]),
   })
   .superRefine((spec, ctx) => {
@@ -182,8 +223,10 @@ const specSchemaV2 = z
     const g = spec.guides;
     const length = g.length ?? 2 * perCm;
     const amount = g.count !== undefined ? { count: g.count } : { density: g.density ?? 1 };
+    const width = g.width ?? 0.01 * perCm;
     return {
       ...spec,
+      specVersion: SPEC_VERSION as typeof SPEC_VERSION,
       guides: {
         ...amount,
         regions: g.regions,
@@ -194,16 +237,19 @@ const specSchemaV2 = z
         jitter: g.jitter,
         pointsPerGuide: g.pointsPerGuide,
         seed: g.seed,
-        width: g.width ?? 0.01 * perCm,
+        width,
+        tipWidth: g.tipWidth ?? width * TIP_TAPER,
         hairsPerGuide: g.hairsPerGuide,
+        ...(g.tufts ? { tufts: g.tufts } : {}),
+        ...(g.waver ? { waver: g.waver } : {}),
       },
     };
   });
 
 /** A groom spec as written by people and programs (defaults may be left out). */
-export type GroomSpecInput = z.input<typeof specSchemaV2>;
+export type GroomSpecInput = z.input<typeof specSchemaV3>;
 /** A resolved groom spec: current version, every default filled in. */
-export type GroomSpec = z.output<typeof specSchemaV2>;
+export type GroomSpec = z.output<typeof specSchemaV3>;
 export type SingularitySpec = GroomSpec['field']['singularities'][number];
 export type CurveSpec = GroomSpec['field']['partings'][number];
 export type StrokeSpec = GroomSpec['field']['strokes'][number];
@@ -308,11 +354,11 @@ export function validateGroomSpec(input: unknown): { spec: GroomSpec; problems?:
       if (error instanceof z.ZodError) return { problems: problemsOf(error) };
       throw error;
     }
-  } else if (version !== SPEC_VERSION) {
+  } else if (version !== 2 && version !== SPEC_VERSION) {
     const said = version === undefined ? 'is missing' : `is ${JSON.stringify(version)}`;
     return { problems: [{ path: 'specVersion', message: `${said}; this version of Whorlwind reads spec versions 1 to ${SPEC_VERSION}` }] };
   }
-  const result = specSchemaV2.safeParse(current);
+  const result = specSchemaV3.safeParse(current);
   return result.success ? { spec: result.data } : { problems: problemsOf(result.error) };
 }
 

@@ -11,6 +11,7 @@ import { solveGroomField } from '@/lib/groom/place/request';
 import { prepareGroomSurface } from '@/lib/groom/place/surface';
 import { parseGroomSpec } from '@/lib/groom/spec/spec';
 import { quadSphere } from '@/tests/fixtures/quad-sphere';
+import { readGlb } from './support';
 
 const text = (s: string) => new TextEncoder().encode(s);
 const PROVENANCE = { groomId: '5f0c6d1e-2a4b-4c7d-9e8f-0a1b2c3d4e5f', specRevision: 12, whorlwindVersion: '0.1.0' };
@@ -155,22 +156,6 @@ describe('USD binding data', () => {
     expect(plain).toMatch(/primvars:whorlwind:rootFace/);
   });
 });
-
-/** A GLB's JSON and the values of an accessor (float or unsigned int components). */
-function readGlb(bytes: Uint8Array) {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const jsonLength = view.getUint32(12, true);
-  const json = JSON.parse(new TextDecoder().decode(bytes.subarray(20, 20 + jsonLength)));
-  const bin = bytes.subarray(28 + jsonLength);
-  const values = (index: number): number[] => {
-    const accessor = json.accessors[index];
-    const bufferView = json.bufferViews[accessor.bufferView];
-    const width = { SCALAR: 1, VEC2: 2, VEC3: 3 }[accessor.type as 'SCALAR'];
-    const data = new DataView(bin.buffer, bin.byteOffset + bufferView.byteOffset, bufferView.byteLength);
-    return Array.from({ length: accessor.count * width }, (_x, i) => (accessor.componentType === 5126 ? data.getFloat32(4 * i, true) : data.getUint32(4 * i, true)));
-  };
-  return { json, values };
-}
 
 describe('glTF binding data', () => {
   it('passes the Khronos validator with the surface and binding accessors, as .gltf and .glb', async () => {

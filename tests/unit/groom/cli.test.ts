@@ -39,6 +39,19 @@ describe('whorlwind-groom command line', () => {
     expect(r.stdout).toMatch(/solve field\s+[\d.]+ ms/);
   });
 
+  it('grows a version-3 spec with tufts and waver, reports the tufts and writes their data', () => {
+    writeFileSync(
+      join(folder, 'tufted.json'),
+      JSON.stringify({ specVersion: 3, units: 'cm', field: { singularities: [{ point: [0, 5, 0], index: 1 }, { point: [0, -5, 0], index: 1, twist: 180 }] }, guides: { density: 2, length: 1, tipWidth: 0.001, tufts: { density: 0.1, inner: { density: 0.4 }, loners: 0.1 }, waver: { amplitude: 0.05 } } }),
+    );
+    const r = run('--surface', 'ball.obj', '--spec', 'tufted.json', '--out', 't.usda', '--out', 't.obj', '--stats');
+    expect(r.stderr).toEqual([]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/tufts\s+\d+ tufts, \d+ inner tufts; \d+ guides in none/);
+    expect(readFileSync(join(folder, 't.usda'), 'utf8')).toContain('int[] primvars:whorlwind:innerTuft');
+    expect(readFileSync(join(folder, 't.obj'), 'utf8')).toMatch(/^#whorlwind-shape 0 -?\d+ -?\d+ /m);
+  });
+
   it('writes the growth surface beside the guides with --with-surface, and the release in the provenance', () => {
     const r = run('--surface', 'ball.obj', '--spec', 'coat.json', '--out', 's.usda', '--out', 's.obj', '--with-surface');
     expect(r.stderr).toEqual([]);

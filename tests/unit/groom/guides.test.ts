@@ -163,8 +163,8 @@ describe('guides', () => {
       if (x > 0.9) { near += guides.length[g]; nearCount++; }
       if (x < -0.9) { far += guides.length[g]; farCount++; }
     }
-    // Point pins blend harmonically, which falls back toward the mean within a few rings of each
-    // pin, so the contrast is well below the pins' 4 : 1 — but it must be clearly there.
+    // Pins blend by inverse squared distance along the surface, so within a tenth of the sphere
+    // of each pin its own value dominates: the contrast must be clearly there.
     expect(near / nearCount / (far / farCount)).toBeGreaterThan(1.3);
   });
 

@@ -39,3 +39,19 @@ export function nearestNeighbourDistances(position: Float64Array, sample: number
   }
   return out;
 }
+
+/** A GLB's JSON and the values of an accessor (float or unsigned int components). */
+export function readGlb(bytes: Uint8Array) {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const jsonLength = view.getUint32(12, true);
+  const json = JSON.parse(new TextDecoder().decode(bytes.subarray(20, 20 + jsonLength)));
+  const bin = bytes.subarray(28 + jsonLength);
+  const values = (index: number): number[] => {
+    const accessor = json.accessors[index];
+    const bufferView = json.bufferViews[accessor.bufferView];
+    const width = { SCALAR: 1, VEC2: 2, VEC3: 3 }[accessor.type as 'SCALAR'];
+    const data = new DataView(bin.buffer, bin.byteOffset + bufferView.byteOffset, bufferView.byteLength);
+    return Array.from({ length: accessor.count * width }, (_x, i) => (accessor.componentType === 5126 ? data.getFloat32(4 * i, true) : data.getUint32(4 * i, true)));
+  };
+  return { json, values };
+}

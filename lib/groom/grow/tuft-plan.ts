@@ -1,0 +1,106 @@
+import type { GuideSettings } from '../spec/spec';
+import type { GroomSurface } from '../place/surface';
+import { guideRandom, hash32 } from './random';
+import type { Roots } from './roots';
+import { sampleRoots } from './roots';
+import { gathersNothing, nearestCentres, type Gather } from './tufts';
+
+/** Seeds of the two levels' centres, mixed with the groom's seed so the centres are not the guides' own first roots. */
+const TUFT_SEED = 0x7af7;
+const INNER_SEED = 0x1a2e;
+/** The random channel that picks loners (0–2 are the length, curl phase and lean; 16 on the wander). */
+const LONER_CHANNEL = 3;
+
+/** Grows one curve from a root into `out` as curve `slot` (the grower's own routine), optionally drawn onto another curve. */
+export type GrowCurve = (
+  out: Float64Array,
+  slot: number,
+  face: number,
+  root: Float64Array,
+  barycentric: Float64Array,
+  seed: number,
+  id: number,
+  shaping?: { gatherTo?: { curves: Float64Array; curve: number; gather: Gather } },
+) => void;
+
+export interface TuftPlan {
+  /** The centre curves guides are drawn onto (the inner level's when there is one), n points each. */
+  readonly curves: Float64Array;
+  /** For each guide the curve it is drawn onto, −1 for none (a loner, or a gather of 0 everywhere). */
+  readonly curveOf: Int32Array;
+  readonly gather: Gather;
+  /** Each guide's tuft and inner tuft, −1 for none. */
+  readonly tuft: Int32Array;
+  readonly innerTuft: Int32Array;
+  readonly centres: number;
+  readonly innerCentres: number;
+}
+
+export interface TuftContext {
+  readonly mask: Uint8Array;
+  readonly density?: Float64Array;
+  readonly areaSquareCm: number;
+  /** The growth area in surface units², as weighted by density pins. */
+  readonly area: number;
+  readonly seed: number;
+  readonly roots: Roots;
+  readonly growCurve: GrowCurve;
+  readonly n: number;
+}
+
+/**
+ * Samples the tuft centres of both levels and grows their centre curves: each level's centres by
+ * the root sampler at the level's density over the growth area (at most one per two guides, so
+ * the centre curves of both levels together never hold more points than the guides), each
+ * centre curve grown as a guide would be from that root (its variation keyed by the level's seed
+ * and the centre's number), each inner centre curve drawn onto its tuft's centre curve by the
+ * tufts' gather; then assigns every guide to the nearest centre (`nearestCentres`: in a straight
+ * line, among centres facing its way) of the finest level, and its tuft through that centre.
+ *
+ * Guarantees: the same settings, surface and seed give the same plan; a loner (the `loners` share,
+ * picked by the seed per guide id) has no tuft; an inner tuft lies in exactly one tuft.
+ */
+export function planTufts(surface: GroomSurface, tufts: NonNullable<GuideSettings['tufts']>, context: TuftContext): TuftPlan {
+  const { roots, n, growCurve } = context;
+  const { mesh } = surface;
+  const faceNormal = surface.field.frames.normal;
+  const count = roots.count;
+  const level = (density: number, seed: number, onto?: { curves: Float64Array; centres: Roots; gather: Gather }) => {
+    const wanted = Math.min(Math.ceil(count / 2), Math.max(1, Math.round(density * context.areaSquareCm)));
+    const centres = sampleRoots({ positions: mesh.positions, triangles: mesh.triangles, faceArea: surface.faceArea, count: wanted, allowedFace: context.mask, vertexDensity: context.density, seed });
+    const normals = normalsAt(faceNormal, centres.face);
+    const curves = new Float64Array(3 * n * centres.count);
+    const parent = onto ? nearestCentres(centres.position, normals, onto.centres.position, normalsAt(faceNormal, onto.centres.face), spacing(context.area, onto.centres.count)) : undefined;
+    for (let c = 0; c < centres.count; c++) {
+      const gatherTo = onto && parent ? { curves: onto.curves, curve: parent[c], gather: onto.gather } : undefined;
+      growCurve(curves, c, centres.face[c], centres.position.subarray(3 * c, 3 * c + 3), centres.barycentric.subarray(3 * c, 3 * c + 3), seed, c, gatherTo && !gathersNothing(gatherTo.gather) ? { gatherTo } : undefined);
+    }
+    return { centres, normals, curves, parent };
+  };
+  const outer = level(tufts.density, hash32(context.seed, TUFT_SEED));
+  const inner = tufts.inner ? level(tufts.inner.density, hash32(context.seed, INNER_SEED), { curves: outer.curves, centres: outer.centres, gather: tufts.gather }) : undefined;
+  const finest = inner ?? outer;
+  const nearest = nearestCentres(roots.position, normalsAt(faceNormal, roots.face), finest.centres.position, finest.normals, spacing(context.area, finest.centres.count));
+  const gather = tufts.inner ? tufts.inner.gather : tufts.gather;
+  const tuft = new Int32Array(count), innerTuft = new Int32Array(count), curveOf = new Int32Array(count);
+  const drawn = !gathersNothing(gather);
+  for (let g = 0; g < count; g++) {
+    const loner = tufts.loners > 0 && guideRandom(context.seed, g, LONER_CHANNEL) < tufts.loners;
+    const c = loner ? -1 : nearest[g];
+    innerTuft[g] = inner && c >= 0 ? c : -1;
+    tuft[g] = c < 0 ? -1 : inner?.parent ? inner.parent[c] : c;
+    curveOf[g] = drawn ? c : -1;
+  }
+  return { curves: finest.curves, curveOf, gather, tuft, innerTuft, centres: outer.centres.count, innerCentres: inner?.centres.count ?? 0 };
+}
+
+function normalsAt(faceNormal: Float64Array, faces: Uint32Array): Float64Array {
+  const out = new Float64Array(3 * faces.length);
+  for (let i = 0; i < faces.length; i++) for (let k = 0; k < 3; k++) out[3 * i + k] = faceNormal[3 * faces[i] + k];
+  return out;
+}
+
+/** The mean spacing of `count` points over `area`: the search grid's cell. */
+function spacing(area: number, count: number): number {
+  return Math.sqrt(area / Math.max(1, count));
+}
