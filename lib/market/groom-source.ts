@@ -11,6 +11,8 @@ export type GroomVersionSource = {
   versionName: string;
   spec: unknown;
   surface: { objectKey: string; fileName: string };
+  /** Set when the groom was fitted from a bought preset: such a groom is never sold (see createListing). */
+  fromPurchaseId: string | null;
 };
 
 export async function sellersGroomVersion(sellerId: string, groomId: string, versionId: string): Promise<GroomVersionSource> {
@@ -21,7 +23,7 @@ export async function sellersGroomVersion(sellerId: string, groomId: string, ver
     // The surface the version was made on: a groom moved onto another surface since sells its old version on the old one.
     .join('growth_surfaces as s', 's.id', 'v.surface_id')
     .where({ 'v.id': versionId, 'g.id': groomId, 'g.owner_id': sellerId })
-    .first('g.id as groom_id', 'g.name as groom_name', 'v.id as version_id', 'v.number', 'v.name', 'v.spec', 's.object_key', 's.file_name');
+    .first('g.id as groom_id', 'g.from_purchase_id', 'g.name as groom_name', 'v.id as version_id', 'v.number', 'v.name', 'v.spec', 's.object_key', 's.file_name');
   if (!row) {
     const groom = await db()('grooms').where({ id: groomId, owner_id: sellerId }).first('id');
     throw notFound(groom ? 'version' : 'groom');
@@ -34,5 +36,6 @@ export async function sellersGroomVersion(sellerId: string, groomId: string, ver
     versionName: row.name,
     spec: row.spec,
     surface: { objectKey: row.object_key, fileName: row.file_name },
+    fromPurchaseId: row.from_purchase_id ?? null,
   };
 }

@@ -19,5 +19,6 @@ export * from './payments/purchases';
 export * from './payments/refunds';
 export * from './payments/reconcile';
 export * from './payments/webhooks';
+export * from './fitting';
 export * from './jobs';
 export * from './workers';

@@ -4,7 +4,8 @@
 import { db } from '../platform/db';
 import type { AreaJobs, JobKind } from '../platform/jobs';
 import { buildListingAssets } from './assets';
-import { LISTING_ASSETS_BUDGET, LISTING_ASSETS_QUEUE, marketBoss, RECONCILE_CRON, RECONCILE_QUEUE, type ListingAssetsJobData } from './jobs';
+import { LISTING_ASSETS_BUDGET, LISTING_ASSETS_QUEUE, marketBoss, PRESET_TRANSFER_BUDGET, PRESET_TRANSFER_QUEUE, RECONCILE_CRON, RECONCILE_QUEUE, type ListingAssetsJobData, type PresetTransferJobData } from './jobs';
+import { failPresetTransfer, runPresetTransfer } from './fitting/transfers';
 import { reconcilePayments } from './payments/reconcile';
 import { resumePendingPayouts } from './payouts';
 
@@ -18,6 +19,16 @@ const listingAssetsKind: JobKind<ListingAssetsJobData> = {
   fail: async ({ listingId }, message) => {
     await db()('listings').where({ id: listingId }).whereNot({ assets_status: 'ready' }).update({ assets_status: 'failed', assets_error: message, updated_at: db().fn.now() });
   },
+};
+
+const presetTransferKind: JobKind<PresetTransferJobData> = {
+  queue: PRESET_TRANSFER_QUEUE,
+  what: 'Fitting the preset to your surface',
+  lighter: 'A surface with fewer faces (decimated) is lighter to fit a preset to.',
+  pollingSeconds: 1,
+  budget: PRESET_TRANSFER_BUDGET,
+  run: runPresetTransfer,
+  fail: failPresetTransfer,
 };
 
 const reconcileKind: JobKind<unknown> = {
@@ -36,7 +47,7 @@ const reconcileKind: JobKind<unknown> = {
 export const MARKET_JOBS: AreaJobs = {
   area: 'market',
   boss: marketBoss,
-  kinds: [listingAssetsKind, reconcileKind],
+  kinds: [listingAssetsKind, presetTransferKind, reconcileKind],
   onStart: async (boss) => {
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
     // Listings whose pictures were never queued (made by the seed, or a queue that was down).

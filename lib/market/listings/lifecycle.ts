@@ -34,6 +34,14 @@ async function licenceBySlug(trx: Knex | Knex.Transaction, slug: string) {
 /** A draft from one of the seller's saved groom versions; its pictures and package are queued. */
 export async function createListing(actor: Actor, input: ListingDraftInput): Promise<ListingSummary> {
   const version = await sellersGroomVersion(actor.userId, input.groomId, input.versionId);
+  if (version.fromPurchaseId) {
+    throw new HttpError(
+      422,
+      'bought-not-for-resale',
+      `“${version.groomName}” was fitted from a preset you bought: its licence lets you use it on your characters, not sell it. Only grooms you made yourself can be listed.`,
+      { fields: { groomId: 'A groom fitted from a bought preset cannot be sold.' } },
+    );
+  }
   let spec;
   try {
     spec = parseGroomSpec(version.spec);
