@@ -29,6 +29,10 @@ import * as versionsRoute from '@/app/api/studio/grooms/[groomId]/versions/route
 import * as duplicateRoute from '@/app/api/studio/grooms/[groomId]/duplicate/route';
 import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
 import { buyListing, insertListing, makePerson, ringSurfaceKey, waitFor } from './market-helpers';
+import { DEMO_ACCOUNTS } from '@/db/demo-scenario';
+import { DEMO_BUYER_SURFACE } from '@/db/seeds/20_buyer_demo';
+import { startTrial } from '@/lib/market/fitting';
+import { DEMO_GROOMS as GROOMS } from '@/lib/groom/demo';
 
 const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
 const ringBytes = new TextEncoder().encode(surfaceToObj(ring.surface(), 'A ring of the buyer'));
@@ -227,5 +231,27 @@ describe('try before buying', () => {
   it('is refused for a listing not on the market (404)', async () => {
     const draft = await insertListing(seller, { title: 'Ring coat draft', state: 'draft' }, surfaceKey);
     await expectJson(await post(buyer, trialsRoute, `/api/market/listings/${draft}/trials`, { surfaceId: surface.id }, { id: draft }), 404);
+  });
+});
+
+describe('the demo', () => {
+  // `npm test` seeded this stack as `npm run demo` does: the buyer's own fox and the groomer's listings.
+  it('gives the demo buyer a surface of their own on which a demo listing can be tried at once, carried by alignment', async () => {
+    const account = DEMO_ACCOUNTS.find((candidate) => candidate.roles.includes('buyer') && !candidate.roles.includes('groomer'))!;
+    const user = await db()('users').where({ email: account.email }).first('id');
+    const own = await db()('growth_surfaces').where({ owner_id: user.id, name: DEMO_BUYER_SURFACE }).first('id', 'state');
+    expect(own).toMatchObject({ state: 'ready' });
+    const fox = GROOMS.find((groom) => groom.id.includes('fox'))!;
+    const listing = await db()('listings').where({ state: 'published', groom_name: fox.spec.name ?? fox.character }).first('id');
+    const actor: Actor = { userId: user.id, roles: account.roles, email: account.email };
+    const started = await startTrial(actor, listing.id, own.id);
+    const trial = await waitFor('the demo trial', async () => {
+      const row = await db()('preset_transfers').where({ id: started.id }).first('status', 'report', 'error', 'preview_guide_count');
+      return row.status === 'done' || row.status === 'failed' ? row : undefined;
+    }, 180_000);
+    expect(trial.error).toBeNull();
+    expect(trial.report.method).toBe('alignment');
+    expect(trial.report.notCarried).toEqual([]);
+    expect(trial.preview_guide_count).toBeGreaterThan(0);
   });
 });

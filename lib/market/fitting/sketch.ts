@@ -62,7 +62,7 @@ export function sketchToGlb(sketch: Sketch): Uint8Array {
     }
   }
   const asset = { version: '2.0', generator: 'Whorlwind trial preview' };
-  if (total === 0 || indices.length === 0) return container(JSON.stringify({ asset, scene: 0, scenes: [{ nodes: [] }] }), new Uint8Array(0));
+  if (total === 0 || indices.length === 0) return container(JSON.stringify({ asset }), new Uint8Array(0));
   const binary = new Uint8Array(positions.byteLength + indices.byteLength);
   binary.set(new Uint8Array(positions.buffer), 0);
   binary.set(new Uint8Array(indices.buffer), positions.byteLength);
