@@ -13,9 +13,8 @@ import { getGroom, GROOM_NAME_MAX } from '../../studio/grooms';
 import { ownSurfaceRow, type SurfaceRow } from '../../studio/surfaces';
 import type { GroomDetail } from '../../studio/types';
 import { notFound } from '../errors';
-import { enqueuePresetTransfer } from '../jobs';
 import type { PresetTransferView } from '../types';
-import { failPresetTransfer, transferView, type TransferRow } from './transfers';
+import { queuedTransfer, transferView, type TransferRow } from './transfers';
 
 /** One of the caller's own surfaces that has passed its check; someone else's is a 404. */
 export async function readySurfaceOf(actor: Actor, surfaceId: string): Promise<SurfaceRow> {
@@ -45,13 +44,7 @@ export async function startFit(actor: Actor, purchaseId: string, surfaceId: stri
   const [{ id }] = await db()('preset_transfers')
     .insert({ kind: 'fit', buyer_id: actor.userId, listing_id: purchase.listing_id, purchase_id: purchase.id, target_surface_id: surface.id })
     .returning('id');
-  try {
-    await enqueuePresetTransfer({ transferId: id });
-  } catch (error) {
-    await failPresetTransfer({ transferId: id }, 'The fitting could not be queued; try again in a moment.');
-    throw error;
-  }
-  return transferView(actor, id, 'fit');
+  return queuedTransfer(actor, id, 'fit');
 }
 
 /** The buyer's fit as it stands: its stage, and once done the transfer report. */

@@ -12,7 +12,7 @@ import { preparedSurface } from '../../studio/surface-cache';
 import type { SurfaceRow } from '../../studio/surfaces';
 import type { Picture } from '../assets';
 import { notFound } from '../errors';
-import type { PresetTransferJobData } from '../jobs';
+import { enqueuePresetTransfer, type PresetTransferJobData } from '../jobs';
 import { PICTURE_URL_SECONDS } from '../storage';
 import type { PresetTransferView } from '../types';
 import { makeTrialPreview } from './trial-preview';
@@ -69,12 +69,26 @@ export async function transferView(actor: Actor, transferId: string, kind: Trans
             guideCount: row.preview_guide_count ?? 0,
             pointsPerGuide: row.preview_points_per_guide ?? 0,
             listingGuideCount: row.listing_guide_count,
-            previewUrl: await presignDownload(row.preview_key, PICTURE_URL_SECONDS, 'trial-preview.glb'),
+            previewUrl: await presignDownload(row.preview_key, PICTURE_URL_SECONDS),
             pictures: await Promise.all((row.pictures ?? []).map(async (picture) => ({ view: picture.view, url: await presignDownload(picture.key, PICTURE_URL_SECONDS) }))),
           }
         : null,
     createdAt: row.created_at.toISOString(),
   };
+}
+
+/**
+ * Queues the job of a row just written and answers the row as its buyer sees it; a queue that
+ * cannot be reached marks the row failed (nothing is left waiting for a job that never comes).
+ */
+export async function queuedTransfer(actor: Actor, transferId: string, kind: TransferRow['kind']): Promise<PresetTransferView> {
+  try {
+    await enqueuePresetTransfer({ transferId });
+  } catch (error) {
+    await failPresetTransfer({ transferId }, `The ${kind === 'fit' ? 'fitting' : 'trial'} could not be queued; try again in a moment.`);
+    throw error;
+  }
+  return transferView(actor, transferId, kind);
 }
 
 /** Writes a stage of the job for the buyer's page to show. */

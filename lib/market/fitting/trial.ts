@@ -8,10 +8,9 @@ import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { db } from '../../platform/db';
 import { notFound } from '../errors';
-import { enqueuePresetTransfer } from '../jobs';
 import type { PresetTransferView } from '../types';
 import { readySurfaceOf } from './fit';
-import { failPresetTransfer, transferView } from './transfers';
+import { queuedTransfer, transferView } from './transfers';
 
 /** Trials one buyer may start within the window. Common practice, no source: a few surfaces times a few presets, far too few to mine the market. */
 export const TRIALS_PER_BUYER = 12;
@@ -38,13 +37,7 @@ export async function startTrial(actor: Actor, listingId: string, surfaceId: str
     const [row] = await trx('preset_transfers').insert({ kind: 'trial', buyer_id: actor.userId, listing_id: listing.id, target_surface_id: surface.id }).returning('id');
     return row.id as string;
   });
-  try {
-    await enqueuePresetTransfer({ transferId: id });
-  } catch (error) {
-    await failPresetTransfer({ transferId: id }, 'The trial could not be queued; try again in a moment.');
-    throw error;
-  }
-  return transferView(actor, id, 'trial');
+  return queuedTransfer(actor, id, 'trial');
 }
 
 /** The buyer's trial as it stands: its stage, and once done the report, pictures and reduced preview. */
