@@ -7,6 +7,9 @@ import { expiryOf, jobQueue, type JobBudget } from '../platform/jobs';
 export const LISTING_ASSETS_QUEUE = 'market-listing-assets';
 export const RECONCILE_QUEUE = 'market-reconcile';
 export const PRESET_TRANSFER_QUEUE = 'market-preset-transfer';
+export const TRIAL_SWEEP_QUEUE = 'market-trial-sweep';
+/** When old trials and their files are swept: hourly. */
+export const TRIAL_SWEEP_CRON = '41 * * * *';
 /** How often payments are reconciled with the provider. */
 export const RECONCILE_CRON = '*/10 * * * *';
 
@@ -27,6 +30,7 @@ const MARKET_QUEUES: PgBoss.Queue[] = [
   { name: RECONCILE_QUEUE, retryLimit: 3, retryDelay: 30, retryBackoff: true },
   // Tried again only when its worker vanished: the job records its own failures on its row.
   { name: PRESET_TRANSFER_QUEUE, retryLimit: 1, retryDelay: 5, expireInSeconds: expiryOf(PRESET_TRANSFER_BUDGET) },
+  { name: TRIAL_SWEEP_QUEUE, retryLimit: 0, expireInSeconds: 10 * 60 },
 ];
 
 /** The job queue of this process, with the market's queues made. */

@@ -4,8 +4,8 @@
 import { db } from '../platform/db';
 import type { AreaJobs, JobKind } from '../platform/jobs';
 import { buildListingAssets } from './assets';
-import { LISTING_ASSETS_BUDGET, LISTING_ASSETS_QUEUE, marketBoss, PRESET_TRANSFER_BUDGET, PRESET_TRANSFER_QUEUE, RECONCILE_CRON, RECONCILE_QUEUE, type ListingAssetsJobData, type PresetTransferJobData } from './jobs';
-import { failPresetTransfer, runPresetTransfer } from './fitting/transfers';
+import { LISTING_ASSETS_BUDGET, LISTING_ASSETS_QUEUE, marketBoss, PRESET_TRANSFER_BUDGET, PRESET_TRANSFER_QUEUE, RECONCILE_CRON, RECONCILE_QUEUE, TRIAL_SWEEP_CRON, TRIAL_SWEEP_QUEUE, type ListingAssetsJobData, type PresetTransferJobData } from './jobs';
+import { failPresetTransfer, runPresetTransfer, sweepOldTrials } from './fitting/transfers';
 import { reconcilePayments } from './payments/reconcile';
 import { resumePendingPayouts } from './payouts';
 
@@ -31,6 +31,16 @@ const presetTransferKind: JobKind<PresetTransferJobData> = {
   fail: failPresetTransfer,
 };
 
+const trialSweepKind: JobKind<unknown> = {
+  queue: TRIAL_SWEEP_QUEUE,
+  what: 'The sweep of old trials',
+  pollingSeconds: 60,
+  run: async () => {
+    const swept = await sweepOldTrials();
+    if (swept > 0) console.log(`[market] removed ${swept} trial(s) older than their keeping time`);
+  },
+};
+
 const reconcileKind: JobKind<unknown> = {
   queue: RECONCILE_QUEUE,
   what: 'The reconciliation of payments',
@@ -47,9 +57,10 @@ const reconcileKind: JobKind<unknown> = {
 export const MARKET_JOBS: AreaJobs = {
   area: 'market',
   boss: marketBoss,
-  kinds: [listingAssetsKind, presetTransferKind, reconcileKind],
+  kinds: [listingAssetsKind, presetTransferKind, trialSweepKind, reconcileKind],
   onStart: async (boss) => {
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
+    await boss.schedule(TRIAL_SWEEP_QUEUE, TRIAL_SWEEP_CRON);
     // Listings whose pictures were never queued (made by the seed, or a queue that was down).
     const pending = await db()('listings').where({ assets_status: 'pending' }).orderBy('created_at').limit(500).pluck('id');
     for (const listingId of pending) await boss.send(LISTING_ASSETS_QUEUE, { listingId } satisfies ListingAssetsJobData, { singletonKey: listingId });

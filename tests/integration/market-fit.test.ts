@@ -31,7 +31,8 @@ import * as groomRoute from '@/app/api/studio/grooms/[groomId]/route';
 import { buyListing, insertListing, makePerson, ringSurfaceKey, waitFor } from './market-helpers';
 import { DEMO_ACCOUNTS } from '@/db/demo-scenario';
 import { DEMO_BUYER_SURFACE } from '@/db/seeds/20_buyer_demo';
-import { startTrial } from '@/lib/market/fitting';
+import { startTrial, sweepOldTrials, TRIAL_KEEP_DAYS } from '@/lib/market/fitting';
+import { getObjectBytes, putObject } from '@/lib/platform/storage';
 import { DEMO_GROOMS as GROOMS } from '@/lib/groom/demo';
 
 const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
@@ -226,6 +227,28 @@ describe('try before buying', () => {
     // Trials older than the window no longer count.
     await db()('preset_transfers').where({ buyer_id: eager.userId }).update({ created_at: db().raw(`now() - interval '61 minutes'`) });
     await expectJson(await post(eager, trialsRoute, `/api/market/listings/${listingId}/trials`, { surfaceId: eagerSurface.id }, { id: listingId }), 202);
+  });
+
+  it('keeps a trial and its files for a week, then the hourly sweep removes them (and leaves fits alone)', async () => {
+    const listingId = await insertListing(seller, { title: 'Ring coat, tried long ago' }, surfaceKey);
+    const purchaseId = await buyListing(buyerActor, listingId);
+    const made = async (kind: 'fit' | 'trial', daysAgo: number) => {
+      const [{ id }] = await db()('preset_transfers')
+        .insert({ kind, buyer_id: buyer.userId, listing_id: listingId, purchase_id: kind === 'fit' ? purchaseId : null, target_surface_id: surface.id, status: 'done', created_at: db().raw(`now() - make_interval(days => ?)`, [daysAgo]) })
+        .returning('id');
+      const keys = [`market/trials/${buyer.userId}/${id}/preview.glb`, `market/trials/${buyer.userId}/${id}/front-512.webp`];
+      for (const key of keys) await putObject(key, new Uint8Array([1, 2, 3]), 'application/octet-stream');
+      await db()('preset_transfers').where({ id }).update({ preview_key: keys[0], pictures: JSON.stringify([{ view: 'front', size: 512, key: keys[1] }]) });
+      return { id: id as string, keys };
+    };
+    const old = await made('trial', TRIAL_KEEP_DAYS + 1);
+    const recent = await made('trial', TRIAL_KEEP_DAYS - 1);
+    const oldFit = await made('fit', TRIAL_KEEP_DAYS + 30);
+    expect(await sweepOldTrials()).toBeGreaterThanOrEqual(1);
+    expect(await db()('preset_transfers').whereIn('id', [old.id, recent.id, oldFit.id]).pluck('id')).toEqual(expect.arrayContaining([recent.id, oldFit.id]));
+    expect(await db()('preset_transfers').where({ id: old.id }).first()).toBeUndefined();
+    for (const key of old.keys) await expect(getObjectBytes(key)).rejects.toThrow();
+    for (const key of [...recent.keys, ...oldFit.keys]) expect((await getObjectBytes(key)).byteLength).toBe(3);
   });
 
   it('is refused for a listing not on the market (404)', async () => {

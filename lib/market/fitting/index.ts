@@ -1,5 +1,5 @@
 // A buyer's own use of presets: fitting a bought one to their surface, trying one before buying.
 export { startFit, getFit, acceptFit, readySurfaceOf } from './fit';
 export { startTrial, getTrial, TRIALS_PER_BUYER, TRIAL_WINDOW_MINUTES, TOO_MANY_TRIALS } from './trial';
-export { runPresetTransfer, failPresetTransfer } from './transfers';
+export { runPresetTransfer, failPresetTransfer, sweepOldTrials, TRIAL_KEEP_DAYS } from './transfers';
 export { sketchGuides, sketchToGlb, TRIAL_GUIDE_SHARE, TRIAL_POINTS_PER_GUIDE, type Sketch } from './sketch';

@@ -13,7 +13,7 @@ import type { SurfaceRow } from '../../studio/surfaces';
 import type { Picture } from '../assets';
 import { notFound } from '../errors';
 import { enqueuePresetTransfer, type PresetTransferJobData } from '../jobs';
-import { PICTURE_URL_SECONDS } from '../storage';
+import { deleteMarketObjects, PICTURE_URL_SECONDS } from '../storage';
 import type { PresetTransferView } from '../types';
 import { makeTrialPreview } from './trial-preview';
 
@@ -132,4 +132,23 @@ export async function failPresetTransfer({ transferId }: PresetTransferJobData, 
     .where({ id: transferId })
     .whereIn('status', ['queued', 'running'])
     .update({ status: 'failed', stage: 'Stopped', error: message, updated_at: db().fn.now() });
+}
+
+/** How long a trial is kept (its row, pictures and reduced preview): long enough to come back to before buying. */
+export const TRIAL_KEEP_DAYS = 7;
+
+/**
+ * Deletes trials older than TRIAL_KEEP_DAYS with their files (fits stay: an accepted one names its
+ * groom). The rows go first, in one statement, so no page is left naming a missing file; a file
+ * storage keeps after a failed delete is logged. Answers how many trials went.
+ */
+export async function sweepOldTrials(keepDays = TRIAL_KEEP_DAYS): Promise<number> {
+  const gone: Pick<TransferRow, 'preview_key' | 'pictures'>[] = await db()('preset_transfers')
+    .where({ kind: 'trial' })
+    .where('created_at', '<', db().raw(`now() - make_interval(days => ?)`, [keepDays]))
+    .delete()
+    .returning(['preview_key', 'pictures']);
+  const keys = gone.flatMap((row) => [row.preview_key, ...(row.pictures ?? []).map((picture) => picture.key)]).filter((key): key is string => key !== null);
+  for (let i = 0; i < keys.length; i += 1000) await deleteMarketObjects(keys.slice(i, i + 1000));
+  return gone.length;
 }
