@@ -3,14 +3,15 @@ import Link from 'next/link';
 import { ModerationQueue } from '@/components/admin/ModerationQueue';
 import { PurchaseList } from '@/components/admin/PurchaseList';
 import { requireArea } from '@/lib/accounts/session';
-import { listListingsForAdmin } from '@/lib/market/listings';
+import { listListingsForAdmin, listVersionsForAdmin } from '@/lib/market/listings';
+import { VersionQueue } from '@/components/admin/VersionQueue';
 import { listPurchasesForAdmin } from '@/lib/market/payments/refunds';
 
 export const metadata: Metadata = { title: 'Admin' };
 
 export default async function AdminPage() {
   await requireArea('admin');
-  const [queue, purchases] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin()]);
+  const [queue, purchases, updates] = await Promise.all([listListingsForAdmin('submitted'), listPurchasesForAdmin(), listVersionsForAdmin()]);
   return (
     <div className="flex flex-col gap-12">
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -34,6 +35,12 @@ export default async function AdminPage() {
           Waiting for review
         </h2>
         <ModerationQueue initial={{ listings: queue }} />
+      </section>
+      <section aria-labelledby="updates-heading" className="flex flex-col gap-4">
+        <h2 id="updates-heading" className="text-2xl font-bold">
+          New versions waiting for review
+        </h2>
+        <VersionQueue initial={{ versions: updates }} />
       </section>
       <section aria-labelledby="purchases-heading" className="flex flex-col gap-4">
         <h2 id="purchases-heading" className="text-2xl font-bold">

@@ -2,24 +2,15 @@
 // Listings waiting for an admin: look at the page, then approve it onto the market or send it
 // back with a reason the seller reads (they are e-mailed either way).
 import Link from 'next/link';
-import { useId, useState } from 'react';
-import { z } from 'zod';
+import { useState } from 'react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { postJson } from '@/lib/http/client';
 import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
 import type { AdminListingsResponse, DecisionResponse, ListingSummary } from '@/lib/market/types';
-import { decisionSchema } from '@/lib/market/validation';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDateTime } from '@/components/market/format';
-import { TextAreaField, textAreaField } from '@/components/market/TextAreaField';
-
-// A rejection is the decision route's own rules with `approve: false`.
-const rejectionSchema = z.object({ reason: z.string() }).superRefine((value, context) => {
-  const checked = decisionSchema.safeParse({ approve: false, reason: value.reason });
-  if (!checked.success) for (const issue of checked.error.issues) context.addIssue({ code: 'custom', path: issue.path, message: issue.message });
-});
+import { QueueFrame, RejectForm } from './DecisionParts';
 
 const QUEUE = '/api/admin/listings?state=submitted';
 
@@ -30,26 +21,18 @@ export function ModerationQueue({ initial }: { initial: AdminListingsResponse })
   const [done, setDone] = useState<string | null>(null);
   const listings = data?.listings ?? [];
   return (
-    <div className="flex flex-col gap-4">
-      {done && <Notice tone="success">{done}</Notice>}
-      {error && <Notice tone="error">{error.message}</Notice>}
-      {listings.length === 0 ? (
-        <p className="rounded-3xl border-2 border-dashed border-tarn/30 p-6 text-loam-soft">No listing is waiting for review.</p>
-      ) : (
-        <ul className="flex flex-col gap-3">
-          {listings.map((listing) => (
-            <QueueItem
-              key={listing.id}
-              listing={listing}
-              onDecided={async (text) => {
-                setDone(text);
-                await mutate();
-              }}
-            />
-          ))}
-        </ul>
-      )}
-    </div>
+    <QueueFrame done={done} error={error} empty={listings.length === 0 ? 'No listing is waiting for review.' : null}>
+      {listings.map((listing) => (
+        <QueueItem
+          key={listing.id}
+          listing={listing}
+          onDecided={async (text) => {
+            setDone(text);
+            await mutate();
+          }}
+        />
+      ))}
+    </QueueFrame>
   );
 }
 
@@ -57,8 +40,6 @@ function QueueItem({ listing, onDecided }: { listing: ListingSummary; onDecided:
   const [rejecting, setRejecting] = useState(false);
   const [busy, setBusy] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
-  const form = useValidatedForm(rejectionSchema);
-  const id = useId();
 
   async function decide(approve: boolean, reason?: string) {
     setBusy(true);
@@ -111,31 +92,7 @@ function QueueItem({ listing, onDecided }: { listing: ListingSummary; onDecided:
         </div>
       </div>
       {problem && <Notice tone="error">{problem}</Notice>}
-      {rejecting && (
-        <form
-          noValidate
-          aria-label={`Reject ${listing.title}`}
-          className="flex flex-col gap-3 rounded-2xl bg-chalk p-4"
-          onSubmit={form.onSubmit(async (input) => {
-            const failure = await decide(false, input.reason);
-            if (failure) return { message: failure.message, fields: failure.fields };
-          })}
-        >
-          {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
-          <TextAreaField
-            id={`${id}-reason`}
-            label="Why it goes back"
-            hint="The seller reads this in an e-mail and beside the listing."
-            rows={3}
-            {...textAreaField(form.field('reason'))}
-          />
-          <div>
-            <Button type="submit" disabled={!form.ready || form.busy}>
-              {form.busy ? 'Sending it back…' : 'Send it back to the seller'}
-            </Button>
-          </div>
-        </form>
-      )}
+      {rejecting && <RejectForm what={listing.title} hint="The seller reads this in an e-mail and beside the listing." reject={(reason) => decide(false, reason)} />}
     </li>
   );
 }

@@ -1,7 +1,8 @@
 'use client';
-// The listing's guides in 3D: the preview asset the listing exposes (a GLB holding a subset of
-// its guides as line primitives, and the growth surface when the asset carries it), framed to
-// fit, coloured from root to tip, turned with the pointer (drag to orbit, wheel to zoom).
+// The listing's guides in 3D: the public preview asset the listing exposes (a GLB holding at most
+// a tenth of its guides, a few points each, as line primitives, without widths or binding: see
+// previewGuides in lib/groom), framed to fit, coloured from root to tip, turned with the pointer
+// (drag to orbit, wheel to zoom).
 import { Canvas, useFrame, useThree } from '@react-three/fiber';
 import { useEffect, useMemo, useState } from 'react';
 import * as THREE from 'three';
@@ -133,8 +134,8 @@ export function GuidePreview({ url, title }: { url: string | null; title: string
       </div>
       <figcaption className="text-sm text-loam-soft">
         {loaded.state === 'ready'
-          ? `${loaded.guideCount.toLocaleString('en-GB')} guides shown, coloured from root to tip. Drag to turn, scroll to zoom.`
-          : 'A subset of the preset’s guides.'}
+          ? `${loaded.guideCount.toLocaleString('en-GB')} guides shown, coloured from root to tip: at most a tenth of the preset’s guides, a few points each. The full guides come only in the package. Drag to turn, scroll to zoom.`
+          : 'At most a tenth of the preset’s guides, a few points each; the full guides come only in the package.'}
       </figcaption>
     </figure>
   );

@@ -6,14 +6,14 @@ import Link from 'next/link';
 import { useEffect, useState } from 'react';
 import { Button } from '@/components/ui/Button';
 import { Notice } from '@/components/ui/Notice';
-import { postJson } from '@/lib/http/client';
 import { useServerSeededSWR } from '@/components/ui/use-server-seeded-swr';
-import type { DownloadResponse, LibraryItem, LibraryResponse } from '@/lib/market/types';
+import type { LibraryItem, LibraryResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDate } from './format';
 import { forgetCheckout, pendingCheckout, type PendingCheckout } from './pending-checkout';
 import { PresetOnSurface } from './PresetOnSurface';
 import { ReviewForm } from './ReviewForm';
+import { UpdateNotices, VersionDownloads } from './LibraryVersions';
 
 /** How long the page waits for a paid checkout to show up before saying so. */
 const ARRIVAL_WAIT_MS = 90_000;
@@ -71,6 +71,7 @@ export function LibraryList({ initial, justPaid, maxUploadBytes }: { initial: Li
         </Notice>
       )}
       {error && <Notice tone="error">{error.message}</Notice>}
+      <UpdateNotices items={purchases} />
       {purchases.length === 0 ? (
         <div className="rounded-3xl border-2 border-dashed border-tarn/30 p-8 text-loam-soft">
           Nothing here yet. Presets you buy on the{' '}
@@ -132,6 +133,7 @@ function PurchaseCard({ item, onDownloaded, maxUploadBytes }: { item: LibraryIte
         <p className="text-sm text-loam-soft">
           {item.listing.formats.length} file format{item.listing.formats.length === 1 ? '' : 's'} ·{' '}
           {item.downloads === 0 ? 'not downloaded yet' : `downloaded ${item.downloads} time${item.downloads === 1 ? '' : 's'}`}
+          {item.currentVersion > 1 && ` · version ${item.boughtVersion} bought, version ${item.currentVersion} on the market`}
         </p>
         {refunded ? (
           <p className="text-sm text-loam-soft">
@@ -141,7 +143,7 @@ function PurchaseCard({ item, onDownloaded, maxUploadBytes }: { item: LibraryIte
         ) : (
           <div className="flex flex-col gap-3 pt-1">
             <div className="flex flex-wrap items-center gap-3">
-              <DownloadButton item={item} onDownloaded={onDownloaded} />
+              <VersionDownloads item={item} onDownloaded={onDownloaded} />
               <Button look="quiet" onClick={() => setFitting((open) => !open)} aria-expanded={fitting}>
                 {fitting ? 'Close the fitting' : 'Fit to my character'}
               </Button>
@@ -163,37 +165,5 @@ function PurchaseCard({ item, onDownloaded, maxUploadBytes }: { item: LibraryIte
         )}
       </div>
     </li>
-  );
-}
-
-function DownloadButton({ item, onDownloaded }: { item: LibraryItem; onDownloaded: () => void }) {
-  const [busy, setBusy] = useState(false);
-  const [problem, setProblem] = useState<string | null>(null);
-  async function download() {
-    setBusy(true);
-    setProblem(null);
-    const outcome = await postJson<DownloadResponse>(`/api/library/${item.purchaseId}/download`, {});
-    setBusy(false);
-    if (!outcome.ok) {
-      setProblem(outcome.error.message);
-      return;
-    }
-    // The link is an attachment: the browser saves the file and stays on this page.
-    const link = document.createElement('a');
-    link.href = outcome.data.url;
-    link.download = outcome.data.fileName;
-    document.body.append(link);
-    link.click();
-    link.remove();
-    // The download is counted: show the new count.
-    onDownloaded();
-  }
-  return (
-    <div className="flex flex-col gap-2">
-      <Button onClick={download} disabled={busy}>
-        {busy ? 'Preparing the download…' : item.packageReady ? 'Download the package' : 'Download (being packed)'}
-      </Button>
-      {problem && <Notice tone="error">{problem}</Notice>}
-    </div>
   );
 }

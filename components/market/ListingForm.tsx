@@ -16,11 +16,13 @@ import { fetchData, postJson, request, type ApiRequestError } from '@/lib/http/c
 import type { FieldErrors } from '@/lib/http/field-errors';
 import type { CreateListingResponse, Licence, ListingDetail, UpdateListingResponse } from '@/lib/market/types';
 import { listingDraftSchema, tagsSchema } from '@/lib/market/validation';
-import { CURRENCIES, FORMAT_LABELS, MAX_PRICE_CENTS, MIN_PRICE_CENTS, PACKAGE_FORMATS, type PackageFormat } from '@/lib/market/vocabulary';
+import { CURRENCIES, MAX_PRICE_CENTS, MIN_PRICE_CENTS, type PackageFormat } from '@/lib/market/vocabulary';
 import type { GroomListResponse, VersionListResponse } from '@/lib/studio/types';
 import { centsToText, TAG_KEYS, TAG_LABELS, TAG_VALUES, tagLabel } from './search-params';
 import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
 import { TextAreaField, textAreaField } from './TextAreaField';
+import { RightsFields, rightsFormFields } from './RightsFields';
+import { FormatChecks } from './FormatChecks';
 
 const draft = listingDraftSchema.shape;
 
@@ -46,6 +48,7 @@ const listingFormSchema = z.object({
     .string()
     .transform((value) => value.split(',').filter(Boolean))
     .pipe(draft.formats),
+  ...rightsFormFields,
 });
 type ListingFormValues = z.output<typeof listingFormSchema>;
 
@@ -116,6 +119,8 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
       currency: input.currency,
       licenceSlug: input.licenceSlug,
       formats: input.formats,
+      rightsConfirmed: input.rightsConfirmed,
+      shipsSurface: input.shipsSurface,
     };
     const saved = editing
       ? await request<UpdateListingResponse>('PATCH', `/api/market/listings/${listing.id}`, fields)
@@ -310,32 +315,18 @@ export function ListingForm({ licences, listing, preselect }: ListingFormProps) 
 
       <fieldset className="flex flex-col gap-3" aria-describedby={form.errors.formats ? 'formats-error' : undefined}>
         <legend className="pb-2 text-lg font-bold">Files in the package</legend>
-        <input type="hidden" name="formats" value={formats.join(',')} />
-        <div className="grid gap-2 sm:grid-cols-2">
-          {PACKAGE_FORMATS.map((format) => (
-            <label key={format} className="flex items-center gap-2 text-sm">
-              <input
-                type="checkbox"
-                checked={formats.includes(format)}
-                onChange={(event) => {
-                  form.clearError('formats');
-                  setFormats((current) =>
-                    event.target.checked ? PACKAGE_FORMATS.filter((f) => f === format || current.includes(f)) : current.filter((f) => f !== format),
-                  );
-                }}
-                className="accent-bracken"
-              />
-              {FORMAT_LABELS[format]}
-            </label>
-          ))}
-        </div>
-        {form.errors.formats && (
-          <p id="formats-error" className="text-sm font-medium text-hawthorn" data-field-error="formats">
-            {form.errors.formats}
-          </p>
-        )}
+        <FormatChecks
+          formats={formats}
+          error={form.errors.formats}
+          onChange={(next) => {
+            form.clearError('formats');
+            setFormats(next);
+          }}
+        />
         <p className="text-sm text-loam-soft">Every package also holds the licence text and a README.</p>
       </fieldset>
+
+      <RightsFields defaultShipsSurface={listing?.shipsSurface ?? false} error={form.errors.rightsConfirmed} />
 
       <div className="flex flex-col gap-3 border-t-2 border-vellum pt-6">
         <label className="flex items-center gap-2 text-sm">

@@ -1,8 +1,9 @@
-// One preset in the market's results: its picture, title, seller, tags, guides, rating and price.
+// One preset in the market's results: its picture, title, seller, tags, density and lengths, rating and price.
 import Link from 'next/link';
 import type { ListingCard } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { Stars } from './Stars';
+import { amount, lengthRange } from './listing-facts';
 import { tagLabel } from './search-params';
 
 export function ListingTile({ listing }: { listing: ListingCard }) {
@@ -32,7 +33,7 @@ export function ListingTile({ listing }: { listing: ListingCard }) {
           ))}
         </ul>
         <p className="text-sm text-loam-soft">
-          {listing.guideCount === null ? 'Guides being counted' : `${listing.guideCount.toLocaleString('en-GB')} guides`} ·{' '}
+          {listing.facts ? `${amount(listing.facts.guidesPerCm2)} guides per cm² · ${lengthRange(listing.facts)}` : 'Being measured'} ·{' '}
           {listing.formats.length} file format{listing.formats.length === 1 ? '' : 's'}
         </p>
         <div className="mt-auto flex items-center justify-between gap-2 pt-2">

@@ -58,7 +58,7 @@ function Select({
 function filtersInUse(query: MarketQuery): boolean {
   return (
     TAG_KEYS.some((key) => query[key]) ||
-    [query.format, query.currency, query.minPrice, query.maxPrice, query.minGuides, query.maxGuides].some((value) => value !== undefined)
+    [query.format, query.currency, query.minPrice, query.maxPrice, query.minDensity, query.maxDensity, query.minLength, query.maxLength].some((value) => value !== undefined)
   );
 }
 
@@ -124,8 +124,12 @@ export function MarketFilters({ query }: { query: MarketQuery }) {
           <TextField label="Lowest price" inputMode="decimal" defaultValue={values.minPrice} {...form.field('minPrice')} />
           <TextField label="Highest price" inputMode="decimal" defaultValue={values.maxPrice} {...form.field('maxPrice')} />
           <div className="grid grid-cols-2 gap-2">
-            <TextField label="Fewest guides" inputMode="numeric" defaultValue={query.minGuides ?? ''} {...form.field('minGuides')} />
-            <TextField label="Most guides" inputMode="numeric" defaultValue={query.maxGuides ?? ''} {...form.field('maxGuides')} />
+            <TextField label="Guides per cm², from" inputMode="decimal" defaultValue={query.minDensity ?? ''} {...form.field('minDensity')} />
+            <TextField label="Guides per cm², to" inputMode="decimal" defaultValue={query.maxDensity ?? ''} {...form.field('maxDensity')} />
+          </div>
+          <div className="grid grid-cols-2 gap-2">
+            <TextField label="Typical length (cm), from" inputMode="decimal" defaultValue={query.minLength ?? ''} {...form.field('minLength')} />
+            <TextField label="Typical length (cm), to" inputMode="decimal" defaultValue={query.maxLength ?? ''} {...form.field('maxLength')} />
           </div>
         </div>
         <div className="flex justify-end pt-4">

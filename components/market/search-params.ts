@@ -63,15 +63,17 @@ const optionalPrice = z.preprocess(
     .optional(),
 );
 
-const optionalCount = z.preprocess(
-  blankToUndefined,
-  z
-    .string()
-    .trim()
-    .regex(/^\d{1,7}$/, 'Enter a whole number of guides.')
-    .transform(Number)
-    .optional(),
-);
+/** A density (guides per cm²) or a length (cm) typed as "2", "2.5" or "2,5". */
+const optionalMeasure = (example: string) =>
+  z.preprocess(
+    blankToUndefined,
+    z
+      .string()
+      .trim()
+      .regex(/^\d{1,6}([.,]\d{1,3})?$/, `Enter a number such as ${example}.`)
+      .transform((value) => Number(value.replace(',', '.')))
+      .optional(),
+  );
 
 export const marketQuerySchema = z
   .object({
@@ -84,16 +86,21 @@ export const marketQuerySchema = z
     currency: optionalChoice(CURRENCIES, 'Choose a currency from the list.'),
     minPrice: optionalPrice,
     maxPrice: optionalPrice,
-    minGuides: optionalCount,
-    maxGuides: optionalCount,
+    minDensity: optionalMeasure('2 or 2.5'),
+    maxDensity: optionalMeasure('2 or 2.5'),
+    minLength: optionalMeasure('1 or 1.5'),
+    maxLength: optionalMeasure('1 or 1.5'),
     sort: optionalChoice(SORTS.map((sort) => sort.value) as [SearchSort, ...SearchSort[]], 'Choose an order from the list.'),
   })
   .superRefine((query, context) => {
     if (query.minPrice !== undefined && query.maxPrice !== undefined && query.minPrice > query.maxPrice) {
       context.addIssue({ code: 'custom', path: ['maxPrice'], message: 'The highest price is below the lowest.' });
     }
-    if (query.minGuides !== undefined && query.maxGuides !== undefined && query.minGuides > query.maxGuides) {
-      context.addIssue({ code: 'custom', path: ['maxGuides'], message: 'The most guides is below the fewest.' });
+    if (query.minDensity !== undefined && query.maxDensity !== undefined && query.minDensity > query.maxDensity) {
+      context.addIssue({ code: 'custom', path: ['maxDensity'], message: 'The highest density is below the lowest.' });
+    }
+    if (query.minLength !== undefined && query.maxLength !== undefined && query.minLength > query.maxLength) {
+      context.addIssue({ code: 'custom', path: ['maxLength'], message: 'The longest length is below the shortest.' });
     }
   });
 export type MarketQuery = z.output<typeof marketQuerySchema> & { page: number };
@@ -146,8 +153,10 @@ export function searchInputOf(query: MarketQuery): SearchInput {
     currency: query.currency,
     minPrice: query.minPrice,
     maxPrice: query.maxPrice,
-    minGuides: query.minGuides,
-    maxGuides: query.maxGuides,
+    minDensity: query.minDensity,
+    maxDensity: query.maxDensity,
+    minLength: query.minLength,
+    maxLength: query.maxLength,
     sort: sort ?? defaultSort(query),
     page: query.page,
     pageSize: PAGE_SIZE,
@@ -170,8 +179,10 @@ export function marketHref(query: Partial<MarketQuery>): string {
   set('currency', query.currency);
   set('minPrice', query.minPrice === undefined ? undefined : centsToText(query.minPrice));
   set('maxPrice', query.maxPrice === undefined ? undefined : centsToText(query.maxPrice));
-  set('minGuides', query.minGuides);
-  set('maxGuides', query.maxGuides);
+  set('minDensity', query.minDensity);
+  set('maxDensity', query.maxDensity);
+  set('minLength', query.minLength);
+  set('maxLength', query.maxLength);
   if (query.sort && query.sort !== defaultSort(query)) set('sort', query.sort);
   if (query.page && query.page > 1) set('page', query.page);
   const text = params.toString();

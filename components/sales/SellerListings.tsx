@@ -99,6 +99,14 @@ function ListingRow({ listing, highlighted, onChanged }: { listing: ListingSumma
             Submit for review
           </Button>
         )}
+        {listing.state === 'published' && (
+          <Link
+            href={`/sales/listings/${listing.id}/versions/new`}
+            className="rounded-full border-2 border-tarn/30 px-4 py-2 text-sm font-semibold text-tarn no-underline hover:border-tarn"
+          >
+            New version
+          </Link>
+        )}
         {(listing.state === 'published' || listing.state === 'submitted') && (
           <Button look="quiet" onClick={() => act('unlist')} disabled={busy} className="px-4 py-2">
             {listing.state === 'published' ? 'Take off the market' : 'Withdraw'}

@@ -40,6 +40,7 @@ export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './plac
 export { blendPins, type PinnedFactors } from './place/pins';
 export { growthMask } from './place/regions';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
+export { coatFacts, type CoatFacts } from './grow/coat-facts';
 export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';
 export { bindRoots, rootsOnSculpt, type RootBinding } from './grow/binding';
 export { createTracer, STOP, type StopReason, type Tracer } from './grow/trace';
@@ -48,6 +49,7 @@ export { EXPORT_FORMATS, EXPORT_FORMAT_FACTS, EXPORT_EXTENSIONS, formatOfExtensi
 export { writeExport, type GroomMade, type ExportOptions } from './export/write';
 export { guidesToUsda, type UsdCurveBasis } from './export/usda';
 export { guidesToGltf } from './export/gltf';
+export { previewGuides, previewToGlb, PUBLIC_PREVIEW, type PreviewGuides, type PreviewLimits } from './export/preview';
 export { guidesToObj, OBJ_ROOT_RECORD } from './export/obj';
 export { writtenSurface, type Provenance, type BindingExportOptions, type WrittenSurface } from './export/binding-data';
 export { fieldToPly } from './export/field-ply';

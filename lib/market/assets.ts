@@ -1,5 +1,6 @@
 // What a listing shows and sells, made from its frozen version by a background job: pictures
-// (front, side, top at 256² and 1024², WebP), a guide preview (.glb), the guide count, and the
+// (front, side, top at 256² and 1024², WebP), the public guide preview (.glb: a reduced asset of
+// its own, see previewGuides in lib/groom — never the package's guides), the guide count, and the
 // package zip (the promised export files, the licence in full and a README). The package is built
 // once per listing revision (the revision moves on with every edit that changes the package); a
 // second run of the job keeps the first.
@@ -11,11 +12,14 @@
 //     quick retries come first); the listing is marked failed only after the last try, or at
 //     once for an error that a retry cannot mend (a missing object, a bad spec).
 import { strToU8, zipSync, type Zippable } from 'fflate';
-import { readSurface } from '../field';
+import { checkSurfaceFile } from '../field';
 import {
+  coatFacts,
   EXPORT_FORMAT_FACTS,
   growGuides,
   parseGroomSpec,
+  previewGuides,
+  previewToGlb,
   prepareGroomSurface,
   renderThumbnail,
   solveGroomField,
@@ -30,7 +34,8 @@ import { db } from '../platform/db';
 import { fileSlug } from '../platform/file-names';
 import { getObjectBytes, putObject } from '../platform/storage';
 import { copyObject } from '../platform/storage';
-import { listingPrefix } from './storage';
+import { deleteMarketObjects, listingPrefix } from './storage';
+import { measureListing, type MeasuredListing } from './listing-facts';
 import { FORMAT_LABELS, TAX_NOTE, formatPrice, type PackageFormat } from './vocabulary';
 
 export type Picture = { view: ThumbnailView; size: number; key: string };
@@ -45,8 +50,8 @@ function packageFileName(format: PackageFormat): string {
   return [PACKAGE_FILE_STEMS[source], variant].filter(Boolean).join('-') + extension;
 }
 
-type ListingForAssets = {
-  id: string;
+/** What a listing version's files are made from (the listing row for the version on sale, or an update's row). */
+export type ListingFilesSource = {
   title: string;
   description: string;
   spec: unknown;
@@ -56,16 +61,22 @@ type ListingForAssets = {
   groom_name: string;
   version_number: number | null;
   version_name: string | null;
-  groom_version_id: string;
-  revision: number;
   price_cents: number;
   currency: string;
   seller_name: string;
   licence_title: string;
   licence_body: string;
+  ships_surface: boolean;
 };
 
-function readme(listing: ListingForAssets, guideCount: number, files: string[]): string {
+type ListingForAssets = ListingFilesSource & {
+  id: string;
+  groom_version_id: string;
+  revision: number;
+  current_version: number;
+};
+
+function readme(listing: ListingFilesSource, guideCount: number, files: string[]): string {
   const version = listing.version_number ? `version ${listing.version_number}${listing.version_name ? ` (“${listing.version_name}”)` : ''}` : 'a saved version';
   return `${listing.title}
 ${'='.repeat(Math.min(listing.title.length, 72))}
@@ -79,7 +90,7 @@ What is in this package
 ${files.map((file) => `- ${file}`).join('\n')}
 - LICENCE.txt — ${listing.licence_title}, in full: what you may and may not do with these files.
 - README.txt — this file.
-
+${listing.ships_surface ? `- surface/${listing.surface_file_name} — the seller's growth surface, as uploaded; the guides' files also carry it, with each guide's root polygon and barycentric position on it.\n` : ''}
 ${guideCount.toLocaleString('en-GB')} guide curves, grown from the groom spec on the seller's growth surface.
 
 Using it
@@ -116,9 +127,11 @@ export function isTransientStorageError(error: unknown): boolean {
   return status === undefined || status >= 500 || status === 429 || status === 408;
 }
 
-type Stored = <T>(call: () => Promise<T>) => Promise<T>;
+/** A storage call with the retries of `storedWithRetries`. */
+export type Stored = <T>(call: () => Promise<T>) => Promise<T>;
 
-function storedWithRetries(delaysMs: readonly number[]): Stored {
+/** Tries a storage call again after each of `delaysMs` while its error is transient. */
+export function storedWithRetries(delaysMs: readonly number[]): Stored {
   return async (call) => {
     for (let attempt = 0; ; attempt++) {
       try {
@@ -166,6 +179,8 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       'l.version_name',
       'l.groom_version_id',
       'l.revision',
+      'l.current_version',
+      'l.ships_surface',
       'l.price_cents',
       'l.currency',
       'u.display_name as seller_name',
@@ -175,63 +190,31 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
   if (!listing) return 'gone'; // deleted meanwhile: nothing to make
   try {
     await freezeSurface(listing, stored);
-    const spec = parseGroomSpec(listing.spec);
-    const read = readSurface(await stored(() => getObjectBytes(listing.surface_key)), listing.surface_file_name);
-    const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
-    const solved = solveGroomField(spec, surface);
-    const { guides } = growGuides(surface, solved, spec);
-    const made: GroomMade = { spec, surface, solved, guides };
     const prefix = listingPrefix(listing.id);
-
-    const pictures: Picture[] = [];
-    for (const view of THUMBNAIL_VIEWS) {
-      for (const size of PICTURE_SIZES) {
-        const image = renderThumbnail(read.mesh, guides, { size, view, upAxis: spec.upAxis, colourBy: 'length' });
-        const key = `${prefix}/pictures/${view}-${size}.webp`;
-        const bytes = await encodeImage(image, 'webp');
-        await stored(() => putObject(key, bytes, 'image/webp'));
-        pictures.push({ view, size, key });
-      }
-    }
-    const preview = writeExport('glb', made);
-    await stored(() => putObject(`${prefix}/preview/guides.glb`, preview, EXPORT_FORMAT_FACTS.glb.mediaType));
-
-    const existing = await db()('listing_packages').where({ listing_id: listing.id, listing_revision: listing.revision }).first('listing_id');
-    let built: { object_key: string; file_name: string; byte_size: number } | null = null;
-    if (!existing) {
-      const folder = fileSlug(listing.title, 60, 'preset');
-      const entries: Zippable = {};
-      const fileNames: string[] = [];
-      for (const format of listing.formats) {
-        const name = packageFileName(format);
-        const bytes = writeExport(format, made);
-        entries[`${folder}/${name}`] = typeof bytes === 'string' ? strToU8(bytes) : bytes;
-        fileNames.push(`${name} — ${FORMAT_LABELS[format]}`);
-      }
-      entries[`${folder}/LICENCE.txt`] = strToU8(`${listing.licence_body}\n`);
-      entries[`${folder}/README.txt`] = strToU8(readme(listing, guides.count, fileNames));
-      // A fixed time stamp, so the same version always zips to the same bytes.
-      const zip = zipSync(entries, { level: 6, mtime: new Date('2026-01-01T00:00:00Z') });
-      const fileName = `${folder}.zip`;
-      // Under the revision, so a build of an older revision never overwrites the package a row names.
-      const key = `${prefix}/package/r${listing.revision}/${fileName}`;
-      await stored(() => putObject(key, zip, 'application/zip'));
-      built = { object_key: key, file_name: fileName, byte_size: zip.byteLength };
-    }
+    const version = listing.current_version;
+    const existing = await db()('listing_packages')
+      .where({ listing_id: listing.id, listing_version: version, listing_revision: listing.revision })
+      .first('listing_id');
+    // Under the version and revision, so a build never overwrites the package a row (or an owner of an older version) names.
+    const packagePrefix = existing ? null : version > 1 ? `${prefix}/package/v${version}/r${listing.revision}` : `${prefix}/package/r${listing.revision}`;
+    const { guideCount, pictures, built, previewKey, measured } = await makeListingFiles(listing, prefix, packagePrefix, stored);
     // Kept only if the listing is still the one it was built from (the edit locks the same row).
-    return await db().transaction(async (trx) => {
+    const outcome = await db().transaction<'done' | 'edited' | 'gone'>(async (trx) => {
       const now = await trx('listings').where({ id: listing.id }).forUpdate().first('revision');
       if (!now) return 'gone';
       if (now.revision !== listing.revision) return 'edited';
       if (built) {
-        await trx('listing_packages').where({ listing_id: listing.id }).delete();
-        await trx('listing_packages').insert({ listing_id: listing.id, groom_version_id: listing.groom_version_id, listing_revision: listing.revision, ...built });
+        await trx('listing_packages').where({ listing_id: listing.id, listing_version: version }).delete();
+        await trx('listing_packages').insert({ listing_id: listing.id, listing_version: version, groom_version_id: listing.groom_version_id, listing_revision: listing.revision, ...built });
       }
       await trx('listings')
         .where({ id: listing.id })
-        .update({ assets_status: 'ready', assets_error: null, guide_count: guides.count, pictures: JSON.stringify(pictures), updated_at: trx.fn.now() });
+        .update({ assets_status: 'ready', assets_error: null, guide_count: guideCount, pictures: JSON.stringify(pictures), preview_key: previewKey, assets_prefix: null, facts: JSON.stringify(measured.facts), guides_per_cm2: measured.guidesPerCm2, typical_length_cm: measured.typicalLengthCm, updated_at: trx.fn.now() });
       return 'done';
     });
+    // Listings built before the reduced preview kept the full guides there: no row names that file now.
+    if (outcome === 'done') await deleteMarketObjects([`${prefix}/preview/guides.glb`]);
+    return outcome;
   } catch (error) {
     const message = (error as Error).message ?? String(error);
     // A failure of an older revision says nothing about the edited listing: build that instead.
@@ -242,4 +225,69 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
     console.error(`[market] pictures and package of listing ${listing.id} failed: ${message}`);
     return 'done';
   }
+}
+
+export type ListingFiles = {
+  guideCount: number;
+  pictures: Picture[];
+  built: { object_key: string; file_name: string; byte_size: number } | null;
+  /** The reduced public preview (see lib/groom's previewGuides), never the package's guides. */
+  previewKey: string;
+  measured: MeasuredListing;
+};
+
+/**
+ * Grows a listing version's guides once and stores its pictures and guide preview under `prefix`,
+ * and its package zip under `packagePrefix` (none when null: the version's package exists). The
+ * growth surface goes into the package, and beside the guides in their files, only when the
+ * version says it ships it. Throws the storage's or lib/groom's error; stores nothing else.
+ */
+export async function makeListingFiles(listing: ListingFilesSource, prefix: string, packagePrefix: string | null, stored: Stored): Promise<ListingFiles> {
+  const spec = parseGroomSpec(listing.spec);
+  const surfaceBytes = await stored(() => getObjectBytes(listing.surface_key));
+  // The same check the studio ran on the surface: its facts describe the listing.
+  const { read, report } = checkSurfaceFile(surfaceBytes, listing.surface_file_name);
+  if (!read || !report.facts) throw new Error(`the listing's surface could not be read: ${report.problems[0]?.message ?? 'no facts'}`);
+  const surface = prepareGroomSurface(read.mesh, { boundary: spec.field.boundary });
+  const solved = solveGroomField(spec, surface);
+  const { guides } = growGuides(surface, solved, spec);
+  const made: GroomMade = { spec, surface, solved, guides };
+
+  const pictures: Picture[] = [];
+  for (const view of THUMBNAIL_VIEWS) {
+    for (const size of PICTURE_SIZES) {
+      const image = renderThumbnail(read.mesh, guides, { size, view, upAxis: spec.upAxis, colourBy: 'length' });
+      const key = `${prefix}/pictures/${view}-${size}.webp`;
+      const bytes = await encodeImage(image, 'webp');
+      await stored(() => putObject(key, bytes, 'image/webp'));
+      pictures.push({ view, size, key });
+    }
+  }
+  const previewKey = `${prefix}/preview/sample.glb`;
+  const preview = previewGuides(guides);
+  await stored(() => putObject(previewKey, previewToGlb(preview), EXPORT_FORMAT_FACTS.glb.mediaType));
+  const measured = measureListing(coatFacts(surface, spec, guides), report.facts, preview);
+
+  let built: ListingFiles['built'] = null;
+  if (packagePrefix) {
+    const folder = fileSlug(listing.title, 60, 'preset');
+    const entries: Zippable = {};
+    const fileNames: string[] = [];
+    for (const format of listing.formats) {
+      const name = packageFileName(format);
+      const bytes = writeExport(format, made, { withSurface: listing.ships_surface && EXPORT_FORMAT_FACTS[format].source === 'guides' });
+      entries[`${folder}/${name}`] = typeof bytes === 'string' ? strToU8(bytes) : bytes;
+      fileNames.push(`${name} — ${FORMAT_LABELS[format]}`);
+    }
+    if (listing.ships_surface) entries[`${folder}/surface/${listing.surface_file_name}`] = surfaceBytes;
+    entries[`${folder}/LICENCE.txt`] = strToU8(`${listing.licence_body}\n`);
+    entries[`${folder}/README.txt`] = strToU8(readme(listing, guides.count, fileNames));
+    // A fixed time stamp, so the same version always zips to the same bytes.
+    const zip = zipSync(entries, { level: 6, mtime: new Date('2026-01-01T00:00:00Z') });
+    const fileName = `${folder}.zip`;
+    const key = `${packagePrefix}/${fileName}`;
+    await stored(() => putObject(key, zip, 'application/zip'));
+    built = { object_key: key, file_name: fileName, byte_size: zip.byteLength };
+  }
+  return { guideCount: guides.count, pictures, built, previewKey, measured };
 }

@@ -9,6 +9,7 @@ export * from './errors';
 export * from './fees';
 export * from './listings';
 export * from './search';
+export * from './listing-facts';
 export * from './licences';
 export * from './library';
 export * from './reviews';

@@ -13,7 +13,8 @@ export const TRIAL_SWEEP_CRON = '41 * * * *';
 /** How often payments are reconciled with the provider. */
 export const RECONCILE_CRON = '*/10 * * * *';
 
-export type ListingAssetsJobData = { listingId: string };
+/** A listing's files, or with `versionId` those of one of its updates waiting for review. */
+export type ListingAssetsJobData = { listingId: string; versionId?: string };
 export type PresetTransferJobData = { transferId: string };
 
 /** Growing the guides once, six pictures, a preview and a package of every format (see lib/studio/jobs.ts). */
@@ -42,6 +43,12 @@ export function marketBoss(): Promise<PgBoss> {
 export async function enqueueListingAssets(listingId: string): Promise<void> {
   const boss = await marketBoss();
   await boss.send(LISTING_ASSETS_QUEUE, { listingId } satisfies ListingAssetsJobData, { singletonKey: listingId });
+}
+
+/** Queues the pictures and package of a listing's update (lib/market/version-assets.ts); one queued job per update. */
+export async function enqueueListingVersionAssets(listingId: string, versionId: string): Promise<void> {
+  const boss = await marketBoss();
+  await boss.send(LISTING_ASSETS_QUEUE, { listingId, versionId } satisfies ListingAssetsJobData, { singletonKey: `version-${versionId}` });
 }
 
 /** Queues the carrying of a listing's spec onto a buyer's surface (a fit or a trial). */

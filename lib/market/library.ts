@@ -17,7 +17,6 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
     .join('listings as l', 'l.id', 'p.listing_id')
     .join('users as s', 's.id', 'p.seller_id')
     .join('licences as c', 'c.id', 'l.licence_id')
-    .leftJoin('listing_packages as k', 'k.listing_id', 'p.listing_id')
     .leftJoin(counts, 'd.purchase_id', 'p.id')
     .where('p.buyer_id', actor.userId)
     .orderBy('p.created_at', 'desc')
@@ -36,9 +35,12 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
       's.display_name as seller_name',
       'c.slug as licence_slug',
       'c.title as licence_title',
-      'k.object_key',
+      'p.listing_version',
+      'p.update_seen_version',
+      'l.current_version',
       'd.downloads',
     );
+  const packages = await packagesOf(rows.map((row) => row.listing_id));
   return rows.map((row) => ({
     purchaseId: row.id,
     listing: {
@@ -53,19 +55,59 @@ export async function listLibrary(actor: Actor): Promise<LibraryItem[]> {
     currency: row.currency,
     status: row.status,
     refundPending: row.status === 'paid' && row.refund_id !== null,
-    packageReady: Boolean(row.object_key),
+    packageReady: packages.has(`${row.listing_id}:${row.current_version}`),
     downloads: Number(row.downloads ?? 0),
     purchasedAt: row.created_at.toISOString(),
     refundedAt: row.refunded_at?.toISOString() ?? null,
+    ...versionsOf(row, packages),
   }));
 }
 
-export async function requestDownload(actor: Actor, purchaseId: string): Promise<DownloadLink> {
-  const purchase = await db()('purchases as p')
-    .leftJoin('listing_packages as k', 'k.listing_id', 'p.listing_id')
+/** The listings' packages, as `listing id:version`. */
+async function packagesOf(listingIds: string[]): Promise<Set<string>> {
+  if (listingIds.length === 0) return new Set();
+  const rows = await db()('listing_packages').whereIn('listing_id', [...new Set(listingIds)]).select('listing_id', 'listing_version');
+  return new Set(rows.map((row) => `${row.listing_id}:${row.listing_version}`));
+}
+
+type VersionFacts = { listing_id: string; status: string; refund_id: string | null; listing_version: number; update_seen_version: number | null; current_version: number };
+
+/** Whether the purchase still stands: paid, and no refund asked. Only then are any versions the owner's. */
+const stands = (row: { status: string; refund_id: string | null }) => row.status === 'paid' && row.refund_id === null;
+
+/** The versions an owner may download: the one bought and every later one the market approved. */
+function versionsOf(row: VersionFacts, packages: Set<string>): Pick<LibraryItem, 'boughtVersion' | 'currentVersion' | 'versions' | 'updateNotice'> {
+  const versions: LibraryItem['versions'] = [];
+  if (stands(row)) {
+    for (let number = row.current_version; number >= row.listing_version; number--) {
+      versions.push({ number, packageReady: packages.has(`${row.listing_id}:${number}`) });
+    }
+  }
+  const seen = row.update_seen_version ?? row.listing_version;
+  return {
+    boughtVersion: row.listing_version,
+    currentVersion: row.current_version,
+    versions,
+    updateNotice: stands(row) && row.current_version > seen ? { number: row.current_version } : null,
+  };
+}
+
+/**
+ * A download of one version of the purchase's preset: by default the newest the owner may have,
+ * otherwise `version`, which must be the one bought or a later approved one (404 otherwise).
+ */
+export async function requestDownload(actor: Actor, purchaseId: string, version?: number): Promise<DownloadLink> {
+  const found = await db()('purchases as p')
+    .join('listings as l', 'l.id', 'p.listing_id')
     .where({ 'p.id': purchaseId, 'p.buyer_id': actor.userId })
-    .first('p.id', 'p.listing_id', 'p.status', 'p.refund_id', 'k.object_key', 'k.file_name');
-  if (!purchase) throw notFound('purchase');
+    .first('p.id', 'p.listing_id', 'p.status', 'p.refund_id', 'p.listing_version', 'l.current_version');
+  if (!found) throw notFound('purchase');
+  const wanted = version ?? found.current_version;
+  if (wanted < found.listing_version || wanted > found.current_version) {
+    throw new HttpError(404, 'not-found', `There is no version ${wanted} of this preset for you: you may download versions ${found.listing_version} to ${found.current_version}.`);
+  }
+  const pack = await db()('listing_packages').where({ listing_id: found.listing_id, listing_version: wanted }).first('object_key', 'file_name');
+  const purchase = { ...found, object_key: pack?.object_key as string | undefined, file_name: pack?.file_name as string | undefined };
   if (purchase.status === 'refunded') throw new HttpError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
   if (purchase.refund_id) throw new HttpError(403, 'refunded', 'This purchase is being refunded: its files are no longer yours to download.');
   if (!purchase.object_key) {
@@ -77,12 +119,14 @@ export async function requestDownload(actor: Actor, purchaseId: string): Promise
     const still = await trx('purchases').where({ id: purchase.id, status: 'paid' }).whereNull('refund_id').forShare().first('id');
     if (!still) return false;
     await trx('downloads').insert({ purchase_id: purchase.id, listing_id: purchase.listing_id });
+    // The newest version downloaded ends its notice in the library.
+    await trx('purchases').where({ id: purchase.id }).update({ update_seen_version: trx.raw('greatest(coalesce(update_seen_version, listing_version), ?)', [wanted]) });
     return true;
   });
   if (!logged) throw new HttpError(403, 'refunded', 'This purchase was refunded: its files are no longer yours to download.');
   return {
     url: await presignDownload(purchase.object_key, DOWNLOAD_URL_SECONDS, purchase.file_name),
-    fileName: purchase.file_name,
+    fileName: purchase.file_name!,
     expiresInSeconds: DOWNLOAD_URL_SECONDS,
   };
 }

@@ -80,3 +80,34 @@ export async function sendMailLogged(message: OutgoingMail): Promise<boolean> {
     return false;
   }
 }
+
+// Listing versions: the seller hears of the admins' decision on an update, and every owner of the
+// listing (paid, not refunded) of an approved one.
+
+export function listingVersionApprovedMail(to: string, version: { listingId: string; title: string; number: number; owners: number }) {
+  return mail(to, `Version ${version.number} of “${version.title}” is on the market`, [
+    `Version ${version.number} of “${version.title}” was approved: the market shows it now, and it is what new buyers get.`,
+    version.owners === 0
+      ? 'Nobody owns the preset yet.'
+      : `${version.owners === 1 ? 'Its one owner gets' : `Its ${version.owners} owners get`} it free in their library, with a notice; the version each bought stays theirs too.`,
+    `See it as buyers do: ${link(`/market/${version.listingId}`)}`,
+  ]);
+}
+
+export function listingVersionRejectedMail(to: string, version: { listingId: string; title: string; number: number }, reason: string) {
+  return mail(to, `Version ${version.number} of “${version.title}” needs changes`, [
+    `Version ${version.number} of “${version.title}” was not approved. The version on sale stays as it is. The reviewer's reason:`,
+    reason,
+    `Publish a corrected version: ${link(`/sales/listings/${version.listingId}/versions/new`)}`,
+  ]);
+}
+
+/** To an owner of a listing whose new version was approved: theirs at no cost. */
+export function ownerUpdateMail(to: string, version: { title: string; number: number; notes: string; boughtNumber: number }) {
+  return mail(to, `“${version.title}” has a new version for you`, [
+    `The seller of “${version.title}” published version ${version.number}. As an owner you get it at no cost: it is in your library now.`,
+    ...(version.notes ? [`What changed, in the seller's words:\n${version.notes}`] : []),
+    `The version you bought (version ${version.boughtNumber}) stays in your library too, under the same licence.`,
+    `Your library: ${link('/library')}`,
+  ]);
+}

@@ -1,5 +1,6 @@
 // The market's search: full text (PostgreSQL tsvector with a GIN index, weighted title > tags >
-// description), filters on tags, price, currency, formats and guide count, sorting and pages —
+// description), filters on tags, price, currency, formats, guides per cm² and typical guide length
+// (listing-facts.ts), sorting and pages —
 // one query for the page and one for the count, both on published listings only (partial indexes).
 // Answers are kept in memory under the market's search generation (see its migration), which
 // grows with every change a result could show: a kept answer is reused only while nothing changed.
@@ -21,6 +22,7 @@ const CARD_COLUMNS = [
   'l.body_region',
   'l.formats',
   'l.guide_count',
+  'l.facts',
   'l.sales_count',
   'l.rating_average',
   'l.rating_count',
@@ -44,8 +46,11 @@ function applyFilters(query: Knex.QueryBuilder, input: SearchInput, hasText: boo
   if (input.currency) query.where('l.currency', input.currency);
   if (input.minPrice !== undefined) query.where('l.price_cents', '>=', input.minPrice);
   if (input.maxPrice !== undefined) query.where('l.price_cents', '<=', input.maxPrice);
-  if (input.minGuides !== undefined) query.where('l.guide_count', '>=', input.minGuides);
-  if (input.maxGuides !== undefined) query.where('l.guide_count', '<=', input.maxGuides);
+  // Measures that mean the same on the buyer's character: density and length, not the guide count.
+  if (input.minDensity !== undefined) query.where('l.guides_per_cm2', '>=', input.minDensity);
+  if (input.maxDensity !== undefined) query.where('l.guides_per_cm2', '<=', input.maxDensity);
+  if (input.minLength !== undefined) query.where('l.typical_length_cm', '>=', input.minLength);
+  if (input.maxLength !== undefined) query.where('l.typical_length_cm', '<=', input.maxLength);
   return query;
 }
 

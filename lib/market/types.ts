@@ -1,12 +1,36 @@
 // The shapes the market's route handlers answer with, shared with the market's pages.
 // Money: integer cents with the currency beside it; times: ISO 8601 strings.
-import type { ThumbnailView, TransferReport } from '../groom';
+import type { ThumbnailView, TransferReport, Unit } from '../groom';
 import type { GroomDetail } from '../studio/types';
 import type { BodyRegion, CoatLength, Animal, Currency, ListingState, PackageFormat, SalesBucket, Style } from './vocabulary';
 
 export type Money = { cents: number; currency: Currency };
 
 export type ListingTagsOut = { animal: Animal; coatLength: CoatLength; style: Style; bodyRegion: BodyRegion };
+
+/**
+ * What a listing is, measured when its assets are built (lib/market/listing-facts.ts): the coat in
+ * numbers that mean something on another character, the seller's surface, the ways the spec
+ * carries onto a buyer's surface, and what the public preview holds. Lengths in `units`.
+ */
+export type ListingFacts = {
+  units: Unit;
+  upAxis: 'y' | 'z';
+  guidesPerCm2: number;
+  hairsPerGuide: number;
+  hairsPerCm2: number;
+  /** The area the guides grow on, on the seller's surface. */
+  growthAreaCm2: number;
+  pointsPerGuide: number;
+  length: { combed: number; shortest: number; median: number; longest: number };
+  /** The regions (OBJ groups) the spec grows on (empty: the whole surface), and those the seller's surface has. */
+  regions: { expected: string[]; surface: string[] };
+  /** The seller's surface: triangles, genus, openings (boundary loops), connected pieces, UVs. */
+  surface: { faces: number; genus: number | null; openings: number | null; pieces: number; uvs: boolean; uvOverlappingFaces: number };
+  /** How the spec can be carried onto a buyer's surface (lib/groom's transferSpec). */
+  transfer: { uv: boolean; alignment: boolean };
+  preview: { guides: number; pointsPerGuide: number };
+};
 
 /** One result of the search. `pictureUrl` is a route of the app that redirects to a short-lived URL. */
 export type ListingCard = {
@@ -17,6 +41,8 @@ export type ListingCard = {
   tags: ListingTagsOut;
   formats: PackageFormat[];
   guideCount: number | null;
+  /** Null until the listing's assets are (re)built. */
+  facts: ListingFacts | null;
   salesCount: number;
   rating: { average: number | null; count: number };
   seller: { id: string; displayName: string };
@@ -44,6 +70,9 @@ export type ListingDetail = ListingCard & {
   taxNote: string;
   createdAt: string;
   submittedAt: string | null;
+  /** Listing versions: the number of the version on sale, and whether its package ships the seller's growth surface. */
+  currentVersion: number;
+  shipsSurface: boolean;
 };
 
 /** A seller's own listing or one in the admin's queue. */
@@ -76,6 +105,12 @@ export type LibraryItem = {
   downloads: number;
   purchasedAt: string;
   refundedAt: string | null;
+  /** Listing versions: the version bought, the one on sale, and each one the owner may download (none once refunded). */
+  boughtVersion: number;
+  currentVersion: number;
+  versions: { number: number; packageReady: boolean }[];
+  /** A newer version than the one bought, not yet downloaded: the library's notice. */
+  updateNotice: { number: number } | null;
 };
 
 export type SalesFigures = {
@@ -184,6 +219,39 @@ export type RefundResponse = { purchase: AdminPurchase };
 export type ReconcileResponse = { recovered: number; checked: number; refundsChecked: number; refundsRecovered: number };
 /** POST /api/payments/webhook */
 export type WebhookResponse = { received: true; id: string; type: string; outcome: 'handled' | 'duplicate' | 'ignored' | 'refused' };
+
+// Listing versions (lib/market/listings/versions.ts).
+
+/** One version of a listing: the first (reviewed with the listing) or an update, with the seller's confirmation of their rights. */
+export type ListingVersionSummary = {
+  id: string;
+  listingId: string;
+  listingTitle: string;
+  number: number;
+  review: 'listing' | 'submitted' | 'approved' | 'rejected';
+  rejectionReason: string | null;
+  /** Whether this is the version the market sells now. */
+  onSale: boolean;
+  groom: { id: string; name: string; versionNumber: number | null; versionName: string | null };
+  description: string;
+  formats: PackageFormat[];
+  notes: string;
+  shipsSurface: boolean;
+  rights: { confirmedAt: string; wordingVersion: string } | null;
+  assets: { status: 'pending' | 'ready' | 'failed'; error: string | null };
+  /** A short-lived URL of its front picture (256 px), once made. */
+  pictureUrl: string | null;
+  seller: { id: string; displayName: string; email: string };
+  createdAt: string;
+  submittedAt: string | null;
+  decidedAt: string | null;
+};
+/** GET /api/market/listings/[id]/versions */
+export type ListingVersionsResponse = { versions: ListingVersionSummary[] };
+/** POST /api/market/listings/[id]/versions, POST /api/admin/listing-versions/[id]/decision */
+export type ListingVersionResponse = { version: ListingVersionSummary };
+/** GET /api/admin/listing-versions */
+export type AdminListingVersionsResponse = { versions: ListingVersionSummary[] };
 
 // A buyer's own use of a preset (lib/market/fitting): a listing's spec carried onto one of their
 // surfaces, for a purchase (a fit, accepted into a groom of theirs) or before buying (a trial).

@@ -12,6 +12,7 @@ import {
   SEARCH_SORTS,
   STYLES,
 } from './vocabulary';
+import { FIELD_NEEDS_SURFACE, RIGHTS_REFUSED, SURFACE_CARRYING_FORMAT } from './rights';
 
 const oneOf = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
   z.enum(values, { error: `Choose ${what}: ${values.join(', ')}.` });
@@ -44,25 +45,57 @@ const formats = z
   .min(1, 'Include at least one file format.')
   .transform((values) => [...new Set(values)]);
 
-export const listingDraftSchema = z.object({
-  groomId: z.uuid('Choose one of your grooms.'),
-  versionId: z.uuid('Choose a saved version of the groom.'),
-  title,
-  description,
-  tags: tagsSchema,
-  priceCents,
-  currency,
-  licenceSlug,
-  formats,
-});
+// Listing versions and the seller's rights: every listing and every new version carries the
+// seller's tick (rights.ts); the package ships the growth surface only when asked, and the field
+// file, which holds the whole surface, only with it.
+const rightsConfirmed = z.literal(true, { error: RIGHTS_REFUSED });
+const shipsSurface = z.boolean({ error: 'Say whether the package ships your growth surface.' });
+
+/** Whether `formats` may go without the surface; a field message on `formats` otherwise. */
+export function surfaceRule(value: { formats?: readonly string[]; shipsSurface?: boolean }, context: z.RefinementCtx) {
+  if (value.formats?.includes(SURFACE_CARRYING_FORMAT) && value.shipsSurface === false) {
+    context.addIssue({ code: 'custom', path: ['formats'], message: FIELD_NEEDS_SURFACE });
+  }
+}
+
+export const listingDraftSchema = z
+  .object({
+    groomId: z.uuid('Choose one of your grooms.'),
+    versionId: z.uuid('Choose a saved version of the groom.'),
+    title,
+    description,
+    tags: tagsSchema,
+    priceCents,
+    currency,
+    licenceSlug,
+    formats,
+    rightsConfirmed,
+    shipsSurface: shipsSurface.default(false),
+  })
+  .superRefine(surfaceRule);
 export type ListingDraftInput = z.infer<typeof listingDraftSchema>;
 
-/** PATCH: any of the draft's fields except the version it freezes. */
+/** PATCH: any of the draft's fields except the version it freezes; a changed surface tick comes with the rights tick again. */
 export const listingPatchSchema = z
-  .object({ title, description, tags: tagsSchema, priceCents, currency, licenceSlug, formats })
+  .object({ title, description, tags: tagsSchema, priceCents, currency, licenceSlug, formats, rightsConfirmed, shipsSurface })
   .partial()
-  .strict();
+  .strict()
+  .refine((value) => value.shipsSurface === undefined || value.rightsConfirmed === true, { path: ['rightsConfirmed'], message: RIGHTS_REFUSED });
 export type ListingPatchInput = z.infer<typeof listingPatchSchema>;
+
+/** POST /api/market/listings/[id]/versions: a newer groom version, with its description and files, for the listing's owners. */
+export const listingVersionSchema = z
+  .object({
+    groomId: z.uuid('Choose one of your grooms.'),
+    versionId: z.uuid('Choose a saved version of the groom.'),
+    description,
+    formats,
+    notes: z.string().trim().max(2000, 'Keep the notes under 2000 characters.').default(''),
+    rightsConfirmed,
+    shipsSurface: shipsSurface.default(false),
+  })
+  .superRefine(surfaceRule);
+export type ListingVersionInput = z.infer<typeof listingVersionSchema>;
 
 export const decisionSchema = z
   .object({
@@ -83,6 +116,12 @@ export const reviewSchema = z.object({
 
 const intFromQuery = (name: string, min: number, max: number) =>
   z.coerce.number({ error: `${name} must be a whole number.` }).int(`${name} must be a whole number.`).min(min).max(max);
+/** A measure (density in guides per cm², length in cm) from 0 up to `max`. */
+const numberFromQuery = (name: string, unit: string, max: number) =>
+  z.coerce
+    .number({ error: `${name} must be a number (${unit}).` })
+    .min(0, `${name} must not be below 0 ${unit}.`)
+    .max(max, `${name} must be at most ${max.toLocaleString('en-GB')} ${unit}.`);
 const listFromQuery = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
   z
     .union([z.string(), z.array(z.string())])
@@ -100,8 +139,10 @@ export const searchSchema = z
     currency: currency.optional(),
     minPrice: intFromQuery('minPrice', 0, MAX_PRICE_CENTS).optional(),
     maxPrice: intFromQuery('maxPrice', 0, MAX_PRICE_CENTS).optional(),
-    minGuides: intFromQuery('minGuides', 0, 10_000_000).optional(),
-    maxGuides: intFromQuery('maxGuides', 0, 10_000_000).optional(),
+    minDensity: numberFromQuery('minDensity', 'guides per cm²', 10_000).optional(),
+    maxDensity: numberFromQuery('maxDensity', 'guides per cm²', 10_000).optional(),
+    minLength: numberFromQuery('minLength', 'cm', 1_000_000).optional(),
+    maxLength: numberFromQuery('maxLength', 'cm', 1_000_000).optional(),
     sort: oneOf(SEARCH_SORTS, 'the order').optional(),
     page: intFromQuery('page', 1, 10_000).default(1),
     pageSize: intFromQuery('pageSize', 1, 60).default(24),
@@ -110,9 +151,13 @@ export const searchSchema = z
     path: ['maxPrice'],
     message: 'The highest price must not be below the lowest.',
   })
-  .refine((v) => v.minGuides === undefined || v.maxGuides === undefined || v.minGuides <= v.maxGuides, {
-    path: ['maxGuides'],
-    message: 'The most guides must not be below the fewest.',
+  .refine((v) => v.minDensity === undefined || v.maxDensity === undefined || v.minDensity <= v.maxDensity, {
+    path: ['maxDensity'],
+    message: 'The highest density must not be below the lowest.',
+  })
+  .refine((v) => v.minLength === undefined || v.maxLength === undefined || v.minLength <= v.maxLength, {
+    path: ['maxLength'],
+    message: 'The longest length must not be below the shortest.',
   });
 export type SearchInput = z.infer<typeof searchSchema>;
 

@@ -101,11 +101,13 @@ export async function getGroom(groomer: Groomer, groomId: string): Promise<Groom
   // Grooms are made only on ready surfaces, and a surface never leaves that state.
   const detail = await surfaceDetail(surface);
   if (detail.state !== 'ready') throw new Error(`groom ${groomId} grows on surface ${surface.id}, which is ${detail.state}`);
+  const roots: SurfaceRow | undefined = row.roots_surface_id ? await db()('growth_surfaces').where({ id: row.roots_surface_id }).first() : undefined;
   return {
     ...(await groomSummary(row)),
     spec: row.spec,
     savedAt: row.spec_saved_at.toISOString(),
     surface: detail,
+    rootsSurface: roots ? { id: roots.id, fileName: roots.file_name, fileUrl: await presignDownload(roots.object_key, STUDIO_URL_SECONDS, roots.file_name) } : null,
     versions: await Promise.all(versions.map(version)),
   };
 }

@@ -108,6 +108,12 @@ export type GroomDetail = GroomSummary & {
   spec: GroomSpec;
   savedAt: IsoDate;
   surface: SurfaceDetail;
+  /**
+   * The earlier sculpt the guides' roots are sampled on (a groom moved onto a new sculpt by
+   * polygon keeps its guides' ids, polygons and weights), or null: the editor grows its preview
+   * from it, as exports do. `fileUrl` is a presigned GET valid 10 minutes.
+   */
+  rootsSurface: { id: string; fileName: string; fileUrl: string } | null;
   /** Newest first. */
   versions: Version[];
 };

@@ -4,57 +4,14 @@
 // an admin refunds it and the buyer's download is refused.
 import { randomBytes } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
-import { expect, test, type Browser, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import { unzipSync, strFromU8 } from 'fflate';
 import { closeDb, db } from '../../lib/platform/db';
-import { DEMO_GROOMS, surfaceToObj } from '../../lib/groom/demo';
 import { DEMO_ACCOUNTS } from '../../db/demo-scenario';
-import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
+import { confirmedAccount } from './helpers';
+import { groomWithSavedVersion, personPage } from './market-helpers';
 
 test.afterAll(closeDb);
-
-async function personPage(browser: Browser, email: string, password: string, displayName: string): Promise<Page> {
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await signInThroughForm(page, email, password);
-  await expectSignedInAs(page, displayName);
-  return page;
-}
-
-async function apiJson<T>(response: { status(): number; text(): Promise<string> }, status: number): Promise<T> {
-  const text = await response.text();
-  expect(response.status(), text).toBe(status);
-  return (JSON.parse(text) as { data: T }).data;
-}
-
-/** A growth surface, a groom on it and a saved version, through the studio's routes. */
-async function groomWithSavedVersion(page: Page, name: string) {
-  const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
-  const obj = new TextEncoder().encode(surfaceToObj(ring.surface(), 'Loop, a plush ring'));
-  const ticket = await apiJson<{ uploadId: string; url: string }>(
-    await page.request.post('/api/studio/uploads', { data: { fileName: 'loop.obj', byteSize: obj.byteLength } }),
-    201,
-  );
-  const put = await page.request.put(ticket.url, { data: Buffer.from(obj) });
-  expect(put.ok()).toBe(true);
-  // Registering answers at once; a job worker checks the file, and a groom starts on a ready surface.
-  const { surface } = await apiJson<{ surface: { id: string } }>(
-    await page.request.post('/api/studio/surfaces', { data: { uploadId: ticket.uploadId, name: 'Loop ring', units: 'cm' } }),
-    202,
-  );
-  await expect
-    .poll(async () => (await apiJson<{ surface: { state: string } }>(await page.request.get(`/api/studio/surfaces/${surface.id}`), 200)).surface.state, {
-      timeout: 60_000,
-      message: 'the surface is checked',
-    })
-    .toBe('ready');
-  const { groom } = await apiJson<{ groom: { id: string } }>(
-    await page.request.post('/api/studio/grooms', { data: { surfaceId: surface.id, name } }),
-    201,
-  );
-  await apiJson(await page.request.post(`/api/studio/grooms/${groom.id}/versions`, { data: { name: 'first pass' } }), 201);
-  return groom.id;
-}
 
 test('a preset is listed, approved, found, bought, downloaded, reviewed, counted, paid out and refunded', async ({ browser }) => {
   test.setTimeout(300_000);
@@ -93,6 +50,10 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await seller.getByLabel(/OpenUSD BasisCurves, linear/).check();
   await seller.getByLabel(/glTF 2\.0 binary/).check();
   await seller.getByLabel(/Whorlwind groom spec/).check();
+  // Without the rights tick the listing is refused, with words.
+  await seller.getByRole('button', { name: 'Save and submit for review' }).click();
+  await expect(seller.locator('[data-field-error="rightsConfirmed"]')).toContainText('own or may publish');
+  await seller.getByLabel(/I own this groom/).check();
   await seller.getByRole('button', { name: 'Save and submit for review' }).click();
 
   await expect(seller).toHaveURL(/\/sales\?listed=/);
@@ -121,6 +82,7 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await expect(buyer).toHaveURL(new RegExp(`/market\\?q=${token}`));
   await expect(buyer.getByTestId('listing-tile')).toHaveCount(1);
   await expect(buyer.getByTestId('listing-tile')).toContainText('19.50 EUR');
+  await expect(buyer.getByTestId('listing-tile')).toContainText(/guides per cm² · [\d.]+(–[\d.]+)? cm/);
   await buyer.getByRole('link', { name: title }).click();
 
   await expect(buyer.getByRole('heading', { name: title, level: 1 })).toBeVisible();
@@ -132,6 +94,15 @@ test('a preset is listed, approved, found, bought, downloaded, reviewed, counted
   await expect(preview).toHaveAttribute('data-preview-state', 'ready', { timeout: 30_000 });
   await expect(preview.locator('canvas')).toBeVisible();
   await expect(preview).toContainText(/\d+ guides shown/);
+  // What the listing says it is: the surface was registered in centimetres, and the ring is closed, of genus 1.
+  const facts = buyer.getByTestId('listing-facts');
+  await expect(facts).toContainText('centimetres (cm)');
+  await expect(facts).toContainText(/[\d.]+ guides per cm², [\d,]+ hairs per guide/);
+  await expect(facts).toContainText('genus 1 · closed, no openings');
+  await expect(facts).toContainText('by alignment of the two surfaces');
+  // The preview the browser's GLTFLoader drew holds as many guides as the listing states.
+  const shown = (await preview.textContent())!.match(/([\d,]+) guides shown/)![1];
+  await expect(facts).toContainText(`${shown} guides, 4 points each`);
 
   // Pays with the test card on the payment provider's hosted page, and comes back to the library.
   await buyer.getByRole('button', { name: 'Buy for 19.50 EUR' }).click();

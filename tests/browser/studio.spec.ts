@@ -66,6 +66,8 @@ test('growth surfaces: an upload with progress and the limit shown; a refused fi
   await expect(rejected.getByTestId('surface-problem').first()).toContainText('Must be fixed');
   await expect(rejected).toContainText(/orient/i);
   await expect(rejected).toContainText('First ones: edges between vertices');
+  // …in the file's own numbering: an OBJ counts its vertices from 1.
+  await expect(rejected).toContainText('(as the file numbers them, counting from 1)');
   // The file is drawn from the browser's own reading of it, the bad edges marked.
   const view = rejected.getByTestId('problem-view');
   await expect(view.locator('canvas')).toBeVisible({ timeout: 30_000 });

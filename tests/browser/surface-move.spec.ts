@@ -78,3 +78,68 @@ test('replacing a groom’s surface: the transfer report first, then the move; t
   await page.goto(here);
   await expect(page.getByText(/^On bramble \(/).first()).toBeVisible({ timeout: 60_000 });
 });
+
+// The same fox, turned a quarter about its up axis, twice the size, and with each triangle's
+// corners listed from another corner: the polygons differ, so the groom moves by alignment.
+const TURNED = (() => {
+  const positions = FOX.positions.slice();
+  for (let i = 0; i < positions.length; i += 3) {
+    const [x, y, z] = [FOX.positions[i], FOX.positions[i + 1], FOX.positions[i + 2]];
+    [positions[i], positions[i + 1], positions[i + 2]] = [2 * z, 2 * y, -2 * x];
+  }
+  const triangles = FOX.triangles.slice();
+  for (let f = 0; f < triangles.length; f += 3) [triangles[f], triangles[f + 1], triangles[f + 2]] = [FOX.triangles[f + 1], FOX.triangles[f + 2], FOX.triangles[f]];
+  return Buffer.from(surfaceToObj({ ...FOX, positions, triangles }, 'Bramble, turned'));
+})();
+
+test('landmarks for a move by alignment are clicked on the two surfaces side by side', async ({ page }) => {
+  test.setTimeout(300_000);
+  const account = await confirmedAccount('matcher', 'groomer', 'a-proper-coat-42');
+  await signInThroughForm(page, account.email, account.password);
+  await expectSignedInAs(page, account.displayName);
+  await page.goto('/studio');
+  await upload(page, 'bramble.obj', FIRST);
+  await expect(page.getByText('bramble is ready')).toBeVisible({ timeout: 60_000 });
+  await upload(page, 'turned.obj', TURNED);
+  await expect(page.getByText('turned is ready')).toBeVisible({ timeout: 60_000 });
+  await page.getByRole('button', { name: 'Start a groom on bramble' }).click();
+  await page.getByLabel('Name of the new groom on bramble').fill('Matched coat');
+  await page.getByRole('button', { name: 'Start grooming' }).click();
+  await expect(page).toHaveURL(/\/studio\/grooms\/[0-9a-f-]+$/);
+  await waitForField(page);
+
+  await page.getByRole('tab', { name: 'Surface' }).click();
+  await page.getByLabel('Move onto').selectOption({ label: 'turned' });
+  await page.getByText('Match places by hand on the two surfaces').click();
+  const from = page.getByTestId('landmarks-from'), to = page.getByTestId('landmarks-to');
+  await expect(to).toBeVisible({ timeout: 60_000 });
+  const status = page.getByTestId('landmark-status');
+  const spots = [[0.5, 0.5], [0.42, 0.4], [0.6, 0.42], [0.5, 0.62]];
+  for (const [k, [x, y]] of spots.entries()) {
+    const box = (await from.boundingBox())!;
+    await from.click({ position: { x: x * box.width, y: y * box.height } });
+    await expect(status).toHaveText('Now click the same place on turned.');
+    // A drag turns the view and places nothing.
+    const target = (await to.boundingBox())!;
+    await page.mouse.move(target.x + 0.5 * target.width, target.y + 0.5 * target.height);
+    await page.mouse.down();
+    await page.mouse.move(target.x + 0.5 * target.width + 40, target.y + 0.5 * target.height + 20, { steps: 4 });
+    await page.mouse.up();
+    await expect(status).toHaveText('Now click the same place on turned.');
+    // Turned back, so the same spot of the view is clicked as on the other side.
+    await page.mouse.move(target.x + 0.5 * target.width + 40, target.y + 0.5 * target.height + 20);
+    await page.mouse.down();
+    await page.mouse.move(target.x + 0.5 * target.width, target.y + 0.5 * target.height, { steps: 4 });
+    await page.mouse.up();
+    await to.click({ position: { x: x * target.width, y: y * target.height } });
+    await expect(status).toHaveText(new RegExp(`^${k + 1} pairs? matched`));
+  }
+  const lines = (await page.getByLabel(/^Landmarks/).inputValue()).trim().split('\n');
+  expect(lines).toHaveLength(4);
+  for (const line of lines) expect(line).toMatch(/^(-?[\d.e-]+ ){3}= (-?[\d.e-]+ ?){3}$/);
+
+  await page.getByRole('button', { name: 'Show the transfer report' }).click();
+  const report = page.getByTestId('transfer-report');
+  await expect(report).toBeVisible({ timeout: 60_000 });
+  await expect(report).toContainText('Carried by alignment along the normal');
+});

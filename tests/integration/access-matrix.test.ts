@@ -176,6 +176,22 @@ async function newGroom(owner: TestAccount, surfaceId: string, name: string): Pr
   return (await post<{ groom: GroomDetail }>(owner, '/api/studio/grooms', '/api/studio/grooms', { surfaceId, name }, 201)).groom;
 }
 
+/** An update of a published listing waiting for the admins, as the seller's command leaves it (listing versions). */
+async function updateWaiting(listingId: string): Promise<string> {
+  const listing = await db()('listings').where({ id: listingId }).first();
+  const [row] = await db()('listing_versions')
+    .insert({
+      listing_id: listingId,
+      number: 2,
+      review: 'submitted',
+      ...Object.fromEntries(['groom_id', 'groom_version_id', 'groom_name', 'version_number', 'version_name', 'surface_key', 'surface_file_name', 'description', 'formats'].map((key) => [key, listing[key]])),
+      spec: JSON.stringify(listing.spec),
+      submitted_at: db().fn.now(),
+    })
+    .returning('id');
+  return row.id;
+}
+
 async function makeCastAndThings() {
   const [owner, other, buyer, admin] = await Promise.all([
     signedInAccount('groomer', 'matrix-owner'),
@@ -221,6 +237,7 @@ async function makeCastAndThings() {
     .insert({ email: uniqueEmail('matrix-bystander'), display_name: 'Matrix bystander', password_hash: 'not-used', email_verified_at: db().fn.now() })
     .returning('id');
   await db()('user_roles').insert({ user_id: account.id, role: 'buyer' });
+  const waitingVersion = await updateWaiting(await listed('published', 'Matrix coat, updated'));
   const purchase = await buy(buyerActor, boughtListing);
   const refundPurchase = await buy(buyerActor, refundListing);
   const refundedPurchase = await buy(buyerActor, refundedListing);
@@ -260,6 +277,7 @@ async function makeCastAndThings() {
     submitListing,
     unlistListing,
     submittedListing,
+    waitingVersion,
     purchase,
     refundPurchase,
     account: account.id,

@@ -38,6 +38,7 @@ export type Things = {
   submitListing: string; // a draft the owner submits
   unlistListing: string; // published; the owner takes it off the market
   submittedListing: string; // waiting for an admin's decision
+  waitingVersion: string; // an update of a published listing, waiting for an admin's decision (listing versions)
   purchase: string; // the buyer's purchase of boughtListing
   refundPurchase: string; // another purchase of the buyer, which the admin refunds
   account: string; // a buyer's account nobody in the rows signs in with, for the admins' account rows
@@ -153,6 +154,7 @@ export const ROUTE_ROWS: RouteRow[] = [
       currency: 'eur',
       licenceSlug: 'personal',
       formats: ['json'],
+      rightsConfirmed: true,
     }),
   }),
   route('GET', '/api/market/listings/[id]', all(200), { params: listing, note: 'published' }),
@@ -169,6 +171,23 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('PUT', '/api/market/listings/[id]/review', '401 400 400 400 403', { params: { id: 'boughtListing' }, body: { rating: 9 }, note: 'bad input' }),
   route('GET', '/api/library', '401 200 200 200 403'),
   route('POST', '/api/library/[purchaseId]/download', '401 200 404 404 403', { params: { purchaseId: 'purchase' }, note: "the buyer's purchase" }),
+  // Listing versions: the seller's updates, the owners' versions, the admins' queue of updates.
+  route('POST', '/api/library/[purchaseId]/download', '401 404 404 404 403', { params: { purchaseId: 'purchase' }, query: 'version=7', note: 'a version not theirs' }),
+  route('POST', '/api/library/[purchaseId]/download', '401 400 400 400 403', { params: { purchaseId: 'purchase' }, query: 'version=latest', note: 'bad input' }),
+  route('GET', '/api/market/listings/[id]/versions', '401 403 200 404 200', { params: listing }),
+  route('POST', '/api/market/listings/[id]/versions', '401 403 201 404 403', {
+    params: listing,
+    body: (t) => ({ groomId: t.groom, versionId: t.version, description: 'A newer coat made by the access matrix, for its owners.', formats: ['json'], rightsConfirmed: true }),
+  }),
+  route('POST', '/api/market/listings/[id]/versions', '401 403 400 400 403', {
+    params: listing,
+    body: (t) => ({ groomId: t.groom, versionId: t.version, description: 'A newer coat made by the access matrix, for its owners.', formats: ['json'] }),
+    note: 'no rights tick',
+  }),
+  route('GET', '/api/admin/listing-versions', '401 403 403 403 200'),
+  route('POST', '/api/admin/listing-versions/[id]/decision', '401 403 403 403 400', { params: { id: 'waitingVersion' }, body: { approve: false }, note: 'no reason' }),
+  route('POST', '/api/admin/listing-versions/[id]/decision', '401 403 403 403 404', { params: { id: 'missing' }, body: { approve: true }, note: 'no such version' }),
+  route('POST', '/api/admin/listing-versions/[id]/decision', '401 403 403 403 200', { params: { id: 'waitingVersion' }, body: { approve: false, reason: 'Matrix: show the whole coat.' } }),
 
   // Fitting a bought preset and trying one before buying: the buyer's own, on the buyer's own surface.
   route('POST', '/api/library/[purchaseId]/fits', '401 202 404 404 403', { params: { purchaseId: 'purchase' }, body: (t) => ({ surfaceId: t.buyerSurface }) }),
@@ -223,6 +242,7 @@ export const PAGE_ROWS: PageRow[] = [
   page('/sales', 'signin 403 200 200 403'),
   page('/sales/new', 'signin 403 200 200 403'),
   page('/sales/listings/[id]/edit', 'signin 403 200 404 403', { params: { id: 'draftListing' } }),
+  page('/sales/listings/[id]/versions/new', 'signin 403 200 404 403', { params: listing }),
   page('/admin', 'signin 403 403 403 200'),
   page('/admin/mail', 'signin 403 403 403 200'),
   page('/admin/accounts', 'signin 403 403 403 200'),

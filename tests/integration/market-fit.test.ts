@@ -122,6 +122,8 @@ describe('fit a bought preset to my character', () => {
       currency: 'eur',
       licenceSlug: LICENCE_TEXTS[0].slug,
       formats: ['json'],
+      rightsConfirmed: true,
+      shipsSurface: false,
     }).then(
       () => null,
       (error: unknown) => error,

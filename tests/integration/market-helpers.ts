@@ -6,7 +6,7 @@ import type Stripe from 'stripe';
 import { db } from '@/lib/platform/db';
 import { env } from '@/lib/platform/env';
 import { payments } from '@/lib/platform/payments';
-import { putObject } from '@/lib/platform/storage';
+import { getObjectBytes, putObject } from '@/lib/platform/storage';
 import { parseGroomSpec } from '@/lib/groom';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import type { Actor } from '@/lib/accounts/actor';
@@ -37,6 +37,39 @@ export async function ringSurfaceKey(): Promise<string> {
   return key;
 }
 
+/** A surface (the demo ring), a groom on it and saved versions of it named `versionNames` (numbered 1, 2, …), as the studio keeps them. */
+export async function studioGroom(owner: Actor, versionNames: string[]) {
+  const objectKey = await ringSurfaceKey();
+  const surfaceBytes = await getObjectBytes(objectKey);
+  const [surface] = await db()('growth_surfaces')
+    .insert({
+      owner_id: owner.userId,
+      name: 'Loop',
+      file_name: 'loop.obj',
+      format: 'obj',
+      units: 'cm',
+      object_key: objectKey,
+      byte_size: surfaceBytes.byteLength,
+      vertex_count: 1,
+      face_count: 1,
+      component_count: 1,
+      boundary_loop_count: 0,
+      genus: 1,
+      euler_characteristic: 0,
+      area_cm2: 1,
+      components: JSON.stringify([]),
+    })
+    .returning('id');
+  const spec = JSON.stringify(parseGroomSpec(ring.spec));
+  const [groom] = await db()('grooms').insert({ owner_id: owner.userId, surface_id: surface.id, name: 'Loop the plush ring', spec }).returning('id');
+  const versionIds: string[] = [];
+  for (const [index, name] of versionNames.entries()) {
+    const [version] = await db()('groom_versions').insert({ groom_id: groom.id, number: index + 1, name, spec, source_revision: index + 1 }).returning('id');
+    versionIds.push(version.id);
+  }
+  return { surfaceId: surface.id as string, groomId: groom.id as string, versionIds, objectKey, surfaceBytes };
+}
+
 export type ListingOptions = Partial<{
   title: string;
   description: string;
@@ -55,6 +88,9 @@ export type ListingOptions = Partial<{
   ratingCount: number;
   assetsStatus: string;
   licence: string;
+  /** The measures the search filters on (lib/market/listing-facts.ts); null as before the asset job. */
+  guidesPerCm2: number | null;
+  typicalLengthCm: number | null;
 }>;
 
 /**
@@ -92,6 +128,8 @@ export async function insertListing(seller: Actor, options: ListingOptions = {},
       rating_average: options.ratingAverage ?? null,
       rating_count: options.ratingCount ?? 0,
       assets_status: options.assetsStatus ?? 'ready',
+      guides_per_cm2: options.guidesPerCm2 ?? null,
+      typical_length_cm: options.typicalLengthCm ?? null,
     })
     .returning('id');
   return row.id;

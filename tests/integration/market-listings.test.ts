@@ -3,50 +3,23 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
-import { getObjectBytes } from '@/lib/platform/storage';
-import { parseGroomSpec } from '@/lib/groom';
-import { DEMO_GROOMS } from '@/lib/groom/demo';
 import { buildListingAssets } from '@/lib/market/assets';
 import { HttpError } from '@/lib/http/errors';
 import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
 import type { ListingDraftInput } from '@/lib/market/validation';
-import { makePerson, ringSurfaceKey } from './market-helpers';
+import { makePerson, studioGroom } from './market-helpers';
 
 afterAll(async () => {
   await stopJobs();
   await closeDb();
 });
 
-const ring = DEMO_GROOMS.find((groom) => groom.id === 'loop-plush-ring')!;
-
 /** A surface, a groom and a saved version, as the studio keeps them. */
 async function studioVersion(owner: Actor) {
-  const objectKey = await ringSurfaceKey();
-  const [surface] = await db()('growth_surfaces')
-    .insert({
-      owner_id: owner.userId,
-      name: 'Loop',
-      file_name: 'loop.obj',
-      format: 'obj',
-      units: 'cm',
-      object_key: objectKey,
-      byte_size: (await getObjectBytes(objectKey)).byteLength,
-      vertex_count: 1,
-      face_count: 1,
-      component_count: 1,
-      boundary_loop_count: 0,
-      genus: 1,
-      euler_characteristic: 0,
-      area_cm2: 1,
-      components: JSON.stringify([]),
-    })
-    .returning('id');
-  const spec = parseGroomSpec(ring.spec);
-  const [groom] = await db()('grooms').insert({ owner_id: owner.userId, surface_id: surface.id, name: 'Loop the plush ring', spec: JSON.stringify(spec) }).returning('id');
-  const [version] = await db()('groom_versions').insert({ groom_id: groom.id, number: 1, name: 'First nap', spec: JSON.stringify(spec), source_revision: 1 }).returning('id');
-  return { surfaceId: surface.id as string, groomId: groom.id as string, versionId: version.id as string, objectKey };
+  const made = await studioGroom(owner, ['First nap']);
+  return { surfaceId: made.surfaceId, groomId: made.groomId, versionId: made.versionIds[0], objectKey: made.objectKey };
 }
 
 const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput => ({
@@ -58,6 +31,8 @@ const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput =
   currency: 'eur',
   licenceSlug: 'personal',
   formats: ['usda', 'json'],
+  rightsConfirmed: true,
+  shipsSurface: false,
 });
 
 async function failure(promise: Promise<unknown>): Promise<HttpError> {

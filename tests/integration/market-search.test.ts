@@ -33,11 +33,11 @@ beforeAll(async () => {
   const seller = await makePerson('search-seller', ['groomer']);
   const day = (n: number) => new Date(Date.UTC(2026, 0, 1 + n));
   const make = (title: string, options: Parameters<typeof insertListing>[1]) => insertListing(seller, { title: `${title} ${token}`, ...options });
-  await make('Russet fox crown', { animal: 'fox', coatLength: 'medium', style: 'stylised', bodyRegion: 'head', priceCents: 2400, guideCount: 1500, publishedAt: day(1), salesCount: 9, ratingAverage: 4.5, ratingCount: 4, formats: ['usda', 'glb'] });
-  await make('Silver fox winter pelt', { animal: 'fox', coatLength: 'long', style: 'natural', bodyRegion: 'full-body', priceCents: 5900, guideCount: 12000, publishedAt: day(2), salesCount: 2, ratingAverage: 3, ratingCount: 1, formats: ['usda', 'obj', 'json'] });
-  await make('Tabby cat short coat', { animal: 'cat', coatLength: 'short', style: 'natural', bodyRegion: 'full-body', priceCents: 1500, guideCount: 4000, publishedAt: day(3), salesCount: 30, ratingAverage: 4.9, ratingCount: 12, formats: ['obj'] });
-  await make('Plush ring nap', { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body', priceCents: 900, guideCount: 800, publishedAt: day(4), salesCount: 0, formats: ['glb', 'json'] });
-  await make('Wolf ruff', { animal: 'wolf', coatLength: 'long', style: 'wild', bodyRegion: 'torso', priceCents: 3200, guideCount: 6000, publishedAt: day(5), salesCount: 5, ratingAverage: 4.1, ratingCount: 7 });
+  await make('Russet fox crown', { animal: 'fox', coatLength: 'medium', style: 'stylised', bodyRegion: 'head', priceCents: 2400, guideCount: 1500, guidesPerCm2: 3, typicalLengthCm: 2.5, publishedAt: day(1), salesCount: 9, ratingAverage: 4.5, ratingCount: 4, formats: ['usda', 'glb'] });
+  await make('Silver fox winter pelt', { animal: 'fox', coatLength: 'long', style: 'natural', bodyRegion: 'full-body', priceCents: 5900, guideCount: 12000, guidesPerCm2: 1.2, typicalLengthCm: 6, publishedAt: day(2), salesCount: 2, ratingAverage: 3, ratingCount: 1, formats: ['usda', 'obj', 'json'] });
+  await make('Tabby cat short coat', { animal: 'cat', coatLength: 'short', style: 'natural', bodyRegion: 'full-body', priceCents: 1500, guideCount: 4000, guidesPerCm2: 4.5, typicalLengthCm: 1.2, publishedAt: day(3), salesCount: 30, ratingAverage: 4.9, ratingCount: 12, formats: ['obj'] });
+  await make('Plush ring nap', { animal: 'toy', coatLength: 'short', style: 'plush', bodyRegion: 'full-body', priceCents: 900, guideCount: 800, guidesPerCm2: 6, typicalLengthCm: 0.8, publishedAt: day(4), salesCount: 0, formats: ['glb', 'json'] });
+  await make('Wolf ruff', { animal: 'wolf', coatLength: 'long', style: 'wild', bodyRegion: 'torso', priceCents: 3200, guideCount: 6000, guidesPerCm2: 2, typicalLengthCm: 5, publishedAt: day(5), salesCount: 5, ratingAverage: 4.1, ratingCount: 7 });
   // Not published: never found.
   await make('Draft fox secret', { animal: 'fox', state: 'draft' });
   await make('Submitted fox secret', { animal: 'fox', state: 'submitted' });
@@ -55,7 +55,7 @@ describe('GET /api/market/search', () => {
     expect(titles((await results({ q: `${token} pelts` })).results)).toEqual([`Silver fox winter pelt ${token}`]);
   });
 
-  it('filters by tags, price range, formats and guide count', async () => {
+  it('filters by tags, price range, formats, density and length', async () => {
     expect(titles((await results({ animal: 'cat' })).results)).toEqual([`Tabby cat short coat ${token}`]);
     expect(titles((await results({ coatLength: 'long', sort: 'price-asc' })).results)).toEqual([`Wolf ruff ${token}`, `Silver fox winter pelt ${token}`]);
     expect((await results({ style: 'plush' })).total).toBe(1);
@@ -66,11 +66,35 @@ describe('GET /api/market/search', () => {
       `Wolf ruff ${token}`,
     ]);
     expect(titles((await results({ format: 'glb,json' })).results)).toEqual([`Plush ring nap ${token}`]);
-    expect(titles((await results({ minGuides: 4000, maxGuides: 12000, sort: 'price-desc' })).results)).toEqual([
-      `Silver fox winter pelt ${token}`,
+    // Guides per cm² and the typical length in cm replace the guide count, which follows the size of
+    // the seller's mesh; bounds count as inside, and listings not measured yet (the badgers) match neither.
+    expect(titles((await results({ minDensity: 2, maxDensity: 4.5, sort: 'price-desc' })).results)).toEqual([
       `Wolf ruff ${token}`,
+      `Russet fox crown ${token}`,
       `Tabby cat short coat ${token}`,
     ]);
+    expect(titles((await results({ minLength: 4, sort: 'price-asc' })).results)).toEqual([`Wolf ruff ${token}`, `Silver fox winter pelt ${token}`]);
+    expect(titles((await results({ maxLength: 1.2, sort: 'price-asc' })).results)).toEqual([`Plush ring nap ${token}`, `Tabby cat short coat ${token}`]);
+    expect(titles((await results({ minDensity: 2.5, maxLength: 3, sort: 'price-asc' })).results)).toEqual([
+      `Plush ring nap ${token}`,
+      `Tabby cat short coat ${token}`,
+      `Russet fox crown ${token}`,
+    ]);
+    expect((await results({ minDensity: 0.1, animal: 'creature' })).total).toBe(0);
+    // The raw guide count is no filter any more: the old parameter is left out, not applied.
+    expect((await results({ minGuides: 100000 })).total).toBe(30);
+  });
+
+  it('answers 400 with a message per field for a density or length range turned round, or not a number', async () => {
+    const turned = await search({ minDensity: 5, maxDensity: 2, minLength: 3, maxLength: 1 });
+    expect(turned.status).toBe(400);
+    expect(turned.body.error!.fields).toEqual({
+      maxDensity: 'The highest density must not be below the lowest.',
+      maxLength: 'The longest length must not be below the shortest.',
+    });
+    const words = await search({ minDensity: 'dense', maxLength: -1 });
+    expect(words.status).toBe(400);
+    expect(Object.keys(words.body.error!.fields!).sort()).toEqual(['maxLength', 'minDensity']);
   });
 
   it('sorts by newest, best-selling, rating and price', async () => {

@@ -112,6 +112,9 @@ describe('moving a groom onto a new sculpt of its character', () => {
     // A sculpt pass: the exported guides keep their ids, polygons and weights (the roots are still
     // sampled on the first sculpt and placed by polygon on the second).
     expect(await exportedBinding(groom.id)).toEqual(bindingBefore);
+    // …and the editor is told where the roots are, so its preview grows the same guides.
+    expect(moved.rootsSurface).toMatchObject({ id: surfaces.first.id, fileName: 'pip-1.obj' });
+    expect(await (await fetch(moved.rootsSurface!.fileUrl)).text()).toBe(first.obj);
 
     // The first sculpt now holds a version: it cannot be deleted from under it.
     const deleting = await callRoute(surfaceRoute, 'DELETE', `/api/studio/surfaces/${surfaces.first.id}`, { cookie: pip.cookie, params: { surfaceId: surfaces.first.id } });
@@ -122,6 +125,7 @@ describe('moving a groom onto a new sculpt of its character', () => {
     expect((await expectJson(restored, 200)).data).toMatchObject({ surfaceId: surfaces.first.id });
     const back = await detail(groom.id);
     expect(back.surface.id).toBe(surfaces.first.id);
+    expect(back.rootsSurface).toBeNull();
     expect(back.spec.field.singularities.map((s) => s.point)).toEqual(groom.spec.field.singularities.map((s) => s.point));
   });
 
@@ -129,7 +133,7 @@ describe('moving a groom onto a new sculpt of its character', () => {
     const landmarks = [at(10, 0), at(90, 0), at(90, 90), at(170, 200)].map((p) => ({ from: p, to: turned.place(p) }));
     const response = await call(pip, duplicateRoute, 'POST', groom.id, '/duplicate', { surfaceId: surfaces.turned.id, landmarks });
     const started: GroomDetail = (await expectJson(response, 201)).data.groom;
-    expect(started).toMatchObject({ name: 'Pip coat on Pip, exported turned', surface: { id: surfaces.turned.id } });
+    expect(started).toMatchObject({ name: 'Pip coat on Pip, exported turned', surface: { id: surfaces.turned.id }, rootsSurface: null });
     const whorl = started.spec.field.singularities[0].point!;
     const expected = turned.place(at(40, 30));
     expect(Math.hypot(whorl[0] - expected[0], whorl[1] - expected[1], whorl[2] - expected[2])).toBeLessThan(1.5);

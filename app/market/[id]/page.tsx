@@ -9,6 +9,7 @@ import { galleryPictures } from '@/components/market/gallery-pictures';
 import { GuidePreview } from '@/components/market/GuidePreview';
 import { PresetOnSurface } from '@/components/market/PresetOnSurface';
 import { formatDate } from '@/components/market/format';
+import { factRows } from '@/components/market/listing-facts';
 import { StateBadge } from '@/components/market/StateBadge';
 import { Stars } from '@/components/market/Stars';
 import { TAG_KEYS, TAG_LABELS, tagLabel } from '@/components/market/search-params';
@@ -145,7 +146,7 @@ export default async function ListingPage({ params, searchParams }: Props) {
                 <dd>{tagLabel(listing.tags[key])}</dd>
               </div>
             ))}
-            <dt className="font-semibold text-loam-soft">Guides</dt>
+            <dt className="font-semibold text-loam-soft">Guides on the seller’s surface</dt>
             <dd>{listing.guideCount === null ? 'being counted' : listing.guideCount.toLocaleString('en-GB')}</dd>
             <dt className="font-semibold text-loam-soft">Licence</dt>
             <dd>
@@ -154,6 +155,28 @@ export default async function ListingPage({ params, searchParams }: Props) {
               </a>
             </dd>
           </dl>
+
+          <section aria-labelledby="facts-heading" className="flex flex-col gap-2">
+            <h2 id="facts-heading" className="text-lg font-bold">
+              What it is
+            </h2>
+            {listing.facts ? (
+              <dl className="grid grid-cols-[auto_1fr] gap-x-5 gap-y-2 text-sm" data-testid="listing-facts">
+                {factRows(listing.facts).map((row) => (
+                  <div key={row.term} className="contents">
+                    <dt className="font-semibold text-loam-soft">{row.term}</dt>
+                    <dd>{row.value}</dd>
+                  </div>
+                ))}
+              </dl>
+            ) : (
+              <p className="text-sm text-loam-soft">
+                {listing.assets.status === 'failed'
+                  ? 'Not measured: its pictures and package could not be made.'
+                  : 'Its measurements are being taken with its pictures.'}
+              </p>
+            )}
+          </section>
 
           <section aria-labelledby="files-heading" className="flex flex-col gap-2">
             <h2 id="files-heading" className="text-lg font-bold">
@@ -164,7 +187,13 @@ export default async function ListingPage({ params, searchParams }: Props) {
                 <li key={format}>{FORMAT_LABELS[format]}</li>
               ))}
               <li>The licence (LICENCE.txt) and a README</li>
+              {listing.shipsSurface && <li data-testid="ships-surface">The seller’s growth surface (its source file, and in the guides’ files with the binding data)</li>}
             </ul>
+            {listing.currentVersion > 1 && (
+              <p className="text-sm text-loam-soft" data-testid="listing-version">
+                Version {listing.currentVersion}. Owners of an earlier version got it free, and keep the one they bought.
+              </p>
+            )}
           </section>
 
           <Cautions />

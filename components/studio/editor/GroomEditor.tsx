@@ -1,13 +1,18 @@
 'use client';
 // Opens a groom in the editor: its saved spec, revision and versions as the page read them, its
-// surface file through the presigned link (read by the field worker).
+// surface file through the presigned link (read by the field worker), and the earlier sculpt its
+// guides are rooted on after a move by polygon.
 import { useMemo } from 'react';
 import type { GroomDetail } from '@/lib/studio/client/api';
-import type { SurfaceSource } from '@/lib/studio/client/protocol';
+import type { RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
 import { Workspace } from './Workspace';
 
 export function GroomEditor({ groom, maxUploadBytes }: { groom: GroomDetail; maxUploadBytes?: number }) {
   const source = useMemo<SurfaceSource>(() => ({ kind: 'url', url: groom.surface.fileUrl, fileName: groom.surface.fileName }), [groom]);
+  const rootsFrom = useMemo<RootsSource | undefined>(
+    () => (groom.rootsSurface ? { key: groom.rootsSurface.id, source: { kind: 'url', url: groom.rootsSurface.fileUrl, fileName: groom.rootsSurface.fileName } } : undefined),
+    [groom],
+  );
   const persistence = useMemo(() => ({ groomId: groom.id, revision: groom.revision, versions: groom.versions, surfaceId: groom.surface.id, maxUploadBytes }), [groom, maxUploadBytes]);
   return (
     <Workspace
@@ -15,6 +20,7 @@ export function GroomEditor({ groom, maxUploadBytes }: { groom: GroomDetail; max
       title={groom.name}
       subtitle={`On ${groom.surface.name} (${groom.surface.faceCount.toLocaleString('en-GB')} faces, units ${groom.surface.units})${groom.fromPurchaseId ? ' · fitted from a preset you bought: yours to use, not to sell' : ''}`}
       source={source}
+      rootsFrom={rootsFrom}
       initialSpec={groom.spec}
       persistence={persistence}
     />

@@ -3,17 +3,21 @@
 // surface of the groomer's. The transfer report comes first — where every feature lands, how far
 // it moved, what stays behind and why, the new index budget — and only "Move the groom" changes
 // anything (the groom as it was stays in its versions, on its old surface). The same report can
-// start a new groom there instead.
+// start a new groom there instead. For a character turned in its file, landmark pairs are clicked
+// on the two surfaces side by side (or typed).
 import { useState } from 'react';
 import useSWR from 'swr';
 import { fetchData, request } from '@/lib/http/client';
 import type { GroomDetail, SurfaceMovePreview, SurfaceSummary } from '@/lib/studio/types';
 import { Notice } from '@/components/ui/Notice';
-import { readMoveInputs } from '@/lib/studio/client/move-input';
+import { landmarkLine, readMoveInputs } from '@/lib/studio/client/move-input';
+import type { Vec3 } from '@/lib/studio/client/features';
+import type { OpenedSurface } from '@/lib/studio/client/protocol';
+import { LandmarkPicker } from './LandmarkPicker';
 import { SurfaceUpload } from '../home/SurfaceUpload';
 import { TransferReportView } from '../ui/TransferReportView';
 
-export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush }: { groomId: string; surfaceId: string; maxUploadBytes: number; flush: () => Promise<boolean> }) {
+export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush, groomSurface, upAxis }: { groomId: string; surfaceId: string; maxUploadBytes: number; flush: () => Promise<boolean>; groomSurface: OpenedSurface | null; upAxis: 'y' | 'z' }) {
   const { data, mutate } = useSWR<{ surfaces: SurfaceSummary[] }>('/api/studio/surfaces', fetchData, { refreshInterval: (d) => (d?.surfaces.some((s) => s.state === 'checking') ? 1500 : 0) });
   const [target, setTarget] = useState('');
   const [regions, setRegions] = useState('');
@@ -23,6 +27,14 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush }: 
   const [busy, setBusy] = useState(false);
   const others = (data?.surfaces ?? []).filter((s) => s.id !== surfaceId);
   const ready = others.filter((s) => s.state === 'ready');
+  const chosen = ready.find((s) => s.id === target);
+  // The pairs already written, drawn on both views; a box that does not read yet draws none.
+  const written = readMoveInputs('', landmarks);
+  const pairs = 'problem' in written ? [] : (written.landmarks ?? []);
+  const addPair = (from: Vec3, to: Vec3) => {
+    setLandmarks((text) => `${text.trimEnd()}${text.trim() ? '\n' : ''}${landmarkLine(from, to)}\n`);
+    setPreview(null);
+  };
 
   const input = () => {
     const read = readMoveInputs(regions, landmarks);
@@ -95,6 +107,12 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush }: 
         <label htmlFor="move-regions" className="text-sm font-semibold text-loam">Renamed regions (old=new, one a line)</label>
         <textarea id="move-regions" value={regions} onChange={(e) => setRegions(e.target.value)} rows={2} className="rounded-lg border border-tarn/30 px-2 py-1 font-mono text-xs" />
         <label htmlFor="move-landmarks" className="text-sm font-semibold text-loam">Landmarks, for a character turned in its file (old x y z = new x y z, three or more)</label>
+        {chosen && groomSurface && (
+          <details className="rounded-lg border border-tarn/20 p-2">
+            <summary className="cursor-pointer text-sm font-semibold text-loam">Match places by hand on the two surfaces</summary>
+            <LandmarkPicker groomSurface={groomSurface} upAxis={upAxis} targetId={chosen.id} targetName={chosen.name} pairs={pairs} onPair={addPair} />
+          </details>
+        )}
         <textarea id="move-landmarks" value={landmarks} onChange={(e) => setLandmarks(e.target.value)} rows={3} className="rounded-lg border border-tarn/30 px-2 py-1 font-mono text-xs" />
         <button type="button" disabled={!target || busy} onClick={show} className="rounded-xl bg-tarn px-3 py-1.5 text-sm font-semibold text-chalk disabled:opacity-50">
           {busy && !preview ? 'Carrying the features over…' : 'Show the transfer report'}

@@ -12,7 +12,7 @@ import { featureExists, featureOfPath } from '@/lib/studio/client/features';
 import { prewarmFieldWorker } from '@/lib/studio/client/field-client';
 import { takeMark } from '@/lib/studio/client/grain-marks';
 import { featurePlace } from '@/lib/studio/client/marker-places';
-import type { DisplayOptions, SurfaceSource } from '@/lib/studio/client/protocol';
+import type { DisplayOptions, RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
 import { toolOfKey, type ToolOptions } from '@/lib/studio/client/tools';
 import { Stage, type StageApi } from '../scene/Stage';
 import { BudgetCard } from './BudgetCard';
@@ -43,7 +43,7 @@ import { useToolDriver } from './hooks/useToolDriver';
 // hydrated: it is the longest wait before the surface can be opened.
 prewarmFieldWorker();
 
-export function Workspace({ title, subtitle, source, initialSpec, persistence }: { title: string; subtitle: string; source: SurfaceSource; initialSpec: GroomSpec; persistence: Persistence | null }) {
+export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, persistence }: { title: string; subtitle: string; source: SurfaceSource; rootsFrom?: RootsSource; initialSpec: GroomSpec; persistence: Persistence | null }) {
   const [editor, getEditor, setEditor] = useLiveState(() => createEditorState(initialSpec));
   const spec = editor.present.spec;
   const gesture = editor.gestureBase !== null;
@@ -61,7 +61,7 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
   const actions = useEditorActions({ getEditor, setEditor, surface, solve, stage, onAdded: () => setTab('features') });
   const tools = useToolDriver({ getEditor, setEditor, surface, solve, options: toolOptions, stage, onNotice: setNotice });
   const dragging = tools.dragging !== null;
-  const guides = useGuides({ client: field.client, surface, spec, show: showGuides, paused: dragging });
+  const guides = useGuides({ client: field.client, surface, spec, rootsFrom, show: showGuides, paused: dragging });
   const draftPath = useDraftPath({ client: field.client, points: tools.draft, joined: tools.joinsDraft, closed: toolOptions.closed, onFailure: setNotice });
   const autosave = useAutosave(persistence, initialSpec, spec, !gesture);
   const grain = useGrain({ client: field.client, spec });
@@ -182,7 +182,7 @@ export function Workspace({ title, subtitle, source, initialSpec, persistence }:
             {tab === 'versions' && versionsApi && persistence && <VersionPanel api={versionsApi} initial={persistence.versions} />}
             {tab === 'export' && versionsApi && <ExportPanel groomId={versionsApi.groomId} flush={versionsApi.flush} />}
             {tab === 'surface' && versionsApi && persistence?.surfaceId && (
-              <SurfaceMovePanel groomId={versionsApi.groomId} surfaceId={persistence.surfaceId} maxUploadBytes={persistence.maxUploadBytes ?? 0} flush={versionsApi.flush} />
+              <SurfaceMovePanel groomId={versionsApi.groomId} surfaceId={persistence.surfaceId} maxUploadBytes={persistence.maxUploadBytes ?? 0} flush={versionsApi.flush} groomSurface={surface} upAxis={spec.upAxis} />
             )}
           </PanelTabs>
         </aside>

@@ -16,14 +16,17 @@ const WHERE: Record<SurfaceProblem['where'], [string, string]> = {
 
 function examplesOf(problem: SurfaceProblem): string {
   if (problem.examples.length === 0 || problem.where === 'file') return '';
+  // The file's own numbers when the check knew them (OBJ counts from 1), so the groomer finds
+  // the same vertex in their modelling program.
+  const numbers = problem.inFile ?? problem.examples;
+  const numbering = problem.inFile ? ` (as the file numbers them, counting from ${problem.inFileFrom})` : '';
   if (problem.where === 'edge') {
     const pairs: string[] = [];
-    for (let i = 0; i + 1 < problem.examples.length; i += 2) pairs.push(`${problem.examples[i]}–${problem.examples[i + 1]}`);
-    return `edges between vertices ${pairs.join(', ')}`;
+    for (let i = 0; i + 1 < numbers.length; i += 2) pairs.push(`${numbers[i]}–${numbers[i + 1]}`);
+    return `edges between vertices ${pairs.join(', ')}${numbering}`;
   }
   const [one, many] = WHERE[problem.where];
-  const fileNumbering = problem.code === 'collapsed-faces' ? ' (as numbered in the file)' : '';
-  return `${problem.examples.length === 1 ? one : many} ${problem.examples.join(', ')}${fileNumbering}`;
+  return `${numbers.length === 1 ? one : many} ${numbers.join(', ')}${numbering}`;
 }
 
 export function ProblemReport({ fileName, problems, file, message }: { fileName: string; problems: readonly SurfaceProblem[]; file: File | null; message: string }) {

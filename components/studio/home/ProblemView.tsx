@@ -7,28 +7,13 @@ import type { Mesh } from 'three';
 import type { SurfaceProblem } from '@/lib/studio/client/api';
 import { startFieldWorker } from '@/lib/studio/client/field-client';
 import type { InspectedSurface } from '@/lib/studio/client/protocol';
-import { problemMarks } from '@/lib/studio/client/surface-geometry';
+import { problemMarks, surfaceBounds } from '@/lib/studio/client/surface-geometry';
 import { LineLayer } from '../scene/LineLayer';
 import { Stage, type StageApi } from '../scene/Stage';
 import { SurfaceMesh } from '../scene/SurfaceMesh';
 import { surfaceGeometry } from '../scene/SurfaceMesh';
 
 const MARK = '#d8452b';
-
-function bounds(positions: Float64Array): { center: [number, number, number]; radius: number } {
-  const lo = [Infinity, Infinity, Infinity], hi = [-Infinity, -Infinity, -Infinity];
-  for (let i = 0; i < positions.length; i += 3) {
-    for (let k = 0; k < 3; k++) {
-      const x = positions[i + k];
-      if (!Number.isFinite(x)) continue;
-      lo[k] = Math.min(lo[k], x);
-      hi[k] = Math.max(hi[k], x);
-    }
-  }
-  const center: [number, number, number] = [0, 1, 2].map((k) => (Number.isFinite(lo[k]) ? (lo[k] + hi[k]) / 2 : 0)) as [number, number, number];
-  const radius = Math.hypot(hi[0] - lo[0], hi[1] - lo[1], hi[2] - lo[2]) / 2;
-  return { center, radius: Number.isFinite(radius) && radius > 0 ? radius : 1 };
-}
 
 function MarkedFaces({ surface, faces }: { surface: InspectedSurface; faces: number[] }) {
   const geometry = useMemo(() => surfaceGeometry(surface.positions, surface.triangles, faces), [faces, surface]);
@@ -61,7 +46,7 @@ export function ProblemView({ file, problems }: { file: File; problems: readonly
   }, [file]);
 
   const marks = useMemo(() => (surface ? problemMarks(problems, surface.positions, surface.triangles) : null), [problems, surface]);
-  const box = useMemo(() => (surface ? bounds(surface.positions) : null), [surface]);
+  const box = useMemo(() => (surface ? surfaceBounds(surface.positions) : null), [surface]);
   const dots = useMemo(() => {
     if (!surface || !marks || !box) return null;
     // A small cross at each marked vertex.
@@ -69,6 +54,8 @@ export function ProblemView({ file, problems }: { file: File; problems: readonly
     const out: number[] = [];
     for (const v of marks.vertices) {
       const [x, y, z] = [surface.positions[3 * v], surface.positions[3 * v + 1], surface.positions[3 * v + 2]];
+      // A vertex that is not a number is nowhere to be marked (its problem's words say which it is).
+      if (!Number.isFinite(x) || !Number.isFinite(y) || !Number.isFinite(z)) continue;
       out.push(x - r, y, z, x + r, y, z, x, y - r, z, x, y + r, z, x, y, z - r, x, y, z + r);
     }
     return Float32Array.from(out);

@@ -38,7 +38,9 @@ export function LineLayer({
     let position = geometry.getAttribute('position') as BufferAttribute | undefined;
     let colour = geometry.getAttribute('color') as BufferAttribute | undefined;
     if (!position || position.array.length < lines.length) {
-      const capacity = Math.ceil(lines.length * 1.25);
+      // Room to grow, in whole vertices: a capacity that is not a multiple of 3 gives the
+      // attribute a fractional count, and three reads the last, partial vertex as NaN.
+      const capacity = 3 * Math.ceil(count * 1.25);
       position = new BufferAttribute(new Float32Array(capacity), 3).setUsage(DynamicDrawUsage);
       colour = new BufferAttribute(new Float32Array(capacity), 3).setUsage(DynamicDrawUsage);
       geometry.setAttribute('position', position);

@@ -3,7 +3,8 @@
 // order, so a hit names the same face the field engine numbers) and optional faces to highlight.
 import { useEffect, useMemo, type RefObject } from 'react';
 import type { ThreeEvent } from '@react-three/fiber';
-import { BufferAttribute, BufferGeometry, DoubleSide, FrontSide, type Mesh } from 'three';
+import { BufferAttribute, BufferGeometry, DoubleSide, FrontSide, Sphere, Vector3, type Mesh } from 'three';
+import { surfaceBounds } from '@/lib/studio/client/surface-geometry';
 import { MeshBVH, acceleratedRaycast } from 'three-mesh-bvh';
 
 export const SURFACE_COLOUR = '#e4dac3';
@@ -20,7 +21,10 @@ export function surfaceGeometry(positions: ArrayLike<number>, triangles: Uint32A
   }
   if (normals && normals.length === positions.length) geometry.setAttribute('normal', new BufferAttribute(normals, 3));
   else geometry.computeVertexNormals();
-  geometry.computeBoundingSphere();
+  // From the finite coordinates only: a refused surface may have a vertex that is not a number,
+  // and three's own sphere would then be NaN (and every pick would miss).
+  const { center, radius } = surfaceBounds(positions);
+  geometry.boundingSphere = new Sphere(new Vector3(...center), radius);
   return geometry;
 }
 

@@ -34,6 +34,14 @@ export interface Problem {
    * problem are numbered as in the file, since they are not in the mesh.
    */
   readonly examples: readonly number[];
+  /**
+   * The same examples in the file's own numbering (file vertices and file polygons; OBJ counts
+   * from 1, the other formats from 0, see `inFileFrom`), when the mesh came with a `FileNumbering`.
+   * The message names these.
+   */
+  readonly inFile?: readonly number[];
+  /** Where the file's numbering starts: 1 for OBJ, 0 for the others. Present with `inFile`. */
+  readonly inFileFrom?: 0 | 1;
   /** What `count` and `examples` count; `file` for a file that could not be read at all. */
   readonly where: 'face' | 'vertex' | 'edge' | 'file';
 }
@@ -74,7 +82,22 @@ export interface SurfaceReport {
   readonly facts: SurfaceFacts | null;
 }
 
+/**
+ * How the file a mesh was read from numbers what the mesh calls vertices and faces, so that
+ * problems are stated in the artist's numbering (the numbers their modelling program shows).
+ */
+export interface FileNumbering {
+  /** Where the file starts counting: 1 for OBJ (its faces name vertices from 1), 0 otherwise. */
+  readonly from: 0 | 1;
+  /** The file vertex (0-based) of each mesh vertex; null when the file has no vertex numbers (STL). */
+  readonly vertex: ArrayLike<number> | null;
+  /** The file polygon (0-based) each mesh face was cut from. */
+  readonly face: ArrayLike<number>;
+}
+
 export interface CheckSurfaceOptions {
+  /** States the problems' examples in the file's own numbering (see `FileNumbering`). */
+  readonly numbering?: FileNumbering;
   /** Most faces allowed. Default `DEFAULT_MAX_FACES`. */
   readonly maxFaces?: number;
   /** See `DEFAULT_DEGENERATE_TOLERANCE`. */
@@ -87,6 +110,29 @@ function pairs(flat: readonly number[]): string[] {
   const out: string[] = [];
   for (let i = 0; i + 1 < flat.length; i += 2) out.push(`${flat[i]}–${flat[i + 1]}`);
   return out;
+}
+
+/**
+ * Words and numbers for a problem's examples: in the file's numbering when it is known ("vertices
+ * 12, 40 as numbered in the file, from 1"), else the mesh's own, counted from 0.
+ */
+function namer(numbering: FileNumbering | undefined) {
+  const map = (where: 'vertex' | 'face' | 'edge', items: readonly number[]): readonly number[] | null => {
+    if (!numbering) return null;
+    const table = where === 'face' ? numbering.face : numbering.vertex;
+    return table ? items.map((i) => table[i] + numbering.from) : null;
+  };
+  return {
+    list(where: 'vertex' | 'face' | 'edge', items: readonly number[]): string {
+      const shown = map(where, items) ?? items;
+      const which = where === 'edge' ? `between vertices ${describeFirst(pairs(shown))}` : `${where === 'face' ? 'faces' : 'vertices'} ${describeFirst(shown)}`;
+      return `${which}${map(where, items) ? ` in the file's own numbering, counting from ${numbering!.from}` : ''}`;
+    },
+    inFile(where: 'vertex' | 'face' | 'edge', items: readonly number[]): Pick<Problem, 'inFile' | 'inFileFrom'> {
+      const shown = map(where, items);
+      return shown ? { inFile: shown, inFileFrom: numbering!.from } : {};
+    },
+  };
 }
 
 /**
@@ -112,6 +158,7 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
   const p = mesh.positions.subarray(0, 3 * nV);
   const whole: TriangleMesh = { positions: p, triangles: tri };
   const problems: Problem[] = [];
+  const named = namer(options.numbering);
 
   if (nF === 0) {
     problems.push({ code: 'no-faces', severity: 'error', message: 'The surface has no faces, so there is nothing to grow on.', count: 0, examples: [], where: 'face' });
@@ -137,10 +184,11 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     problems.push({
       code: 'non-finite-coordinates',
       severity: 'error',
-      message: `${plural(nonFinite.count, 'vertex has', 'vertices have')} a coordinate that is not a number or is infinite (vertices ${describeFirst(nonFinite.items)}).`,
+      message: `${plural(nonFinite.count, 'vertex has', 'vertices have')} a coordinate that is not a number or is infinite (${named.list('vertex', nonFinite.items)}).`,
       count: nonFinite.count,
       examples: nonFinite.items,
       where: 'vertex',
+      ...named.inFile('vertex', nonFinite.items),
     });
   }
 
@@ -183,20 +231,22 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     problems.push({
       code: 'vertex-out-of-range',
       severity: 'error',
-      message: `${plural(outOfRange.count, 'face refers', 'faces refer')} to vertices the surface does not have (it has ${nV}): faces ${describeFirst(outOfRange.items)}.`,
+      message: `${plural(outOfRange.count, 'face refers', 'faces refer')} to vertices the surface does not have (it has ${nV}): ${named.list('face', outOfRange.items)}.`,
       count: outOfRange.count,
       examples: outOfRange.items,
       where: 'face',
+      ...named.inFile('face', outOfRange.items),
     });
   }
   if (degenerate.count > 0) {
     problems.push({
       code: 'degenerate-faces',
       severity: 'error',
-      message: `${plural(degenerate.count, 'face has', 'faces have')} no area: their corners lie on one line or coincide (faces ${describeFirst(degenerate.items)}). A direction cannot be laid on them; remove or repair them.`,
+      message: `${plural(degenerate.count, 'face has', 'faces have')} no area: their corners lie on one line or coincide (${named.list('face', degenerate.items)}). A direction cannot be laid on them; remove or repair them.`,
       count: degenerate.count,
       examples: degenerate.items,
       where: 'face',
+      ...named.inFile('face', degenerate.items),
     });
   }
 
@@ -205,30 +255,33 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     problems.push({
       code: 'non-manifold-edge',
       severity: 'error',
-      message: `${plural(edges.nonManifold.count, 'edge is', 'edges are')} shared by more than two faces (between vertices ${describeFirst(pairs(edges.nonManifold.items))}). Every edge may have at most one face on each side.`,
+      message: `${plural(edges.nonManifold.count, 'edge is', 'edges are')} shared by more than two faces (${named.list('edge', edges.nonManifold.items)}). Every edge may have at most one face on each side.`,
       count: edges.nonManifold.count,
       examples: edges.nonManifold.items,
       where: 'edge',
+      ...named.inFile('edge', edges.nonManifold.items),
     });
   }
   if (edges.misoriented.count > 0) {
     problems.push({
       code: 'inconsistent-orientation',
       severity: 'error',
-      message: `${plural(edges.misoriented.count, 'edge joins', 'edges join')} faces that face opposite ways (between vertices ${describeFirst(pairs(edges.misoriented.items))}): some faces are flipped. Unify the normals so that all point out of the skin.`,
+      message: `${plural(edges.misoriented.count, 'edge joins', 'edges join')} faces that face opposite ways (${named.list('edge', edges.misoriented.items)}): some faces are flipped. Unify the normals so that all point out of the skin.`,
       count: edges.misoriented.count,
       examples: edges.misoriented.items,
       where: 'edge',
+      ...named.inFile('edge', edges.misoriented.items),
     });
   }
   if (edges.pinched.count > 0) {
     problems.push({
       code: 'non-manifold-vertex',
       severity: 'error',
-      message: `At ${plural(edges.pinched.count, 'vertex', 'vertices')}, pieces of surface touch at a single point (vertices ${describeFirst(edges.pinched.items)}). Split or separate them.`,
+      message: `At ${plural(edges.pinched.count, 'vertex', 'vertices')}, pieces of surface touch at a single point (${named.list('vertex', edges.pinched.items)}). Split or separate them.`,
       count: edges.pinched.count,
       examples: edges.pinched.items,
       where: 'vertex',
+      ...named.inFile('vertex', edges.pinched.items),
     });
   }
 
@@ -242,20 +295,22 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     problems.push({
       code: 'isolated-vertices',
       severity: 'warning',
-      message: `${plural(isolated.count, 'vertex belongs', 'vertices belong')} to no face (vertices ${describeFirst(isolated.items)}); they are ignored.`,
+      message: `${plural(isolated.count, 'vertex belongs', 'vertices belong')} to no face (${named.list('vertex', isolated.items)}); they are ignored.`,
       count: isolated.count,
       examples: isolated.items,
       where: 'vertex',
+      ...named.inFile('vertex', isolated.items),
     });
   }
   if (edges.componentCount > 1) {
     problems.push({
       code: 'several-components',
       severity: 'warning',
-      message: `The surface is made of ${edges.componentCount} separate pieces (first faces ${describeFirst(edges.componentStarts)}). Each piece gets its own field, and on each closed piece the singularities must add up on their own.`,
+      message: `The surface is made of ${edges.componentCount} separate pieces (first ${named.list('face', edges.componentStarts)}). Each piece gets its own field, and on each closed piece the singularities must add up on their own.`,
       count: edges.componentCount,
       examples: edges.componentStarts.slice(0, EXAMPLE_LIMIT),
       where: 'face',
+      ...named.inFile('face', edges.componentStarts.slice(0, EXAMPLE_LIMIT)),
     });
   }
 
@@ -264,20 +319,22 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     problems.push({
       code: 'uvs-overlap',
       severity: 'warning',
-      message: `The UVs of ${plural(uvs.overlappingFaces.count, 'face overlap', 'faces overlap')} others (${(100 * uvs.overlapFraction).toFixed(1)} % of the map is used twice; faces ${describeFirst(uvs.overlappingFaces.examples)}). Places and guide roots are still bound by polygon, but moving a groom to another surface by UV is ambiguous there.`,
+      message: `The UVs of ${plural(uvs.overlappingFaces.count, 'face overlap', 'faces overlap')} others (${(100 * uvs.overlapFraction).toFixed(1)} % of the map is used twice; ${named.list('face', uvs.overlappingFaces.examples)}). Places and guide roots are still bound by polygon, but moving a groom to another surface by UV is ambiguous there.`,
       count: uvs.overlappingFaces.count,
       examples: uvs.overlappingFaces.examples,
       where: 'face',
+      ...named.inFile('face', uvs.overlappingFaces.examples),
     });
   }
   if (uvs.collapsedFaces.count > 0) {
     problems.push({
       code: 'uvs-collapsed',
       severity: 'warning',
-      message: `${plural(uvs.collapsedFaces.count, 'face has', 'faces have')} UVs of no area (faces ${describeFirst(uvs.collapsedFaces.examples)}): a UV names no single point there.`,
+      message: `${plural(uvs.collapsedFaces.count, 'face has', 'faces have')} UVs of no area (${named.list('face', uvs.collapsedFaces.examples)}): a UV names no single point there.`,
       count: uvs.collapsedFaces.count,
       examples: uvs.collapsedFaces.examples,
       where: 'face',
+      ...named.inFile('face', uvs.collapsedFaces.examples),
     });
   }
 
@@ -310,6 +367,24 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
 }
 
 /**
+ * How a read file numbers the mesh's vertices and faces: OBJ from 1 (as its face lines do), PLY
+ * and glTF from 0 (as their index lists do); an STL file lists no vertices, so only its faces.
+ */
+export function fileNumbering(read: Pick<SurfaceReadResult, 'mesh' | 'format'>): FileNumbering {
+  const { mesh } = read;
+  const faces = mesh.triangles.length / 3;
+  let vertex: Uint32Array | null = null;
+  if (read.format !== 'stl' && mesh.fileVertexToVertex) {
+    // Several file vertices may be welded into one: name it by the first.
+    vertex = new Uint32Array(mesh.positions.length / 3).fill(0xffffffff);
+    const map = mesh.fileVertexToVertex;
+    for (let i = map.length - 1; i >= 0; i--) vertex[map[i]] = i;
+  }
+  const face = mesh.facePolygon ?? Uint32Array.from({ length: faces }, (_, f) => f);
+  return { from: read.format === 'obj' ? 1 : 0, vertex, face };
+}
+
+/**
  * Reads a file and checks the surface in it, for an upload page: one report whatever happens.
  *
  * Guarantees: never throws a FieldError — a file that cannot be read gives a report with one
@@ -332,7 +407,8 @@ export function checkSurfaceFile(
       report: { ok: false, problems: [{ code: error.code, severity: 'error', message: error.message, count: 1, examples: [], where: 'file' }], facts: null },
     };
   }
-  let report = checkSurface(read.mesh, options);
+  const numbering = fileNumbering(read);
+  let report = checkSurface(read.mesh, { numbering, ...options });
   if (read.uvs === 'incomplete') {
     const warning: Problem = {
       code: 'uvs-incomplete',
@@ -349,9 +425,11 @@ export function checkSurfaceFile(
   const warning: Problem = {
     code: 'collapsed-faces',
     severity: 'warning',
-    message: `${plural(collapsed.count, 'triangle was', 'triangles were')} left out because two of its corners are the same point once vertices closer than ${read.weldTolerance.toPrecision(2)} are merged (from faces ${describeFirst(collapsed.examples)} of the file, counted from 0).`,
+    message: `${plural(collapsed.count, 'triangle was', 'triangles were')} left out because two of its corners are the same point once vertices closer than ${read.weldTolerance.toPrecision(2)} are merged (from faces ${describeFirst(collapsed.examples.map((f) => f + numbering.from))} of the file, counted from ${numbering.from}).`,
     count: collapsed.count,
     examples: collapsed.examples,
+    inFile: collapsed.examples.map((f) => f + numbering.from),
+    inFileFrom: numbering.from,
     where: 'face',
   };
   return { read, report: { ...report, problems: [...report.problems, warning] } };

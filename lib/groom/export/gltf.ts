@@ -43,14 +43,7 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
     const t = n > 1 ? (i % n) / (n - 1) : 0;
     widths[i] = (guides.rootWidth + (guides.tipWidth - guides.rootWidth) * t) * metres;
   }
-  const indices = new Uint32Array(2 * (n - 1) * guides.count);
-  let k = 0;
-  for (let g = 0; g < guides.count; g++) {
-    for (let j = 0; j + 1 < n; j++) {
-      indices[k++] = g * n + j;
-      indices[k++] = g * n + j + 1;
-    }
-  }
+  const indices = guideLineIndices(guides.count, n);
   const toGltf = (x: number, y: number, z: number, out: Float32Array, at: number) => {
     out[at] = x * metres;
     out[at + 1] = (zUp ? z : y) * metres;
@@ -166,8 +159,22 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
   return out;
 }
 
+/** Index pairs of a `LINES` primitive joining consecutive points of each guide, never two guides. */
+export function guideLineIndices(count: number, pointsPerGuide: number): Uint32Array {
+  const n = pointsPerGuide;
+  const indices = new Uint32Array(2 * (n - 1) * count);
+  let k = 0;
+  for (let g = 0; g < count; g++) {
+    for (let j = 0; j + 1 < n; j++) {
+      indices[k++] = g * n + j;
+      indices[k++] = g * n + j + 1;
+    }
+  }
+  return indices;
+}
+
 /** The GLB container: 12-byte header, a JSON chunk padded with spaces, a BIN chunk padded with zeros. */
-function glb(jsonText: string, binary: Uint8Array): Uint8Array {
+export function glb(jsonText: string, binary: Uint8Array): Uint8Array {
   const jsonBytes = new TextEncoder().encode(jsonText);
   const jsonLength = Math.ceil(jsonBytes.length / 4) * 4;
   const binLength = Math.ceil(binary.length / 4) * 4;

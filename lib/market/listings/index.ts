@@ -3,3 +3,4 @@
 // of the seller, the admin and the public page (views.ts).
 export { createListing, decideListing, submitListing, unlistListing, updateListing } from './lifecycle';
 export { cardOf, cardPictureUrl, getListingDetail, listListingsForAdmin, listOwnListings, pictureUrl, type ListingRow } from './views';
+export { createListingVersion, decideListingVersion, listListingVersions, listVersionsForAdmin } from './versions';

@@ -2,12 +2,12 @@
 // edits, submits and unlists it; an admin approves or rejects it. Which command may move a
 // listing from which state is states.ts's table; every command asks it.
 // A listing freezes the version it sells: the resolved spec and a copy of the growth surface file
-// are stored with it, so later edits or deletion of the groom change nothing it sells.
+// are stored with it, so later edits or deletion of the groom change nothing it sells. A listing
+// on the market is improved by a new version of it instead (versions.ts).
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from '../../platform/db';
 import { MailNotSent, sendMail } from '../../platform/mail';
-import { parseGroomSpec } from '../../groom';
 import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { notFound } from '../errors';
@@ -19,6 +19,7 @@ import { deleteMarketObjects, listingPrefix } from '../storage';
 import type { ListingSummary } from '../types';
 import type { ListingDraftInput, ListingPatchInput } from '../validation';
 import { nextState } from './states';
+import { confirmRightsAgain, frozenVersionColumns, rightsConfirmation, sellableSpec, surfaceRuleOf } from './version-rows';
 import { summaryById, type ListingRow } from './views';
 
 async function licenceBySlug(trx: Knex | Knex.Transaction, slug: string) {
@@ -34,47 +35,41 @@ async function licenceBySlug(trx: Knex | Knex.Transaction, slug: string) {
 /** A draft from one of the seller's saved groom versions; its pictures and package are queued. */
 export async function createListing(actor: Actor, input: ListingDraftInput): Promise<ListingSummary> {
   const version = await sellersGroomVersion(actor.userId, input.groomId, input.versionId);
-  if (version.fromPurchaseId) {
-    throw new HttpError(
-      422,
-      'bought-not-for-resale',
-      `“${version.groomName}” was fitted from a preset you bought: its licence lets you use it on your characters, not sell it. Only grooms you made yourself can be listed.`,
-      { fields: { groomId: 'A groom fitted from a bought preset cannot be sold.' } },
-    );
-  }
-  let spec;
-  try {
-    spec = parseGroomSpec(version.spec);
-  } catch (error) {
-    throw new HttpError(422, 'invalid-input', `That version's groom spec cannot be sold as it is: ${(error as Error).message}`);
-  }
+  const spec = sellableSpec(version);
   const licence = await licenceBySlug(db(), input.licenceSlug);
   const id = randomUUID();
   const extension = version.surface.fileName.includes('.') ? version.surface.fileName.slice(version.surface.fileName.lastIndexOf('.')) : '';
   const surfaceKey = `${listingPrefix(id)}/surface${extension.toLowerCase()}`;
   await copyObject(version.surface.objectKey, surfaceKey);
   try {
-    await db()('listings').insert({
-      id,
-      seller_id: actor.userId,
-      groom_id: version.groomId,
-      groom_version_id: version.versionId,
-      groom_name: version.groomName,
-      version_number: version.versionNumber,
-      version_name: version.versionName,
-      spec: JSON.stringify(spec),
-      surface_key: surfaceKey,
-      surface_file_name: version.surface.fileName,
-      title: input.title,
-      description: input.description,
-      animal: input.tags.animal,
-      coat_length: input.tags.coatLength,
-      style: input.tags.style,
-      body_region: input.tags.bodyRegion,
-      price_cents: input.priceCents,
-      currency: input.currency,
-      licence_id: licence.id,
-      formats: input.formats,
+    await db().transaction(async (trx) => {
+      await trx('listings').insert({
+        id,
+        seller_id: actor.userId,
+        ...frozenVersionColumns(version, spec, surfaceKey),
+        title: input.title,
+        description: input.description,
+        animal: input.tags.animal,
+        coat_length: input.tags.coatLength,
+        style: input.tags.style,
+        body_region: input.tags.bodyRegion,
+        price_cents: input.priceCents,
+        currency: input.currency,
+        licence_id: licence.id,
+        formats: input.formats,
+        ships_surface: input.shipsSurface,
+      });
+      // Version 1 keeps the seller's confirmation of their rights (lib/market/rights.ts).
+      await trx('listing_versions').insert({
+        listing_id: id,
+        number: 1,
+        review: 'listing',
+        ...frozenVersionColumns(version, spec, surfaceKey),
+        description: input.description,
+        formats: input.formats,
+        ships_surface: input.shipsSurface,
+        ...rightsConfirmation(actor),
+      });
     });
   } catch (error) {
     await deleteMarketObjects([surfaceKey]);
@@ -117,15 +112,21 @@ export async function updateListing(actor: Actor, id: string, patch: ListingPatc
     if (patch.currency !== undefined) changes.currency = patch.currency;
     if (patch.formats !== undefined) changes.formats = patch.formats;
     if (patch.licenceSlug !== undefined) changes.licence_id = (await licenceBySlug(trx, patch.licenceSlug)).id;
+    if (patch.shipsSurface !== undefined && patch.shipsSurface !== row.ships_surface) changes.ships_surface = patch.shipsSurface;
+    // Checked when either side changes: a listing made before the tick keeps the files it was listed with until then.
+    if (patch.formats !== undefined || patch.shipsSurface !== undefined) {
+      surfaceRuleOf({ formats: patch.formats ?? row.formats, shipsSurface: patch.shipsSurface ?? row.ships_surface });
+    }
+    if (patch.rightsConfirmed) await confirmRightsAgain(trx, actor, row, patch);
     // The package carries the title, description, price, licence and formats: a changed
     // draft gets a new one. Once published a listing cannot change, so its package is final.
-    const packageChanges = ['title', 'description', 'price_cents', 'currency', 'formats', 'licence_id'].some((key) => key in changes);
+    const packageChanges = ['title', 'description', 'price_cents', 'currency', 'formats', 'licence_id', 'ships_surface'].some((key) => key in changes);
     if (packageChanges) {
       const hadSales = await trx('purchases').where({ listing_id: id }).first('id');
       if (hadSales) {
-        throw new HttpError(409, 'wrong-state', 'This preset has buyers: its files, price and licence stay as sold. Make a new listing for a changed offer.');
+        throw new HttpError(409, 'wrong-state', 'This preset has buyers: its price and licence stay as sold. To improve its files or description, put it back on the market and publish a new version of it: its owners get that free.');
       }
-      await trx('listing_packages').where({ listing_id: id }).delete();
+      await trx('listing_packages').where({ listing_id: id, listing_version: row.current_version }).delete();
       changes.assets_status = 'pending';
       // A build running now sees the revision move on and builds again (lib/market/assets.ts).
       changes.revision = trx.raw('revision + 1');

@@ -6,8 +6,8 @@ import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
 import { notFound } from '../errors';
 import { presignDownload } from '../../platform/storage';
-import { PICTURE_URL_SECONDS, listingPrefix } from '../storage';
-import type { ListingCard, ListingDetail, ListingSummary, Review } from '../types';
+import { PICTURE_URL_SECONDS } from '../storage';
+import type { ListingCard, ListingDetail, ListingFacts, ListingSummary, Review } from '../types';
 import { TAX_NOTE, type ListingState } from '../vocabulary';
 import type { Picture } from '../assets';
 
@@ -36,12 +36,23 @@ export type ListingRow = {
   assets_error: string | null;
   guide_count: number | null;
   pictures: Picture[];
+  /** The reduced public preview (assets.ts); null until the asset job has written it. */
+  preview_key: string | null;
+  /** What the listing is (listing-facts.ts); null until the asset job has measured it. */
+  facts: ListingFacts | null;
   sales_count: number;
   rating_count: number;
   rating_average: string | null;
   created_at: Date;
   submitted_at: Date | null;
   published_at: Date | null;
+  // Listing versions (db/migrations/20261208300000_listing_versions.ts).
+  spec: unknown;
+  surface_key: string;
+  surface_file_name: string;
+  current_version: number;
+  ships_surface: boolean;
+  assets_prefix: string | null;
 };
 
 const isAdmin = (actor: Actor | null) => Boolean(actor?.roles.includes('admin'));
@@ -159,6 +170,8 @@ export function cardOf(
     },
     formats: row.formats as ListingCard['formats'],
     guideCount: row.guide_count,
+    // Only once the assets are ready: a failed rebuild leaves no facts of an older revision showing.
+    facts: row.assets_status === 'ready' ? (row.facts ?? null) : null,
     salesCount: row.sales_count,
     rating: { average: row.rating_average === null ? null : Number(row.rating_average), count: row.rating_count },
     seller: { id: row.seller_id, displayName: row.seller_name },
@@ -203,7 +216,8 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     rejectionReason: row.rejection_reason,
     groom: { id: row.groom_id, name: row.groom_name, versionId: row.groom_version_id, versionNumber: row.version_number, versionName: row.version_name },
     gallery,
-    guidePreviewUrl: row.assets_status === 'ready' ? await presignDownload(`${listingPrefix(id)}/preview/guides.glb`, PICTURE_URL_SECONDS) : null,
+    // Only the reduced preview is ever presigned; a listing not rebuilt since it has none yet.
+    guidePreviewUrl: row.assets_status === 'ready' && row.preview_key ? await presignDownload(row.preview_key, PICTURE_URL_SECONDS) : null,
     assets: { status: row.assets_status, error: isSeller || isAdmin(actor) ? row.assets_error : null },
     licence: { slug: row.licence_slug, title: row.licence_title, summary: row.licence_summary, body: row.licence_body },
     reviews,
@@ -217,6 +231,8 @@ export async function getListingDetail(actor: Actor | null, id: string): Promise
     taxNote: TAX_NOTE,
     createdAt: row.created_at.toISOString(),
     submittedAt: row.submitted_at?.toISOString() ?? null,
+    currentVersion: row.current_version,
+    shipsSurface: row.ships_surface,
   };
 }
 

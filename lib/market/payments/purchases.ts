@@ -58,7 +58,7 @@ export async function recordPaidSession(trx: Trx, session: Stripe.Checkout.Sessi
   if (session.status !== 'complete' || session.payment_status !== 'paid') return null;
   const meta = sessionMetadata.safeParse(session.metadata ?? {});
   if (!meta.success) return null; // not a market checkout
-  const listing = await trx('listings').where({ id: meta.data.listing_id }).first('id', 'seller_id');
+  const listing = await trx('listings').where({ id: meta.data.listing_id }).first('id', 'seller_id', 'current_version');
   if (!listing) return null;
   const recorded = await trx('purchases').where({ checkout_session_id: session.id }).first('id');
   if (recorded) return { purchaseId: recorded.id, created: false };
@@ -74,6 +74,9 @@ export async function recordPaidSession(trx: Trx, session: Stripe.Checkout.Sessi
     listing_id: listing.id,
     buyer_id: meta.data.buyer_id,
     seller_id: listing.seller_id,
+    // The version on sale when the payment is recorded: the owner may download it and every later one.
+    listing_version: listing.current_version,
+    update_seen_version: listing.current_version,
     checkout_session_id: session.id,
     payment_intent_id: idOf(session.payment_intent),
     amount_cents: amount,

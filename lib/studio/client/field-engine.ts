@@ -34,7 +34,7 @@ import {
 import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
 import { errorOf, proofOf } from './field-reports';
-import type { DisplayOptions, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
+import type { DisplayOptions, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes } from './surface-opening';
 
 
@@ -51,6 +51,8 @@ export class FieldEngine {
   private mesh: TriangleMesh | null = null;
   private surface: GroomSurface | null = null;
   private drawing: FieldDrawing | null = null;
+  /** The mesh guides sample their roots on when it is not the open surface (see RootsSource). */
+  private roots: { key: string; mesh: TriangleMesh } | null = null;
   /** Resolved places of single features, by their JSON, so a drag re-resolves only what moved. */
   private readonly placeMemo = new Map<string, unknown>();
   private lastFull: { key: string; solved: SolvedField } | null = null;
@@ -258,14 +260,18 @@ export class FieldEngine {
     return solved;
   }
 
-  /** Grows the spec's guides with `growGuides`, exactly as an export would. */
-  grow(spec: GroomSpec): GrownGuides {
+  /**
+   * Grows the spec's guides with `growGuides`, exactly as an export would: from roots sampled on
+   * `rootsFrom` when given (read once, then kept while its key stays the same).
+   */
+  async grow(spec: GroomSpec, rootsFrom?: RootsSource): Promise<GrownGuides> {
+    const rootsMesh = rootsFrom ? await this.rootsMesh(rootsFrom) : undefined;
     const t0 = now();
     const surface = this.requireSurface();
     const solved = this.fullySolved(spec);
     const expected = this.expectedGuides(spec, surface);
     this.progress({ stage: `growing about ${expected.toLocaleString('en-GB')} guides`, fraction: null, expectedMilliseconds: expected * this.msPerGuide });
-    const grown = growGuides(surface, solved, spec);
+    const grown = growGuides(surface, solved, spec, rootsMesh ? { rootsFrom: rootsMesh } : {});
     const spent = now() - t0;
     if (grown.guides.count > 200) this.msPerGuide = spent / grown.guides.count;
     return {
@@ -275,6 +281,15 @@ export class FieldEngine {
       areaSquareCm: grown.areaSquareCm,
       milliseconds: spent,
     };
+  }
+
+  private async rootsMesh({ key, source }: RootsSource): Promise<TriangleMesh> {
+    if (this.roots?.key !== key) {
+      const loaded = await loadSurfaceBytes(source, this.progress);
+      this.progress({ stage: 'reading the sculpt the guides are rooted on', fraction: null });
+      this.roots = { key, mesh: 'mesh' in loaded ? loaded.mesh : readSurface(loaded.bytes, loaded.fileName).mesh };
+    }
+    return this.roots.mesh;
   }
 
   private expectedGuides(spec: GroomSpec, surface: GroomSurface): number {

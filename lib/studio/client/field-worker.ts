@@ -41,7 +41,7 @@ async function answer(request: WorkerRequest): Promise<unknown> {
     case 'solve':
       return engine.solve(request.spec, request.display, request.quick);
     case 'grow':
-      return engine.grow(request.spec);
+      return engine.grow(request.spec, request.rootsFrom);
     case 'curve-path':
       return { points: engine.curvePath(request.points, request.closed) };
     case 'read-grain':

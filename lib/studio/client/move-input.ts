@@ -11,6 +11,14 @@ function point(text: string): [number, number, number] | null {
   return parts.length === 3 && parts.every(Number.isFinite) ? (parts as [number, number, number]) : null;
 }
 
+/** Six significant digits: well under a landmark's own precision (a click on a surface), and short to read. */
+const coordinate = (x: number) => String(Number(x.toPrecision(6)));
+
+/** One landmark pair as a line of the landmarks box (what `readMoveInputs` reads back). */
+export function landmarkLine(from: readonly number[], to: readonly number[]): string {
+  return `${from.map(coordinate).join(' ')} = ${to.map(coordinate).join(' ')}`;
+}
+
 /**
  * Reads the panel's two text boxes. Guarantees: blank lines are ignored; either every line is
  * read, or the answer is the first bad line in words (`{ problem }`); fields with no lines are left out.

@@ -12,6 +12,16 @@ export type SurfaceSource =
   /** One of lib/groom's demo characters (DEMO_GROOMS[i].id), built in the worker. */
   | { readonly kind: 'demo'; readonly demoId: string };
 
+/**
+ * The earlier sculpt a groom's roots are sampled on (a groom moved onto a new sculpt by polygon):
+ * guides grow from it so that the preview shows the same guides as an export. `key` names the
+ * surface (the file's URL changes with every presign).
+ */
+export interface RootsSource {
+  readonly key: string;
+  readonly source: SurfaceSource;
+}
+
 export type FieldDrawing = 'strokes' | 'streamlines';
 
 export interface DisplayOptions {
@@ -31,7 +41,7 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'open'; readonly source: SurfaceSource; readonly boundary: BoundaryMode }
   | { readonly id: number; readonly type: 'inspect'; readonly source: SurfaceSource }
   | { readonly id: number; readonly type: 'solve'; readonly spec: GroomSpec; readonly display: DisplayOptions; readonly quick: boolean }
-  | { readonly id: number; readonly type: 'grow'; readonly spec: GroomSpec }
+  | { readonly id: number; readonly type: 'grow'; readonly spec: GroomSpec; readonly rootsFrom?: RootsSource }
   | { readonly id: number; readonly type: 'curve-path'; readonly points: readonly Vec3[]; readonly closed: boolean }
   | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow };
 

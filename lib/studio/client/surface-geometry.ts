@@ -97,3 +97,19 @@ export function problemMarks(problems: readonly SurfaceProblem[], positions: Arr
   }
   return { faces: [...faces], edges, vertices: [...vertices], marked };
 }
+
+/** The centre and radius of a surface's bounding box, for framing a view; non-finite coordinates are skipped, an empty or flat box gets radius 1. */
+export function surfaceBounds(positions: ArrayLike<number>): { center: Vec3; radius: number } {
+  const lo = [Infinity, Infinity, Infinity], hi = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < positions.length; i += 3) {
+    for (let k = 0; k < 3; k++) {
+      const x = positions[i + k];
+      if (!Number.isFinite(x)) continue;
+      lo[k] = Math.min(lo[k], x);
+      hi[k] = Math.max(hi[k], x);
+    }
+  }
+  const center = [0, 1, 2].map((k) => (Number.isFinite(lo[k]) ? (lo[k] + hi[k]) / 2 : 0)) as unknown as Vec3;
+  const radius = Math.hypot(hi[0] - lo[0], hi[1] - lo[1], hi[2] - lo[2]) / 2;
+  return { center, radius: Number.isFinite(radius) && radius > 0 ? radius : 1 };
+}

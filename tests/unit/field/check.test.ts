@@ -60,8 +60,10 @@ describe('checkSurface finds each problem, with counts and examples', () => {
   it('a vertex where two fans touch (bowtie)', () => {
     const { report } = checkSurfaceFile(fixture('bowtie.obj'), 'bowtie.obj');
     expect(codes(report)).toEqual(['non-manifold-vertex', 'several-components']);
-    expect(problem(report, 'non-manifold-vertex')).toMatchObject({ severity: 'error', count: 1, examples: [2], where: 'vertex' });
-    expect(problem(report, 'non-manifold-vertex').message).toMatch(/At 1 vertex, pieces of surface touch at a single point \(vertices 2\)/);
+    // OBJ numbers vertices from 1 (Wavefront OBJ specification, "Referencing vertex data"): the
+    // message names the file's vertex 3, which the mesh numbers 2.
+    expect(problem(report, 'non-manifold-vertex')).toMatchObject({ severity: 'error', count: 1, examples: [2], inFile: [3], inFileFrom: 1, where: 'vertex' });
+    expect(problem(report, 'non-manifold-vertex').message).toMatch(/At 1 vertex, pieces of surface touch at a single point \(vertices 3 in the file's own numbering, counting from 1\)/);
     expect(report.ok).toBe(false);
     expect(report.facts!.genus).toBeNull();
     // buildTopology refuses the same surface, for the same reason.
@@ -71,8 +73,26 @@ describe('checkSurface finds each problem, with counts and examples', () => {
   it('an edge with three faces (fin)', () => {
     const { report } = checkSurfaceFile(fixture('fin.obj'), 'fin.obj');
     expect(codes(report)).toEqual(['non-manifold-edge']);
-    expect(problem(report, 'non-manifold-edge')).toMatchObject({ count: 1, examples: [0, 1], where: 'edge' });
-    expect(problem(report, 'non-manifold-edge').message).toMatch(/1 edge is shared by more than two faces \(between vertices 0–1\)/);
+    expect(problem(report, 'non-manifold-edge')).toMatchObject({ count: 1, examples: [0, 1], inFile: [1, 2], where: 'edge' });
+    expect(problem(report, 'non-manifold-edge').message).toMatch(/1 edge is shared by more than two faces \(between vertices 1–2 in the file's own numbering, counting from 1\)/);
+  });
+
+  it('names vertices and faces as the file numbers them, also where welding merged vertices, and says from where it counts', () => {
+    // A fin whose second face uses a copy of vertex 2 (file vertex 3): welded, the copy is gone,
+    // so the mesh's numbers are not the file's minus one. OBJ counts from 1, PLY from 0 (PLY
+    // format, Turk 1994: face lists index the vertex element from 0).
+    const obj = 'v 0 1 0\nv 0 0 0\nv 0 0 0\nv 1 0 0\nv 0 -1 0\nv 0 0 1\nf 2 4 1\nf 3 4 5\nf 2 4 6\n';
+    const fromObj = problem(checkSurfaceFile(new TextEncoder().encode(obj), 'fin.obj').report, 'non-manifold-edge');
+    expect(fromObj).toMatchObject({ inFile: [2, 4], inFileFrom: 1 });
+    expect(fromObj.message).toContain('between vertices 2–4 in the file\'s own numbering, counting from 1');
+    const ply = ['ply', 'format ascii 1.0', 'element vertex 5', 'property float x', 'property float y', 'property float z', 'element face 3', 'property list uchar int vertex_indices', 'end_header', '0 1 0', '0 0 0', '1 0 0', '0 -1 0', '0 0 1', '3 1 2 0', '3 1 2 3', '3 1 2 4', ''].join('\n');
+    const fromPly = problem(checkSurfaceFile(new TextEncoder().encode(ply), 'fin.ply').report, 'non-manifold-edge');
+    expect(fromPly).toMatchObject({ inFile: [1, 2], inFileFrom: 0 });
+    expect(fromPly.message).toContain('between vertices 1–2 in the file\'s own numbering, counting from 0');
+    // Faces are the file's polygons: a quad cut in two is one face of the file.
+    const quads = 'v 0 0 0\nv 1 0 0\nv 1 1 0\nv 0 1 0\nv 5 5 5\nv 6 5 5\nv 6 6 5\nv 5 6 5\nf 1 2 3 4\nf 5 6 7 8\n';
+    const pieces = problem(checkSurfaceFile(new TextEncoder().encode(quads), 'two.obj').report, 'several-components');
+    expect(pieces).toMatchObject({ inFile: [1, 2], inFileFrom: 1 });
   });
 
   it('a flipped face in a strip: two misoriented edges', () => {

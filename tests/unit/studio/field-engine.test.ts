@@ -2,6 +2,8 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
 import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
+import { growGuides, solveGroomField } from '@/lib/groom';
+import { readSurface } from '@/lib/field';
 import { FieldEngine } from '@/lib/studio/client/field-engine';
 import type { OpenedSurface, ProgressReport } from '@/lib/studio/client/protocol';
 
@@ -111,11 +113,11 @@ describe('the field engine on Bramble the fox', () => {
     expect(report.error?.message).toMatch(/^field\.singularities\[2\]\.point/);
   });
 
-  it('draws streamlines and grows the same guides as the groom library', () => {
+  it('draws streamlines and grows the same guides as the groom library', async () => {
     const stream = engine.solve(spec, { drawing: 'streamlines', density: 3000 }, false);
     expect(stream.lines!.length).toBeGreaterThan(0);
     expect(stream.lineShade!.length * 3).toBe(stream.lines!.length);
-    const grown = engine.grow(spec);
+    const grown = await engine.grow(spec);
     expect(grown.count).toBe(Math.round(spec.guides.density! * grown.areaSquareCm));
     expect(grown.points.length).toBe(3 * grown.count * grown.pointsPerGuide);
     expect(progress.some((p) => /^growing about/.test(p.stage) && (p.expectedMilliseconds ?? 0) > 0)).toBe(true);
@@ -125,6 +127,29 @@ describe('the field engine on Bramble the fox', () => {
     const a = spec.field.singularities[0].point!, b = spec.field.singularities[1].point!;
     const path = engine.curvePath([a, b], false);
     expect(path.length / 3).toBeGreaterThan(3);
+  });
+});
+
+describe('the field engine on a groom moved onto a new sculpt', () => {
+  it('grows the preview from the roots on the earlier sculpt, as exports do: each root sits at the same polygon and weights, on the new skin', async () => {
+    // A sculpt pass: the fox's vertices pushed out along a bump, triangles unchanged.
+    const demo = DEMO_GROOMS[0];
+    const before = demo.surface();
+    const after = { ...before, positions: before.positions.map((value, i) => (i % 3 === 1 ? value * 1.15 + 0.02 * Math.sin(7 * before.positions[i - 1]) : value)) };
+    const bytesOf = (mesh: typeof before, name: string) => ({ kind: 'bytes', bytes: new TextEncoder().encode(surfaceToObj(mesh, name)).buffer as ArrayBuffer, fileName: `${name}.obj` }) as const;
+    const spec = parseGroomSpec({ ...demo.spec, guides: { ...demo.spec.guides, density: undefined, count: 300 } });
+    const engine = new FieldEngine();
+    await engine.open(bytesOf(after, 'after'), 'free');
+    const own = await engine.grow(spec);
+    const rooted = await engine.grow(spec, { key: 'before', source: bytesOf(before, 'before') });
+    const byLibrary = growGuides(engine.prepared!, solveGroomField(spec, engine.prepared!), spec, { rootsFrom: readSurface(new TextEncoder().encode(surfaceToObj(before, 'before')), 'before.obj').mesh }).guides;
+    expect(rooted.count).toBe(byLibrary.count);
+    expect(Array.from(rooted.points.subarray(0, 3 * rooted.pointsPerGuide))).toEqual(Array.from(Float32Array.from(byLibrary.points.subarray(0, 3 * byLibrary.pointsPerGuide))));
+    // The roots differ from the ones sampled on the sculpt itself (the areas changed), so the option mattered.
+    expect(Array.from(rooted.points.subarray(0, 3))).not.toEqual(Array.from(own.points.subarray(0, 3)));
+    // Once read, the earlier sculpt is kept: the same key does not read it again.
+    const again = await engine.grow(spec, { key: 'before', source: { kind: 'demo', demoId: 'not read' } });
+    expect(Array.from(again.points)).toEqual(Array.from(rooted.points));
   });
 });
 

@@ -5,7 +5,7 @@
 import { useEffect, useMemo, useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { SUPERSEDED, WorkerFailure, type FieldClient } from '@/lib/studio/client/field-client';
-import type { GrownGuides, OpenedSurface } from '@/lib/studio/client/protocol';
+import type { GrownGuides, OpenedSurface, RootsSource } from '@/lib/studio/client/protocol';
 import { useLatest } from './useLiveState';
 import { useTask, type Task } from './useTask';
 
@@ -20,18 +20,19 @@ export interface Guides {
   readonly task: Task | null;
 }
 
-export function useGuides({ client, surface, spec, show, paused }: { client: FieldClient | null; surface: OpenedSurface | null; spec: GroomSpec; show: boolean; paused: boolean }): Guides {
+export function useGuides({ client, surface, spec, rootsFrom, show, paused }: { client: FieldClient | null; surface: OpenedSurface | null; spec: GroomSpec; rootsFrom?: RootsSource; show: boolean; paused: boolean }): Guides {
   const [guides, setGuides] = useState<{ grown: GrownGuides; key: string } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [task, report, clear] = useTask();
   const latestSpec = useLatest(spec);
-  const key = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.pins, spec.units, spec.upAxis]), [spec]);
+  const latestRoots = useLatest(rootsFrom);
+  const key = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.pins, spec.units, spec.upAxis, rootsFrom?.key]), [spec, rootsFrom?.key]);
 
   useEffect(() => {
     if (!surface || !client || !show || paused || guides?.key === key) return;
     const timer = setTimeout(() => {
       client
-        .latest('guides', 1, { type: 'grow', spec: latestSpec.current }, report)
+        .latest('guides', 1, { type: 'grow', spec: latestSpec.current, rootsFrom: latestRoots.current }, report)
         .then((grown) => {
           if (grown === SUPERSEDED) return;
           setGuides({ grown, key });
@@ -45,7 +46,7 @@ export function useGuides({ client, surface, spec, show, paused }: { client: Fie
         });
     }, SETTLE_MILLISECONDS);
     return () => clearTimeout(timer);
-  }, [clear, client, guides?.key, key, latestSpec, paused, report, show, surface]);
+  }, [clear, client, guides?.key, key, latestRoots, latestSpec, paused, report, show, surface]);
 
   return { grown: guides?.grown ?? null, current: guides?.key === key, error, task };
 }

@@ -47,8 +47,11 @@ export default async function EditListingPage({ params }: { params: Promise<{ id
         <ListingForm licences={licences} listing={listing} />
       ) : (
         <Notice tone="info">
-          A listing that is waiting for review or on the market cannot be changed. Take it off the market from your sales page first;
-          once buyers have it, its files, price and licence stay as sold.
+          A listing that is waiting for review or on the market cannot be changed. To improve one on the market, publish a{' '}
+          <Link href={`/sales/listings/${listing.id}/versions/new`} className="font-semibold text-tarn">
+            new version
+          </Link>{' '}
+          of it: it is reviewed like a listing, and its owners get it free. Once buyers have a listing, its price and licence stay as sold.
         </Notice>
       )}
     </div>

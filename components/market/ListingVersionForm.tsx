@@ -1,0 +1,143 @@
+'use client';
+// "Publish a new version": the seller of a listing on the market offers its owners a better
+// version — a newer saved version of a groom, a new description, other files, what changed — with
+// the rights tick again. It waits for the admins while the version on sale stays on sale; once
+// approved, every owner gets it free.
+import { useRouter } from 'next/navigation';
+import { useState } from 'react';
+import useSWR from 'swr';
+import { z } from 'zod';
+import { Button } from '@/components/ui/Button';
+import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
+import { Notice } from '@/components/ui/Notice';
+import { useValidatedForm } from '@/components/ui/use-validated-form';
+import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
+import type { ListingDetail, ListingVersionResponse } from '@/lib/market/types';
+import { listingVersionSchema } from '@/lib/market/validation';
+import type { PackageFormat } from '@/lib/market/vocabulary';
+import type { GroomListResponse, VersionListResponse } from '@/lib/studio/types';
+import { FormatChecks } from './FormatChecks';
+import { RightsFields, rightsFormFields } from './RightsFields';
+import { TextAreaField, textAreaField } from './TextAreaField';
+
+const shape = listingVersionSchema.shape;
+const versionFormSchema = z.object({
+  groomId: shape.groomId,
+  versionId: shape.versionId,
+  description: shape.description,
+  notes: z.string().trim().max(2000, 'Keep the notes under 2000 characters.'),
+  formats: z
+    .string()
+    .transform((value) => value.split(',').filter(Boolean))
+    .pipe(shape.formats),
+  ...rightsFormFields,
+});
+type VersionFormValues = z.output<typeof versionFormSchema>;
+
+const selectClass = (error?: string) => `rounded-xl border-2 bg-white px-3 py-2.5 text-base text-loam ${controlBorder(error)}`;
+
+export function ListingVersionForm({ listing }: { listing: ListingDetail }) {
+  const router = useRouter();
+  const form = useValidatedForm(versionFormSchema);
+  const [groomId, setGroomId] = useState(listing.groom.id);
+  const [formats, setFormats] = useState<PackageFormat[]>(listing.formats);
+  const grooms = useSWR<GroomListResponse, ApiRequestError>('/api/studio/grooms', fetchData);
+  const versions = useSWR<VersionListResponse, ApiRequestError>(groomId ? `/api/studio/grooms/${groomId}/versions` : null, fetchData);
+  const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0) ?? [];
+
+  async function publish(input: VersionFormValues) {
+    const sent = await postJson<ListingVersionResponse>(`/api/market/listings/${listing.id}/versions`, input);
+    if (!sent.ok) return { message: sent.error.message, fields: sent.error.fields };
+    router.push(`/sales?updated=${listing.id}#listings`);
+    router.refresh();
+  }
+
+  if (grooms.error) return <Notice tone="error">{grooms.error.message}</Notice>;
+  if (!grooms.data) return <p className="text-loam-soft">Loading your grooms…</p>;
+  return (
+    <form noValidate className="flex flex-col gap-8" onSubmit={form.onSubmit(publish)} aria-label="Publish a new version">
+      {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="pb-2 text-lg font-bold">What the new version sells</legend>
+        <FieldFrame id="field-groomId" name="groomId" label="Groom" error={form.errors.groomId}>
+          <select
+            id="field-groomId"
+            name="groomId"
+            value={groomId}
+            aria-describedby={describedBy('field-groomId', undefined, form.errors.groomId)}
+            className={selectClass(form.errors.groomId)}
+            onChange={(event) => {
+              setGroomId(event.target.value);
+              form.clearError('versionId');
+            }}
+          >
+            <option value="">Choose a groom…</option>
+            {listable.map((groom) => (
+              <option key={groom.id} value={groom.id}>
+                {groom.name} ({groom.surfaceName})
+              </option>
+            ))}
+          </select>
+        </FieldFrame>
+        <FieldFrame id="field-versionId" name="versionId" label="Saved version" error={form.errors.versionId}>
+          <select
+            key={`${groomId}:${versions.data ? 'ready' : 'loading'}`}
+            id="field-versionId"
+            name="versionId"
+            aria-describedby={describedBy('field-versionId', undefined, form.errors.versionId)}
+            className={selectClass(form.errors.versionId)}
+            disabled={!groomId || !versions.data}
+            onChange={() => form.clearError('versionId')}
+          >
+            {[...(versions.data?.versions ?? [])]
+              .sort((a, b) => b.number - a.number)
+              .map((version) => (
+                <option key={version.id} value={version.id}>
+                  Version {version.number}: {version.name}
+                  {version.id === listing.groom.versionId ? ' (on sale now)' : ''}
+                </option>
+              ))}
+          </select>
+        </FieldFrame>
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-4">
+        <legend className="pb-2 text-lg font-bold">What buyers and owners read</legend>
+        <TextAreaField label="Description" rows={6} defaultValue={listing.description} {...textAreaField(form.field('description'))} />
+        <TextAreaField
+          label="What changed"
+          rows={3}
+          hint="Sent to every owner with the new version."
+          placeholder="Denser crown, a longer tail."
+          {...textAreaField(form.field('notes'))}
+        />
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-3">
+        <legend className="pb-2 text-lg font-bold">Files in the package</legend>
+        <FormatChecks
+          formats={formats}
+          error={form.errors.formats}
+          onChange={(next) => {
+            form.clearError('formats');
+            setFormats(next);
+          }}
+        />
+      </fieldset>
+
+      <RightsFields defaultShipsSurface={listing.shipsSurface} error={form.errors.rightsConfirmed} />
+
+      <div className="flex flex-col gap-3 border-t-2 border-vellum pt-6">
+        <p className="text-sm text-loam-soft">
+          The market’s admins review the new version first. Until they approve it, version {listing.currentVersion} stays on sale as it is.
+          Once approved, buyers get the new version, and every owner gets it free in their library with a notice and an e-mail.
+        </p>
+        <div>
+          <Button type="submit" disabled={!form.ready || form.busy}>
+            {form.busy ? 'Sending…' : 'Send the new version for review'}
+          </Button>
+        </div>
+      </div>
+    </form>
+  );
+}
