@@ -15,6 +15,7 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import type { Actor } from '@/lib/accounts/actor';
 import { HttpError } from '@/lib/http/errors';
 import { createListing } from '@/lib/market/listings';
+import { createListingVersion } from '@/lib/market/listings/versions';
 import { refundPurchase } from '@/lib/market/payments/refunds';
 import { TRIALS_PER_BUYER, TRIAL_GUIDE_SHARE, TRIAL_POINTS_PER_GUIDE } from '@/lib/market/fitting';
 import { LICENCE_TEXTS } from '@/lib/market/licences';
@@ -132,6 +133,22 @@ describe('fit a bought preset to my character', () => {
     expect(refused).toMatchObject({ status: 422, code: 'bought-not-for-resale' });
     expect((refused as HttpError).message).toMatch(/licence lets you use it .* not sell it/);
     expect(await db()('listings').where({ seller_id: buyer.userId }).count<{ count: string }[]>('* as count')).toEqual([{ count: '0' }]);
+    // Nor as a new version of a listing of their own on the market.
+    const own = await insertListing(asGroomer, { title: 'A coat of the buyer’s own making' }, surfaceKey);
+    const asUpdate = await createListingVersion(asGroomer, own, {
+      groomId: groom.id,
+      versionId: version.id,
+      description: 'The same coat, fitted from someone else’s preset.',
+      formats: ['json'],
+      notes: '',
+      rightsConfirmed: true,
+      shipsSurface: false,
+    }).then(
+      () => null,
+      (error: unknown) => error,
+    );
+    expect(asUpdate).toMatchObject({ status: 422, code: 'bought-not-for-resale' });
+    expect(await db()('listing_versions').where({ listing_id: own }).whereNot({ review: 'listing' }).count<{ count: string }[]>('* as count')).toEqual([{ count: '0' }]);
   });
 
   it('answers 404 to a buyer who did not buy the preset, and 404 for a surface that is not theirs', async () => {
