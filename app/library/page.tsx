@@ -3,6 +3,7 @@ import { LibraryList } from '@/components/market/LibraryList';
 import { actorOf } from '@/lib/accounts/actor';
 import { requireArea } from '@/lib/accounts/session';
 import { listLibrary } from '@/lib/market/library';
+import { env } from '@/lib/platform/env';
 
 export const metadata: Metadata = { title: 'Library' };
 
@@ -17,10 +18,10 @@ export default async function LibraryPage({ searchParams }: Props) {
       <div className="flex flex-col gap-3">
         <h1 className="text-4xl font-extrabold tracking-tight">Library</h1>
         <p className="max-w-2xl text-lg text-loam-soft">
-          The presets you bought: download their guides, fields and specs, and tell other groomers how they worked for you.
+          The presets you bought: fit them to a character of your own in the studio, download their files, and tell other groomers how they worked for you.
         </p>
       </div>
-      <LibraryList initial={{ purchases }} justPaid={justPaid} />
+      <LibraryList initial={{ purchases }} justPaid={justPaid} maxUploadBytes={env().SURFACE_MAX_BYTES} />
     </div>
   );
 }

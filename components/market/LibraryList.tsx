@@ -11,6 +11,7 @@ import type { LibraryItem, LibraryResponse } from '@/lib/market/types';
 import { formatPrice } from '@/lib/market/vocabulary';
 import { formatDate } from './format';
 import { forgetCheckout, pendingCheckout, type PendingCheckout } from './pending-checkout';
+import { PresetOnSurface } from './PresetOnSurface';
 import { ReviewForm } from './ReviewForm';
 import { UpdateNotices, VersionDownloads } from './LibraryVersions';
 import { RefundRequest } from './RefundRequest';
@@ -26,7 +27,7 @@ function arrivedItem(items: LibraryItem[], checkout: PendingCheckout | null, sin
   );
 }
 
-export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; justPaid: boolean }) {
+export function LibraryList({ initial, justPaid, maxUploadBytes }: { initial: LibraryResponse; justPaid: boolean; maxUploadBytes: number }) {
   const [arrival, setArrival] = useState<Arrival | null>(null);
   useEffect(() => {
     if (justPaid) setArrival({ state: 'waiting', checkout: pendingCheckout(), since: Date.now() });
@@ -83,7 +84,7 @@ export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; j
       ) : (
         <ul className="flex flex-col gap-5" aria-label="Your presets">
           {purchases.map((item) => (
-            <PurchaseCard key={item.purchaseId} item={item} onDownloaded={() => mutate()} />
+            <PurchaseCard key={item.purchaseId} item={item} onDownloaded={() => mutate()} maxUploadBytes={maxUploadBytes} />
           ))}
         </ul>
       )}
@@ -91,9 +92,10 @@ export function LibraryList({ initial, justPaid }: { initial: LibraryResponse; j
   );
 }
 
-function PurchaseCard({ item, onDownloaded }: { item: LibraryItem; onDownloaded: () => void }) {
+function PurchaseCard({ item, onDownloaded, maxUploadBytes }: { item: LibraryItem; onDownloaded: () => void; maxUploadBytes: number }) {
   const refunded = item.status === 'refunded' || item.refundPending;
   const [reviewing, setReviewing] = useState(false);
+  const [fitting, setFitting] = useState(false);
   return (
     <li
       id={`purchase-${item.purchaseId}`}
@@ -136,16 +138,25 @@ function PurchaseCard({ item, onDownloaded }: { item: LibraryItem; onDownloaded:
         </p>
         {refunded ? (
           <p className="text-sm text-loam-soft">
-            The money went back to your card, and with it the licence: the files are no longer yours to download or use in new work.
+            The money went back to your card, and with it the licence: the files are no longer yours to download or use in new work,
+            and the preset can no longer be fitted to your surfaces.
           </p>
         ) : (
           <div className="flex flex-col gap-3 pt-1">
             <div className="flex flex-wrap items-center gap-3">
               <VersionDownloads item={item} onDownloaded={onDownloaded} />
+              <Button look="quiet" onClick={() => setFitting((open) => !open)} aria-expanded={fitting}>
+                {fitting ? 'Close the fitting' : 'Fit to my character'}
+              </Button>
               <Button look="quiet" onClick={() => setReviewing((open) => !open)} aria-expanded={reviewing}>
                 {reviewing ? 'Close the review' : 'Rate and review'}
               </Button>
             </div>
+            {fitting && (
+              <div className="rounded-2xl bg-vellum/50 p-4">
+                <PresetOnSurface kind="fit" startUrl={`/api/library/${item.purchaseId}/fits`} title={item.listing.title} maxUploadBytes={maxUploadBytes} />
+              </div>
+            )}
             {reviewing && (
               <div className="rounded-2xl bg-chalk p-4">
                 <ReviewForm listingId={item.listing.id} title={item.listing.title} />

@@ -108,9 +108,11 @@ export function ListingForm({ licences, listing, preselect, feePercent }: Listin
     !editing && groomId ? `/api/studio/grooms/${groomId}/versions` : null,
     fetchData,
   );
-  const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0) ?? [];
+  // A groom fitted from a bought preset is used under the seller's licence and is never sold again.
+  const fitted = grooms.data?.grooms.filter((groom) => groom.fromPurchaseId !== null) ?? [];
+  const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0 && groom.fromPurchaseId === null) ?? [];
   // Grooms with no kept version cannot be listed; they are named, with the way to list them.
-  const unversioned = grooms.data?.grooms.filter((groom) => groom.versionCount === 0) ?? [];
+  const unversioned = grooms.data?.grooms.filter((groom) => groom.versionCount === 0 && groom.fromPurchaseId === null) ?? [];
   const chosenLicence = licences.find((licence) => licence.slug === licenceSlug);
 
   async function save(input: ListingFormValues) {
@@ -157,6 +159,11 @@ export function ListingForm({ licences, listing, preselect, feePercent }: Listin
   return (
     <form noValidate className="flex flex-col gap-8" onSubmit={form.onSubmit(save)} aria-label={editing ? 'Edit the listing' : 'List a preset'}>
       {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
+      {!editing && fitted.length > 0 && (
+        <p className="text-sm text-loam-soft">
+          Not in the list: {fitted.map((groom) => groom.name).join(', ')} — fitted from presets you bought, which their licences let you use but not sell.
+        </p>
+      )}
 
       <fieldset className="flex flex-col gap-4">
         <legend className="pb-2 text-lg font-bold">What you are selling</legend>

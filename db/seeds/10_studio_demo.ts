@@ -21,20 +21,32 @@ function surfaceName(demo: DemoGroom): string {
   return `${demo.character} — ${demo.id.split('-').slice(1).join(' ')}`;
 }
 
-/** The demo surface's id, uploading and registering it first when Wren does not have it yet. */
-async function demoSurface(knex: Knex, groomer: Groomer, demo: DemoGroom): Promise<string> {
-  const name = surfaceName(demo);
-  const existing = await knex('growth_surfaces').where({ owner_id: groomer.userId, name }).first('id');
+/**
+ * The id of the owner's surface of that name, uploading it through a presigned PUT, registering and
+ * checking it first when they do not have it yet (also the buyer's surface, 20_buyer_demo.ts).
+ */
+export async function seededSurface(knex: Knex, owner: Groomer, file: { name: string; fileName: string; obj: string; units: SurfaceUnits }): Promise<string> {
+  const existing = await knex('growth_surfaces').where({ owner_id: owner.userId, name: file.name }).first('id');
   if (existing) return existing.id;
-  const bytes = new TextEncoder().encode(surfaceToObj(demo.surface(), `${demo.character}, ${demo.description}`));
-  const ticket = await createSurfaceUpload(groomer, { fileName: `${demo.id}.obj`, byteSize: bytes.byteLength });
+  const bytes = new TextEncoder().encode(file.obj);
+  const ticket = await createSurfaceUpload(owner, { fileName: file.fileName, byteSize: bytes.byteLength });
   const upload = await fetch(ticket.url, { method: ticket.method, body: new Blob([bytes]) });
-  if (!upload.ok) throw new Error(`object storage refused the demo surface ${demo.id}: ${upload.status} ${await upload.text()}`);
-  const surface = await registerSurface(groomer, { uploadId: ticket.uploadId, name, units: demo.spec.units as SurfaceUnits });
-  // The seed needs the surface ready for its grooms now, so it runs the check itself; the queued
-  // job then finds it checked and leaves it.
+  if (!upload.ok) throw new Error(`object storage refused the demo surface ${file.fileName}: ${upload.status} ${await upload.text()}`);
+  const surface = await registerSurface(owner, { uploadId: ticket.uploadId, name: file.name, units: file.units });
+  // The seed needs the surface ready now, so it runs the check itself; the queued job then finds
+  // it checked and leaves it.
   await checkRegisteredSurface({ surfaceId: surface.id });
   return surface.id;
+}
+
+/** The demo surface's id, uploading and registering it first when Wren does not have it yet. */
+function demoSurface(knex: Knex, groomer: Groomer, demo: DemoGroom): Promise<string> {
+  return seededSurface(knex, groomer, {
+    name: surfaceName(demo),
+    fileName: `${demo.id}.obj`,
+    obj: surfaceToObj(demo.surface(), `${demo.character}, ${demo.description}`),
+    units: demo.spec.units as SurfaceUnits,
+  });
 }
 
 export async function seed(knex: Knex) {

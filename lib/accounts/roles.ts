@@ -24,13 +24,19 @@ export type Area = {
   summary: string;
 };
 
+/**
+ * Who works in the studio: groomers, and buyers fitting what they bought to their own characters
+ * (their own surfaces and grooms; selling stays a groomer's right, see the sales area).
+ */
+export const STUDIO_ROLES = ['groomer', 'buyer'] as const satisfies readonly Role[];
+
 // A groomer can also buy: library (purchases) is open to groomers as well as buyers.
 export const AREAS: readonly Area[] = [
   {
     id: 'studio',
     href: '/studio',
     label: 'Studio',
-    allowed: ['groomer'],
+    allowed: STUDIO_ROLES,
     summary: 'Growth surfaces, grooms and their versions: place whorls, partings and crests, trace guides, export.',
   },
   {
@@ -45,7 +51,7 @@ export const AREAS: readonly Area[] = [
     href: '/library',
     label: 'Library',
     allowed: ['buyer', 'groomer'],
-    summary: 'The presets you bought, ready to download or to apply to your own growth surface.',
+    summary: 'The presets you bought, ready to download or to fit to a growth surface of your own.',
   },
   {
     id: 'sales',

@@ -40,7 +40,9 @@ export type ApiErrorCode =
   | 'not-owned'
   | 'nothing-to-pay-out'
   | 'choose-currency'
-  | 'payment-provider';
+  | 'payment-provider'
+  // a buyer's own use of a bought preset (fit, trial)
+  | 'bought-not-for-resale';
 
 /** `details` carries what a code needs beyond words, e.g. the problems of a rejected surface. */
 export type ApiError = { code: ApiErrorCode; message: string; fields?: FieldErrors; details?: Record<string, unknown> };

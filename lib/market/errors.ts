@@ -2,7 +2,7 @@
 // failures themselves are HttpErrors (lib/http/errors.ts) with the codes of lib/http/types.ts.
 import { HttpError } from '../http/errors';
 
-export type MarketThing = 'listing' | 'purchase' | 'groom' | 'version' | 'licence' | 'review' | 'listing version';
+export type MarketThing = 'listing' | 'purchase' | 'groom' | 'version' | 'licence' | 'review' | 'listing version' | 'fit' | 'trial' | 'surface';
 
 /** Not there, or not the caller's to see: the answer is the same, so others' ids are not confirmed. */
 export function notFound(thing: MarketThing): HttpError {

@@ -15,6 +15,8 @@ export type GroomVersionSource = {
   surface: { objectKey: string; fileName: string };
   /** The earlier sculpt the version's guides are rooted on (a groom moved by polygon), or null. */
   rootsSurface: { objectKey: string; fileName: string } | null;
+  /** Set when the groom was fitted from a bought preset: such a groom is never sold (see createListing). */
+  fromPurchaseId: string | null;
 };
 
 /** A frozen copy's key under `prefix`: `<stem>` with the file's own extension, lower case. */
@@ -55,7 +57,7 @@ export async function sellersGroomVersion(sellerId: string, groomId: string, ver
     .join('growth_surfaces as s', 's.id', 'v.surface_id')
     .leftJoin('growth_surfaces as r', 'r.id', 'v.roots_surface_id')
     .where({ 'v.id': versionId, 'g.id': groomId, 'g.owner_id': sellerId })
-    .first('g.id as groom_id', 'g.name as groom_name', 'v.id as version_id', 'v.number', 'v.name', 'v.spec', 's.object_key', 's.file_name', 'r.object_key as roots_key', 'r.file_name as roots_file_name');
+    .first('g.id as groom_id', 'g.from_purchase_id', 'g.name as groom_name', 'v.id as version_id', 'v.number', 'v.name', 'v.spec', 's.object_key', 's.file_name', 'r.object_key as roots_key', 'r.file_name as roots_file_name');
   if (!row) {
     const groom = await db()('grooms').where({ id: groomId, owner_id: sellerId }).first('id');
     throw notFound(groom ? 'version' : 'groom');
@@ -69,5 +71,6 @@ export async function sellersGroomVersion(sellerId: string, groomId: string, ver
     spec: row.spec,
     surface: { objectKey: row.object_key, fileName: row.file_name },
     rootsSurface: row.roots_key ? { objectKey: row.roots_key, fileName: row.roots_file_name } : null,
+    fromPurchaseId: row.from_purchase_id ?? null,
   };
 }

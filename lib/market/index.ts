@@ -21,5 +21,6 @@ export * from './payments/refunds';
 export * from './payments/refund-requests';
 export * from './payments/reconcile';
 export * from './payments/webhooks';
+export * from './fitting';
 export * from './jobs';
 export * from './workers';

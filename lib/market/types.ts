@@ -1,6 +1,7 @@
 // The shapes the market's route handlers answer with, shared with the market's pages.
 // Money: integer cents with the currency beside it; times: ISO 8601 strings.
-import type { ThumbnailView, Unit } from '../groom';
+import type { ThumbnailView, TransferReport, Unit } from '../groom';
+import type { GroomDetail } from '../studio/types';
 import type { BodyRegion, CoatLength, Animal, Currency, ListingState, PackageFormat, SalesBucket, Style } from './vocabulary';
 
 export type Money = { cents: number; currency: Currency };
@@ -280,3 +281,38 @@ export type RefundRequestResponse = { request: RefundRequestState };
 export type AdminRefundRequestsResponse = { requests: AdminRefundRequest[] };
 /** POST /api/admin/refund-requests/[id]/decline */
 export type RefundDeclineResponse = { request: RefundRequestState };
+
+// A buyer's own use of a preset (lib/market/fitting): a listing's spec carried onto one of their
+// surfaces, for a purchase (a fit, accepted into a groom of theirs) or before buying (a trial).
+export type PresetTransferView = {
+  id: string;
+  kind: 'fit' | 'trial';
+  status: 'queued' | 'running' | 'done' | 'failed';
+  /** What the job is doing now, in words. */
+  stage: string;
+  listing: { id: string; title: string };
+  purchaseId: string | null;
+  surface: { id: string; name: string };
+  /** Where every place landed, what did not carry over, the index budget (null until done). */
+  report: TransferReport | null;
+  error: string | null;
+  /** The groom an accepted fit made. */
+  groomId: string | null;
+  /** A trial's reduced preview (null for a fit, and until done). */
+  trial: TrialPreview | null;
+  createdAt: string;
+};
+
+/** What a trial shows: a few guides with few points, built for the trial (never the package's files). */
+export type TrialPreview = {
+  guideCount: number;
+  pointsPerGuide: number;
+  /** The listing's own guide count, the whole the share is of. */
+  listingGuideCount: number | null;
+  /** A short-lived URL of the reduced .glb. */
+  previewUrl: string;
+  pictures: { view: ThumbnailView; url: string }[];
+};
+
+export type PresetTransferResponse = { transfer: PresetTransferView };
+export type FitAcceptedResponse = { groom: GroomDetail };

@@ -196,3 +196,8 @@ export const checkoutSchema = z.object({
   waiveCancellation: z.boolean({ error: 'Say whether you agree (true or false).' }).default(false),
 });
 export type CheckoutInput = z.infer<typeof checkoutSchema>;
+// A buyer's own use of a preset (lib/market/fitting): which of their surfaces, and the new groom's name.
+export const presetTransferSchema = z.object({ surfaceId: z.uuid('Choose one of your growth surfaces.') });
+export const acceptFitSchema = z.object({
+  name: z.string().trim().min(1, 'Give the groom a name.').max(200, 'Use a name of at most 200 characters.').optional(),
+});

@@ -5,7 +5,8 @@ import { db } from '../platform/db';
 import type { AreaJobs, JobKind } from '../platform/jobs';
 import { buildListingAssets } from './assets';
 import { buildListingVersionAssets } from './version-assets';
-import { LISTING_ASSETS_BUDGET, LISTING_ASSETS_QUEUE, marketBoss, RECONCILE_CRON, RECONCILE_QUEUE, type ListingAssetsJobData } from './jobs';
+import { LISTING_ASSETS_BUDGET, LISTING_ASSETS_QUEUE, marketBoss, PRESET_TRANSFER_BUDGET, PRESET_TRANSFER_QUEUE, RECONCILE_CRON, RECONCILE_QUEUE, TRIAL_SWEEP_CRON, TRIAL_SWEEP_QUEUE, type ListingAssetsJobData, type PresetTransferJobData } from './jobs';
+import { failPresetTransfer, runPresetTransfer, sweepOldTrials } from './fitting/transfers';
 import { reconcilePayments } from './payments/reconcile';
 import { resumePendingPayouts } from './payouts';
 
@@ -25,6 +26,26 @@ const listingAssetsKind: JobKind<ListingAssetsJobData> = {
   },
 };
 
+const presetTransferKind: JobKind<PresetTransferJobData> = {
+  queue: PRESET_TRANSFER_QUEUE,
+  what: 'Fitting the preset to your surface',
+  lighter: 'A surface with fewer faces (decimated) is lighter to fit a preset to.',
+  pollingSeconds: 1,
+  budget: PRESET_TRANSFER_BUDGET,
+  run: runPresetTransfer,
+  fail: failPresetTransfer,
+};
+
+const trialSweepKind: JobKind<unknown> = {
+  queue: TRIAL_SWEEP_QUEUE,
+  what: 'The sweep of old trials',
+  pollingSeconds: 60,
+  run: async () => {
+    const swept = await sweepOldTrials();
+    if (swept > 0) console.log(`[market] removed ${swept} trial(s) older than their keeping time`);
+  },
+};
+
 const reconcileKind: JobKind<unknown> = {
   queue: RECONCILE_QUEUE,
   what: 'The reconciliation of payments',
@@ -41,9 +62,10 @@ const reconcileKind: JobKind<unknown> = {
 export const MARKET_JOBS: AreaJobs = {
   area: 'market',
   boss: marketBoss,
-  kinds: [listingAssetsKind, reconcileKind],
+  kinds: [listingAssetsKind, presetTransferKind, trialSweepKind, reconcileKind],
   onStart: async (boss) => {
     await boss.schedule(RECONCILE_QUEUE, RECONCILE_CRON, {}, { singletonKey: 'market-reconcile' });
+    await boss.schedule(TRIAL_SWEEP_QUEUE, TRIAL_SWEEP_CRON);
     // Listings whose pictures were never queued (made by the seed, or a queue that was down), and
     // ready ones built before the reduced public preview (20261208200000_listing_preview), whose
     // preview held every guide, or before their facts (20261208200001_listing_facts): rebuilt

@@ -22,6 +22,8 @@ export type GroomRow = {
   surface_id: string;
   /** The surface whose roots the guides grow from, when it is an earlier sculpt of `surface_id` (same polygons). */
   roots_surface_id: string | null;
+  /** The purchase the groom was fitted from (lib/market/fit.ts): used under its licence, never sold again. Copies keep it. */
+  from_purchase_id: string | null;
   name: string;
   spec: GroomSpec;
   revision: number;
@@ -68,6 +70,7 @@ async function groomSummary(row: GroomListRow): Promise<GroomSummary> {
     latestVersion: row.latest_number === null ? null : { number: row.latest_number, name: row.latest_name! },
     thumbnailUrl: thumbnailKey ? await presignDownload(thumbnailKey, STUDIO_URL_SECONDS) : null,
     updatedAt: row.updated_at.toISOString(),
+    fromPurchaseId: row.from_purchase_id,
   };
 }
 
@@ -141,13 +144,13 @@ export async function renameGroom(groomer: Groomer, groomId: string, name: strin
   return getGroom(groomer, groomId);
 }
 
-/** A new groom on the same surface with a copy of the saved spec; versions stay with the original. */
+/** A new groom on the same surface with a copy of the saved spec (and the purchase it came from); versions stay with the original. */
 export async function duplicateGroom(groomer: Groomer, groomId: string, name?: string): Promise<GroomDetail> {
   const original: GroomRow | undefined = await db()('grooms').where({ id: groomId, owner_id: groomer.userId }).first();
   if (!original) throw notFound('groom');
   const copyName = name ?? `${original.name.slice(0, GROOM_NAME_MAX - ' (copy)'.length)} (copy)`;
   const [{ id }] = await db()('grooms')
-    .insert({ owner_id: groomer.userId, surface_id: original.surface_id, roots_surface_id: original.roots_surface_id, name: copyName, spec: JSON.stringify(original.spec) })
+    .insert({ owner_id: groomer.userId, surface_id: original.surface_id, roots_surface_id: original.roots_surface_id, from_purchase_id: original.from_purchase_id, name: copyName, spec: JSON.stringify(original.spec) })
     .returning('id');
   await enqueueThumbnail({ groomId: id });
   return getGroom(groomer, id);

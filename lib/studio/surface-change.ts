@@ -150,12 +150,14 @@ export async function acceptSurfaceMove(groomer: Groomer, groomId: string, input
   return getGroom(groomer, groomId);
 }
 
-/** A new groom on another of the groomer's surfaces, starting from this groom's saved spec carried over. */
+/** A new groom on another of the groomer's surfaces, starting from this groom's saved spec carried over (a fitted groom's copy stays fitted: not for sale). */
 export async function startGroomFrom(groomer: Groomer, groomId: string, input: SurfaceMoveInput & { name?: string }): Promise<GroomDetail> {
   const groom = await ownGroomRow(groomer, groomId);
   const { spec, report, to } = await carry(groomer, groom, input);
   const name = input.name ?? `${groom.name.slice(0, GROOM_NAME_MAX - to.name.length - 4)} on ${to.name}`.slice(0, GROOM_NAME_MAX);
-  const [{ id }] = await db()('grooms').insert({ owner_id: groomer.userId, surface_id: to.id, roots_surface_id: rootsAfter(report, groom), name, spec: JSON.stringify(spec) }).returning('id');
+  const [{ id }] = await db()('grooms')
+    .insert({ owner_id: groomer.userId, surface_id: to.id, roots_surface_id: rootsAfter(report, groom), from_purchase_id: groom.from_purchase_id, name, spec: JSON.stringify(spec) })
+    .returning('id');
   await enqueueThumbnail({ groomId: id });
   return getGroom(groomer, id);
 }

@@ -99,6 +99,8 @@ export type GroomSummary = {
   /** The groom's last rendered thumbnail, or its surface's until one is rendered; null if neither. */
   thumbnailUrl: string | null;
   updatedAt: IsoDate;
+  /** Set when the groom was fitted from a bought preset: it may be used under that licence, never offered for sale. */
+  fromPurchaseId: string | null;
 };
 
 export type GroomDetail = GroomSummary & {

@@ -157,8 +157,8 @@ test('an admin takes a role away and switches an account off: it applies at the 
   await row.getByRole('button', { name: 'Save roles' }).click();
   expect((await saved).status()).toBe(200);
 
-  // The same session, without signing in again: the studio is closed to it now.
-  expect((await page.goto('/studio'))?.status()).toBe(403);
+  // The same session, without signing in again: selling is closed to it now (the studio stays open to buyers).
+  expect((await page.goto('/sales'))?.status()).toBe(403);
   expect((await page.goto('/library'))?.status()).toBe(200);
 
   adminPage.once('dialog', (dialog) => dialog.accept());

@@ -4,7 +4,7 @@ import { expectSignedInAs, pageStatus, signInThroughForm } from './helpers';
 
 const demo = (role: 'groomer' | 'buyer' | 'admin') => DEMO_ACCOUNTS.find((account) => account.roles.includes(role))!;
 
-test('a buyer is refused the groomer-only pages with a 403 page', async ({ page }) => {
+test('a buyer is refused the seller’s and admin’s pages with a 403 page, and has a studio of their own', async ({ page }) => {
   const buyer = demo('buyer');
   await signInThroughForm(page, buyer.email, buyer.password);
   await expectSignedInAs(page, buyer.displayName);
@@ -13,9 +13,11 @@ test('a buyer is refused the groomer-only pages with a 403 page', async ({ page 
 
   const nav = page.getByRole('navigation', { name: 'Areas' });
   await expect(nav.getByRole('link', { name: 'Library' })).toBeVisible();
-  await expect(nav.getByRole('link', { name: 'Studio' })).toHaveCount(0);
+  await expect(nav.getByRole('link', { name: 'Studio' })).toBeVisible();
+  await expect(nav.getByRole('link', { name: 'Sales' })).toHaveCount(0);
+  expect((await page.goto('/studio'))?.status()).toBe(200);
 
-  for (const path of ['/studio', '/sales', '/admin/mail']) {
+  for (const path of ['/sales', '/sales/new', '/admin/mail']) {
     const response = await page.goto(path);
     expect(response?.status(), path).toBe(403);
     await expect(page.getByRole('heading', { name: 'This page is not open to your account' })).toBeVisible();

@@ -216,7 +216,7 @@ async function makeCastAndThings() {
 
   const surfaceKey = await ringSurfaceKey();
   const listed = (state: string, title: string) => insertListing(seller, { state, title }, surfaceKey);
-  const [listing, boughtListing, refundListing, draftListing, submitListing, unlistListing, submittedListing] = await Promise.all([
+  const [listing, boughtListing, refundListing, draftListing, submitListing, unlistListing, submittedListing, refundedListing] = await Promise.all([
     listed('published', 'Matrix coat for sale'),
     listed('published', 'Matrix coat, bought'),
     listed('published', 'Matrix coat, refunded'),
@@ -224,6 +224,7 @@ async function makeCastAndThings() {
     listed('draft', 'Matrix draft to submit'),
     listed('published', 'Matrix coat to unlist'),
     listed('submitted', 'Matrix coat awaiting review'),
+    listed('published', 'Matrix coat, refunded before the rows'),
   ]);
   // A picture and a package as the asset job leaves them (the bytes themselves are not read).
   const picture = `tests/matrix/${listing}/front-256.webp`;
@@ -239,6 +240,25 @@ async function makeCastAndThings() {
   const waitingVersion = await updateWaiting(await listed('published', 'Matrix coat, updated'));
   const purchase = await buy(buyerActor, boughtListing);
   const refundPurchase = await buy(buyerActor, refundListing);
+  const refundedPurchase = await buy(buyerActor, refundedListing);
+  await db()('purchases').where({ id: refundedPurchase }).update({ status: 'refunded', refunded_at: db().fn.now() });
+  // The buyer's own surface, and fits and a trial as their job leaves them (the rows read rows, not the transfer).
+  const buyerSurface = await createSurface(buyer, 'matrix-buyer-ring.obj', ringBytes, 'Matrix buyer ring');
+  const transfer = (kind: 'fit' | 'trial', listingId: string, purchaseId: string | null) => ({
+    kind,
+    buyer_id: buyer.userId,
+    listing_id: listingId,
+    purchase_id: purchaseId,
+    target_surface_id: buyerSurface.id,
+    status: 'done',
+    stage: 'Done',
+    spec: JSON.stringify(specGroom.spec),
+    report: JSON.stringify({ method: 'topology', notCarried: [] }),
+  });
+  const [fit, acceptFit, trial] = await db()('preset_transfers')
+    .insert([transfer('fit', boughtListing, purchase), transfer('fit', boughtListing, purchase), transfer('trial', listing, null)])
+    .returning('id')
+    .then((rows) => rows.map((row) => row.id as string));
 
   things = {
     upload,
@@ -263,5 +283,10 @@ async function makeCastAndThings() {
     account: account.id,
     missing: randomUUID(),
     demo: DEMO_GROOMS[0].id,
+    buyerSurface: buyerSurface.id,
+    fit,
+    acceptFit,
+    trial,
+    refundedPurchase,
   };
 }

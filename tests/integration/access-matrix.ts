@@ -46,6 +46,12 @@ export type Things = {
   account: string; // a buyer's account nobody in the rows signs in with, for the admins' account rows
   missing: string; // an id nothing has
   demo: string; // a practice groom's id
+  // A buyer's own use of presets (issue 14, fit): the buyer is the one who bought; the owner is the seller.
+  buyerSurface: string; // the buyer's own ready growth surface
+  fit: string; // a finished fit of the buyer's purchase onto buyerSurface, for reading
+  acceptFit: string; // another finished fit, which the buyer accepts into a groom
+  trial: string; // a trial of `listing` on buyerSurface
+  refundedPurchase: string; // a purchase of the buyer's, refunded before the rows run
 };
 type IdOf = { [K in keyof Things]: Things[K] extends string ? K : never }[keyof Things];
 
@@ -105,34 +111,34 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('POST', '/api/account/password-reset/confirm', all(400), { body: { token: 'x' }, note: 'bad input' }),
   route('POST', '/api/payments/webhook', all(400), { body: { type: 'checkout.session.completed' }, note: 'unsigned' }),
 
-  // The studio: groomers only, and only their own things.
-  route('POST', '/api/studio/uploads', '401 403 201 201 403', { body: { fileName: 'coat.obj', byteSize: 1024 } }),
-  route('POST', '/api/studio/uploads', '401 403 400 400 403', { body: { fileName: 'coat.obj', byteSize: 0 }, note: 'bad input' }),
-  route('GET', '/api/studio/surfaces', '401 403 200 200 403'),
-  route('POST', '/api/studio/surfaces', '401 403 202 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
-  route('GET', '/api/studio/surfaces/[surfaceId]', '401 403 200 404 403', { params: surface }),
-  route('GET', '/api/studio/surfaces/[surfaceId]', '401 403 404 404 403', { params: { surfaceId: ['not-an-id'] }, note: 'malformed id' }),
-  route('DELETE', '/api/studio/surfaces/[surfaceId]', '401 403 200 404 403', { params: { surfaceId: 'spareSurface' } }),
-  route('GET', '/api/studio/grooms', '401 403 200 200 403'),
-  route('POST', '/api/studio/grooms', '401 403 201 404 403', { body: (t) => ({ surfaceId: t.surface, name: 'Matrix groom' }) }),
-  route('POST', '/api/studio/grooms', '401 403 400 400 403', { body: { surfaceId: 'nope' }, note: 'bad input' }),
-  route('GET', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: groom }),
-  route('GET', '/api/studio/grooms/[groomId]', '401 403 404 404 403', { params: { groomId: 'missing' }, note: 'no such groom' }),
-  route('PATCH', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: groom, body: { name: 'Matrix groom, renamed' } }),
-  route('DELETE', '/api/studio/grooms/[groomId]', '401 403 200 404 403', { params: { groomId: 'spareGroom' } }),
-  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 200 404 403', { params: { groomId: 'specGroom' }, body: (t) => ({ spec: t.spec, baseRevision: t.revision }) }),
-  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 403 400 400 403', { params: groom, body: { baseRevision: 0 }, note: 'bad input' }),
-  route('POST', '/api/studio/grooms/[groomId]/duplicate', '401 403 201 404 403', { params: groom, body: {} }),
-  route('POST', '/api/studio/grooms/[groomId]/surface/preview', '401 403 200 404 403', { params: groom, body: (t) => ({ surfaceId: t.surface }) }),
-  route('POST', '/api/studio/grooms/[groomId]/surface/preview', '401 403 400 400 403', { params: groom, body: { surfaceId: 'nope' }, note: 'bad input' }),
-  route('PUT', '/api/studio/grooms/[groomId]/surface', '401 403 409 404 403', { params: groom, body: (t) => ({ surfaceId: t.spareSurface, baseRevision: 999_999 }), note: 'a stale revision: nothing moves' }),
-  route('PUT', '/api/studio/grooms/[groomId]/surface', '401 403 400 400 403', { params: groom, body: { surfaceId: 'nope' }, note: 'bad input' }),
-  route('POST', '/api/studio/grooms/[groomId]/exports', '401 403 202 404 403', { params: groom, body: { format: 'json' } }),
-  route('POST', '/api/studio/grooms/[groomId]/exports', '401 403 400 400 403', { params: groom, body: { format: 'docx' }, note: 'bad input' }),
-  route('GET', '/api/studio/exports/[exportId]', '401 403 200 404 403', { params: { exportId: 'export' } }),
-  route('GET', '/api/studio/grooms/[groomId]/versions', '401 403 200 404 403', { params: groom }),
-  route('POST', '/api/studio/grooms/[groomId]/versions', '401 403 201 404 403', { params: groom, body: { name: 'Matrix version' } }),
-  route('POST', '/api/studio/grooms/[groomId]/versions/[versionId]/restore', '401 403 200 404 403', { params: { groomId: 'groom', versionId: 'version' } }),
+  // The studio: groomers and buyers (fitting what they bought), each only their own things; the buyer answers as another groomer does.
+  route('POST', '/api/studio/uploads', '401 201 201 201 403', { body: { fileName: 'coat.obj', byteSize: 1024 } }),
+  route('POST', '/api/studio/uploads', '401 400 400 400 403', { body: { fileName: 'coat.obj', byteSize: 0 }, note: 'bad input' }),
+  route('GET', '/api/studio/surfaces', '401 200 200 200 403'),
+  route('POST', '/api/studio/surfaces', '401 404 202 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
+  route('GET', '/api/studio/surfaces/[surfaceId]', '401 404 200 404 403', { params: surface }),
+  route('GET', '/api/studio/surfaces/[surfaceId]', '401 404 404 404 403', { params: { surfaceId: ['not-an-id'] }, note: 'malformed id' }),
+  route('DELETE', '/api/studio/surfaces/[surfaceId]', '401 404 200 404 403', { params: { surfaceId: 'spareSurface' } }),
+  route('GET', '/api/studio/grooms', '401 200 200 200 403'),
+  route('POST', '/api/studio/grooms', '401 404 201 404 403', { body: (t) => ({ surfaceId: t.surface, name: 'Matrix groom' }) }),
+  route('POST', '/api/studio/grooms', '401 400 400 400 403', { body: { surfaceId: 'nope' }, note: 'bad input' }),
+  route('GET', '/api/studio/grooms/[groomId]', '401 404 200 404 403', { params: groom }),
+  route('GET', '/api/studio/grooms/[groomId]', '401 404 404 404 403', { params: { groomId: 'missing' }, note: 'no such groom' }),
+  route('PATCH', '/api/studio/grooms/[groomId]', '401 404 200 404 403', { params: groom, body: { name: 'Matrix groom, renamed' } }),
+  route('DELETE', '/api/studio/grooms/[groomId]', '401 404 200 404 403', { params: { groomId: 'spareGroom' } }),
+  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 404 200 404 403', { params: { groomId: 'specGroom' }, body: (t) => ({ spec: t.spec, baseRevision: t.revision }) }),
+  route('PUT', '/api/studio/grooms/[groomId]/spec', '401 400 400 400 403', { params: groom, body: { baseRevision: 0 }, note: 'bad input' }),
+  route('POST', '/api/studio/grooms/[groomId]/duplicate', '401 404 201 404 403', { params: groom, body: {} }),
+  route('POST', '/api/studio/grooms/[groomId]/surface/preview', '401 404 200 404 403', { params: groom, body: (t) => ({ surfaceId: t.surface }) }),
+  route('POST', '/api/studio/grooms/[groomId]/surface/preview', '401 400 400 400 403', { params: groom, body: { surfaceId: 'nope' }, note: 'bad input' }),
+  route('PUT', '/api/studio/grooms/[groomId]/surface', '401 404 409 404 403', { params: groom, body: (t) => ({ surfaceId: t.spareSurface, baseRevision: 999_999 }), note: 'a stale revision: nothing moves' }),
+  route('PUT', '/api/studio/grooms/[groomId]/surface', '401 400 400 400 403', { params: groom, body: { surfaceId: 'nope' }, note: 'bad input' }),
+  route('POST', '/api/studio/grooms/[groomId]/exports', '401 404 202 404 403', { params: groom, body: { format: 'json' } }),
+  route('POST', '/api/studio/grooms/[groomId]/exports', '401 400 400 400 403', { params: groom, body: { format: 'docx' }, note: 'bad input' }),
+  route('GET', '/api/studio/exports/[exportId]', '401 404 200 404 403', { params: { exportId: 'export' } }),
+  route('GET', '/api/studio/grooms/[groomId]/versions', '401 404 200 404 403', { params: groom }),
+  route('POST', '/api/studio/grooms/[groomId]/versions', '401 404 201 404 403', { params: groom, body: { name: 'Matrix version' } }),
+  route('POST', '/api/studio/grooms/[groomId]/versions/[versionId]/restore', '401 404 200 404 403', { params: { groomId: 'groom', versionId: 'version' } }),
 
   // The market. The seller is the owner; the buyer bought `boughtListing`.
   route('GET', '/api/market/licences', all(200)),
@@ -197,6 +203,17 @@ export const ROUTE_ROWS: RouteRow[] = [
     note: 'no such request',
   }),
 
+  // Fitting a bought preset and trying one before buying: the buyer's own, on the buyer's own surface.
+  route('POST', '/api/library/[purchaseId]/fits', '401 202 404 404 403', { params: { purchaseId: 'purchase' }, body: (t) => ({ surfaceId: t.buyerSurface }) }),
+  route('POST', '/api/library/[purchaseId]/fits', '401 403 404 404 403', { params: { purchaseId: 'refundedPurchase' }, body: (t) => ({ surfaceId: t.buyerSurface }), note: 'refunded' }),
+  route('POST', '/api/library/[purchaseId]/fits', '401 400 400 400 403', { params: { purchaseId: 'purchase' }, body: { surfaceId: 'nope' }, note: 'bad input' }),
+  route('GET', '/api/library/fits/[fitId]', '401 200 404 404 403', { params: { fitId: 'fit' } }),
+  route('POST', '/api/library/fits/[fitId]/accept', '401 201 404 404 403', { params: { fitId: 'acceptFit' }, body: { name: 'Matrix fitted coat' } }),
+  route('POST', '/api/library/fits/[fitId]/accept', '401 400 400 400 403', { params: { fitId: 'fit' }, body: { name: '' }, note: 'bad input' }),
+  route('POST', '/api/market/listings/[id]/trials', '401 202 403 404 403', { params: listing, body: (t) => ({ surfaceId: t.buyerSurface }), note: 'the owner sells it' }),
+  route('POST', '/api/market/listings/[id]/trials', '401 400 400 400 403', { params: listing, body: {}, note: 'bad input' }),
+  route('GET', '/api/market/trials/[trialId]', '401 200 404 404 403', { params: { trialId: 'trial' } }),
+
   // The seller's figures and payouts.
   route('GET', '/api/sales', '401 403 200 200 403', { query: 'bucket=month' }),
   route('GET', '/api/sales', '401 403 400 400 403', { query: 'bucket=century', note: 'bad input' }),
@@ -233,9 +250,9 @@ export const PAGE_ROWS: PageRow[] = [
   page('/market/[id]', '404 404 200 404 200', { params: { id: 'draftListing' }, note: 'draft' }),
   page('/market/[id]', all(404), { params: { id: 'missing' }, note: 'no such listing' }),
   page('/library', 'signin 200 200 200 403'),
-  page('/studio', 'signin 403 200 200 403'),
-  page('/studio/grooms/[groomId]', 'signin 403 200 404 403', { params: groom }),
-  page('/studio/practice/[demoId]', 'signin 403 200 200 403', { params: { demoId: 'demo' } }),
+  page('/studio', 'signin 200 200 200 403'),
+  page('/studio/grooms/[groomId]', 'signin 404 200 404 403', { params: groom }),
+  page('/studio/practice/[demoId]', 'signin 200 200 200 403', { params: { demoId: 'demo' } }),
   page('/sales', 'signin 403 200 200 403'),
   page('/sales/new', 'signin 403 200 200 403'),
   page('/sales/listings/[id]/edit', 'signin 403 200 404 403', { params: { id: 'draftListing' } }),

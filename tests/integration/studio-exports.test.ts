@@ -270,9 +270,9 @@ describe('who may export and download', () => {
     expect((await expectJson(await readExport(rival, done.id), 404)).error.message).toBe('There is no such export in your studio.');
   });
 
-  it('answers 403 to a buyer and 401 to a visitor', async () => {
-    expect((await expectJson(await requestExport(buyer, groom.id, 'json'), 403)).error.code).toBe('forbidden');
-    expect((await expectJson(await readExport(buyer, done.id), 403)).error.code).toBe('forbidden');
+  it('answers 404 to a buyer (who works in the studio on their own grooms only) and 401 to a visitor', async () => {
+    expect((await expectJson(await requestExport(buyer, groom.id, 'json'), 404)).error.code).toBe('not-found');
+    expect((await expectJson(await readExport(buyer, done.id), 404)).error.code).toBe('not-found');
     expect((await expectJson(await readExport(null, done.id), 401)).error.code).toBe('not-signed-in');
   });
 

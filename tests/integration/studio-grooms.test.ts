@@ -315,10 +315,13 @@ describe('who may see and change grooms', () => {
     expect(await getGroom(wren, groom.id)).toMatchObject({ name: 'Private coat', revision: 1, versionCount: 1 });
   });
 
-  it('answers 403 to a buyer and 401 to a visitor', async () => {
-    for (const response of await Promise.all(everyCall(buyer))) expect((await expectJson(response, 403)).error.code).toBe('forbidden');
+  // Buyers work in the studio on their own surfaces and grooms (fitting what they bought): to them
+  // a groomer's groom is as unknown as to another groomer.
+  it('answers 404 to a buyer for a groomer’s groom and surface, and 401 to a visitor', async () => {
+    for (const response of await Promise.all(everyCall(buyer))) expect((await expectJson(response, 404)).error.code).toBe('not-found');
     for (const response of await Promise.all(everyCall(null))) expect((await expectJson(response, 401)).error.code).toBe('not-signed-in');
-    expect((await callRoute(groomsRoute, 'GET', '/api/studio/grooms', { cookie: buyer.cookie })).status).toBe(403);
-    expect((await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: buyer.cookie, body: { surfaceId: foxSurface.id, name: 'x' } })).status).toBe(403);
+    expect((await expectJson(await callRoute(groomsRoute, 'GET', '/api/studio/grooms', { cookie: buyer.cookie }), 200)).data.grooms).toEqual([]);
+    expect((await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: buyer.cookie, body: { surfaceId: foxSurface.id, name: 'x' } })).status).toBe(404);
+    expect(await getGroom(wren, groom.id)).toMatchObject({ name: 'Private coat', revision: 1, versionCount: 1 });
   });
 });

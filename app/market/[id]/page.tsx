@@ -7,6 +7,7 @@ import { Cautions } from '@/components/market/Cautions';
 import { Gallery } from '@/components/market/Gallery';
 import { galleryPictures } from '@/components/market/gallery-pictures';
 import { GuidePreview } from '@/components/market/GuidePreview';
+import { PresetOnSurface } from '@/components/market/PresetOnSurface';
 import { formatDate } from '@/components/market/format';
 import { factRows } from '@/components/market/listing-facts';
 import { StateBadge } from '@/components/market/StateBadge';
@@ -14,10 +15,12 @@ import { Stars } from '@/components/market/Stars';
 import { TAG_KEYS, TAG_LABELS, tagLabel } from '@/components/market/search-params';
 import { Notice } from '@/components/ui/Notice';
 import { actorOf } from '@/lib/accounts/actor';
+import { area, mayEnter } from '@/lib/accounts/roles';
 import { requireArea } from '@/lib/accounts/session';
 import { HttpError } from '@/lib/http/errors';
 import { getListingDetail } from '@/lib/market/listings';
 import { FORMAT_LABELS, formatPrice } from '@/lib/market/vocabulary';
+import { env } from '@/lib/platform/env';
 
 type Props = {
   params: Promise<{ id: string }>;
@@ -79,6 +82,19 @@ export default async function ListingPage({ params, searchParams }: Props) {
             </h2>
             <GuidePreview url={listing.guidePreviewUrl} title={listing.title} />
           </section>
+          {/* Try before buying: people with a studio (buyers, groomers) other than the seller, on a published preset. */}
+          {session && mayEnter(area('studio'), session.user.roles) && listing.state === 'published' && !viewer.isSeller && (
+            <section aria-labelledby="try-heading" className="flex flex-col gap-3 rounded-3xl bg-vellum/60 p-5">
+              <h2 id="try-heading" className="text-xl font-bold">
+                Try it on your character
+              </h2>
+              <p className="text-sm text-loam-soft">
+                See this preset carried onto a growth surface of yours before you buy: where each whorl and parting lands, what does not carry over, pictures
+                and a light 3D look.
+              </p>
+              <PresetOnSurface kind="trial" startUrl={`/api/market/listings/${listing.id}/trials`} title={listing.title} maxUploadBytes={env().SURFACE_MAX_BYTES} />
+            </section>
+          )}
         </div>
 
         <div className="flex flex-col gap-6">

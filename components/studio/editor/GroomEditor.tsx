@@ -18,7 +18,7 @@ export function GroomEditor({ groom, maxUploadBytes }: { groom: GroomDetail; max
     <Workspace
       key={groom.id}
       title={groom.name}
-      subtitle={`On ${groom.surface.name} (${groom.surface.faceCount.toLocaleString('en-GB')} faces, units ${groom.surface.units})`}
+      subtitle={`On ${groom.surface.name} (${groom.surface.faceCount.toLocaleString('en-GB')} faces, units ${groom.surface.units})${groom.fromPurchaseId ? ' · fitted from a preset you bought: yours to use, not to sell' : ''}`}
       source={source}
       rootsFrom={rootsFrom}
       initialSpec={groom.spec}

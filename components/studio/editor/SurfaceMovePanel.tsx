@@ -8,7 +8,6 @@
 import { useState } from 'react';
 import useSWR from 'swr';
 import { fetchData, request } from '@/lib/http/client';
-import type { TransferReport } from '@/lib/groom';
 import type { GroomDetail, SurfaceMovePreview, SurfaceSummary } from '@/lib/studio/types';
 import { Notice } from '@/components/ui/Notice';
 import { landmarkLine, readMoveInputs } from '@/lib/studio/client/move-input';
@@ -16,48 +15,7 @@ import type { Vec3 } from '@/lib/studio/client/features';
 import type { OpenedSurface } from '@/lib/studio/client/protocol';
 import { LandmarkPicker } from './LandmarkPicker';
 import { SurfaceUpload } from '../home/SurfaceUpload';
-
-const percent = (x: number) => `${(100 * x).toFixed(x < 0.001 ? 2 : 1)} %`;
-const METHOD = { topology: 'by polygon (the same polygons)', uv: 'by UV', alignment: 'by alignment along the normal' } as const;
-
-function Report({ report }: { report: TransferReport }) {
-  const carried = report.features.filter((f) => f.to !== null).length;
-  return (
-    <div className="flex flex-col gap-2 text-sm" data-testid="transfer-report" aria-label="Transfer report">
-      <p>
-        Carried {METHOD[report.method]}: <strong>{carried} of {report.features.length}</strong> features.
-        {report.from.uvOverlaps + report.to.uvOverlaps > 0 && ' The UV layouts overlap, so UVs were not used.'}
-      </p>
-      <table className="w-full text-left text-xs">
-        <thead>
-          <tr><th>Feature</th><th>Kind</th><th className="text-right">Moved</th></tr>
-        </thead>
-        <tbody>
-          {report.features.map((f) => (
-            <tr key={f.path}>
-              <td className="font-mono">{f.path}</td>
-              <td>{f.kind}</td>
-              <td className="text-right">{f.moved === null ? 'not carried' : percent(f.moved)}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-      {report.notCarried.length > 0 && (
-        <div>
-          <p className="font-semibold">Not carried over</p>
-          <ul className="list-disc pl-5">
-            {report.notCarried.map((n) => <li key={n.path}><span className="font-mono">{n.path}</span>: {n.reason}</li>)}
-          </ul>
-        </div>
-      )}
-      <p>
-        Index budget on the new surface:{' '}
-        {report.budget.map((p) => `${p.demanded === null ? `${p.placed} placed (free boundary)` : `${p.placed} of ${p.demanded} placed`}${p.remainder ? `, ${p.remainder} left to place with the budget card's remainder` : ''}`).join('; ') || 'not worked out'}.
-      </p>
-      <p>{report.field.solved ? 'The field solves there with exactly the carried singularities.' : `The field does not solve there yet: ${report.field.message}`}</p>
-    </div>
-  );
-}
+import { TransferReportView } from '../ui/TransferReportView';
 
 export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush, groomSurface, upAxis }: { groomId: string; surfaceId: string; maxUploadBytes: number; flush: () => Promise<boolean>; groomSurface: OpenedSurface | null; upAxis: 'y' | 'z' }) {
   const { data, mutate } = useSWR<{ surfaces: SurfaceSummary[] }>('/api/studio/surfaces', fetchData, { refreshInterval: (d) => (d?.surfaces.some((s) => s.state === 'checking') ? 1500 : 0) });
@@ -164,7 +122,7 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush, gr
       {preview && (
         <div className="flex flex-col gap-3 rounded-xl bg-chalk p-3">
           <p className="text-sm font-semibold text-loam">From {preview.from.name} to {preview.to.name}</p>
-          <Report report={preview.report} />
+          <TransferReportView report={preview.report} />
           <div className="flex flex-wrap gap-2">
             <button type="button" disabled={busy} onClick={move} className="rounded-xl bg-tarn px-3 py-1.5 text-sm font-semibold text-chalk disabled:opacity-50">Move the groom</button>
             <button type="button" disabled={busy} onClick={startThere} className="rounded-xl border border-tarn px-3 py-1.5 text-sm font-semibold text-tarn disabled:opacity-50">Start a new groom there instead</button>

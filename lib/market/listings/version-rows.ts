@@ -10,8 +10,21 @@ import { FIELD_NEEDS_SURFACE, RIGHTS_WORDING, SURFACE_CARRYING_FORMAT } from '..
 import type { ListingPatchInput } from '../validation';
 import type { ListingRow } from './views';
 
-/** The spec of the seller's groom version, resolved as a listing freezes it; 422 in lib/groom's words when it cannot be sold as it is. */
+/**
+ * The spec of the seller's groom version, resolved as a listing freezes it; 422 in lib/groom's
+ * words when it cannot be sold as it is, and 422 bought-not-for-resale for a groom fitted from a
+ * bought preset (lib/market/fitting: its licence covers use, not resale), for a new listing and a
+ * listing's new version alike.
+ */
 export function sellableSpec(version: GroomVersionSource): GroomSpec {
+  if (version.fromPurchaseId) {
+    throw new HttpError(
+      422,
+      'bought-not-for-resale',
+      `“${version.groomName}” was fitted from a preset you bought: its licence lets you use it on your characters, not sell it. Only grooms you made yourself can be listed.`,
+      { fields: { groomId: 'A groom fitted from a bought preset cannot be sold.' } },
+    );
+  }
   try {
     return parseGroomSpec(version.spec);
   } catch (error) {

@@ -12,9 +12,9 @@ describe('areas by role', () => {
     expect(ids(['groomer'])).toEqual(['studio', 'market', 'library', 'sales']);
   });
 
-  it('keeps buyers out of the studio and sales', () => {
-    expect(ids(['buyer'])).toEqual(['market', 'library']);
-    expect(mayEnter(area('studio'), ['buyer'])).toBe(false);
+  it('lets buyers into the studio (to fit what they bought to their own surfaces) and keeps selling for groomers', () => {
+    expect(ids(['buyer'])).toEqual(['studio', 'market', 'library']);
+    expect(mayEnter(area('studio'), ['buyer'])).toBe(true);
     expect(mayEnter(area('sales'), ['buyer'])).toBe(false);
   });
 

@@ -1,4 +1,5 @@
 // One groom of the groomer: its spec, surface and versions; renaming; deletion.
+import { STUDIO_ROLES } from '@/lib/accounts/roles';
 import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import type { DeletedResponse, GroomResponse } from '@/lib/studio/types';
 import { deleteGroom, getGroom, renameGroom } from '@/lib/studio/grooms';
@@ -8,14 +9,14 @@ import { renameGroomSchema } from '@/lib/studio/validation';
 type Context = { params: Promise<{ groomId: string }> };
 
 export function GET(_request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     return jsonData<GroomResponse>({ groom: await getGroom(groomer, groomId) });
   });
 }
 
 export function PATCH(request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     const input = await readBody(request, renameGroomSchema);
     return jsonData<GroomResponse>({ groom: await renameGroom(groomer, groomId, input.name) });
@@ -23,7 +24,7 @@ export function PATCH(request: Request, context: Context) {
 }
 
 export function DELETE(_request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     await deleteGroom(groomer, await pathId(context.params, 'groomId', notFound('groom')));
     return jsonData<DeletedResponse>({ deleted: true });
   });

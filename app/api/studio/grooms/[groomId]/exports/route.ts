@@ -1,4 +1,5 @@
 // Asks for an export of a groom's saved spec, made by a background job.
+import { STUDIO_ROLES } from '@/lib/accounts/roles';
 import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import type { ExportResponse } from '@/lib/studio/types';
 import { requestExport } from '@/lib/studio/exports';
@@ -8,7 +9,7 @@ import { createExportSchema } from '@/lib/studio/validation';
 type Context = { params: Promise<{ groomId: string }> };
 
 export function POST(request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     const input = await readBody(request, createExportSchema);
     return jsonData<ExportResponse>({ export: await requestExport(groomer, groomId, input.format, { withSurface: input.withSurface }) }, 202);

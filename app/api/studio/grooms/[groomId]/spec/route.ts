@@ -1,4 +1,5 @@
 // Autosave of a groom's spec, checked against lib/groom's schema and the revision it was loaded at.
+import { STUDIO_ROLES } from '@/lib/accounts/roles';
 import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import type { SpecSavedResponse } from '@/lib/studio/types';
 import { saveSpec } from '@/lib/studio/grooms';
@@ -8,7 +9,7 @@ import { saveSpecSchema } from '@/lib/studio/validation';
 type Context = { params: Promise<{ groomId: string }> };
 
 export function PUT(request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     const input = await readBody(request, saveSpecSchema);
     return jsonData<SpecSavedResponse>(await saveSpec(groomer, groomId, input));

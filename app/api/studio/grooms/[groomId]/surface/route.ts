@@ -1,4 +1,5 @@
 // Moves a groom onto another surface: its spec carried over, the groom as it was kept as a version.
+import { STUDIO_ROLES } from '@/lib/accounts/roles';
 import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import type { GroomResponse } from '@/lib/studio/types';
 import { acceptSurfaceMove } from '@/lib/studio/surface-change';
@@ -8,7 +9,7 @@ import { acceptSurfaceMoveSchema } from '@/lib/studio/validation';
 type Context = { params: Promise<{ groomId: string }> };
 
 export function PUT(request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     const input = await readBody(request, acceptSurfaceMoveSchema);
     return jsonData<GroomResponse>({ groom: await acceptSurfaceMove(groomer, groomId, input) });

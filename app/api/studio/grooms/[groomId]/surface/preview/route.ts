@@ -1,4 +1,5 @@
 // The transfer report of moving a groom onto another surface, before anything changes.
+import { STUDIO_ROLES } from '@/lib/accounts/roles';
 import { handler, jsonData, pathId, readBody } from '@/lib/http/server';
 import type { SurfaceMovePreviewResponse } from '@/lib/studio/types';
 import { previewSurfaceMove } from '@/lib/studio/surface-change';
@@ -8,7 +9,7 @@ import { surfaceMoveSchema } from '@/lib/studio/validation';
 type Context = { params: Promise<{ groomId: string }> };
 
 export function POST(request: Request, context: Context) {
-  return handler(['groomer'], async (groomer) => {
+  return handler(STUDIO_ROLES, async (groomer) => {
     const groomId = await pathId(context.params, 'groomId', notFound('groom'));
     const input = await readBody(request, surfaceMoveSchema);
     return jsonData<SurfaceMovePreviewResponse>({ preview: await previewSurfaceMove(groomer, groomId, input) });
