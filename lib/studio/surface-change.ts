@@ -34,30 +34,65 @@ const MOVE_POLL_MS = 150;
 /** How long a request waits for a job worker to take and finish the move: its budget, and a queue's wait on top. */
 const MOVE_WAIT_MS = (SURFACE_MOVE_BUDGET.seconds + 60) * 1000;
 
+/** What decides a transfer's result besides the groom's spec: a preview is taken only for the same. */
+function carryKey(input: SurfaceMoveInput): string {
+  const regionMap = Object.entries(input.regionMap ?? {}).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
+  return JSON.stringify([input.surfaceId, input.landmarks ?? [], regionMap, input.method ?? 'auto']);
+}
+
+/** A previewed transfer of this groom with the same input, taken (deleted) once; null when there is none. */
+async function takePreviewed(groomId: string, input: SurfaceMoveInput): Promise<Pick<MoveRow, 'spec' | 'report' | 'revision'> | null> {
+  if (!input.moveId) return null;
+  const [row]: MoveRow[] = await db()('groom_surface_moves').where({ id: input.moveId, groom_id: groomId, status: 'done' }).delete().returning('*');
+  return row && carryKey(row.input) === carryKey(input) ? row : null;
+}
+
+type Carried = { spec: GroomSpec; report: TransferReport; revision: number; from: SurfaceRow; to: SurfaceRow; moveId: string | null };
+
 /**
  * The transfer of a groom's saved spec onto one of the groomer's ready surfaces, worked out by a
  * job worker (reading and preparing two surfaces is heavy work, never done on the web server);
- * the request waits for the job's row, without holding the server's event loop. Nothing is written
- * but that row, which is gone again when this returns.
+ * the request waits for the job's row, without holding the server's event loop. A preview `keep`s
+ * its row (and says its `moveId`), so that accepting takes the same transfer instead of carrying
+ * the groom over again; otherwise nothing is written but that row, which is gone again when this
+ * returns. Kept rows nobody takes are swept (sweepStaleSurfaceMoves).
  */
-async function carry(groomer: Groomer, groom: GroomRow, input: SurfaceMoveInput): Promise<{ spec: GroomSpec; report: TransferReport; revision: number; from: SurfaceRow; to: SurfaceRow }> {
+async function carry(groomer: Groomer, groom: GroomRow, input: SurfaceMoveInput, keep = false): Promise<Carried> {
   const from: SurfaceRow = await db()('growth_surfaces').where({ id: groom.surface_id }).first();
   const to = await readyTarget(groomer, input.surfaceId);
-  const [{ id }] = await db()('groom_surface_moves').insert({ groom_id: groom.id, target_surface_id: to.id, input: JSON.stringify(input) }).returning('id');
+  const previewed = await takePreviewed(groom.id, input);
+  if (previewed) return { spec: previewed.spec!, report: previewed.report!, revision: previewed.revision!, from, to, moveId: null };
+  const stored = { surfaceId: input.surfaceId, landmarks: input.landmarks, regionMap: input.regionMap, method: input.method };
+  const [{ id }] = await db()('groom_surface_moves').insert({ groom_id: groom.id, target_surface_id: to.id, input: JSON.stringify(stored) }).returning('id');
+  let kept = false;
   try {
     await enqueueSurfaceMove({ moveId: id });
     const deadline = Date.now() + MOVE_WAIT_MS;
     for (;;) {
       const row: MoveRow | undefined = await db()('groom_surface_moves').where({ id }).first();
       if (!row) throw notFound('groom');
-      if (row.status === 'done') return { spec: row.spec!, report: row.report!, revision: row.revision!, from, to };
+      if (row.status === 'done') {
+        kept = keep;
+        return { spec: row.spec!, report: row.report!, revision: row.revision!, from, to, moveId: keep ? id : null };
+      }
       if (row.status === 'failed') throw new HttpError(422, 'transfer-refused', row.error!);
       if (Date.now() > deadline) throw new HttpError(503, 'service-unavailable', 'Carrying the groom over took too long (no job worker took it, or it is still busy); try again in a moment.');
       await new Promise((resolve) => setTimeout(resolve, MOVE_POLL_MS));
     }
   } finally {
-    await db()('groom_surface_moves').where({ id }).delete();
+    if (!kept) await db()('groom_surface_moves').where({ id }).delete();
   }
+}
+
+/** How long a previewed transfer waits to be accepted, and the longest a request waits for one, before the sweep. */
+export const STALE_MOVE_MS = Math.max(60 * 60 * 1000, 2 * MOVE_WAIT_MS);
+
+/**
+ * Deletes the rows of transfers nobody will take: previews not accepted within STALE_MOVE_MS, and
+ * rows of requests whose web process stopped while they waited. Returns how many.
+ */
+export async function sweepStaleSurfaceMoves(now = new Date()): Promise<number> {
+  return db()('groom_surface_moves').where('updated_at', '<', new Date(now.getTime() - STALE_MOVE_MS)).delete();
 }
 
 /**
@@ -112,11 +147,11 @@ async function ownGroomRow(groomer: Groomer, groomId: string): Promise<GroomRow>
   return row;
 }
 
-/** What moving the groom onto the surface would do: the carried spec's report, and the revision it was made from. Writes nothing. */
+/** What moving the groom onto the surface would do: the carried spec's report, and the revision it was made from. Writes nothing but the kept transfer. */
 export async function previewSurfaceMove(groomer: Groomer, groomId: string, input: SurfaceMoveInput): Promise<SurfaceMovePreview> {
   const groom = await ownGroomRow(groomer, groomId);
-  const { report, revision, from, to } = await carry(groomer, groom, input);
-  return { report, revision, from: { id: from.id, name: from.name }, to: { id: to.id, name: to.name } };
+  const { report, revision, from, to, moveId } = await carry(groomer, groom, input, true);
+  return { report, revision, moveId: moveId!, from: { id: from.id, name: from.name }, to: { id: to.id, name: to.name } };
 }
 
 /**

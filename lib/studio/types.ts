@@ -162,9 +162,13 @@ export type SurfaceMoveInput = {
   /** Old region (group) name → the new surface's name for it. */
   regionMap?: Record<string, string>;
   method?: 'auto' | 'topology' | 'uv' | 'alignment';
+  /** The preview whose transfer to take (`SurfaceMovePreview.moveId`), so that it is not carried over again; ignored unless the input is the same. */
+  moveId?: string;
 };
 export type SurfaceMovePreview = {
   report: TransferReport;
+  /** Send it back with the same input to accept this transfer (kept for an hour). */
+  moveId: string;
   /** The groom's revision the report was made from: accepting sends it back. */
   revision: number;
   from: { id: string; name: string };

@@ -32,6 +32,7 @@ export const surfaceMoveSchema = z.object({
   landmarks: z.array(z.object({ from: point, to: point }), 'Give landmarks as pairs of points.').max(64, 'Use at most 64 landmark pairs.').optional(),
   regionMap: z.record(z.string().min(1).max(200), z.string().min(1).max(200)).optional(),
   method: z.enum(['auto', 'topology', 'uv', 'alignment'], 'Choose auto, topology, uv or alignment.').optional(),
+  moveId: z.uuid('Send the moveId of the transfer report, or leave it out.').optional(),
 });
 
 export const acceptSurfaceMoveSchema = surfaceMoveSchema.extend({

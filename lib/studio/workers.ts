@@ -1,6 +1,6 @@
 // The studio's jobs as a job-worker process (services/jobs-worker.ts) runs them: surface checks,
 // exports, thumbnails and moves of grooms between surfaces are heavy (each in a child process with a time and memory budget, one at a time per
-// queue and worker), the hourly sweep of abandoned uploads is light.
+// queue and worker), the hourly sweep of abandoned uploads and transfers is light.
 import type { AreaJobs, JobKind } from '../platform/jobs';
 import { db } from '../platform/db';
 import type { ExportJobData, SurfaceCheckJobData, SurfaceMoveJobData, ThumbnailJobData } from './jobs';
@@ -9,7 +9,7 @@ import { runExport } from './exports';
 import { sweepAbandonedUploads } from './surfaces';
 import { renderGroomThumbnail } from './thumbnails';
 import { checkRegisteredSurface, refuseSurface } from './surface-check';
-import { failSurfaceMove, runSurfaceMove } from './surface-change';
+import { failSurfaceMove, runSurfaceMove, sweepStaleSurfaceMoves } from './surface-change';
 
 const surfaceCheckKind: JobKind<SurfaceCheckJobData> = {
   queue: SURFACE_CHECK_QUEUE,
@@ -59,11 +59,13 @@ const thumbnailKind: JobKind<ThumbnailJobData> = {
 
 const sweepKind: JobKind<unknown> = {
   queue: UPLOAD_SWEEP_QUEUE,
-  what: 'The sweep of abandoned uploads',
+  what: 'The sweep of abandoned uploads and transfers',
   pollingSeconds: 60,
   run: async () => {
     const swept = await sweepAbandonedUploads();
     if (swept > 0) console.log(`[studio] removed ${swept} upload(s) that were never registered`);
+    const moves = await sweepStaleSurfaceMoves();
+    if (moves > 0) console.log(`[studio] removed ${moves} transfer(s) of grooms that nobody took`);
   },
 };
 

@@ -8,12 +8,11 @@ import { getObjectBytes } from '@/lib/platform/storage';
 import { parseGroomSpec } from '@/lib/groom';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
 import { buildListingAssets } from '@/lib/market/assets';
-import { HttpError } from '@/lib/http/errors';
 import type { Actor } from '@/lib/accounts/actor';
 import { stopJobs } from '@/lib/platform/jobs';
 import { createListing, getListingDetail, listOwnListings, submitListing, unlistListing, updateListing } from '@/lib/market/listings';
 import type { ListingDraftInput } from '@/lib/market/validation';
-import { makePerson, studioGroom } from './market-helpers';
+import { makePerson, studioGroom, failureOf } from './market-helpers';
 
 afterAll(async () => {
   await stopJobs();
@@ -39,14 +38,6 @@ const draft = (ids: { groomId: string; versionId: string }): ListingDraftInput =
   shipsSurface: false,
 });
 
-async function failure(promise: Promise<unknown>): Promise<HttpError> {
-  const error = await promise.then(
-    () => null,
-    (caught: unknown) => caught,
-  );
-  expect(error).toBeInstanceOf(HttpError);
-  return error as HttpError;
-}
 
 let seller: Actor;
 beforeAll(async () => {
@@ -73,25 +64,25 @@ describe('a listing from a saved version', () => {
   it('does not find another groomer’s groom or version, or an unknown licence', async () => {
     const ids = await studioVersion(seller);
     const other = await makePerson('other-groomer', ['groomer']);
-    expect(await failure(createListing(other, draft(ids)))).toMatchObject({ status: 404, code: 'not-found' });
-    expect(await failure(createListing(seller, draft({ ...ids, versionId: randomUUID() })))).toMatchObject({ status: 404, message: 'There is no such version.' });
-    const unknown = await failure(createListing(seller, { ...draft(ids), licenceSlug: 'forever-free' }));
+    expect(await failureOf(createListing(other, draft(ids)))).toMatchObject({ status: 404, code: 'not-found' });
+    expect(await failureOf(createListing(seller, draft({ ...ids, versionId: randomUUID() })))).toMatchObject({ status: 404, message: 'There is no such version.' });
+    const unknown = await failureOf(createListing(seller, { ...draft(ids), licenceSlug: 'forever-free' }));
     expect(unknown.extra.fields).toEqual({ licenceSlug: 'Choose one of the market’s licences.' });
   });
 
   it('moves draft → submitted → unlisted → draft, and refuses edits out of turn', async () => {
     const listing = await createListing(seller, draft(await studioVersion(seller)));
     const other = await makePerson('other-groomer', ['groomer']);
-    expect((await failure(submitListing(other, listing.id))).status).toBe(404);
+    expect((await failureOf(submitListing(other, listing.id))).status).toBe(404);
     expect((await submitListing(seller, listing.id)).state).toBe('submitted');
-    expect((await failure(updateListing(seller, listing.id, { title: 'Changed while waiting' }))).code).toBe('wrong-state');
-    expect((await failure(submitListing(seller, listing.id))).code).toBe('wrong-state');
+    expect((await failureOf(updateListing(seller, listing.id, { title: 'Changed while waiting' }))).code).toBe('wrong-state');
+    expect((await failureOf(submitListing(seller, listing.id))).code).toBe('wrong-state');
     expect((await unlistListing(seller, listing.id)).state).toBe('unlisted');
     const edited = await updateListing(seller, listing.id, { priceCents: 1100, tags: { animal: 'toy', coatLength: 'medium', style: 'plush', bodyRegion: 'full-body' } });
     expect(edited).toMatchObject({ state: 'draft', priceCents: 1100, assets: { status: 'pending' } });
     expect((await listOwnListings(seller)).map((own) => own.id)).toContain(listing.id);
     // Not published: only the seller sees it.
-    expect((await failure(getListingDetail(other, listing.id))).status).toBe(404);
-    expect((await failure(getListingDetail(null, listing.id))).status).toBe(404);
+    expect((await failureOf(getListingDetail(other, listing.id))).status).toBe(404);
+    expect((await failureOf(getListingDetail(null, listing.id))).status).toBe(404);
   });
 });

@@ -7,7 +7,6 @@ import { unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import * as downloadRoute from '@/app/api/library/[purchaseId]/download/route';
 import { PUBLIC_PREVIEW } from '@/lib/groom';
-import { HttpError } from '@/lib/http/errors';
 import { buildListingAssets } from '@/lib/market/assets';
 import { requestDownload } from '@/lib/market/library';
 import { getListingDetail } from '@/lib/market/listings';
@@ -17,16 +16,10 @@ import { MARKET_JOBS } from '@/lib/market/workers';
 import { closeDb, db } from '@/lib/platform/db';
 import { getObjectBytes, putObject } from '@/lib/platform/storage';
 import { loadGltf as load, linesOf } from '@/tests/fixtures/gltf-lines';
-import { buyListing, deliver, eventsAbout, insertListing, makePerson, ringSurfaceKey } from './market-helpers';
+import { buyListing, deliver, eventsAbout, insertListing, makePerson, ringSurfaceKey, failureOf } from './market-helpers';
 import { callRoute } from './studio-helpers';
 
 afterAll(closeDb);
-
-async function failure(promise: Promise<unknown>): Promise<HttpError> {
-  const error = await promise.then(() => null, (caught: unknown) => caught);
-  expect(error).toBeInstanceOf(HttpError);
-  return error as HttpError;
-}
 
 let listingId: string;
 
@@ -74,17 +67,17 @@ describe('the public preview against the paid package', () => {
     const anonymous = await callRoute(downloadRoute, 'POST', `/api/library/${purchaseId}/download`, { params: { purchaseId } });
     expect(anonymous.status).toBe(401);
     // Another buyer (who bought nothing of it) and a groomer who is not the buyer: no such purchase of theirs.
-    expect((await failure(requestDownload(await makePerson('preview-stranger', ['buyer']), purchaseId))).status).toBe(404);
-    expect((await failure(requestDownload(await makePerson('preview-groomer', ['groomer']), purchaseId))).status).toBe(404);
+    expect((await failureOf(requestDownload(await makePerson('preview-stranger', ['buyer']), purchaseId))).status).toBe(404);
+    expect((await failureOf(requestDownload(await makePerson('preview-groomer', ['groomer']), purchaseId))).status).toBe(404);
     expect((await requestDownload(buyer, purchaseId)).fileName).toBe('loop-preview-nap.zip');
 
     // Refunded: refused from the moment the refund is asked, and after the provider confirms it.
     await refundPurchase(await makePerson('preview-admin', ['admin']), purchaseId);
-    expect(await failure(requestDownload(buyer, purchaseId))).toMatchObject({ status: 403, code: 'refunded' });
+    expect(await failureOf(requestDownload(buyer, purchaseId))).toMatchObject({ status: 403, code: 'refunded' });
     const { payment_intent_id: paymentIntent } = await db()('purchases').where({ id: purchaseId }).first('payment_intent_id');
     const [refunded] = await eventsAbout({ id: '', paymentIntent }, ['charge.refunded']);
     expect((await deliver(refunded)).status).toBe(200);
-    expect(await failure(requestDownload(buyer, purchaseId))).toMatchObject({ status: 403, code: 'refunded' });
+    expect(await failureOf(requestDownload(buyer, purchaseId))).toMatchObject({ status: 403, code: 'refunded' });
   });
 });
 

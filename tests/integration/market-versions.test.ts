@@ -9,7 +9,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeDb, db } from '@/lib/platform/db';
 import { stopJobs } from '@/lib/platform/jobs';
 import type { Actor } from '@/lib/accounts/actor';
-import { HttpError } from '@/lib/http/errors';
 import { listLibrary, requestDownload } from '@/lib/market/library';
 import { listLicences } from '@/lib/market/licences';
 import {
@@ -27,7 +26,7 @@ import { RIGHTS_WORDING } from '@/lib/market/rights';
 import type { ListingDraftInput } from '@/lib/market/validation';
 import { startJobsWorkerProcess, type JobsWorkerProcess } from '@/services/jobs-worker-process';
 import { mailTo } from './helpers';
-import { buyListing, deliver, eventsAbout, makePerson, studioGroom, waitFor } from './market-helpers';
+import { buyListing, deliver, eventsAbout, makePerson, studioGroom, waitFor, failureOf } from './market-helpers';
 
 let worker: JobsWorkerProcess;
 
@@ -37,14 +36,6 @@ afterAll(async () => {
   await closeDb();
 });
 
-async function failure(promise: Promise<unknown>): Promise<HttpError> {
-  const error = await promise.then(
-    () => null,
-    (caught: unknown) => caught,
-  );
-  expect(error).toBeInstanceOf(HttpError);
-  return error as HttpError;
-}
 
 /** A surface, a groom and two saved versions of it, as the studio keeps them. */
 async function twoVersions(owner: Actor) {
@@ -122,7 +113,7 @@ describe('the seller’s rights tick', () => {
     expect(row.rights_confirmed_by).toBe(seller.userId);
     expect(Date.now() - row.rights_confirmed_at.getTime()).toBeLessThan(10 * 60_000);
     // Someone else's listing's versions are not theirs to see.
-    expect((await failure(listListingVersions(await makePerson('versions-other', ['groomer']), listing.id))).status).toBe(404);
+    expect((await failureOf(listListingVersions(await makePerson('versions-other', ['groomer']), listing.id))).status).toBe(404);
   });
 });
 
@@ -146,7 +137,7 @@ describe('updates to owners', () => {
       shipsSurface: true,
     });
     expect(update).toMatchObject({ number: 2, review: 'submitted', onSale: false, shipsSurface: true, rights: { wordingVersion: RIGHTS_WORDING.version } });
-    expect((await failure(createListingVersion(seller, listingId, { ...update, groomId: groom.groomId, versionId: groom.v2, notes: '', rightsConfirmed: true }))).code).toBe('wrong-state');
+    expect((await failureOf(createListingVersion(seller, listingId, { ...update, groomId: groom.groomId, versionId: groom.v2, notes: '', rightsConfirmed: true }))).code).toBe('wrong-state');
     const waiting = await getListingDetail(null, listingId);
     expect(waiting).toMatchObject({ description: FIRST_WORDS, formats: ['usda', 'json'], groom: { versionId: groom.v1 } });
     expect((await listVersionsForAdmin()).map((version) => version.id)).toContain(update.id);
@@ -176,7 +167,7 @@ describe('updates to owners', () => {
     // The refunded buyer: no notice, no version, no mail.
     const [refundedItem] = await listLibrary(refunded);
     expect(refundedItem).toMatchObject({ status: 'refunded', updateNotice: null, versions: [] });
-    expect((await failure(requestDownload(refunded, refundedPurchase, 2))).code).toBe('refunded');
+    expect((await failureOf(requestDownload(refunded, refundedPurchase, 2))).code).toBe('refunded');
     expect((await mailTo(refunded.email!)).filter((m) => m.subject.includes('new version'))).toEqual([]);
 
     // Version 1 as bought: no surface in the package, none in the USD; version 2: the source file and the Mesh prim.
@@ -192,25 +183,25 @@ describe('updates to owners', () => {
     expect(strFromU8(second['README.txt'])).toMatch(/surface\/loop\.obj/);
     // Downloading the new version ends its notice.
     expect((await listLibrary(owner))[0].updateNotice).toBeNull();
-    expect((await failure(requestDownload(owner, ownerPurchase, 3))).status).toBe(404);
+    expect((await failureOf(requestDownload(owner, ownerPurchase, 3))).status).toBe(404);
 
     // A buyer after the update bought version 2, and only it.
     const later = await makePerson('versions-later', ['buyer']);
     const laterPurchase = await buyListing(later, listingId);
     expect((await listLibrary(later))[0]).toMatchObject({ boughtVersion: 2, versions: [{ number: 2, packageReady: true }], updateNotice: null });
-    expect((await failure(requestDownload(later, laterPurchase, 1))).status).toBe(404);
+    expect((await failureOf(requestDownload(later, laterPurchase, 1))).status).toBe(404);
   });
 
   it('keeps the version on sale when an update is sent back, tells the seller why, and lets them try again', async () => {
     const listingId = await publishedListing();
     const other = await makePerson('versions-other-seller', ['groomer']);
     const input = { groomId: groom.groomId, versionId: groom.v2, description: SECOND_WORDS, formats: ['usda' as const], notes: '', rightsConfirmed: true as const, shipsSurface: false };
-    expect((await failure(createListingVersion(other, listingId, input))).status).toBe(404);
+    expect((await failureOf(createListingVersion(other, listingId, input))).status).toBe(404);
     const update = await createListingVersion(seller, listingId, input);
-    expect((await failure(decideListingVersion(admin, update.id, { approve: false, reason: ' ' }))).status).toBe(400);
+    expect((await failureOf(decideListingVersion(admin, update.id, { approve: false, reason: ' ' }))).status).toBe(400);
     const rejected = await decideListingVersion(admin, update.id, { approve: false, reason: 'The pictures show a client’s character.' });
     expect(rejected).toMatchObject({ review: 'rejected', rejectionReason: 'The pictures show a client’s character.', onSale: false });
-    expect((await failure(decideListingVersion(admin, update.id, { approve: true }))).code).toBe('wrong-state');
+    expect((await failureOf(decideListingVersion(admin, update.id, { approve: true }))).code).toBe('wrong-state');
     const mail = await waitFor('the rejection', async () => (await mailTo(seller.email!)).find((m) => m.subject.includes('Version 2') && m.subject.includes('needs changes')));
     expect(mail.text).toMatch(/a client’s character/);
     expect((await getListingDetail(null, listingId)).description).toBe(FIRST_WORDS);
@@ -221,7 +212,7 @@ describe('updates to owners', () => {
   it('takes new versions only for a listing on the market, and only from its seller; admins decide, not on their own listing', async () => {
     const draftListing = await createListing(seller, draft());
     const input = { groomId: groom.groomId, versionId: groom.v2, description: SECOND_WORDS, formats: ['usda' as const], notes: '', rightsConfirmed: true as const, shipsSurface: false };
-    expect(await failure(createListingVersion(seller, draftListing.id, input))).toMatchObject({ status: 409, code: 'wrong-state' });
+    expect(await failureOf(createListingVersion(seller, draftListing.id, input))).toMatchObject({ status: 409, code: 'wrong-state' });
     const sellingAdmin = await makePerson('versions-admin-seller', ['groomer', 'admin']);
     const own = await twoVersions(sellingAdmin);
     const listing = await createListing(sellingAdmin, { ...draft(), groomId: own.groomId, versionId: own.v1 });
@@ -229,6 +220,6 @@ describe('updates to owners', () => {
     await submitListing(sellingAdmin, listing.id);
     await decideListing(admin, listing.id, { approve: true });
     const update = await createListingVersion(sellingAdmin, listing.id, { ...input, groomId: own.groomId, versionId: own.v2 });
-    expect((await failure(decideListingVersion(sellingAdmin, update.id, { approve: true }))).code).toBe('own-listing');
+    expect((await failureOf(decideListingVersion(sellingAdmin, update.id, { approve: true }))).code).toBe('own-listing');
   });
 });

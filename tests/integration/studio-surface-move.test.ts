@@ -22,6 +22,8 @@ import { createListing } from '@/lib/market/listings';
 import { listLicences } from '@/lib/market/licences';
 import { getObjectBytes } from '@/lib/platform/storage';
 import type { ExportJob, GroomDetail, ReadySurface, SurfaceMovePreview } from '@/lib/studio/types';
+import { STALE_MOVE_MS, sweepStaleSurfaceMoves } from '@/lib/studio/surface-change';
+import { SURFACE_MOVE_QUEUE } from '@/lib/studio/jobs';
 import { multiply3, onUnitSphere as at, transferSphere, rotationAbout } from '@/tests/fixtures/transfer-sphere';
 
 const encode = (text: string) => new TextEncoder().encode(text);
@@ -79,7 +81,7 @@ async function exportedBinding(groomId: string): Promise<string[]> {
 }
 
 describe('moving a groom onto a new sculpt of its character', () => {
-  it('shows the transfer report first and writes nothing', async () => {
+  it('shows the transfer report first and writes nothing but the transfer it keeps for the accept', async () => {
     const response = await call(pip, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id });
     const preview: SurfaceMovePreview = (await expectJson(response, 200)).data.preview;
     expect(preview.revision).toBe(groom.revision);
@@ -87,8 +89,8 @@ describe('moving a groom onto a new sculpt of its character', () => {
     expect(preview.report.features.map((f) => [f.path, f.to !== null])).toEqual([['field.singularities[0]', true], ['field.singularities[1]', true]]);
     expect(preview.report.field).toEqual({ solved: true });
     expect((await detail(groom.id)).surface.id).toBe(surfaces.first.id);
-    // The job's working row is gone once the report is answered.
-    expect(await db()('groom_surface_moves').where({ groom_id: groom.id }).count({ n: '*' }).first()).toEqual({ n: '0' });
+    // The job's row is kept, done, for the accept to take (the groom itself is unchanged above).
+    expect(await db()('groom_surface_moves').where({ groom_id: groom.id }).select('id', 'status')).toEqual([{ id: preview.moveId, status: 'done' }]);
     const rivalAsks = await call(rival, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id });
     expect(rivalAsks.status).toBe(404);
   });
@@ -107,7 +109,13 @@ describe('moving a groom onto a new sculpt of its character', () => {
 
   it('moves it, keeping the groom as it was as a version on the old surface, which opens there again', async () => {
     const bindingBefore = await exportedBinding(groom.id);
-    const moved: GroomDetail = (await expectJson(await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.sculpted.id, baseRevision: groom.revision }), 200)).data.groom;
+    const preview: SurfaceMovePreview = (await expectJson(await call(pip, previewRoute, 'POST', groom.id, '/surface/preview', { surfaceId: surfaces.sculpted.id }), 200)).data.preview;
+    const moveJobs = async () => Number((await db().raw('SELECT count(*) AS n FROM pgboss.job WHERE name = ?', [SURFACE_MOVE_QUEUE])).rows[0].n);
+    const jobsBefore = await moveJobs();
+    const moved: GroomDetail = (await expectJson(await call(pip, moveRoute, 'PUT', groom.id, '/surface', { surfaceId: surfaces.sculpted.id, baseRevision: groom.revision, moveId: preview.moveId }), 200)).data.groom;
+    // Accepting took the previewed transfer: no job carried the groom over again, and its row is gone.
+    expect(await moveJobs()).toBe(jobsBefore);
+    expect(await db()('groom_surface_moves').where({ id: preview.moveId }).first()).toBeUndefined();
     expect(moved.surface.id).toBe(surfaces.sculpted.id);
     expect(moved.revision).toBe(groom.revision + 1);
     for (const s of moved.spec.field.singularities) expect(s.surface).toBeDefined();
@@ -178,5 +186,21 @@ describe('moving a groom onto a new sculpt of its character', () => {
     const whorl = started.spec.field.singularities[0].point!;
     const expected = turned.place(at(40, 30));
     expect(Math.hypot(whorl[0] - expected[0], whorl[1] - expected[1], whorl[2] - expected[2])).toBeLessThan(1.5);
+  });
+});
+
+describe('transfers nobody takes', () => {
+  it('are swept once stale: a preview never accepted, a request whose process stopped; a fresh one stays', async () => {
+    const input = JSON.stringify({ surfaceId: surfaces.sculpted.id });
+    const [stale, fresh] = await db()('groom_surface_moves')
+      .insert([
+        { groom_id: groom.id, target_surface_id: surfaces.sculpted.id, input, status: 'done', updated_at: new Date(Date.now() - STALE_MOVE_MS - 60_000) },
+        { groom_id: groom.id, target_surface_id: surfaces.sculpted.id, input, status: 'queued' },
+      ])
+      .returning('id');
+    expect(await sweepStaleSurfaceMoves()).toBeGreaterThanOrEqual(1);
+    expect(await db()('groom_surface_moves').where({ id: stale.id }).first()).toBeUndefined();
+    expect(await db()('groom_surface_moves').where({ id: fresh.id }).first()).toBeDefined();
+    await db()('groom_surface_moves').where({ id: fresh.id }).delete();
   });
 });

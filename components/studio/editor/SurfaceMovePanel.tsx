@@ -62,7 +62,7 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush, gr
     const body = input();
     if (!body || !preview) return;
     setBusy(true);
-    const outcome = await request<{ groom: GroomDetail }>('PUT', `/api/studio/grooms/${encodeURIComponent(groomId)}/surface`, { ...body, baseRevision: preview.revision });
+    const outcome = await request<{ groom: GroomDetail }>('PUT', `/api/studio/grooms/${encodeURIComponent(groomId)}/surface`, { ...body, baseRevision: preview.revision, moveId: preview.moveId });
     if (!outcome.ok) {
       setBusy(false);
       return setFailure(outcome.error.message);
@@ -75,7 +75,7 @@ export function SurfaceMovePanel({ groomId, surfaceId, maxUploadBytes, flush, gr
     const body = input();
     if (!body || !preview) return;
     setBusy(true);
-    const outcome = await request<{ groom: GroomDetail }>('POST', `/api/studio/grooms/${encodeURIComponent(groomId)}/duplicate`, body);
+    const outcome = await request<{ groom: GroomDetail }>('POST', `/api/studio/grooms/${encodeURIComponent(groomId)}/duplicate`, { ...body, moveId: preview.moveId });
     if (!outcome.ok) {
       setBusy(false);
       return setFailure(outcome.error.message);
