@@ -54,7 +54,8 @@ export interface FieldSurface {
 export function prepareSurface(mesh: TriangleMesh, options: { boundary?: BoundaryMode } = {}): FieldSurface {
   const boundary = options.boundary ?? 'free';
   const t0 = now();
-  const problem = checkSurface(mesh).problems.find((p) => p.severity === 'error');
+  // Only the errors: the topology is built below anyway, and UV overlaps are no concern of the field.
+  const problem = checkSurface(mesh, { describe: false }).problems.find((p) => p.severity === 'error');
   if (problem) throw new FieldError(problem.code, problem.message);
   const topology = buildTopology(mesh);
   if (topology.faceCount === 0) throw new FieldError('empty', 'The surface has no faces.');

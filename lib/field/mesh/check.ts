@@ -98,6 +98,12 @@ export interface FileNumbering {
 export interface CheckSurfaceOptions {
   /** States the problems' examples in the file's own numbering (see `FileNumbering`). */
   readonly numbering?: FileNumbering;
+  /**
+   * False leaves out what only describes the surface — UV overlaps, genus, boundary loops and
+   * pieces (null or empty in the facts) and the warnings about them — for a caller that only needs
+   * the errors (they are found the same). Default true.
+   */
+  readonly describe?: boolean;
   /** Most faces allowed. Default `DEFAULT_MAX_FACES`. */
   readonly maxFaces?: number;
   /** See `DEFAULT_DEGENERATE_TOLERANCE`. */
@@ -314,7 +320,9 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     });
   }
 
-  const uvs = uvFacts({ ...whole, cornerUvs: mesh.cornerUvs });
+  const describe = options.describe ?? true;
+  // Without cornerUvs the UV facts are "none", at no cost.
+  const uvs = uvFacts({ ...whole, cornerUvs: describe ? mesh.cornerUvs : undefined });
   if (uvs.overlappingFaces.count > 0) {
     problems.push({
       code: 'uvs-overlap',
@@ -342,7 +350,7 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
   // Faces of zero area, or with non-finite corners, do not upset the connectivity; the rest does.
   const connectivityIntact =
     outOfRange.count === 0 && repeatedCorners === 0 && edges.nonManifold.count === 0 && edges.misoriented.count === 0 && edges.pinched.count === 0;
-  const topology = connectivityIntact ? buildTopology(whole) : null;
+  const topology = connectivityIntact && describe ? buildTopology(whole) : null;
   const components = topology ? componentFacts(topology) : null;
   let validFaces = 0;
   for (let f = 0; f < nF; f++) validFaces += valid[f];

@@ -7,6 +7,7 @@ import type { TriangleMesh } from '@/lib/field/mesh/mesh';
 import { disc, genusTwoSurface, gridPlane, icosphere, torus } from '@/tests/fixtures/shapes';
 import { buildTopology } from '@/lib/field/mesh/topology';
 import { concatenate, stanfordBunny } from './surfaces';
+import { transferSphere } from '@/tests/fixtures/transfer-sphere';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/surfaces/${name}`, import.meta.url)));
 
@@ -171,6 +172,23 @@ describe('checkSurface finds each problem, with counts and examples', () => {
     expect(report.problems.map((p) => p.code)).toEqual(['uvs-incomplete']);
     expect(report.facts?.uvs.present).toBe(false);
     expect(report.facts).toMatchObject({ vertexCount: 8, faceCount: 12, edgeCount: 18, eulerCharacteristic: 2, genus: 0, surfaceArea: 6 });
+  });
+});
+
+describe('checkSurface without the description (what prepareSurface asks for)', () => {
+  it('finds the same errors on every fixture, and leaves out the genus, the pieces and the UV facts', () => {
+    for (const name of ['bowtie.obj', 'degenerate-and-isolated.obj', 'fin.obj', 'misoriented-strip.obj', 'ngons-and-groups.obj', 'uv-split-cube.obj']) {
+      const { read, report } = checkSurfaceFile(fixture(name), name);
+      const bare = checkSurface(read!.mesh, { describe: false });
+      const errors = (r: SurfaceReport) => r.problems.filter((p) => p.severity === 'error').map((p) => [p.code, p.count, p.examples]);
+      expect(errors(bare), name).toEqual(errors(report));
+      expect(bare.ok, name).toBe(report.ok);
+      expect(bare.facts).toMatchObject({ genus: null, boundaryLoopCount: null, components: null, uvs: { present: false } });
+    }
+    // A sphere with a UV on every corner: the full check measures its UVs, the bare one does not look.
+    const uvSphere = checkSurfaceFile(new TextEncoder().encode(transferSphere(6, 8).obj), 'sphere.obj');
+    expect(uvSphere.report.facts!.uvs.present).toBe(true);
+    expect(checkSurface(uvSphere.read!.mesh, { describe: false }).facts!.uvs.present).toBe(false);
   });
 });
 
