@@ -35,11 +35,12 @@ export function measureIndices(
   faceDirection: Float64Array,
   order: number,
   boundaryDefect?: Float64Array,
+  /** `faceNormals(surface.mesh)` when the caller has them (the edge proof needs the same). */
+  normals: Float64Array = faceNormals(surface.mesh),
 ): { index: Float64Array; measured: Uint8Array } {
   const { mesh, topology, cornerAngles } = surface;
   const p = mesh.positions;
   const tri = topology.triangles;
-  const normals = faceNormals(mesh);
   const index = new Float64Array(topology.vertexCount);
   const measured = new Uint8Array(topology.vertexCount);
   // Angle of the field in the face of outgoing halfedge h, measured from h's edge.

@@ -49,12 +49,13 @@ export function proveEdges(
   surface: Pick<FieldSurface, 'mesh' | 'topology'>,
   connection: ConnectionResult,
   faceDirection: Float64Array,
+  /** `faceNormals(surface.mesh)` when the caller has them (the index measurement needs the same). */
+  normals: Float64Array = faceNormals(surface.mesh),
 ): { proof: EdgeProof; violations: ProofViolation[] } {
   const { mesh, topology } = surface;
   const { order, angles, cutEdge } = connection;
   const p = mesh.positions;
   const tri = topology.triangles;
-  const normals = faceNormals(mesh);
   const limit = Math.PI / order;
   /** The field's angle in face f to the edge running from vertex a to vertex b. */
   const angleToEdge = (f: number, a: number, b: number) => fieldAngleToEdge(p, normals, faceDirection, f, a, b);

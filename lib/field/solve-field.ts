@@ -7,6 +7,7 @@ import { solveConnection, type ConnectionResult, type FieldRequest, type FieldSu
 import { buildDirectionField, type DirectionField } from './direction-field';
 import { compareIndices, measureIndices, type IndexMismatch } from './indices';
 import { FieldError, describeFirst } from './mesh/errors';
+import { faceNormals } from './mesh/geometry';
 import { proveEdges, type EdgeProof, type ProofViolation } from './proof';
 
 /** Everything a solve produces, with the proof that it did what was asked. */
@@ -38,10 +39,12 @@ export function solveField(surface: FieldSurface, request: FieldRequest): Solved
   const t0 = now();
   const field = buildDirectionField(surface, connection, request);
   const t1 = now();
-  const measurement = measureIndices(surface, field.faceDirection, connection.order, surface.boundary === 'free' ? undefined : surface.ringDefect);
+  // Both checks read the face normals from the positions (not the solver's frames), once.
+  const normals = faceNormals(surface.mesh);
+  const measurement = measureIndices(surface, field.faceDirection, connection.order, surface.boundary === 'free' ? undefined : surface.ringDefect, normals);
   const mismatches = compareIndices(connection, measurement);
   if (mismatches.length > 0) throw tooCloseError(mismatches);
-  const { proof, violations } = proveEdges(surface, connection, field.faceDirection);
+  const { proof, violations } = proveEdges(surface, connection, field.faceDirection, normals);
   if (violations.length > 0) throw unprovedError(violations, connection.order);
   const t2 = now();
   return {
