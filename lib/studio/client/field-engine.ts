@@ -9,6 +9,7 @@ import {
   indexBudget,
   now,
   readSurface,
+  readSurfaceOrPrepared,
   solveConnection,
   suggestLayout,
   type BoundaryMode,
@@ -65,26 +66,34 @@ export class FieldEngine {
     return this.surface;
   }
 
-  /** Reads and prepares a surface: the one expensive step (the factorization), with progress. */
+  /**
+   * Reads and prepares a surface: the one expensive step (the factorization), with progress. A
+   * source with a `fallback` (the prepared form, with the file behind it) is read from the
+   * fallback when it cannot be fetched or read.
+   */
   async open(source: SurfaceSource, boundary: BoundaryMode): Promise<OpenedSurface> {
     const started = now();
-    const loaded = await loadSurfaceBytes(source, this.progress);
-    const t0 = now();
-    let mesh: TriangleMesh;
-    let fileVertexCount: number;
-    if ('mesh' in loaded) {
-      mesh = loaded.mesh;
-      fileVertexCount = mesh.positions.length / 3;
-    } else {
-      this.progress({ stage: 'reading the surface file', fraction: null });
-      const read = readSurface(loaded.bytes, loaded.fileName);
-      mesh = read.mesh;
-      fileVertexCount = read.sourceVertexCount;
+    let read: Awaited<ReturnType<FieldEngine['read']>>;
+    try {
+      read = await this.read(source);
+    } catch (error) {
+      if (source.kind !== 'url' || !source.fallback) throw error;
+      this.progress({ stage: 'reading the surface file instead of its prepared form', fraction: null });
+      read = await this.read(source.fallback);
     }
-    const t1 = now();
-    this.prepare(mesh, boundary);
     const t2 = now();
-    return describeSurface(this.requireSurface(), fileVertexCount, { downloadMilliseconds: t0 - started, readMilliseconds: t1 - t0, prepareMilliseconds: t2 - t1 });
+    this.prepare(read.mesh, boundary);
+    const t3 = now();
+    return describeSurface(this.requireSurface(), read.fileVertexCount, { downloadMilliseconds: read.downloaded - started, readMilliseconds: read.readAt - read.downloaded, prepareMilliseconds: t3 - t2 });
+  }
+
+  private async read(source: SurfaceSource): Promise<{ mesh: TriangleMesh; fileVertexCount: number; downloaded: number; readAt: number }> {
+    const loaded = await loadSurfaceBytes(source, this.progress);
+    const downloaded = now();
+    if ('mesh' in loaded) return { mesh: loaded.mesh, fileVertexCount: loaded.mesh.positions.length / 3, downloaded, readAt: now() };
+    this.progress({ stage: 'reading the surface file', fraction: null });
+    const read = readSurfaceOrPrepared(loaded.bytes, loaded.fileName);
+    return { mesh: read.mesh, fileVertexCount: read.sourceVertexCount, downloaded, readAt: now() };
   }
 
   /** Reads a file that may be broken, only to draw it: no checks beyond what reading needs. */

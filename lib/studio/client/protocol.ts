@@ -7,7 +7,8 @@ import type { Vec3 } from './features';
 
 /** Where the worker gets the surface's bytes. */
 export type SurfaceSource =
-  | { readonly kind: 'url'; readonly url: string; readonly fileName: string }
+  /** `fallback`: where to read the surface when this cannot be fetched or read (the file behind its prepared form). */
+  | { readonly kind: 'url'; readonly url: string; readonly fileName: string; readonly fallback?: SurfaceSource }
   | { readonly kind: 'bytes'; readonly bytes: ArrayBuffer; readonly fileName: string }
   /** One of lib/groom's demo characters (DEMO_GROOMS[i].id), built in the worker. */
   | { readonly kind: 'demo'; readonly demoId: string };
