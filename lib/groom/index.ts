@@ -43,16 +43,16 @@ export { blendPins, blendValues, type PinnedFactors } from './place/pins';
 export { geodesicDistances, vertexFaces, type VertexFaces } from './place/geodesic';
 export { growthMask } from './place/regions';
 export {
-  detectMirrorPlane,
-  mirrorMismatch,
   planeOfSymmetry,
   planeDistance,
   mirrorPoint,
   mirrorDirection,
-  SYMMETRIC_MISMATCH,
+  mirrorSingularityPoint,
+  mirrorPinPoint,
+  mirrorCurvePoints,
   type MirrorPlane,
-  type DetectedMirror,
-} from './place/mirror-plane';
+} from './spec/symmetry';
+export { detectMirrorPlane, mirrorMismatch, SYMMETRIC_MISMATCH, type DetectedMirror } from './place/mirror-plane';
 export { mirrorSpecFeatures, mirrorSingularity, mirrorPin, mirrorCurve, mirrorStroke, isOnPlane, pointOfPlace } from './place/mirror-features';
 export { mirroredRoots } from './grow/mirror-roots';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';

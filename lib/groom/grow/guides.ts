@@ -7,7 +7,7 @@ import { downOf } from '../place/request';
 import { cellOrder, sampleRoots } from './roots';
 import { bindRoots, rootsOnSculpt, type RootBinding } from './binding';
 import { mirroredRoots } from './mirror-roots';
-import type { MirrorPlane } from '../place/mirror-plane';
+import type { MirrorPlane } from '../spec/symmetry';
 import { shapeGuide, waver, type WaverParameters } from './shape';
 import { gatherOnto, type Gather } from './tufts';
 import { planTufts } from './tuft-plan';

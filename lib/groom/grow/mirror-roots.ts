@@ -1,5 +1,5 @@
 import { SKIN_QUERY_SIZE } from '../place/skin';
-import { mirrorPoint, planeDistance, type MirrorPlane } from '../place/mirror-plane';
+import { mirrorPoint, planeDistance, type MirrorPlane } from '../spec/symmetry';
 import type { GroomSurface } from '../place/surface';
 import type { Roots } from './roots';
 

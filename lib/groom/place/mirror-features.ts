@@ -1,5 +1,5 @@
 import { vertexOfPlace } from './place';
-import { mirrorDirection, mirrorPoint, planeDistance, type MirrorPlane } from './mirror-plane';
+import { mirrorCurvePoints, mirrorDirection, mirrorPinPoint, mirrorPoint, mirrorSingularityPoint, mirrorStroke, planeDistance, type MirrorPlane } from '../spec/symmetry';
 import type { CurveSpec, GroomSpec, PinSpec, PlaceSpec, SingularitySpec, StrokeSpec } from '../spec/spec';
 import type { GroomSurface } from './surface';
 
@@ -57,22 +57,22 @@ function angleAbout(n: ArrayLike<number>, a: readonly number[], b: readonly numb
   return Math.atan2(dot(cross, n), dot(pa, pb));
 }
 
+export { mirrorStroke };
+
 /**
  * The mirror image of a singularity: its point mirrored, its index kept (a reflection keeps every
  * index), its twist reversed as stated above.
  */
 export function mirrorSingularity(surface: GroomSurface, plane: MirrorPlane, s: SingularitySpec, path = 'singularity'): SingularitySpec {
-  const point = mirrorPoint(plane, pointOfPlace(surface, s, path));
-  const mirrored: SingularitySpec = { point, index: s.index, handedness: s.handedness };
-  if (s.twist === undefined) return mirrored;
+  const mirrored = mirrorSingularityPoint(plane, { ...s, vertex: undefined, point: pointOfPlace(surface, s, path) })!;
+  const point = mirrored.point!;
+  if (s.twist === undefined || s.index === 1) return mirrored;
   const turn = s.handedness === 'clockwise' ? -1 : 1;
   let o = (turn * s.twist) / DEGREES;
-  if (s.index !== 1) {
-    const v = vertexOfPlace(surface, s, path);
-    const w = vertexOfPlace(surface, { point }, path);
-    const n = surface.vertexNormal.subarray(3 * v, 3 * v + 3);
-    o += (s.index - 1) * angleAbout(n, outwardOfFirstFace(surface, v), mirrorDirection(plane, outwardOfFirstFace(surface, w)));
-  }
+  const v = vertexOfPlace(surface, s, path);
+  const w = vertexOfPlace(surface, { point }, path);
+  const n = surface.vertexNormal.subarray(3 * v, 3 * v + 3);
+  o += (s.index - 1) * angleAbout(n, outwardOfFirstFace(surface, v), mirrorDirection(plane, outwardOfFirstFace(surface, w)));
   const reversed = Math.atan2(Math.sin(-o), Math.cos(-o));
   const twist = Math.min(180, Math.abs(reversed) * DEGREES);
   return { ...mirrored, twist, handedness: reversed < 0 ? 'clockwise' : 'counterclockwise' };
@@ -80,7 +80,7 @@ export function mirrorSingularity(surface: GroomSurface, plane: MirrorPlane, s: 
 
 /** The mirror image of a pin: its point mirrored, attribute and value kept. */
 export function mirrorPin(surface: GroomSurface, plane: MirrorPlane, pin: PinSpec, path = 'pin'): PinSpec {
-  return { attribute: pin.attribute, point: mirrorPoint(plane, pointOfPlace(surface, pin, path)), value: pin.value };
+  return mirrorPinPoint(plane, { ...pin, vertex: undefined, point: pointOfPlace(surface, pin, path) })!;
 }
 
 function curvePoints(surface: GroomSurface, curve: CurveSpec, path: string): [number, number, number][] {
@@ -89,15 +89,7 @@ function curvePoints(surface: GroomSurface, curve: CurveSpec, path: string): [nu
 
 /** The mirror image of a parting or crest, point by point. */
 export function mirrorCurve(surface: GroomSurface, plane: MirrorPlane, curve: CurveSpec, path = 'curve'): CurveSpec {
-  return { points: curvePoints(surface, curve, path).map((p) => mirrorPoint(plane, p)), closed: curve.closed };
-}
-
-/**
- * The mirror image of a stroke, point by point in the same order, so each of its directions (from
- * one point to the next) is the mirror image of the stroke's direction there.
- */
-export function mirrorStroke(plane: MirrorPlane, stroke: StrokeSpec): StrokeSpec {
-  return { points: stroke.points.map((p) => mirrorPoint(plane, p)) };
+  return mirrorCurvePoints(plane, { points: curvePoints(surface, curve, path), closed: curve.closed })!;
 }
 
 /** Whether every point of a polyline lies on the plane (its mirror snaps to the same vertex). */

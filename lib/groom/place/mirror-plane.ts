@@ -1,15 +1,6 @@
 import { SKIN_QUERY_SIZE } from './skin';
-import type { SymmetrySpec } from '../spec/spec';
+import { mirrorPoint, planeDistance, type MirrorPlane } from '../spec/symmetry';
 import type { GroomSurface } from './surface';
-
-/**
- * A mirror plane: the points x with normal · x = offset, `normal` of unit length. Its positive side
- * (normal · x > offset) is the side features are mirrored from when a whole spec is mirrored.
- */
-export interface MirrorPlane {
-  readonly normal: readonly [number, number, number];
-  readonly offset: number;
-}
 
 /** What `detectMirrorPlane` found. */
 export interface DetectedMirror {
@@ -28,38 +19,6 @@ export const SYMMETRIC_MISMATCH = 0.01;
 
 /** Refinement rounds after the best candidate (each one closest-point pass). */
 const REFINE_ROUNDS = 8;
-
-/** The plane a spec's `symmetry` names: an axis name is the plane through the origin across that axis. */
-export function planeOfSymmetry(symmetry: SymmetrySpec): MirrorPlane {
-  if ('axis' in symmetry) {
-    const normal: [number, number, number] = [0, 0, 0];
-    normal['xyz'.indexOf(symmetry.axis)] = 1;
-    return { normal, offset: symmetry.offset ?? 0 };
-  }
-  const [x, y, z] = symmetry.normal;
-  const length = Math.hypot(x, y, z);
-  return { normal: [x / length, y / length, z / length], offset: symmetry.offset / length };
-}
-
-/** Signed distance of p from the plane (positive on the normal's side). */
-export function planeDistance(plane: MirrorPlane, p: readonly number[]): number {
-  const n = plane.normal;
-  return n[0] * p[0] + n[1] * p[1] + n[2] * p[2] - plane.offset;
-}
-
-/** The mirror image of a point. Guarantees: mirroring twice gives the point back (up to rounding). */
-export function mirrorPoint(plane: MirrorPlane, p: readonly number[]): [number, number, number] {
-  const d = 2 * planeDistance(plane, p);
-  const n = plane.normal;
-  return [p[0] - d * n[0], p[1] - d * n[1], p[2] - d * n[2]];
-}
-
-/** The mirror image of a direction (the plane's offset does not move directions). */
-export function mirrorDirection(plane: MirrorPlane, v: readonly number[]): [number, number, number] {
-  const n = plane.normal;
-  const d = 2 * (n[0] * v[0] + n[1] * v[1] + n[2] * v[2]);
-  return [v[0] - d * n[0], v[1] - d * n[1], v[2] - d * n[2]];
-}
 
 /**
  * How far the surface is from its own mirror image: the largest distance from a mirrored vertex

@@ -6,7 +6,8 @@ import { prepareGroomSurface, type GroomSurface } from '@/lib/groom/place/surfac
 import { solveGroomField } from '@/lib/groom/place/request';
 import { vertexOfPlace } from '@/lib/groom/place/place';
 import { growGuides, type Guides } from '@/lib/groom/grow/guides';
-import { detectMirrorPlane, mirrorDirection, mirrorPoint, planeOfSymmetry, SYMMETRIC_MISMATCH, type MirrorPlane } from '@/lib/groom/place/mirror-plane';
+import { detectMirrorPlane, SYMMETRIC_MISMATCH } from '@/lib/groom/place/mirror-plane';
+import { mirrorDirection, mirrorPoint, planeOfSymmetry, type MirrorPlane } from '@/lib/groom/spec/symmetry';
 import { isOnPlane, mirrorSingularity, mirrorSpecFeatures } from '@/lib/groom/place/mirror-features';
 import { GroomError } from '@/lib/groom/errors';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
