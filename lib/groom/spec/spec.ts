@@ -98,13 +98,17 @@ const pinSchema = z
 /**
  * The mirror plane the editor mirrors edits across: an axis name (the plane across that axis,
  * `offset` from the origin along it) or a normal and offset (the points x with normal · x =
- * offset, in surface units). Only the editor uses it; growing is unchanged by it.
+ * offset, in surface units). `seam` (surface units, default 0): places nearer the plane than
+ * this are on it, and the editor does not double them. Only the editor uses it; growing is
+ * unchanged by it.
  */
+const seam = z.number().min(0).max(1e9).optional();
 const symmetrySchema = z.union([
-  z.strictObject({ axis: z.enum(['x', 'y', 'z']), offset: z.number().min(-1e9).max(1e9).optional() }),
+  z.strictObject({ axis: z.enum(['x', 'y', 'z']), offset: z.number().min(-1e9).max(1e9).optional(), seam }),
   z.strictObject({
     normal: vec3.refine((d) => Math.hypot(...d) > 0, 'the plane\'s normal must not be zero'),
     offset: z.number().min(-1e9).max(1e9),
+    seam,
   }),
 ]);
 
