@@ -2,7 +2,7 @@
 // plane as one edit. Partners are found by geometry, never stored: a feature's partner is the one
 // of the same kind (and index, or pin attribute) whose points are its mirror image. So turning
 // symmetry off leaves two independent features, and turning it on again pairs them again.
-import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec } from '@/lib/groom/spec/spec';
+import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec, SymmetrySpec } from '@/lib/groom/spec/spec';
 import { mirrorCurvePoints, mirrorPinPoint, mirrorSingularityPoint, mirrorStroke, planeDistance, planeOfSymmetry, type MirrorPlane } from '@/lib/groom/spec/symmetry';
 import type { FeatureKind, FeatureRef } from './features';
 
@@ -99,4 +99,27 @@ export function partnerOf(spec: GroomSpec, ref: FeatureRef, mirror: Mirror): num
     if (close) return j;
   }
   return null;
+}
+
+/**
+ * The spec's `symmetry` for a found plane: by axis name when its normal is a world axis (to a
+ * millionth), else by normal and offset; the seam as found (the surface's mean edge).
+ */
+export function symmetryOfPlane(found: { readonly normal: readonly number[]; readonly offset: number; readonly seam: number }): SymmetrySpec {
+  const axis = [0, 1, 2].find((k) => Math.abs(Math.abs(found.normal[k]) - 1) < 1e-6);
+  // Rounded to a millionth, and never −0 (which JSON writes as 0).
+  const round = (x: number) => Math.round(x * 1e6) / 1e6 || 0;
+  const seam = round(found.seam);
+  if (axis !== undefined) return { axis: (['x', 'y', 'z'] as const)[axis], offset: round(found.offset * Math.sign(found.normal[axis])), seam };
+  const [x, y, z] = found.normal;
+  return { normal: [x, y, z], offset: found.offset, seam };
+}
+
+/** The plane in words: "x = 0", "z = 1.25", or "0.707x + 0.707y = 0". */
+export function planeWords(symmetry: SymmetrySpec): string {
+  const figure = (x: number) => String(Number(x.toFixed(3)) || 0);
+  if ('axis' in symmetry) return `${symmetry.axis} = ${figure(symmetry.offset ?? 0)}`;
+  const plane = planeOfSymmetry(symmetry);
+  const terms = plane.normal.map((c, k) => (Math.abs(c) < 5e-4 ? null : `${figure(c)}${'xyz'[k]}`)).filter((t) => t !== null);
+  return `${terms.join(' + ').replace(/\+ -/g, '− ')} = ${figure(plane.offset)}`;
 }

@@ -2,7 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { parseGroomSpec, type GroomSpec, type SingularitySpec } from '@/lib/groom/spec/spec';
 import { applyCheckedEdit, createEditorState, currentSpec, endGesture, previewCheckedEdit, undo, undoLabel, type EditorState } from '@/lib/studio/client/editor-state';
 import { addSingularity, moveFeature, type SpecEdit } from '@/lib/studio/client/spec-edits';
-import { partnerOf, mirrorOf } from '@/lib/studio/client/mirror-edits';
+import { partnerOf, mirrorOf, planeWords, symmetryOfPlane } from '@/lib/studio/client/mirror-edits';
+import { FieldEngine } from '@/lib/studio/client/field-engine';
+import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
+import { surfaceToObj } from '@/lib/groom/demo/obj';
 
 const twinned = (): GroomSpec => parseGroomSpec({ specVersion: 3, units: 'cm', field: {}, symmetry: { axis: 'x', seam: 0.01 } });
 
@@ -84,5 +87,27 @@ describe('twin sides: edits mirrored across the plane', () => {
     let state = step(createEditorState(twinned()), addSingularity([0.5, 0.2, 0.3], -1));
     state = step(state, moveFeature(currentSpec(state), { kind: 'singularity', index: 0 }, [0.005, 0.2, 0.3])!);
     expect(currentSpec(state).field.singularities.map((s) => s.point)).toEqual([[0.005, 0.2, 0.3]]);
+  });
+});
+
+describe('the plane found on the open surface', () => {
+  it('finds Bramble’s plane x = 0 in the field worker’s engine and writes it as the spec’s symmetry with the mean edge as the seam', async () => {
+    const demo = DEMO_GROOMS.find((g) => g.id === 'bramble-fox-head')!;
+    const engine = new FieldEngine(() => {});
+    const opened = await engine.open({ kind: 'bytes', bytes: new TextEncoder().encode(surfaceToObj(demo.surface(), 'Bramble')).buffer as ArrayBuffer, fileName: 'bramble.obj' }, 'free');
+    const found = engine.findMirror();
+    expect(found.symmetric).toBe(true);
+    expect(found.mismatch).toBeLessThan(1e-6);
+    expect(found.seam).toBeCloseTo(opened.meanEdge, 12);
+    const symmetry = symmetryOfPlane(found);
+    expect(symmetry).toEqual({ axis: 'x', offset: 0, seam: Math.round(opened.meanEdge * 1e6) / 1e6 });
+    expect(planeWords(symmetry)).toBe('x = 0');
+    expect(parseGroomSpec({ ...demo.spec, symmetry }).symmetry).toEqual(symmetry);
+  });
+
+  it('words a plane that is not a world axis by its normal', () => {
+    const symmetry = symmetryOfPlane({ normal: [Math.SQRT1_2, Math.SQRT1_2, 0], offset: 0.5, seam: 0.01 });
+    expect(symmetry).toEqual({ normal: [Math.SQRT1_2, Math.SQRT1_2, 0], offset: 0.5, seam: 0.01 });
+    expect(planeWords(symmetry)).toBe('0.707x + 0.707y = 0.5');
   });
 });
