@@ -23,7 +23,9 @@ test('twin sides on the fox: the plane found, one whorl placed appears mirrored,
   test.setTimeout(180_000);
   await openPracticeFox(page);
   const twin = page.getByRole('group', { name: 'Twin sides' });
-  await twin.getByRole('checkbox').check();
+  // The switch turns on once the field worker has found the plane: a click, then its state.
+  await twin.getByRole('checkbox').click();
+  await expect(twin.getByRole('checkbox')).toBeChecked();
   await expect(twin.getByTestId('twin-plane')).toContainText('Mirror plane x = 0');
   await expect(twin.getByTestId('twin-plane')).toContainText('misses its own mirror image by at most');
 

@@ -29,6 +29,7 @@ export function TwinSidesPanel({ spec, client, actions }: { spec: GroomSpec; cli
     let plane = found;
     if (!plane) {
       if (!client) return;
+      // Shown on while the plane is looked for, so the switch answers the click at once.
       setBusy(true);
       try {
         plane = await client.request({ type: 'find-mirror' });
@@ -46,7 +47,7 @@ export function TwinSidesPanel({ spec, client, actions }: { spec: GroomSpec; cli
   return (
     <fieldset className="flex flex-col gap-1.5 rounded-xl border-2 border-vellum px-3 py-2" aria-label="Twin sides">
       <label className="flex items-center gap-2 text-sm font-semibold text-loam">
-        <input type="checkbox" checked={on} disabled={busy || !client} onChange={(event) => void turn(event.target.checked)} className="accent-bracken" />
+        <input type="checkbox" checked={on || busy} disabled={busy || !client} onChange={(event) => void turn(event.target.checked)} className="accent-bracken" />
         Twin sides — every feature placed, moved or deleted on one side is mirrored on the other
       </label>
       {busy && <p className="text-xs text-loam-soft">Looking for the surface’s mirror plane…</p>}
