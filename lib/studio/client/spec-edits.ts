@@ -9,7 +9,8 @@ export type CurveKind = 'parting' | 'crest';
 export type FieldSettings = Pick<GroomSpec['field'], 'order' | 'boundary' | 'rotation' | 'referenceDirection'>;
 
 export type SpecEdit =
-  | { readonly type: 'add-singularity'; readonly singularity: SingularitySpec }
+  // `alone`: on this side only, even with twin sides on (the budget's remainder, which a mirror would double).
+  | { readonly type: 'add-singularity'; readonly singularity: SingularitySpec; readonly alone?: boolean }
   | { readonly type: 'update-singularity'; readonly index: number; readonly singularity: SingularitySpec; readonly moved?: boolean }
   | { readonly type: 'add-curve'; readonly kind: CurveKind; readonly curve: CurveSpec }
   | { readonly type: 'update-curve'; readonly kind: CurveKind; readonly index: number; readonly curve: CurveSpec }
@@ -28,8 +29,8 @@ export const WHORL_INDEX = 1;
 export const SADDLE_INDEX = -1;
 
 /** The edit that adds a singularity of an index at a point, turning counterclockwise as every new one does. */
-export function addSingularity(point: Vec3, index: number): SpecEdit {
-  return { type: 'add-singularity', singularity: { point, index, handedness: 'counterclockwise' } };
+export function addSingularity(point: Vec3, index: number, alone = false): SpecEdit {
+  return { type: 'add-singularity', singularity: { point, index, handedness: 'counterclockwise' }, ...(alone ? { alone } : {}) };
 }
 
 /** The edit that moves a singularity or a pin to a point (a place by file vertex becomes a place by point); null for other features. */
@@ -76,7 +77,7 @@ export function applySpecEdit(spec: GroomSpec, edit: SpecEdit): GroomSpec {
 function featureEdit(edit: SpecEdit): { action: 'add' | 'update' | 'remove'; kind: FeatureKind; index: number; value?: FeatureValue } | null {
   switch (edit.type) {
     case 'add-singularity':
-      return { action: 'add', kind: 'singularity', index: -1, value: edit.singularity };
+      return edit.alone ? null : { action: 'add', kind: 'singularity', index: -1, value: edit.singularity };
     case 'update-singularity':
       return { action: 'update', kind: 'singularity', index: edit.index, value: edit.singularity };
     case 'add-curve':

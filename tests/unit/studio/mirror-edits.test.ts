@@ -27,6 +27,12 @@ describe('twin sides: edits mirrored across the plane', () => {
     expect(currentSpec(state).field.singularities).toHaveLength(3);
   });
 
+  it('places the budget’s remainder on one side only, which a mirror would unbalance again', () => {
+    const state = step(createEditorState(twinned()), addSingularity([0.5, 0.2, 0.3], 1, true));
+    expect(currentSpec(state).field.singularities).toHaveLength(1);
+    expect(undoLabel(state)).toBe('Add whorl');
+  });
+
   it('reverses the twist of the mirror: a clockwise spiral on one side turns anticlockwise on the other', () => {
     let state = step(createEditorState(twinned()), addSingularity([0.5, 0.2, 0.3], 1));
     const spiral: SingularitySpec = { point: [0.5, 0.2, 0.3], index: 1, twist: 60, handedness: 'clockwise' };
