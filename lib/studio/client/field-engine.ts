@@ -29,13 +29,14 @@ import {
   vertexOfPlace,
   CENTIMETRES_PER_UNIT,
   downOf,
+  detectMirrorPlane,
   type GroomSpec,
   type GroomSurface,
 } from '@/lib/groom';
 import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
 import { errorOf, proofOf } from './field-reports';
-import type { DisplayOptions, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
+import type { DisplayOptions, FoundMirror, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes } from './surface-opening';
 
 
@@ -318,6 +319,15 @@ export class FieldEngine {
    * surface as the spec holds its boundary, its singularities as grain marks. Nothing placed is
    * read: the suggestion is where the singularities would go if none had been placed.
    */
+  /** The open surface's mirror plane (`detectMirrorPlane`), with the mean edge as the seam. */
+  findMirror(): FoundMirror {
+    const surface = this.requireSurface();
+    this.progress({ stage: 'looking for a mirror plane', fraction: null, expectedMilliseconds: surface.field.topology.vertexCount * 0.05 });
+    const found = detectMirrorPlane(surface);
+    const [x, y, z] = found.plane.normal;
+    return { normal: [x, y, z], offset: found.plane.offset, mismatch: found.mismatch, symmetric: found.symmetric, seam: surface.meanEdge };
+  }
+
   readGrain(spec: GroomSpec, follow: GrainFollow): GrainReading {
     const t0 = now();
     const surface = this.ensureBoundary(spec);
