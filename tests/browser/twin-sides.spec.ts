@@ -44,11 +44,14 @@ test('twin sides on the fox: the plane found, one whorl placed appears mirrored,
   const placed = page.getByRole('group', { name: `Whorl ${before + 1}`, exact: true });
   const mirror = page.getByRole('group', { name: `Whorl ${before + 2}`, exact: true });
   const value = async (group: typeof placed, axis: string) => Number(await group.getByLabel(axis, { exact: true }).inputValue());
-  const x = await value(placed, 'x');
+  // The placed whorl is selected (its row open); the mirror's row opens when it is picked.
+  const [x, y, z] = [await value(placed, 'x'), await value(placed, 'y'), await value(placed, 'z')];
   expect(Math.abs(x)).toBeGreaterThan(0.01);
+  await mirror.locator('button[aria-expanded]').click();
+  await expect(mirror.locator('button[aria-expanded]')).toHaveAttribute('aria-expanded', 'true');
   expect(await value(mirror, 'x')).toBeCloseTo(-x, 6);
-  expect(await value(mirror, 'y')).toBeCloseTo(await value(placed, 'y'), 6);
-  expect(await value(mirror, 'z')).toBeCloseTo(await value(placed, 'z'), 6);
+  expect(await value(mirror, 'y')).toBeCloseTo(y, 6);
+  expect(await value(mirror, 'z')).toBeCloseTo(z, 6);
 
   await page.getByRole('button', { name: 'Undo' }).click();
   await expect(whorls).toHaveCount(before);
