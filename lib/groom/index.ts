@@ -77,3 +77,4 @@ export {
 } from './transfer/transfer';
 export { transferReportText } from './transfer/report-text';
 export { withSurfacePositions } from './transfer/features';
+export { carryMaps, type MapTransfer } from './transfer/maps';

@@ -29,9 +29,11 @@ export function surfaceSignature(mesh: TriangleMesh): { vertices: number; faces:
  *
  * Guarantees: the map decodes (`decodeMap`) to each value within (high − low) / (2 · (2^bits − 1))
  * of it, the smallest and largest value exactly, so a constant map (all ones) decodes exactly to
- * that constant. Throws a RangeError for a wrong length or a value outside [0, 10].
+ * that constant. With `range` (a map's own low and high) values are coded between those instead,
+ * clamped into them: values decoded from a map of that range are coded back to their very codes.
+ * Throws a RangeError for a wrong length or a value outside [0, 10].
  */
-export function encodeMap(attribute: MapAttribute, values: ArrayLike<number>, mesh: TriangleMesh, bits: 8 | 16 = 16): MapSpec {
+export function encodeMap(attribute: MapAttribute, values: ArrayLike<number>, mesh: TriangleMesh, bits: 8 | 16 = 16, range?: { low: number; high: number }): MapSpec {
   const id = surfaceSignature(mesh);
   if (values.length !== id.vertices) throw new RangeError(`A map needs one value per surface vertex (${id.vertices}), not ${values.length}.`);
   let low = Infinity, high = -Infinity;
@@ -40,10 +42,11 @@ export function encodeMap(attribute: MapAttribute, values: ArrayLike<number>, me
     if (!(x >= 0 && x <= 10)) throw new RangeError(`A map's values are factors from 0 to 10; vertex ${v} has ${x}.`);
     low = Math.min(low, x); high = Math.max(high, x);
   }
+  if (range) ({ low, high } = range);
   const top = 2 ** bits - 1;
   const bytes = new Uint8Array(values.length * (bits / 8));
   for (let v = 0; v < values.length; v++) {
-    const code = high > low ? Math.round(((values[v] - low) / (high - low)) * top) : 0;
+    const code = high > low ? Math.round(((Math.min(high, Math.max(low, values[v])) - low) / (high - low)) * top) : 0;
     if (bits === 8) bytes[v] = code;
     else { bytes[2 * v] = code & 0xff; bytes[2 * v + 1] = code >>> 8; }
   }

@@ -10,6 +10,7 @@ import { anchorFeatures, placeFeatures, type AnchoredFeature, type FeatureKind, 
 import { barycentricOnFace, pointOfPosition, positionOnFace, sameTopology, type SurfaceIdentity } from './identity';
 import { buildNormalProbe } from './ray';
 import { buildUvLocator } from './uv-locate';
+import { carryMaps, type MapTransfer } from './maps';
 
 /**
  * Moving a groom spec onto another surface — a new sculpt pass, a retopology, another character —
@@ -71,6 +72,8 @@ export interface TransferReport {
   readonly budget: readonly { readonly piece: number; readonly demanded: number | null; readonly placed: number; readonly remainder: number | null }[];
   /** Whether the field solves on the new surface with exactly the carried singularities. */
   readonly field: { readonly solved: true } | { readonly solved: false; readonly code: string; readonly message: string };
+  /** The painted maps carried, each once, and how (present when the spec has maps). */
+  readonly maps?: readonly MapTransfer[];
 }
 
 export interface TransferResult {
@@ -200,6 +203,8 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   });
   const keptRegions = regions.flatMap((r) => (r.to ? [r.to] : []));
 
+  // Maps are factors, so they need no unit conversion; only where each new vertex reads them.
+  const carried = spec.maps?.length ? carryMaps(spec, from, to, method === 'topology', alignment) : undefined;
   const perUnit = CENTIMETRES_PER_UNIT[fromUnits] / CENTIMETRES_PER_UNIT[toUnits];
   const g = spec.guides;
   const direction = spec.field.referenceDirection ? alignDirection(alignment, spec.field.referenceDirection) : undefined;
@@ -208,6 +213,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     units: toUnits,
     upAxis: toUp,
     field: { ...placed.spec.field, ...(direction ? { referenceDirection: direction } : {}) },
+    ...(carried ? { maps: carried.maps } : {}),
     guides: {
       ...g,
       regions: keptRegions,
@@ -231,7 +237,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   }
   return {
     spec: newSpec,
-    report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field },
+    report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field, ...(carried ? { maps: carried.report } : {}) },
     ...(solved ? { solved } : {}),
   };
 }
