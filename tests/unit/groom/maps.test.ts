@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { gridPlane, icosphere } from '@/tests/fixtures/shapes';
 import { decodeMap, encodeMap, surfaceSignature } from '@/lib/groom/place/maps';
-import { parseGroomSpec, specToJson, parseGroomSpecJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
+import { MAP_ATTRIBUTES, parseGroomSpec, specToJson, parseGroomSpecJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
 import { GroomError } from '@/lib/groom/errors';
 import { groomOn } from './support';
 
@@ -73,9 +73,10 @@ describe('growing with painted maps', () => {
     const { mesh } = halfPainted(1);
     const base: GroomSpecInput = { ...PLANE, guides: { density: 150, length: 0.2, jitter: 0.3 } };
     const ones = new Float64Array(mesh.positions.length / 3).fill(1);
-    const maps = (['density', 'length', 'width', 'lift', 'droop', 'curl'] as const).map((a) => encodeMap(a, ones, mesh, 8));
-    const plain = groomOn(mesh, base).guides;
-    const mapped = groomOn(mesh, { ...base, maps }).guides;
+    const maps = MAP_ATTRIBUTES.map((a) => encodeMap(a, ones, mesh, 8));
+    const shaped: GroomSpecInput = { ...base, guides: { ...base.guides, tufts: { density: 20 }, waver: { amplitude: 0.02 } } };
+    const plain = groomOn(mesh, shaped).guides;
+    const mapped = groomOn(mesh, { ...shaped, maps }).guides;
     expect(mapped.count).toBe(plain.count);
     expect(Buffer.from(mapped.points.buffer).equals(Buffer.from(plain.points.buffer))).toBe(true);
     expect(mapped.guideRootWidth).toEqual(plain.guideRootWidth);
@@ -86,6 +87,9 @@ describe('growing with painted maps', () => {
     const base: GroomSpecInput = { ...PLANE, guides: { density: 100, length: 0.2, jitter: 0, droop: 0, lift: 0 } };
     const plain = groomOn(mesh, base).guides;
     const mapped = groomOn(mesh, { ...base, maps: [encodeMap('length', values, mesh), encodeMap('width', values, mesh)] }).guides;
+    // Only a density map changes the roots: ids, faces and weights stay.
+    expect(mapped.guideId).toEqual(plain.guideId);
+    expect(mapped.rootFace).toEqual(plain.rootFace);
     expect(mapped.rootBarycentric).toEqual(plain.rootBarycentric);
     let exact = 0;
     for (let g = 0; g < plain.count; g++) {
@@ -96,6 +100,34 @@ describe('growing with painted maps', () => {
       if (Math.abs(mapped.length[g] / (0.2 * factor) - 1) < 1e-3) exact++;
     }
     expect(exact).toBeGreaterThan(0.9 * plain.count);
+  });
+
+  it('drives the waver and the gather: a map of zeros grows the guides of no waver and of no tufts, bit for bit', () => {
+    const { mesh } = halfPainted(1);
+    const base: GroomSpecInput = { ...PLANE, guides: { density: 100, length: 0.2 } };
+    const zeros = new Float64Array(mesh.positions.length / 3);
+    const bytes = (input: GroomSpecInput) => Buffer.from(groomOn(mesh, input).guides.points.buffer);
+    const plain = bytes(base);
+    const wavered: GroomSpecInput = { ...base, guides: { ...base.guides, waver: { amplitude: 0.05 } } };
+    const tufted: GroomSpecInput = { ...base, guides: { ...base.guides, tufts: { density: 20, gather: { root: 0.2, tip: 1 } } } };
+    expect(bytes(wavered).equals(plain)).toBe(false);
+    expect(bytes(tufted).equals(plain)).toBe(false);
+    expect(bytes({ ...wavered, maps: [encodeMap('waver', zeros, mesh, 8)] }).equals(plain)).toBe(true);
+    expect(bytes({ ...tufted, maps: [encodeMap('gather', zeros, mesh, 8)] }).equals(plain)).toBe(true);
+  });
+
+  it('multiplies a map with the pins of its attribute', () => {
+    const { mesh, values } = halfPainted(1.5);
+    const base: GroomSpecInput = { ...PLANE, guides: { count: 200, width: 0.01 }, pins: [{ attribute: 'width', vertex: 0, value: 2 }] };
+    const pinned = groomOn(mesh, base).guides;
+    const both = groomOn(mesh, { ...base, maps: [encodeMap('width', values, mesh)] }).guides;
+    for (let g = 0; g < both.count; g++) {
+      const f = both.rootFace[g];
+      const map = [0, 1, 2].reduce((s, k) => s + both.rootBarycentric[3 * g + k] * values[mesh.triangles[3 * f + k]], 0);
+      // One pin makes its value the factor everywhere (README, "Pin blending"): 0.01 × 2 × the map.
+      expect(pinned.guideRootWidth[g]).toBeCloseTo(0.02, 12);
+      expect(both.guideRootWidth[g]).toBeCloseTo(0.02 * map, 12);
+    }
   });
 
   it('spreads guides by the painted density: half the square at 1×, half at 3×', () => {
