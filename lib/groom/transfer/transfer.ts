@@ -204,7 +204,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   const keptRegions = regions.flatMap((r) => (r.to ? [r.to] : []));
 
   // Maps are factors, so they need no unit conversion; only where each new vertex reads them.
-  const carried = spec.maps?.length ? carryMaps(spec, from, to, method === 'topology', alignment) : undefined;
+  const carried = spec.maps?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale) : undefined;
   const perUnit = CENTIMETRES_PER_UNIT[fromUnits] / CENTIMETRES_PER_UNIT[toUnits];
   const g = spec.guides;
   const direction = spec.field.referenceDirection ? alignDirection(alignment, spec.field.referenceDirection) : undefined;

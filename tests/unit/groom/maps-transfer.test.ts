@@ -1,7 +1,11 @@
 // Painted maps carried with a groom onto another surface (lib/groom/README.md, "Painted maps").
 import { describe, expect, it } from 'vitest';
 import { parseGroomSpec, prepareGroomSurface, transferReportText, transferSpec, withoutUv, type SurfaceIdentity } from '@/lib/groom';
+import type { TriangleMesh } from '@/lib/field';
 import { decodeMap, encodeMap } from '@/lib/groom/place/maps';
+import { carryMaps } from '@/lib/groom/transfer/maps';
+import { identityOfMesh } from '@/lib/groom/transfer/identity';
+import { gridPlane } from '@/tests/fixtures/shapes';
 import { transferSphere, type TransferSphere } from '@/tests/fixtures/transfer-sphere';
 
 const RINGS = 16, SEGMENTS = 24;
@@ -70,5 +74,30 @@ describe('painted maps travel with the groom', () => {
     const other = transferSphere(8, 12);
     const foreign = paintedSpec(other);
     expect(() => transferSpec(foreign, side(a), side(a))).toThrow(/maps\[0\]: the length map was painted on a surface of \d+ vertices/);
+  });
+
+  it('keeps to its own side of a thin gap: a sheet under another reads its own values, not those of the nearer sheet', () => {
+    // Two sheets facing apart (+z on top, −z below), like an ear's two sides; on the new surface
+    // the lower sheet lies nearer the upper sheet of the old one than the old lower sheet.
+    const sandwich = (cells: number, gap: number): TriangleMesh => {
+      const top = gridPlane(cells, cells), bottom = gridPlane(cells, cells);
+      const nV = top.positions.length / 3;
+      const positions = new Float64Array(6 * nV);
+      positions.set(top.positions);
+      positions.set(bottom.positions.map((x, i) => (i % 3 === 2 ? -gap : x)), 3 * nV);
+      const flipped = Uint32Array.from(bottom.triangles, (_x, i) => bottom.triangles[i - (i % 3) + [0, 2, 1][i % 3]] + nV);
+      const triangles = new Uint32Array(2 * top.triangles.length);
+      triangles.set(top.triangles);
+      triangles.set(flipped, top.triangles.length);
+      return { positions, triangles };
+    };
+    const old = sandwich(10, 0.01), fresh = sandwich(12, 0.004);
+    const values = Float64Array.from({ length: old.positions.length / 3 }, (_x, v) => (old.positions[3 * v + 2] < 0 ? 3 : 1));
+    const spec = parseGroomSpec({ specVersion: 3, units: 'cm', field: {}, maps: [encodeMap('length', values, old)] });
+    const identity = { scale: 1, rotation: [1, 0, 0, 0, 1, 0, 0, 0, 1], translation: [0, 0, 0] as [number, number, number], kind: 'landmarks' as const };
+    const { maps, report } = carryMaps(spec, { surface: prepareGroomSurface(old), identity: identityOfMesh(old) }, { surface: prepareGroomSurface(fresh), identity: identityOfMesh(fresh) }, false, identity, 0.05);
+    expect(report[0]).toMatchObject({ how: 'closest point', unchecked: 0 });
+    const carried = decodeMap(maps[0], fresh);
+    for (let v = 0; v < carried.length; v++) expect(carried[v]).toBeCloseTo(fresh.positions[3 * v + 2] < 0 ? 3 : 1, 9);
   });
 });
