@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { gridPlane, icosphere } from '@/tests/fixtures/shapes';
 import { decodeMap, encodeMap, surfaceSignature } from '@/lib/groom/place/maps';
-import { MAP_ATTRIBUTES, parseGroomSpec, specToJson, parseGroomSpecJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
+import { MAP_ATTRIBUTES, PIN_ATTRIBUTES, parseGroomSpec, specToJson, parseGroomSpecJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
 import { GroomError } from '@/lib/groom/errors';
 import { groomOn } from './support';
 
@@ -29,6 +29,10 @@ describe('painted maps in the spec', () => {
       expect(Math.min(...back)).toBe(Math.min(...values));
       expect(Math.max(...back)).toBe(Math.max(...values));
     }
+  });
+
+  it('can paint every attribute a pin can set', () => {
+    for (const attribute of PIN_ATTRIBUTES) expect(MAP_ATTRIBUTES).toContain(attribute);
   });
 
   it('leaves a spec without maps as it was (no maps field written)', () => {
