@@ -13,6 +13,7 @@ export { buildTopology, nextHalfedge, prevHalfedge, nextAroundVertex, type Topol
 export { cornerAngles, angleDefects, faceAreas, faceNormals, vertexNormals, surfaceArea, boundingBox, eulerCharacteristic, componentFacts, genus, type ComponentFacts, type BoundingBox } from './mesh/geometry';
 export { buildFaceFrames, type FaceFrames } from './mesh/transport';
 export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult, type UvPresence } from './mesh/read';
+export { readPreparedSurface, readSurfaceOrPrepared, writePreparedSurface, PREPARED_EXTENSION } from './mesh/read/prepared';
 export { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport, type SurfaceFacts } from './mesh/check';
 export { uvFacts, UV_RASTER_SIZE, type UvFacts } from './mesh/uv-check';
 

@@ -29,6 +29,7 @@ export {
   type PinSpec,
   type MapSpec,
   type MapAttribute,
+  type SymmetrySpec,
   type PlaceSpec,
   type SurfacePosition,
   type PinAttribute,
@@ -45,6 +46,19 @@ export { blendPins, blendValues, type PinnedFactors } from './place/pins';
 export { surfaceSignature, encodeMap, decodeMap, attributeFactors, type AttributeFactors } from './place/maps';
 export { geodesicDistances, vertexFaces, type VertexFaces } from './place/geodesic';
 export { growthMask } from './place/regions';
+export {
+  planeOfSymmetry,
+  planeDistance,
+  mirrorPoint,
+  mirrorDirection,
+  mirrorSingularityPoint,
+  mirrorPinPoint,
+  mirrorCurvePoints,
+  type MirrorPlane,
+} from './spec/symmetry';
+export { detectMirrorPlane, mirrorMismatch, SYMMETRIC_MISMATCH, type DetectedMirror } from './place/mirror-plane';
+export { mirrorSpecFeatures, mirrorSingularity, mirrorPin, mirrorCurve, mirrorStroke, isOnPlane, pointOfPlace } from './place/mirror-features';
+export { mirroredRoots } from './grow/mirror-roots';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
 export { coatFacts, type CoatFacts } from './grow/coat-facts';
 export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';

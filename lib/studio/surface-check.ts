@@ -3,7 +3,7 @@
 // problems found; the file is removed, the row stays so the groomer sees why). Each step is
 // written on the row with its progress for the studio's list.
 import { randomUUID } from 'node:crypto';
-import { checkSurfaceFile, type Problem } from '../field';
+import { checkSurfaceFile, PREPARED_EXTENSION, writePreparedSurface, type Problem, type SurfaceReadResult } from '../field';
 import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
 import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
@@ -35,6 +35,21 @@ export async function refuseSurface(surfaceId: string, problems: readonly Proble
   if (ended && row) await deleteOrphanedObjects([row.object_key]);
 }
 
+/**
+ * Stores the reading in its prepared form beside the file. Only a speed-up for the editor: when
+ * it cannot be stored the surface is ready all the same (null), and the editor reads the file.
+ */
+async function writePrepared(row: SurfaceRow, read: SurfaceReadResult): Promise<string | null> {
+  const key = `${row.object_key.slice(0, row.object_key.lastIndexOf('/'))}/prepared-${randomUUID()}.${PREPARED_EXTENSION}`;
+  try {
+    await putObject(key, writePreparedSurface(read), 'application/octet-stream');
+    return key;
+  } catch (error) {
+    console.error(`[studio] the prepared form of surface ${row.id} was not stored (the editor reads its file): ${(error as Error).message}`);
+    return null;
+  }
+}
+
 /** The job: checks one registered surface (a surface no longer `checking` is left as it is). */
 export async function checkRegisteredSurface({ surfaceId }: SurfaceCheckJobData): Promise<void> {
   const row: SurfaceRow | undefined = await db()('growth_surfaces').where({ id: surfaceId }).first();
@@ -52,6 +67,7 @@ export async function checkRegisteredSurface({ surfaceId }: SurfaceCheckJobData)
   const image = renderThumbnail(read.mesh, null, { size: SURFACE_THUMBNAIL_SIZE, view: 'front', upAxis: 'y' });
   const thumbnailKey = `${row.object_key.slice(0, row.object_key.lastIndexOf('/'))}/thumbnail-${randomUUID()}.webp`;
   await putObject(thumbnailKey, await encodeImage(image, 'webp'), 'image/webp');
+  const preparedKey = await writePrepared(row, read);
   const facts = report.facts;
   const areaCm2 = facts.surfaceArea * CENTIMETRES_PER_UNIT[row.units] ** 2;
   const ready = await step(surfaceId, {
@@ -72,8 +88,9 @@ export async function checkRegisteredSurface({ surfaceId }: SurfaceCheckJobData)
     uv_overlap_fraction: facts.uvs.overlapFraction,
     warnings: JSON.stringify(report.problems),
     thumbnail_key: thumbnailKey,
+    prepared_key: preparedKey,
     // Worked out here, once, so that creating a groom never reads the file again.
     starting_spec: JSON.stringify(startingSpec(read.mesh, row.units, areaCm2)),
   });
-  if (!ready) await deleteOrphanedObjects([thumbnailKey]);
+  if (!ready) await deleteOrphanedObjects([thumbnailKey, preparedKey]);
 }

@@ -4,10 +4,10 @@
 // lib/field (reading, measuring, the thumbnail) is a job (surface-check.ts) that makes the row
 // `ready` or `refused` with its problems. A groomer only ever sees their own surfaces.
 import { randomUUID } from 'node:crypto';
-import type { ComponentFacts, Problem } from '../field';
+import { PREPARED_EXTENSION, type ComponentFacts, type Problem } from '../field';
 import { db } from '../platform/db';
 import { env } from '../platform/env';
-import { copyObject } from '../platform/storage';
+import { copyObject, getObjectBytes } from '../platform/storage';
 import type { SurfaceDetail, SurfaceFileFormat, SurfaceState, SurfaceSummary, SurfaceUnits, UncheckedSurface, UploadTicket } from './types';
 import { SURFACE_FORMATS } from './types';
 import { HttpError } from '../http/errors';
@@ -46,6 +46,8 @@ export type SurfaceRow = {
   uv_overlap_fraction: number | null;
   warnings: Problem[];
   thumbnail_key: string | null;
+  /** The surface's prepared form (lib/field's writePreparedSurface), written by the check; null before it existed or when writing it failed. */
+  prepared_key: string | null;
   created_at: Date;
 };
 
@@ -255,6 +257,7 @@ export async function surfaceDetail(row: SurfaceRow): Promise<SurfaceDetail | Un
   return {
     ...summary,
     fileUrl: await presignDownload(row.object_key, STUDIO_URL_SECONDS, row.file_name),
+    prepared: row.prepared_key ? { url: `/api/studio/surfaces/${row.id}/prepared`, fileName: `${row.id}.${PREPARED_EXTENSION}` } : null,
     byteSize: Number(row.byte_size),
     components: row.components ?? [],
   };
@@ -273,6 +276,16 @@ export async function listSurfaces(groomer: Groomer): Promise<SurfaceSummary[]> 
     { column: 'id', order: 'desc' },
   ]);
   return Promise.all(rows.map(surfaceSummary));
+}
+
+/**
+ * The bytes of the groomer's surface in its prepared form (see SurfaceRow.prepared_key), or a 404
+ * when it has none (the editor then reads the file). Immutable, like the surface.
+ */
+export async function preparedSurfaceBytes(groomer: Groomer, surfaceId: string): Promise<Uint8Array> {
+  const row = await ownSurfaceRow(groomer, surfaceId);
+  if (!row.prepared_key) throw notFound('surface');
+  return getObjectBytes(row.prepared_key);
 }
 
 export async function getSurface(groomer: Groomer, surfaceId: string): Promise<SurfaceDetail | UncheckedSurface> {
@@ -304,5 +317,5 @@ export async function deleteSurface(groomer: Groomer, surfaceId: string): Promis
     await trx('growth_surfaces').where({ id: surfaceId }).delete();
     return row;
   });
-  await deleteOrphanedObjects([removed.object_key, removed.thumbnail_key]);
+  await deleteOrphanedObjects([removed.object_key, removed.thumbnail_key, removed.prepared_key]);
 }

@@ -72,6 +72,13 @@ export type SurfaceSummary = ReadySurface | UncheckedSurface;
 export type SurfaceDetail = ReadySurface & {
   /** Presigned GET of the surface file as uploaded, valid 10 minutes. */
   fileUrl: string;
+  /**
+   * The surface read and welded once, by its check (lib/field's prepared form): what the editor
+   * opens, copying arrays instead of parsing the file; immutable and cached by the browser. Null
+   * for surfaces checked before it existed (the editor reads `fileUrl` then). `fileName` ends with
+   * `.wwsurf`, which is how the reader knows it.
+   */
+  prepared: { url: string; fileName: string } | null;
   byteSize: number;
   /** Per connected piece: faces, vertices, edges, boundary loops, Euler characteristic, genus. */
   components: ComponentFacts[];

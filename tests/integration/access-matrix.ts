@@ -117,6 +117,7 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('GET', '/api/studio/surfaces', '401 200 200 200 403'),
   route('POST', '/api/studio/surfaces', '401 404 202 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
   route('GET', '/api/studio/surfaces/[surfaceId]', '401 404 200 404 403', { params: surface }),
+  route('GET', '/api/studio/surfaces/[surfaceId]/prepared', '401 404 200 404 403', { params: surface }),
   route('GET', '/api/studio/surfaces/[surfaceId]', '401 404 404 404 403', { params: { surfaceId: ['not-an-id'] }, note: 'malformed id' }),
   route('DELETE', '/api/studio/surfaces/[surfaceId]', '401 404 200 404 403', { params: { surfaceId: 'spareSurface' } }),
   route('GET', '/api/studio/grooms', '401 200 200 200 403'),

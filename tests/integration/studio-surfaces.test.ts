@@ -14,6 +14,8 @@ import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
+import * as preparedRoute from '@/app/api/studio/surfaces/[surfaceId]/prepared/route';
+import { readPreparedSurface, readSurface } from '@/lib/field';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 import type { ReadySurface, SurfaceDetail, SurfaceSummary, UncheckedSurface } from '@/lib/studio/types';
 
@@ -113,11 +115,28 @@ describe('registering an uploaded surface', () => {
     expect(file.headers.get('content-disposition')).toBe('attachment; filename="loop-ring.obj"');
   });
 
-  it('deletes a surface with its file and thumbnail', async () => {
+  it('keeps the surface read once, in its prepared form: the same reading as the file, served to the owner only, cached for good', async () => {
+    const detail = (await expectJson<{ data: { surface: SurfaceDetail } }>(await callRoute(surfaceRoute, 'GET', `/api/studio/surfaces/${ringSurface.id}`, { cookie: wren.cookie, params: { surfaceId: ringSurface.id } }), 200)).data.surface;
+    expect(detail.prepared).toEqual({ url: `/api/studio/surfaces/${ringSurface.id}/prepared`, fileName: `${ringSurface.id}.wwsurf` });
+    const answer = await callRoute(preparedRoute, 'GET', detail.prepared!.url, { cookie: wren.cookie, params: { surfaceId: ringSurface.id } });
+    expect(answer.status).toBe(200);
+    expect(answer.headers.get('cache-control')).toBe('private, max-age=31536000, immutable');
+    const prepared = readPreparedSurface(new Uint8Array(await answer.arrayBuffer()));
+    const fromFile = readSurface(ringBytes, 'loop-ring.obj');
+    expect(Array.from(prepared.mesh.positions)).toEqual(Array.from(fromFile.mesh.positions));
+    expect(Array.from(prepared.mesh.triangles)).toEqual(Array.from(fromFile.mesh.triangles));
+    expect(Array.from(prepared.mesh.fileVertexToVertex!)).toEqual(Array.from(fromFile.mesh.fileVertexToVertex!));
+    expect(prepared.sourceVertexCount).toBe(fromFile.sourceVertexCount);
+    const rivalAsks = await callRoute(preparedRoute, 'GET', detail.prepared!.url, { cookie: rival.cookie, params: { surfaceId: ringSurface.id } });
+    expect(rivalAsks.status).toBe(404);
+  });
+
+  it('deletes a surface with its file, thumbnail and prepared form', async () => {
     const surface = await createSurface(wren, 'short-lived.obj', await fixture('uv-split-cube.obj'), 'Short-lived cube');
     const row = await db()('growth_surfaces').where({ id: surface.id }).first();
     const folder = row.object_key.slice(0, row.object_key.lastIndexOf('/') + 1);
-    expect(await storedKeys(folder)).toHaveLength(2);
+    // The file, its thumbnail and its prepared form.
+    expect(await storedKeys(folder)).toHaveLength(3);
     const response = await callRoute(surfaceRoute, 'DELETE', `/api/studio/surfaces/${surface.id}`, { cookie: wren.cookie, params: { surfaceId: surface.id } });
     expect(await expectJson(response, 200)).toEqual({ data: { deleted: true } });
     expect(await db()('growth_surfaces').where({ id: surface.id })).toHaveLength(0);

@@ -1,6 +1,6 @@
 'use client';
 // Opens a groom in the editor: its saved spec, revision and versions as the page read them, its
-// surface file through the presigned link (read by the field worker), and the earlier sculpt its
+// surface in its prepared form (or the file through the presigned link; read by the field worker), and the earlier sculpt its
 // guides are rooted on after a move by polygon.
 import { useMemo } from 'react';
 import type { GroomDetail } from '@/lib/studio/client/api';
@@ -8,7 +8,11 @@ import type { RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
 import { Workspace } from './Workspace';
 
 export function GroomEditor({ groom, maxUploadBytes }: { groom: GroomDetail; maxUploadBytes?: number }) {
-  const source = useMemo<SurfaceSource>(() => ({ kind: 'url', url: groom.surface.fileUrl, fileName: groom.surface.fileName }), [groom]);
+  const source = useMemo<SurfaceSource>(() => {
+    const file: SurfaceSource = { kind: 'url', url: groom.surface.fileUrl, fileName: groom.surface.fileName };
+    // The prepared form when the check wrote one (no parsing, no welding), with the file behind it.
+    return groom.surface.prepared ? { kind: 'url', ...groom.surface.prepared, fallback: file } : file;
+  }, [groom]);
   const rootsFrom = useMemo<RootsSource | undefined>(
     () => (groom.rootsSurface ? { key: groom.rootsSurface.id, source: { kind: 'url', url: groom.rootsSurface.fileUrl, fileName: groom.rootsSurface.fileName } } : undefined),
     [groom],

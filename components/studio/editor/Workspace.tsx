@@ -28,6 +28,7 @@ import { PanelTabs, type PanelTab } from './PanelTabs';
 import { StageMessages } from './StageMessages';
 import { SurfaceMovePanel } from './SurfaceMovePanel';
 import { ToolRail } from './ToolRail';
+import { TwinSidesPanel } from './TwinSidesPanel';
 import { VersionPanel } from './VersionPanel';
 import { useAutosave, type Persistence } from './hooks/useAutosave';
 import { useDraftPath } from './hooks/useDraftPath';
@@ -163,14 +164,17 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
           <BudgetCard spec={spec} surface={surface} solve={solve} placing={tools.tool === 'remainder'} onPlaceRemainder={() => tools.choose('remainder')} onPlaceRemainderAtCentre={tools.placeRemainderAtCentre} />
           <PanelTabs tab={tab} onTab={setTab} saved={!!persistence}>
             {tab === 'features' && (
-              <FeatureList
-                spec={dragging && editor.gestureBase ? editor.gestureBase.spec : spec}
-                selection={editor.selection}
-                solve={tools.dragging ? tools.dragging.solveBefore : solve}
-                errorFeature={errorFeature}
-                errorMessage={fieldError?.message ?? null}
-                actions={actions}
-              />
+              <div className="flex flex-col gap-3">
+                {surface && <TwinSidesPanel spec={spec} client={field.client} actions={actions} />}
+                <FeatureList
+                  spec={dragging && editor.gestureBase ? editor.gestureBase.spec : spec}
+                  selection={editor.selection}
+                  solve={tools.dragging ? tools.dragging.solveBefore : solve}
+                  errorFeature={errorFeature}
+                  errorMessage={fieldError?.message ?? null}
+                  actions={actions}
+                />
+              </div>
             )}
             {tab === 'guides' && <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} />}
             {tab === 'field' && (

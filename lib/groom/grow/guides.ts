@@ -7,6 +7,8 @@ import { growthMask } from '../place/regions';
 import { downOf } from '../place/request';
 import { cellOrder, sampleRoots } from './roots';
 import { bindRoots, rootsOnSculpt, type RootBinding } from './binding';
+import { mirroredRoots } from './mirror-roots';
+import type { MirrorPlane } from '../spec/symmetry';
 import { shapeGuide, waver, type WaverParameters } from './shape';
 import { gatherOnto, type Gather } from './tufts';
 import { planTufts } from './tuft-plan';
@@ -83,6 +85,12 @@ export type GrowOptions = {
    * vertices), so every guide keeps its id, polygon and weights. See `rootsOnSculpt`.
    */
   readonly rootsFrom?: TriangleMesh;
+  /**
+   * Make the roots mirror-symmetric across this plane (`mirroredRoots`: the positive side's roots
+   * and their mirror images), for a coat whose two sides must mirror each other. The count is then
+   * about the asked one (twice the positive side's share), and ids follow the kept roots' order.
+   */
+  readonly mirrorRootsAcross?: MirrorPlane;
 };
 
 /** What is done to a curve after its shape: drawn onto a tuft's centre curve, wandered. */
@@ -154,7 +162,8 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   const wanted = options.sampleOf !== undefined ? Math.min(asked, options.sampleOf) : asked;
   const sample = (on: TriangleMesh, faceArea: Float64Array) =>
     sampleRoots({ positions: on.positions, triangles: on.triangles, faceArea, count: wanted, allowedFace: mask, vertexDensity: pins.density, seed: settings.seed });
-  const roots = options.rootsFrom ? rootsOnSculpt(options.rootsFrom, mesh, sample) : sample(mesh, surface.faceArea);
+  const sampled = options.rootsFrom ? rootsOnSculpt(options.rootsFrom, mesh, sample) : sample(mesh, surface.faceArea);
+  const roots = options.mirrorRootsAcross ? mirroredRoots(surface, sampled, options.mirrorRootsAcross) : sampled;
   const t1 = now();
 
   const n = settings.pointsPerGuide;

@@ -99,6 +99,23 @@ const pinSchema = z
   })
   .superRefine(exactlyOnePlace);
 
+/**
+ * The mirror plane the editor mirrors edits across: an axis name (the plane across that axis,
+ * `offset` from the origin along it) or a normal and offset (the points x with normal · x =
+ * offset, in surface units). `seam` (surface units, default 0): places nearer the plane than
+ * this are on it, and the editor does not double them. Only the editor uses it; growing is
+ * unchanged by it.
+ */
+const seam = z.number().min(0).max(1e9).optional();
+const symmetrySchema = z.union([
+  z.strictObject({ axis: z.enum(['x', 'y', 'z']), offset: z.number().min(-1e9).max(1e9).optional(), seam }),
+  z.strictObject({
+    normal: vec3.refine((d) => Math.hypot(...d) > 0, 'the plane\'s normal must not be zero'),
+    offset: z.number().min(-1e9).max(1e9),
+    seam,
+  }),
+]);
+
 const fieldSchemaV2 = z.strictObject({
   order: z.int().min(1).max(12).default(1),
   boundary: z.enum(['free', 'tangent', 'normal']).default('free'),
@@ -212,6 +229,7 @@ const specSchemaV3 = z
     guides: guidesSchemaV3.prefault({}),
     pins: z.array(pinSchema).max(1024).default([]),
     maps: z.array(mapSchema).max(64).optional(),
+    symmetry: symmetrySchema.optional(),
   })
   .superRefine((spec, ctx) => {
     spec.maps?.forEach((map, i) => {
@@ -265,6 +283,8 @@ export type CurveSpec = GroomSpec['field']['partings'][number];
 export type StrokeSpec = GroomSpec['field']['strokes'][number];
 export type PinSpec = GroomSpec['pins'][number];
 export type MapSpec = NonNullable<GroomSpec['maps']>[number];
+/** The spec's mirror plane (see `symmetrySchema`). */
+export type SymmetrySpec = NonNullable<GroomSpec['symmetry']>;
 export type GuideSettings = GroomSpec['guides'];
 /** A place on the surface as the spec gives it. */
 export interface PlaceSpec {

@@ -4,7 +4,8 @@ import { edgePath, vertexOfPlace } from '../place/place';
 import { fieldRequestFromSpec, solveGroomField } from '../place/request';
 import { SKIN_QUERY_SIZE } from '../place/skin';
 import type { GroomSurface } from '../place/surface';
-import { CENTIMETRES_PER_UNIT, parseGroomSpec, type GroomSpec, type Unit } from '../spec/spec';
+import { CENTIMETRES_PER_UNIT, parseGroomSpec, type GroomSpec, type SymmetrySpec, type Unit } from '../spec/spec';
+import { planeOfSymmetry } from '../spec/symmetry';
 import { alignDirection, alignPoint, alignSurfaces, type Alignment, type LandmarkPair } from './align';
 import { anchorFeatures, placeFeatures, type AnchoredFeature, type FeatureKind, type Landing } from './features';
 import { barycentricOnFace, pointOfPosition, positionOnFace, sameTopology, type SurfaceIdentity } from './identity';
@@ -214,6 +215,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     upAxis: toUp,
     field: { ...placed.spec.field, ...(direction ? { referenceDirection: direction } : {}) },
     ...(carried ? { maps: carried.maps } : {}),
+    ...(spec.symmetry ? { symmetry: carriedSymmetry(spec.symmetry, alignment) } : {}),
     guides: {
       ...g,
       regions: keptRegions,
@@ -329,4 +331,18 @@ function curvesCrossingOpenings(
     }
   }
   return out;
+}
+
+/**
+ * The editor's mirror plane in the new surface's space: its normal turned and one of its points
+ * moved by the alignment, the seam scaled. Written by normal and offset (the turned plane need not
+ * lie across a world axis any more).
+ */
+function carriedSymmetry(symmetry: SymmetrySpec, alignment: Alignment): SymmetrySpec {
+  const plane = planeOfSymmetry(symmetry);
+  const n = plane.normal;
+  const onPlane = alignPoint(alignment, [n[0] * plane.offset, n[1] * plane.offset, n[2] * plane.offset]);
+  const normal = alignDirection(alignment, n);
+  const offset = normal[0] * onPlane[0] + normal[1] * onPlane[1] + normal[2] * onPlane[2];
+  return { normal, offset, ...(symmetry.seam !== undefined ? { seam: symmetry.seam * alignment.scale } : {}) };
 }

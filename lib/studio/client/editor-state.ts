@@ -31,11 +31,13 @@ export function currentSpec(state: EditorState): GroomSpec {
   return state.present.spec;
 }
 
-function selectionAfter(spec: GroomSpec, selection: FeatureRef | null, edit: SpecEdit): FeatureRef | null {
-  if (edit.type === 'add-singularity') return { kind: 'singularity', index: spec.field.singularities.length - 1 };
-  if (edit.type === 'add-curve') return { kind: edit.kind, index: (edit.kind === 'parting' ? spec.field.partings : spec.field.crests).length - 1 };
-  if (edit.type === 'add-stroke') return { kind: 'stroke', index: spec.field.strokes.length - 1 };
-  if (edit.type === 'add-pin') return { kind: 'pin', index: spec.pins.length - 1 };
+// An added feature is selected: it is appended, so its number is the length of its list before
+// the edit (its mirror image, when symmetry adds one, comes after it).
+function selectionAfter(before: GroomSpec, spec: GroomSpec, selection: FeatureRef | null, edit: SpecEdit): FeatureRef | null {
+  if (edit.type === 'add-singularity') return { kind: 'singularity', index: before.field.singularities.length };
+  if (edit.type === 'add-curve') return { kind: edit.kind, index: (edit.kind === 'parting' ? before.field.partings : before.field.crests).length };
+  if (edit.type === 'add-stroke') return { kind: 'stroke', index: before.field.strokes.length };
+  if (edit.type === 'add-pin') return { kind: 'pin', index: before.pins.length };
   if (!selection) return null;
   if (edit.type === 'remove' && edit.feature.kind === selection.kind) {
     if (edit.feature.index === selection.index) return null;
@@ -56,7 +58,7 @@ export function applyEdit(state: EditorState, edit: SpecEdit, spec?: GroomSpec):
     past: [...base.past, base.present].slice(-HISTORY_LIMIT),
     present: entry,
     future: [],
-    selection: selectionAfter(next, base.selection, edit),
+    selection: selectionAfter(base.present.spec, next, base.selection, edit),
     gestureBase: null,
   };
 }

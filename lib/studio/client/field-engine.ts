@@ -9,6 +9,7 @@ import {
   indexBudget,
   now,
   readSurface,
+  readSurfaceOrPrepared,
   solveConnection,
   suggestLayout,
   type BoundaryMode,
@@ -28,13 +29,14 @@ import {
   vertexOfPlace,
   CENTIMETRES_PER_UNIT,
   downOf,
+  detectMirrorPlane,
   type GroomSpec,
   type GroomSurface,
 } from '@/lib/groom';
 import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
 import { errorOf, proofOf } from './field-reports';
-import type { DisplayOptions, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
+import type { DisplayOptions, FoundMirror, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes } from './surface-opening';
 
 
@@ -65,26 +67,34 @@ export class FieldEngine {
     return this.surface;
   }
 
-  /** Reads and prepares a surface: the one expensive step (the factorization), with progress. */
+  /**
+   * Reads and prepares a surface: the one expensive step (the factorization), with progress. A
+   * source with a `fallback` (the prepared form, with the file behind it) is read from the
+   * fallback when it cannot be fetched or read.
+   */
   async open(source: SurfaceSource, boundary: BoundaryMode): Promise<OpenedSurface> {
     const started = now();
-    const loaded = await loadSurfaceBytes(source, this.progress);
-    const t0 = now();
-    let mesh: TriangleMesh;
-    let fileVertexCount: number;
-    if ('mesh' in loaded) {
-      mesh = loaded.mesh;
-      fileVertexCount = mesh.positions.length / 3;
-    } else {
-      this.progress({ stage: 'reading the surface file', fraction: null });
-      const read = readSurface(loaded.bytes, loaded.fileName);
-      mesh = read.mesh;
-      fileVertexCount = read.sourceVertexCount;
+    let read: Awaited<ReturnType<FieldEngine['read']>>;
+    try {
+      read = await this.read(source);
+    } catch (error) {
+      if (source.kind !== 'url' || !source.fallback) throw error;
+      this.progress({ stage: 'reading the surface file instead of its prepared form', fraction: null });
+      read = await this.read(source.fallback);
     }
-    const t1 = now();
-    this.prepare(mesh, boundary);
     const t2 = now();
-    return describeSurface(this.requireSurface(), fileVertexCount, { downloadMilliseconds: t0 - started, readMilliseconds: t1 - t0, prepareMilliseconds: t2 - t1 });
+    this.prepare(read.mesh, boundary);
+    const t3 = now();
+    return describeSurface(this.requireSurface(), read.fileVertexCount, { downloadMilliseconds: read.downloaded - started, readMilliseconds: read.readAt - read.downloaded, prepareMilliseconds: t3 - t2 });
+  }
+
+  private async read(source: SurfaceSource): Promise<{ mesh: TriangleMesh; fileVertexCount: number; downloaded: number; readAt: number }> {
+    const loaded = await loadSurfaceBytes(source, this.progress);
+    const downloaded = now();
+    if ('mesh' in loaded) return { mesh: loaded.mesh, fileVertexCount: loaded.mesh.positions.length / 3, downloaded, readAt: now() };
+    this.progress({ stage: 'reading the surface file', fraction: null });
+    const read = readSurfaceOrPrepared(loaded.bytes, loaded.fileName);
+    return { mesh: read.mesh, fileVertexCount: read.sourceVertexCount, downloaded, readAt: now() };
   }
 
   /** Reads a file that may be broken, only to draw it: no checks beyond what reading needs. */
@@ -309,6 +319,15 @@ export class FieldEngine {
    * surface as the spec holds its boundary, its singularities as grain marks. Nothing placed is
    * read: the suggestion is where the singularities would go if none had been placed.
    */
+  /** The open surface's mirror plane (`detectMirrorPlane`), with the mean edge as the seam. */
+  findMirror(): FoundMirror {
+    const surface = this.requireSurface();
+    this.progress({ stage: 'looking for a mirror plane', fraction: null, expectedMilliseconds: surface.field.topology.vertexCount * 0.05 });
+    const found = detectMirrorPlane(surface);
+    const [x, y, z] = found.plane.normal;
+    return { normal: [x, y, z], offset: found.plane.offset, mismatch: found.mismatch, symmetric: found.symmetric, seam: surface.meanEdge };
+  }
+
   readGrain(spec: GroomSpec, follow: GrainFollow): GrainReading {
     const t0 = now();
     const surface = this.ensureBoundary(spec);

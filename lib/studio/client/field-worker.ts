@@ -46,6 +46,8 @@ async function answer(request: WorkerRequest): Promise<unknown> {
       return { points: engine.curvePath(request.points, request.closed) };
     case 'read-grain':
       return engine.readGrain(request.spec, request.follow);
+    case 'find-mirror':
+      return engine.findMirror();
   }
 }
 

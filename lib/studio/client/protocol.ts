@@ -7,7 +7,8 @@ import type { Vec3 } from './features';
 
 /** Where the worker gets the surface's bytes. */
 export type SurfaceSource =
-  | { readonly kind: 'url'; readonly url: string; readonly fileName: string }
+  /** `fallback`: where to read the surface when this cannot be fetched or read (the file behind its prepared form). */
+  | { readonly kind: 'url'; readonly url: string; readonly fileName: string; readonly fallback?: SurfaceSource }
   | { readonly kind: 'bytes'; readonly bytes: ArrayBuffer; readonly fileName: string }
   /** One of lib/groom's demo characters (DEMO_GROOMS[i].id), built in the worker. */
   | { readonly kind: 'demo'; readonly demoId: string };
@@ -43,7 +44,8 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'solve'; readonly spec: GroomSpec; readonly display: DisplayOptions; readonly quick: boolean }
   | { readonly id: number; readonly type: 'grow'; readonly spec: GroomSpec; readonly rootsFrom?: RootsSource }
   | { readonly id: number; readonly type: 'curve-path'; readonly points: readonly Vec3[]; readonly closed: boolean }
-  | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow };
+  | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow }
+  | { readonly id: number; readonly type: 'find-mirror' };
 
 export type WorkerRequestBody = WorkerRequest extends infer R ? (R extends { id: number } ? Omit<R, 'id'> : never) : never;
 
@@ -185,6 +187,17 @@ export interface GrainReading {
   readonly milliseconds: number;
 }
 
+/** The open surface's mirror plane as `detectMirrorPlane` finds it, with the seam the editor uses (the mean edge). */
+export interface FoundMirror {
+  readonly normal: Vec3;
+  readonly offset: number;
+  /** Largest distance from a mirrored vertex to the surface, over the bounding-box diagonal. */
+  readonly mismatch: number;
+  readonly symmetric: boolean;
+  /** Places nearer the plane than this are on it (surface units): the mean edge length. */
+  readonly seam: number;
+}
+
 export interface ResultOf {
   open: OpenedSurface;
   inspect: InspectedSurface;
@@ -192,4 +205,5 @@ export interface ResultOf {
   grow: GrownGuides;
   'curve-path': CurvePath;
   'read-grain': GrainReading;
+  'find-mirror': FoundMirror;
 }

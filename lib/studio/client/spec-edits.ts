@@ -1,14 +1,16 @@
 // Every change the studio makes to a groom spec, as plain data: applied by one pure function,
 // named in words for the undo history, checked with the groom library's own schema before it
 // is accepted. The spec is never changed in place.
-import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec/spec';
-import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureRef, type Vec3 } from './features';
+import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec, type SymmetrySpec } from '@/lib/groom/spec/spec';
+import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureKind, type FeatureRef, type Vec3 } from './features';
+import { mirrorOf, mirroredValue, partnerOf, type FeatureValue, type Mirror } from './mirror-edits';
 
 export type CurveKind = 'parting' | 'crest';
 export type FieldSettings = Pick<GroomSpec['field'], 'order' | 'boundary' | 'rotation' | 'referenceDirection'>;
 
 export type SpecEdit =
-  | { readonly type: 'add-singularity'; readonly singularity: SingularitySpec }
+  // `alone`: on this side only, even with twin sides on (the budget's remainder, which a mirror would double).
+  | { readonly type: 'add-singularity'; readonly singularity: SingularitySpec; readonly alone?: boolean }
   | { readonly type: 'update-singularity'; readonly index: number; readonly singularity: SingularitySpec; readonly moved?: boolean }
   | { readonly type: 'add-curve'; readonly kind: CurveKind; readonly curve: CurveSpec }
   | { readonly type: 'update-curve'; readonly kind: CurveKind; readonly index: number; readonly curve: CurveSpec }
@@ -19,6 +21,7 @@ export type SpecEdit =
   | { readonly type: 'remove'; readonly feature: FeatureRef }
   | { readonly type: 'set-guides'; readonly guides: GuideSettings }
   | { readonly type: 'set-field'; readonly settings: Partial<FieldSettings> }
+  | { readonly type: 'set-symmetry'; readonly symmetry: SymmetrySpec | null }
   | { readonly type: 'replace'; readonly spec: GroomSpec; readonly label: string };
 
 /** The index of a whorl and of a saddle, the two singularities the tools and the side list add by name. */
@@ -26,8 +29,8 @@ export const WHORL_INDEX = 1;
 export const SADDLE_INDEX = -1;
 
 /** The edit that adds a singularity of an index at a point, turning counterclockwise as every new one does. */
-export function addSingularity(point: Vec3, index: number): SpecEdit {
-  return { type: 'add-singularity', singularity: { point, index, handedness: 'counterclockwise' } };
+export function addSingularity(point: Vec3, index: number, alone = false): SpecEdit {
+  return { type: 'add-singularity', singularity: { point, index, handedness: 'counterclockwise' }, ...(alone ? { alone } : {}) };
 }
 
 /** The edit that moves a singularity or a pin to a point (a place by file vertex becomes a place by point); null for other features. */
@@ -56,8 +59,78 @@ function curveList(kind: CurveKind): 'partings' | 'crests' {
   return kind === 'parting' ? 'partings' : 'crests';
 }
 
-/** The spec after an edit. Throws RangeError for an edit that names a feature the spec lacks. */
+/**
+ * The spec after an edit. With the spec's `symmetry` on, a feature's placing, change or deletion
+ * is done on the other side too, in the same edit (so one undo takes both back): an added feature
+ * gains its mirror image unless it lies on the plane; a changed or moved one takes its partner
+ * (see `partnerOf`) along as its mirror image — or deletes it, when the change puts it on the
+ * plane; a deleted one takes its partner with it. Features without a partner (made while symmetry
+ * was off, or placed by file vertex) change alone. Throws RangeError for an edit that names a
+ * feature the spec lacks.
+ */
 export function applySpecEdit(spec: GroomSpec, edit: SpecEdit): GroomSpec {
+  const mirror = mirrorOf(spec);
+  return mirror ? applyMirrored(spec, edit, mirror) : applyOne(spec, edit);
+}
+
+/** A feature edit as (kind, index, value): what mirroring needs of it. */
+function featureEdit(edit: SpecEdit): { action: 'add' | 'update' | 'remove'; kind: FeatureKind; index: number; value?: FeatureValue } | null {
+  switch (edit.type) {
+    case 'add-singularity':
+      return edit.alone ? null : { action: 'add', kind: 'singularity', index: -1, value: edit.singularity };
+    case 'update-singularity':
+      return { action: 'update', kind: 'singularity', index: edit.index, value: edit.singularity };
+    case 'add-curve':
+      return { action: 'add', kind: edit.kind, index: -1, value: edit.curve };
+    case 'update-curve':
+      return { action: 'update', kind: edit.kind, index: edit.index, value: edit.curve };
+    case 'add-stroke':
+      return { action: 'add', kind: 'stroke', index: -1, value: edit.stroke };
+    case 'update-stroke':
+      return { action: 'update', kind: 'stroke', index: edit.index, value: edit.stroke };
+    case 'add-pin':
+      return { action: 'add', kind: 'pin', index: -1, value: edit.pin };
+    case 'update-pin':
+      return { action: 'update', kind: 'pin', index: edit.index, value: edit.pin };
+    case 'remove':
+      return { action: 'remove', kind: edit.feature.kind, index: edit.feature.index };
+    default:
+      return null;
+  }
+}
+
+/** The add or update edit of a feature of any kind. */
+function editOf(kind: FeatureKind, index: number | null, value: FeatureValue): SpecEdit {
+  if (kind === 'singularity') return index === null ? { type: 'add-singularity', singularity: value as SingularitySpec } : { type: 'update-singularity', index, singularity: value as SingularitySpec };
+  if (kind === 'pin') return index === null ? { type: 'add-pin', pin: value as PinSpec } : { type: 'update-pin', index, pin: value as PinSpec };
+  if (kind === 'stroke') return index === null ? { type: 'add-stroke', stroke: value as StrokeSpec } : { type: 'update-stroke', index, stroke: value as StrokeSpec };
+  return index === null ? { type: 'add-curve', kind, curve: value as CurveSpec } : { type: 'update-curve', kind, index, curve: value as CurveSpec };
+}
+
+function applyMirrored(spec: GroomSpec, edit: SpecEdit, mirror: Mirror): GroomSpec {
+  const change = featureEdit(edit);
+  if (!change) return applyOne(spec, edit);
+  const { action, kind, index, value } = change;
+  if (action === 'add') {
+    const image = mirroredValue(mirror, kind, value!);
+    const next = applyOne(spec, edit);
+    return image ? applyOne(next, editOf(kind, null, image)) : next;
+  }
+  const partner = partnerOf(spec, { kind, index }, mirror);
+  if (action === 'remove') {
+    if (partner === null) return applyOne(spec, edit);
+    // The later one first, so the earlier one's number still holds.
+    const [first, second] = partner > index ? [partner, index] : [index, partner];
+    return applyOne(applyOne(spec, { type: 'remove', feature: { kind, index: first } }), { type: 'remove', feature: { kind, index: second } });
+  }
+  const next = applyOne(spec, edit);
+  if (partner === null) return next;
+  const image = mirroredValue(mirror, kind, value!);
+  return image ? applyOne(next, editOf(kind, partner, image)) : applyOne(next, { type: 'remove', feature: { kind, index: partner } });
+}
+
+/** One edit, on one side only. */
+function applyOne(spec: GroomSpec, edit: SpecEdit): GroomSpec {
   const field = spec.field;
   switch (edit.type) {
     case 'add-singularity':
@@ -86,6 +159,10 @@ export function applySpecEdit(spec: GroomSpec, edit: SpecEdit): GroomSpec {
       return { ...spec, guides: edit.guides };
     case 'set-field':
       return { ...spec, field: { ...field, ...edit.settings } };
+    case 'set-symmetry': {
+      const { symmetry: _off, ...rest } = spec;
+      return edit.symmetry ? { ...spec, symmetry: edit.symmetry } : rest;
+    }
     case 'replace':
       return edit.spec;
   }
@@ -112,8 +189,17 @@ function removeFeature(spec: GroomSpec, ref: FeatureRef): GroomSpec {
   }
 }
 
-/** The words the undo history shows for an edit ("Move whorl 2", "Add parting 1"). */
+/** The words the undo history shows for an edit ("Move whorl 2", "Add parting 1"), "on both sides" when mirrored. */
 export function describeSpecEdit(before: GroomSpec, edit: SpecEdit): string {
+  const words = describeOne(before, edit);
+  const mirror = mirrorOf(before);
+  const change = featureEdit(edit);
+  if (!mirror || !change) return words;
+  const twinned = change.action === 'add' ? mirroredValue(mirror, change.kind, change.value!) !== null : partnerOf(before, { kind: change.kind, index: change.index }, mirror) !== null;
+  return twinned ? `${words} on both sides` : words;
+}
+
+function describeOne(before: GroomSpec, edit: SpecEdit): string {
   const lower = (text: string) => text.charAt(0).toLowerCase() + text.slice(1);
   switch (edit.type) {
     case 'add-singularity':
@@ -138,6 +224,8 @@ export function describeSpecEdit(before: GroomSpec, edit: SpecEdit): string {
       return 'Change guide settings';
     case 'set-field':
       return 'Change field settings';
+    case 'set-symmetry':
+      return edit.symmetry ? 'Turn twin sides on' : 'Turn twin sides off';
     case 'replace':
       return edit.label;
   }

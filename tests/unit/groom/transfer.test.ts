@@ -20,6 +20,7 @@ import {
   type SurfaceIdentity,
 } from '@/lib/groom';
 import { SKIN_QUERY_SIZE } from '@/lib/groom/place/skin';
+import { mirrorPoint, planeOfSymmetry } from '@/lib/groom/spec/symmetry';
 import { multiply3, onUnitSphere as at, transferSphere, rotationAbout, type TransferSphere } from '@/tests/fixtures/transfer-sphere';
 import { withGroups } from './support';
 
@@ -118,6 +119,19 @@ describe('a spec carried to the same character in another file', () => {
     expect(report.notCarried).toEqual([]);
     expectSingularitiesLanded(spec, to.surface, expectedOnB, measured(to.surface, solved as never));
     for (const f of report.features) expect(f.moved!).toBeLessThan(1e-3);
+  });
+
+  it('carries the editor’s mirror plane with the similarity: mirror images on the old surface are mirror images on the new', () => {
+    const to = side(b, withoutUv(b.identity));
+    const landmarks = [at(10, 0), at(90, 0), at(90, 90), at(170, 200), at(60, 300)].map((p) => ({ from: p, to: b.place(p) }));
+    const { spec } = transferSpec(parseGroomSpec({ ...SPEC, symmetry: { axis: 'x', seam: 0.05 } }), side(a, withoutUv(a.identity)), to, { landmarks });
+    const plane = planeOfSymmetry(spec.symmetry!);
+    expect(spec.symmetry!.seam).toBeCloseTo(0.05 * 2.54, 6);
+    for (const p of [at(30, 40), at(120, 75), at(80, 200)]) {
+      const image = mirrorPoint(plane, b.place(p));
+      const expected = b.place([-p[0], p[1], p[2]]);
+      expect(Math.hypot(image[0] - expected[0], image[1] - expected[1], image[2] - expected[2])).toBeLessThan(1e-6);
+    }
   });
 
   it('with UVs stripped and no landmarks, by bounding boxes, when the file is only scaled and moved', () => {

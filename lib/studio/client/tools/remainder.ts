@@ -11,6 +11,7 @@ export const remainderTool = clickTool(
     if (budget && piece < 0) return { notice: 'That point is on a parting or crest; click beside it.', then: 'remainder' };
     const remainder = budget?.pieces[piece]?.remainder ?? null;
     if (remainder === null || remainder === 0) return { notice: 'Nothing remains to be placed on this piece of the surface.', then: 'look' };
-    return { ...placeSingularity(hit, remainder), then: 'look' };
+    // The remainder balances the budget: mirrored, it would unbalance it again.
+    return { ...placeSingularity(hit, remainder, true), then: 'look' };
   },
 );

@@ -4,7 +4,10 @@ import { addSingularity } from '../spec-edits';
 import type { ClickResult } from './clicks';
 import type { SurfaceHit } from './tool';
 
-/** The click that adds a singularity of an index at the vertex under the pointer. */
-export function placeSingularity(hit: SurfaceHit, index: number): ClickResult {
-  return { changes: [{ type: 'apply', edit: addSingularity(hit.vertexPoint, index) }] };
+/**
+ * The click that adds a singularity of an index at the vertex under the pointer; `alone` keeps it
+ * on this side only with twin sides on (the budget's remainder).
+ */
+export function placeSingularity(hit: SurfaceHit, index: number, alone = false): ClickResult {
+  return { changes: [{ type: 'apply', edit: addSingularity(hit.vertexPoint, index, alone) }] };
 }

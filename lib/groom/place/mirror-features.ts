@@ -1,0 +1,142 @@
+import { vertexOfPlace } from './place';
+import { mirrorCurvePoints, mirrorDirection, mirrorPinPoint, mirrorPoint, mirrorSingularityPoint, mirrorStroke, planeDistance, type MirrorPlane } from '../spec/symmetry';
+import type { CurveSpec, GroomSpec, PinSpec, PlaceSpec, SingularitySpec, StrokeSpec } from '../spec/spec';
+import type { GroomSurface } from './surface';
+
+/**
+ * A spec's features mirrored across a plane. A mirrored feature is always written by its points
+ * (a `vertex` place becomes the point of that vertex, mirrored) and without `surface` positions:
+ * the mirror names no polygon of the file until it is next carried (`withSurfacePositions`).
+ *
+ * The twist. `twist` with `handedness` is one signed angle o (counterclockwise seen from outside
+ * positive): the field's angle from the direction pointing out of the singular vertex into its
+ * first face. A mirror reverses every turning seen from outside, so a whorl's o becomes −o: the
+ * same `twist`, the other `handedness` (a clockwise spiral becomes an anticlockwise one; outflow 0
+ * and inflow 180 stay what they are). For an index k other than 1 the angle to the outward
+ * direction itself turns by (k − 1) times the way round the vertex, and the mirror vertex's first
+ * face need not be the image of the first face, so o' = −(o + (k − 1) Δ), Δ the angle (about the
+ * vertex normal) from the first face's outward direction to the image of the mirror's first face's.
+ */
+
+const DEGREES = 180 / Math.PI;
+
+/** The point a place names (a vertex's own position for `vertex` places). */
+export function pointOfPlace(surface: GroomSurface, place: PlaceSpec, path: string): [number, number, number] {
+  if (place.point) return [place.point[0], place.point[1], place.point[2]];
+  const v = vertexOfPlace(surface, place, path);
+  const p = surface.mesh.positions;
+  return [p[3 * v], p[3 * v + 1], p[3 * v + 2]];
+}
+
+/**
+ * Whether a place lies on the plane as far as the surface can tell: its mirror image snaps to the
+ * vertex it snaps to itself. Such places are not doubled.
+ */
+export function isOnPlane(surface: GroomSurface, plane: MirrorPlane, place: PlaceSpec, path = 'place'): boolean {
+  const point = pointOfPlace(surface, place, path);
+  return vertexOfPlace(surface, { point }, path) === vertexOfPlace(surface, { point: mirrorPoint(plane, point) }, path);
+}
+
+/** Direction from vertex v into its first face (the face the field's twist is fixed in). */
+function outwardOfFirstFace(surface: GroomSurface, v: number): [number, number, number] {
+  const t = surface.field.topology;
+  const f = (t.vertexHalfedge[v] / 3) | 0;
+  const p = surface.mesh.positions, tri = t.triangles;
+  const out: [number, number, number] = [0, 0, 0];
+  for (let k = 0; k < 3; k++) out[k] = (p[3 * tri[3 * f] + k] + p[3 * tri[3 * f + 1] + k] + p[3 * tri[3 * f + 2] + k]) / 3 - p[3 * v + k];
+  return out;
+}
+
+/** Signed angle from a to b about the unit normal n (counterclockwise seen from the normal's side), both projected into n's plane. */
+function angleAbout(n: ArrayLike<number>, a: readonly number[], b: readonly number[]): number {
+  const dot = (u: readonly number[], w: ArrayLike<number>) => u[0] * w[0] + u[1] * w[1] + u[2] * w[2];
+  const da = dot(a, n), db = dot(b, n);
+  const pa = [a[0] - da * n[0], a[1] - da * n[1], a[2] - da * n[2]];
+  const pb = [b[0] - db * n[0], b[1] - db * n[1], b[2] - db * n[2]];
+  const cross = [pa[1] * pb[2] - pa[2] * pb[1], pa[2] * pb[0] - pa[0] * pb[2], pa[0] * pb[1] - pa[1] * pb[0]];
+  return Math.atan2(dot(cross, n), dot(pa, pb));
+}
+
+export { mirrorStroke };
+
+/**
+ * The mirror image of a singularity: its point mirrored, its index kept (a reflection keeps every
+ * index), its twist reversed as stated above.
+ */
+export function mirrorSingularity(surface: GroomSurface, plane: MirrorPlane, s: SingularitySpec, path = 'singularity'): SingularitySpec {
+  const mirrored = mirrorSingularityPoint(plane, { ...s, vertex: undefined, point: pointOfPlace(surface, s, path) })!;
+  const point = mirrored.point!;
+  if (s.twist === undefined || s.index === 1) return mirrored;
+  const turn = s.handedness === 'clockwise' ? -1 : 1;
+  let o = (turn * s.twist) / DEGREES;
+  const v = vertexOfPlace(surface, s, path);
+  const w = vertexOfPlace(surface, { point }, path);
+  const n = surface.vertexNormal.subarray(3 * v, 3 * v + 3);
+  o += (s.index - 1) * angleAbout(n, outwardOfFirstFace(surface, v), mirrorDirection(plane, outwardOfFirstFace(surface, w)));
+  const reversed = Math.atan2(Math.sin(-o), Math.cos(-o));
+  const twist = Math.min(180, Math.abs(reversed) * DEGREES);
+  return { ...mirrored, twist, handedness: reversed < 0 ? 'clockwise' : 'counterclockwise' };
+}
+
+/** The mirror image of a pin: its point mirrored, attribute and value kept. */
+export function mirrorPin(surface: GroomSurface, plane: MirrorPlane, pin: PinSpec, path = 'pin'): PinSpec {
+  return mirrorPinPoint(plane, { ...pin, vertex: undefined, point: pointOfPlace(surface, pin, path) })!;
+}
+
+function curvePoints(surface: GroomSurface, curve: CurveSpec, path: string): [number, number, number][] {
+  return curve.points ? curve.points.map((p) => [p[0], p[1], p[2]]) : curve.vertices!.map((vertex, i) => pointOfPlace(surface, { vertex }, `${path}.vertices[${i}]`));
+}
+
+/** The mirror image of a parting or crest, point by point. */
+export function mirrorCurve(surface: GroomSurface, plane: MirrorPlane, curve: CurveSpec, path = 'curve'): CurveSpec {
+  return mirrorCurvePoints(plane, { points: curvePoints(surface, curve, path), closed: curve.closed })!;
+}
+
+/** Whether every point of a polyline lies on the plane (its mirror snaps to the same vertex). */
+function polylineOnPlane(surface: GroomSurface, plane: MirrorPlane, points: readonly (readonly number[])[], path: string): boolean {
+  return points.every((point) => isOnPlane(surface, plane, { point: [point[0], point[1], point[2]] }, path));
+}
+
+/**
+ * The spec made symmetric from one side: every feature on the plane's positive side (a curve or
+ * stroke by its first point) is kept and gains its mirror image; every feature on the plane itself
+ * (see `isOnPlane`; a curve or stroke when all its points are) is kept once; features on the
+ * negative side are dropped, their place taken by the mirrors. Mirrors follow the originals in
+ * each list. Nothing else of the spec changes (growing does not depend on `symmetry`).
+ *
+ * Guarantees: the result's negative-side features are exactly the mirror images of its positive
+ * side's; a GroomError names the path of a place the surface cannot hold.
+ */
+export function mirrorSpecFeatures(spec: GroomSpec, surface: GroomSurface, plane: MirrorPlane): GroomSpec {
+  const side = (point: readonly number[]) => planeDistance(plane, point);
+  const field = spec.field;
+  const singularities: SingularitySpec[] = [];
+  field.singularities.forEach((s, i) => {
+    const path = `field.singularities[${i}]`;
+    if (isOnPlane(surface, plane, s, path)) singularities.push(s);
+    else if (side(pointOfPlace(surface, s, path)) > 0) singularities.push(s, mirrorSingularity(surface, plane, s, path));
+  });
+  const pins: PinSpec[] = [];
+  spec.pins.forEach((pin, i) => {
+    const path = `pins[${i}]`;
+    if (isOnPlane(surface, plane, pin, path)) pins.push(pin);
+    else if (side(pointOfPlace(surface, pin, path)) > 0) pins.push(pin, mirrorPin(surface, plane, pin, path));
+  });
+  const curves = (list: readonly CurveSpec[], name: string) => {
+    const kept: CurveSpec[] = [];
+    list.forEach((curve, i) => {
+      const path = `field.${name}[${i}]`;
+      const points = curvePoints(surface, curve, path);
+      if (polylineOnPlane(surface, plane, points, path)) kept.push(curve);
+      else if (side(points[0]) > 0) kept.push(curve, mirrorCurve(surface, plane, curve, path));
+    });
+    return kept;
+  };
+  const strokes: StrokeSpec[] = [];
+  field.strokes.forEach((stroke, i) => {
+    const path = `field.strokes[${i}]`;
+    if (polylineOnPlane(surface, plane, stroke.points, path)) strokes.push(stroke);
+    else if (side(stroke.points[0]) > 0) strokes.push(stroke, mirrorStroke(plane, stroke));
+  });
+  return { ...spec, field: { ...field, singularities, partings: curves(field.partings, 'partings'), crests: curves(field.crests, 'crests'), strokes }, pins };
+}
