@@ -1,7 +1,7 @@
 /**
  * Benchmark of lib/groom on a 100,000-face growth surface (a torus, 400 × 125 quads split in two):
  * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, 50,000 with two
- * levels of tufts, loners and waver (spec version 3), each export (the
+ * levels of tufts, loners and waver (spec version 3), 50,000 with a painted density and length map, each export (the
  * guide formats also with the surface beside them), and a 1024² thumbnail (render, then encoding).
  *
  *   npx tsx bench/groom.ts            prints a Markdown table
@@ -25,6 +25,7 @@ import {
   writeExport,
   type ExportSource,
   type GroomSpecInput,
+  encodeMap,
 } from '../lib/groom';
 import { best } from './best-of';
 
@@ -92,6 +93,21 @@ for (const count of [5_000, 50_000]) {
   row(`${what}: tracing (guides and centre curves)`, t.traceMilliseconds);
   row(`${what}: tuft centres (sampling, shaping their curves, assigning guides)`, t.tuftsMilliseconds);
   row(`${what}: shaping, gathering, waver and skin check`, t.shapeMilliseconds);
+  row(`${what}: total`, grown.ms);
+}
+{
+  // Painted maps: density from 0.5× to 2.5× round the tube (by x), length from 0.5× to 1.5× (by z).
+  const p = mesh.positions, nV = p.length / 3;
+  const density = Float64Array.from({ length: nV }, (_x, v) => 1.5 + p[3 * v] / 42);
+  const length = Float64Array.from({ length: nV }, (_x, v) => 1 + p[3 * v + 2] / 24);
+  const maps = [encodeMap('density', density, mesh), encodeMap('length', length, mesh)];
+  const spec = parseGroomSpec({ ...specFor(50_000), maps });
+  const grown = best(() => growGuides(surface, solved.result, spec));
+  const t = grown.result.timings;
+  const what = `50000 guides × 16 with a density and a length map (${nV} vertices, 16 bits)`;
+  row(`${what}: roots (decoding the maps included)`, t.rootsMilliseconds);
+  row(`${what}: tracing`, t.traceMilliseconds);
+  row(`${what}: shaping and skin check`, t.shapeMilliseconds);
   row(`${what}: total`, grown.ms);
 }
 const finish = () => {

@@ -4,6 +4,7 @@
  *
  *   whorlwind-groom --surface head.obj --spec coat.json --out guides.usda [--out guides.glb]
  *                   [--with-surface] [--field flow.ply] [--thumbnail front.webp] [--stats]
+ *                   [--map length=hair-length.png[@low,high] …]
  *   whorlwind-groom --surface head.obj --suggest [--order 4] [--spec base.json] --out suggestion.json
  *                   [--suggest-down x,y,z] [--suggest-follow-curvature] [--suggest-weight 1]
  *
@@ -24,7 +25,10 @@
  * .gltf, .glb, .obj, .json (the resolved spec). Guides always carry where they grow (ids, source
  * polygons, weights, UVs); --with-surface also writes the growth surface into the .usda, .gltf,
  * .glb and .obj files. --thumbnail writes .png or .webp (--view, --size,
- * --colour). Exits 0 on success; on bad input prints one line "whorlwind-groom: <reason>" to
+ * --colour). --map ATTRIBUTE=IMAGE paints a map (density, length, width, lift, droop, curl, jitter,
+ * waver, gather) from a PNG or TIFF (8 or 16 bits) through the surface's UVs: black is 0×, white
+ * 1× the spec's value, or low× to high× with @low,high; it replaces the spec's map of that
+ * attribute. Exits 0 on success; on bad input prints one line "whorlwind-groom: <reason>" to
  * stderr and exits 1 (2 for a bad command line). Uses the same library code as the app.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
@@ -32,10 +36,14 @@ import { extname } from 'node:path';
 import { parseArgs } from 'node:util';
 import { FieldError, readSurface, solveField, type SuggestedLayout } from '../lib/field';
 import { encodeImage } from '../lib/groom/render/encode-image';
+import { readImageMap } from '../lib/groom/render/image-map';
 import {
   EXPORT_EXTENSIONS,
   EXPORT_FORMAT_FACTS,
   GroomError,
+  MAP_ATTRIBUTES,
+  encodeMap,
+  type MapAttribute,
   fieldRequestFromSpec,
   formatOfExtension,
   growGuides,
@@ -101,6 +109,7 @@ function parseCommandLine(argv: string[]) {
       method: { type: 'string', default: 'auto' },
       landmarks: { type: 'string' },
       'region-map': { type: 'string', multiple: true },
+      map: { type: 'string', multiple: true },
       units: { type: 'string' },
       up: { type: 'string' },
       reach: { type: 'string' },
@@ -142,6 +151,7 @@ function parseCommandLine(argv: string[]) {
     if (!from || !to || rest.length > 0) throw new UsageError(`--region-map ${pair}: write it as old=new`);
     regionMap[from] = to;
   }
+  const maps = (values.map ?? []).map(parseMapOption);
   if (values.report && extname(values.report).toLowerCase() !== '.json') throw new UsageError(`--report ${values.report}: the report is written as .json`);
   return {
     from: values.from,
@@ -149,6 +159,7 @@ function parseCommandLine(argv: string[]) {
     method: values.method as 'auto' | TransferMethod,
     landmarks: values.landmarks,
     regionMap,
+    maps,
     units: values.units as Unit | undefined,
     up: values.up as 'y' | 'z' | undefined,
     reach,
@@ -165,6 +176,22 @@ function parseCommandLine(argv: string[]) {
     stats: values.stats ?? false,
     suggest,
   };
+}
+
+/** `attribute=image.png` or `attribute=image.png@low,high`. */
+function parseMapOption(text: string): { attribute: MapAttribute; path: string; low: number; high: number } {
+  const equals = text.indexOf('=');
+  const attribute = text.slice(0, equals) as MapAttribute;
+  if (equals < 0 || !MAP_ATTRIBUTES.includes(attribute)) throw new UsageError(`--map ${text}: write it as attribute=image.png, the attribute one of ${MAP_ATTRIBUTES.join(', ')}`);
+  let path = text.slice(equals + 1), low = 0, high = 1;
+  const range = /@([0-9.]+),([0-9.]+)$/.exec(path);
+  if (range) {
+    [low, high] = [Number(range[1]), Number(range[2])];
+    path = path.slice(0, range.index);
+    if (!(low >= 0 && high <= 10 && low <= high)) throw new UsageError(`--map ${text}: the range @low,high must run upward within 0 to 10`);
+  }
+  if (!path) throw new UsageError(`--map ${text}: name the image after the =`);
+  return { attribute, path, low, high };
 }
 
 function suggestOptions(values: { order?: string; units?: string; 'suggest-down'?: string; 'suggest-follow-curvature'?: boolean; 'suggest-weight'?: string }) {
@@ -223,6 +250,11 @@ async function main(argv: string[]): Promise<void> {
   }
   let rootsFrom: ReturnType<typeof readSurface>['mesh'] | undefined;
   if (options.from) ({ spec, rootsFrom } = carryOver(spec, options, surface, read.mesh, time));
+  for (const map of options.maps) {
+    const values = await readImageMap(readInput(map.path, 'map image'), read.mesh, { low: map.low, high: map.high });
+    const encoded = encodeMap(map.attribute, values, read.mesh);
+    spec = { ...spec, maps: [...(spec.maps ?? []).filter((m) => m.attribute !== map.attribute), encoded] };
+  }
   const request = time('place features', () => fieldRequestFromSpec(spec, surface));
   const solved = time('solve field', () => solveField(surface.field, request));
   const needsGuides = options.out.some((out) => extname(out).toLowerCase() !== '.json') || options.thumbnails.length > 0 || options.stats;

@@ -11,6 +11,7 @@ export {
   UNITS,
   CENTIMETRES_PER_UNIT,
   PIN_ATTRIBUTES,
+  MAP_ATTRIBUTES,
   parseGroomSpec,
   parseGroomSpecJson,
   validateGroomSpec,
@@ -26,6 +27,8 @@ export {
   type CurveSpec,
   type StrokeSpec,
   type PinSpec,
+  type MapSpec,
+  type MapAttribute,
   type SymmetrySpec,
   type PlaceSpec,
   type SurfacePosition,
@@ -40,6 +43,7 @@ export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
 export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
 export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './place/suggest';
 export { blendPins, blendValues, type PinnedFactors } from './place/pins';
+export { surfaceSignature, encodeMap, decodeMap, attributeFactors, type AttributeFactors } from './place/maps';
 export { geodesicDistances, vertexFaces, type VertexFaces } from './place/geodesic';
 export { growthMask } from './place/regions';
 export {
@@ -87,3 +91,4 @@ export {
 } from './transfer/transfer';
 export { transferReportText } from './transfer/report-text';
 export { withSurfacePositions } from './transfer/features';
+export { carryMaps, type MapTransfer } from './transfer/maps';

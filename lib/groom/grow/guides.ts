@@ -1,6 +1,7 @@
 import { now, type SolvedField, type TriangleMesh } from '../../field';
 import { GroomError } from '../errors';
-import { blendPins, type PinnedFactors } from '../place/pins';
+import { blendPins } from '../place/pins';
+import { attributeFactors, type AttributeFactors } from '../place/maps';
 import { guideRandom } from './random';
 import { growthMask } from '../place/regions';
 import { downOf } from '../place/request';
@@ -140,7 +141,8 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   const tri = mesh.triangles;
   const t0 = now();
   const mask = growthMask(mesh, settings.regions);
-  const pins: PinnedFactors = blendPins(spec, surface);
+  // Each attribute's factor per vertex: its painted map times its pins' blend (place/maps.ts).
+  const pins: AttributeFactors = attributeFactors(spec, mesh, blendPins(spec, surface));
   const cm2PerUnit2 = CENTIMETRES_PER_UNIT[spec.units] ** 2;
   let area = 0;
   for (let f = 0; f < tri.length / 3; f++) {
@@ -260,6 +262,7 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   // One shaping record of each kind, reused guide after guide (only the curve number changes).
   const gatherTo = tufting ? { curves: tufting.curves, curve: -1, gather: tufting.gather } : undefined;
   const waverParams = waverSettings && knots ? { amplitude: waverSettings.amplitude, waves: waverSettings.waves, knots } : undefined;
+  const planGather = tufting?.gather;
   const gathered: Shaping = { gatherTo }, wandered: Shaping = { waver: waverParams }, both: Shaping = { gatherTo, waver: waverParams };
   const rootWidth = new Float64Array(count);
   const tipWidth = new Float64Array(count);
@@ -275,6 +278,13 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
     if (gatherTo) gatherTo.curve = drawnOnto;
     // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation.
     if (knots) for (let k = 0; k < knots.length; k++) knots[k] = 2 * guideRandom(settings.seed, g, WAVER_CHANNEL + k) - 1;
+    // Painted gather and waver scale the spec's at the root (the shares capped at 1); without a map the records stay as they are.
+    weights.set(bary);
+    if (gatherTo && planGather && pins.gather) {
+      const f = factor(pins.gather, f0);
+      gatherTo.gather = { root: Math.min(1, planGather.root * f), tip: Math.min(1, planGather.tip * f), rise: planGather.rise };
+    }
+    if (waverParams && waverSettings && pins.waver) waverParams.amplitude = waverSettings.amplitude * factor(pins.waver, f0);
     const shaping = drawnOnto >= 0 ? (waverParams ? both : gathered) : waverParams ? wandered : undefined;
     growCurve(points, g, f0, roots.position.subarray(3 * g, 3 * g + 3), bary, settings.seed, g, shaping);
     stop[g] = tracer.end.reason;

@@ -1,5 +1,8 @@
 import { z } from 'zod';
 import { GroomError } from '../errors';
+import { mapSchema } from './maps';
+
+export { MAP_ATTRIBUTES, type MapAttribute } from './maps';
 
 /**
  * The groom spec: every decision of a groom in one versioned JSON document, so that the same spec
@@ -18,6 +21,7 @@ export const CENTIMETRES_PER_UNIT: Readonly<Record<Unit, number>> = { mm: 0.1, c
 
 export const PIN_ATTRIBUTES = ['length', 'lift', 'droop', 'curl', 'jitter', 'density', 'width'] as const;
 export type PinAttribute = (typeof PIN_ATTRIBUTES)[number];
+
 
 const vec3 = z.tuple([z.number(), z.number(), z.number()]);
 const fileVertex = z.int().min(0).max(2 ** 32 - 2);
@@ -224,9 +228,15 @@ const specSchemaV3 = z
     field: fieldSchemaV2,
     guides: guidesSchemaV3.prefault({}),
     pins: z.array(pinSchema).max(1024).default([]),
+    maps: z.array(mapSchema).max(64).optional(),
     symmetry: symmetrySchema.optional(),
   })
   .superRefine((spec, ctx) => {
+    spec.maps?.forEach((map, i) => {
+      if (spec.maps!.findIndex((other) => other.attribute === map.attribute) < i) {
+        ctx.addIssue({ code: 'custom', path: ['maps', i, 'attribute'], message: `a map of "${map.attribute}" is already given; one map per attribute` });
+      }
+    });
     const order = spec.field.order;
     spec.field.singularities.forEach((s, i) => {
       if (Math.abs(s.index * order - Math.round(s.index * order)) > 1e-9) {
@@ -272,6 +282,7 @@ export type SingularitySpec = GroomSpec['field']['singularities'][number];
 export type CurveSpec = GroomSpec['field']['partings'][number];
 export type StrokeSpec = GroomSpec['field']['strokes'][number];
 export type PinSpec = GroomSpec['pins'][number];
+export type MapSpec = NonNullable<GroomSpec['maps']>[number];
 /** The spec's mirror plane (see `symmetrySchema`). */
 export type SymmetrySpec = NonNullable<GroomSpec['symmetry']>;
 export type GuideSettings = GroomSpec['guides'];

@@ -25,6 +25,12 @@ export function transferReportText(report: TransferReport): string {
     `features    ${carried.length} of ${report.features.length} carried; moved at most ${percent(largest)} of the new surface's size`,
     ...report.features.map((f) => `  ${f.path.padEnd(32)} ${f.kind.padEnd(13)} ${f.to ? `→ ${point(f.to)}  moved ${percent(f.moved!)}` : 'not carried'}`),
   ];
+  if (report.maps?.length) {
+    lines.push(`maps        ${report.maps.length} carried`);
+    for (const m of report.maps) {
+      lines.push(`  ${m.path.padEnd(32)} ${m.attribute.padEnd(13)} ${m.how === 'polygon' ? 'by polygon, unchanged' : `by the nearest point of the old surface facing the same way (farthest ${percent(m.farthest!)} of the new surface's size${m.unchecked ? `; ${m.unchecked} vertices found none facing their way and took the nearest` : ''})`}`);
+    }
+  }
   if (report.notCarried.length > 0) {
     lines.push('not carried');
     for (const n of report.notCarried) lines.push(`  ${n.path}: ${n.reason}`);

@@ -11,6 +11,7 @@ import { anchorFeatures, placeFeatures, type AnchoredFeature, type FeatureKind, 
 import { barycentricOnFace, pointOfPosition, positionOnFace, sameTopology, type SurfaceIdentity } from './identity';
 import { buildNormalProbe } from './ray';
 import { buildUvLocator } from './uv-locate';
+import { carryMaps, type MapTransfer } from './maps';
 
 /**
  * Moving a groom spec onto another surface — a new sculpt pass, a retopology, another character —
@@ -72,6 +73,8 @@ export interface TransferReport {
   readonly budget: readonly { readonly piece: number; readonly demanded: number | null; readonly placed: number; readonly remainder: number | null }[];
   /** Whether the field solves on the new surface with exactly the carried singularities. */
   readonly field: { readonly solved: true } | { readonly solved: false; readonly code: string; readonly message: string };
+  /** The painted maps carried, each once, and how (present when the spec has maps). */
+  readonly maps?: readonly MapTransfer[];
 }
 
 export interface TransferResult {
@@ -201,6 +204,8 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   });
   const keptRegions = regions.flatMap((r) => (r.to ? [r.to] : []));
 
+  // Maps are factors, so they need no unit conversion; only where each new vertex reads them.
+  const carried = spec.maps?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale) : undefined;
   const perUnit = CENTIMETRES_PER_UNIT[fromUnits] / CENTIMETRES_PER_UNIT[toUnits];
   const g = spec.guides;
   const direction = spec.field.referenceDirection ? alignDirection(alignment, spec.field.referenceDirection) : undefined;
@@ -209,6 +214,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     units: toUnits,
     upAxis: toUp,
     field: { ...placed.spec.field, ...(direction ? { referenceDirection: direction } : {}) },
+    ...(carried ? { maps: carried.maps } : {}),
     ...(spec.symmetry ? { symmetry: carriedSymmetry(spec.symmetry, alignment) } : {}),
     guides: {
       ...g,
@@ -233,7 +239,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   }
   return {
     spec: newSpec,
-    report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field },
+    report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field, ...(carried ? { maps: carried.report } : {}) },
     ...(solved ? { solved } : {}),
   };
 }

@@ -1,0 +1,114 @@
+import { decodeMap, encodeMap } from '../place/maps';
+import { SKIN_QUERY_SIZE } from '../place/skin';
+import type { GroomSurface } from '../place/surface';
+import type { GroomSpec, MapAttribute, MapSpec } from '../spec/spec';
+import type { Alignment } from './align';
+import { barycentricOnFace, type SurfaceIdentity } from './identity';
+import { buildNormalProbe, type NormalProbe } from './ray';
+
+/** How one painted map reached the new surface. */
+export interface MapTransfer {
+  readonly path: string;
+  readonly attribute: MapAttribute;
+  /** `polygon`: each vertex's value read at the same polygon corner (same topology), unchanged; `closest point`: interpolated where the alignment puts the vertex. */
+  readonly how: 'polygon' | 'closest point';
+  /** For `closest point`: the farthest a new vertex lay from the old surface, over the new surface's diagonal. */
+  readonly farthest?: number;
+  /** For `closest point`: new vertices that found no old surface facing their way within reach, and took the nearest point whatever its side. */
+  readonly unchecked?: number;
+}
+
+interface Side {
+  readonly surface: GroomSurface;
+  readonly identity: SurfaceIdentity;
+}
+
+/**
+ * Carries every painted map of a spec from the old surface onto the new one: on the same
+ * topology (`samePolygons`), each new vertex takes the value of the old vertex at the same polygon
+ * corner; otherwise each new vertex is laid back into the old space (the inverse of `alignment`,
+ * the one the features were carried by) and takes the value interpolated barycentrically at the
+ * nearest point of the old surface that faces its way (its normal turned back likewise): the
+ * nearest point when it does, else the nearest face facing that way along the normal within
+ * `reach` (old units), else — counted in `unchecked` — the nearest point whatever its side.
+ *
+ * Guarantees: by polygon every value is the old one and the map is written with the same bits,
+ * low and high, so it decodes to the very same values; every map is carried (a map always finds
+ * a nearest point) and appears once in the returned list; a map that was not painted on the old
+ * surface is refused as `decodeMap` says (GroomError `map-surface-mismatch`). The side check is
+ * what keeps a vertex on one side of a thin gap (lips, an ear's two sheets) from reading the other
+ * sheet's value.
+ */
+export function carryMaps(spec: GroomSpec, from: Side, to: Side, samePolygons: boolean, alignment: Alignment, reach: number): { maps: MapSpec[]; report: MapTransfer[] } {
+  const maps: MapSpec[] = [];
+  const report: MapTransfer[] = [];
+  const toMesh = to.surface.mesh;
+  const nV = toMesh.positions.length / 3;
+  // Where each new vertex reads the old map: an old vertex (by polygon) or a face and weights.
+  let readAt: ((old: Float64Array) => Float64Array) | undefined;
+  let farthest = 0, unchecked = 0;
+  for (const [i, map] of (spec.maps ?? []).entries()) {
+    const path = `maps[${i}]`;
+    const old = decodeMap(map, from.surface.mesh, path);
+    if (!readAt) ({ readAt, farthest, unchecked } = samePolygons ? byPolygon(from.identity, to.identity, nV) : byClosestPoint(from.surface, to.surface, alignment, reach));
+    const values = readAt(old);
+    if (samePolygons) {
+      // Same values coded between the same low and high: the very codes, so the map decodes identically.
+      maps.push(encodeMap(map.attribute, values, toMesh, map.bits, { low: map.low, high: map.high }));
+      report.push({ path, attribute: map.attribute, how: 'polygon' });
+    } else {
+      maps.push(encodeMap(map.attribute, values, toMesh, map.bits));
+      report.push({ path, attribute: map.attribute, how: 'closest point', farthest: farthest / to.surface.diagonal, unchecked });
+    }
+  }
+  return { maps, report };
+}
+
+/** Each new vertex's old vertex: the old welded vertex at the first polygon corner that uses it. */
+function byPolygon(from: SurfaceIdentity, to: SurfaceIdentity, nV: number) {
+  const source = new Int32Array(nV).fill(-1);
+  for (let k = 0; k < to.cornerVertex.length; k++) if (source[to.cornerVertex[k]] < 0) source[to.cornerVertex[k]] = from.cornerVertex[k];
+  // A vertex on no polygon weighs on nothing; it keeps the factor 1.
+  return { readAt: (old: Float64Array) => Float64Array.from(source, (v) => (v >= 0 ? old[v] : 1)), farthest: 0, unchecked: 0 };
+}
+
+/** Each new vertex laid into the old space by the inverse alignment, and the nearest old point's face and weights. */
+function byClosestPoint(from: GroomSurface, to: GroomSurface, a: Alignment, reach: number) {
+  const q = to.mesh.positions, nV = q.length / 3;
+  const face = new Uint32Array(nV), weights = new Float64Array(3 * nV);
+  const query = new Float64Array(SKIN_QUERY_SIZE);
+  const r = a.rotation;
+  const turnBack = (d: readonly number[]) => [r[0] * d[0] + r[3] * d[1] + r[6] * d[2], r[1] * d[0] + r[4] * d[1] + r[7] * d[2], r[2] * d[0] + r[5] * d[1] + r[8] * d[2]];
+  const normal = to.vertexNormal;
+  let probe: NormalProbe | undefined;
+  let farthest = 0, unchecked = 0;
+  for (let v = 0; v < nV; v++) {
+    // x_old = Rᵀ (x_new − t) / s, R being a rotation; the normal turned back by Rᵀ alone.
+    const [x, y, z] = turnBack([0, 1, 2].map((k) => (q[3 * v + k] - a.translation[k]) / a.scale));
+    const n = turnBack([normal[3 * v], normal[3 * v + 1], normal[3 * v + 2]]);
+    from.skin.closest(x, y, z, Infinity, query, v > 0 ? face[v - 1] : undefined);
+    let point: [number, number, number] = [query[0], query[1], query[2]];
+    face[v] = query[7];
+    if (query[3] * n[0] + query[4] * n[1] + query[5] * n[2] <= 0) {
+      probe ??= buildNormalProbe(from.mesh);
+      const hit = probe.along([x, y, z], n, reach);
+      if (hit) {
+        point = hit.point;
+        face[v] = hit.face;
+      } else unchecked++;
+    }
+    weights.set(barycentricOnFace(from.mesh, face[v], point), 3 * v);
+    farthest = Math.max(farthest, Math.hypot(point[0] - x, point[1] - y, point[2] - z) * a.scale);
+  }
+  const tri = from.mesh.triangles;
+  return {
+    readAt: (old: Float64Array) =>
+      Float64Array.from({ length: nV }, (_x, v) => {
+        const f = face[v];
+        const value = weights[3 * v] * old[tri[3 * f]] + weights[3 * v + 1] * old[tri[3 * f + 1]] + weights[3 * v + 2] * old[tri[3 * f + 2]];
+        return Math.min(10, Math.max(0, value));
+      }),
+    farthest,
+    unchecked,
+  };
+}
