@@ -96,6 +96,13 @@ export const JSON_BODY_LIMIT = 1_000_000;
  * carry one object each and are a few kB. Common practice, no standard.
  */
 export const WEBHOOK_BODY_LIMIT = 1_000_000;
+/**
+ * Most bytes of a groom spec saved by the studio: 40 MB. A spec carries its painted maps (lib/groom
+ * spec/maps.ts): nine 16-bit maps on the largest surface allowed (2,000,000 faces, about 1,000,000
+ * vertices: 2.7 MB of base64 each) and the rest of the spec fit with room to spare. Worked out
+ * from our own limits; no standard.
+ */
+export const SPEC_BODY_LIMIT = 40_000_000;
 
 function bodyTooLarge(limit: number): HttpError {
   return new HttpError(413, 'too-large', `The request body is larger than ${limit / 1_000_000} MB, the most this address accepts.`);
@@ -128,12 +135,13 @@ export async function readLimitedText(request: Request, limit = JSON_BODY_LIMIT)
 }
 
 /**
- * The JSON body (at most JSON_BODY_LIMIT bytes, else 413 too-large), validated with the schema
+ * The JSON body (at most `limit` bytes, JSON_BODY_LIMIT unless the route says otherwise; else 413
+ * too-large), validated with the schema
  * (400 invalid-input when it is not JSON, or with a message per field). An empty body counts as
  * `{}`, for calls whose fields are all optional.
  */
-export async function readBody<Schema extends z.ZodType>(request: Request, schema: Schema): Promise<z.infer<Schema>> {
-  const raw = await readLimitedText(request, JSON_BODY_LIMIT);
+export async function readBody<Schema extends z.ZodType>(request: Request, schema: Schema, limit = JSON_BODY_LIMIT): Promise<z.infer<Schema>> {
+  const raw = await readLimitedText(request, limit);
   let body: unknown = {};
   if (raw.trim() !== '') {
     try {
