@@ -22,6 +22,8 @@ export {
   type GroomSpec,
   type GroomSpecInput,
   type GuideSettings,
+  type GuideSetSpec,
+  type GuideSetRegion,
   type SingularitySpec,
   type CurveSpec,
   type StrokeSpec,
@@ -36,12 +38,14 @@ export { HUMAN_SCALP_PRESET } from './spec/presets';
 export { prepareGroomSurface, type GroomSurface } from './place/surface';
 export { buildSkin, SKIN_QUERY_SIZE, type Skin } from './place/skin';
 export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
-export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
+export { fieldRequestFromSpec, solveGroomField, downOf, curveVertices } from './place/request';
 export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './place/suggest';
 export { blendPins, blendValues, type PinnedFactors } from './place/pins';
 export { geodesicDistances, vertexFaces, type VertexFaces } from './place/geodesic';
 export { growthMask } from './place/regions';
+export { setRegionMask } from './place/set-region';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
+export { growGuideSets, type GuideSetRange } from './grow/guide-sets';
 export { coatFacts, type CoatFacts } from './grow/coat-facts';
 export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';
 export { bindRoots, rootsOnSculpt, type RootBinding } from './grow/binding';

@@ -1,0 +1,110 @@
+import { now } from '../../field';
+import { GroomError } from '../errors';
+import { setRegionMask } from '../place/set-region';
+import { MAX_GUIDE_POINTS, guidePointsProblem, type GroomSpec, type GuideSettings } from '../spec/spec';
+import type { GroomSurface } from '../place/surface';
+import { bindRoots } from './binding';
+import type { GrowOptions, GrowResult, Guides } from './grown';
+
+export type { GuideSetRange } from './grown';
+
+/** Grows one block of settings on a mask of faces; `at` is its spec path, `started` when the set's work began. */
+export type GrowSet = (settings: GuideSettings, mask: Uint8Array, at: string, options: GrowOptions, started: number) => GrowResult;
+
+/**
+ * Grows each of the spec's guide sets on its own region with its own settings and puts them
+ * together, set after set.
+ *
+ * Guarantees: each set's guides are exactly those its settings grow alone on its region (its
+ * roots, ids, points and widths depend on nothing in another set, so changing one set never
+ * changes another's guides); `guides.sets` and `guides.guideSet` say which set each guide is in;
+ * tuft numbers are made unique across the groom (a set's count on from the sets before it); the
+ * whole groom keeps the points budget (GroomError `too-many-guides` naming the first set that takes
+ * it over; each set alone is checked before it grows). With `sampleOf`, each set grows at most its share (sampleOf ÷ sets).
+ */
+export function growGuideSets(surface: GroomSurface, spec: GroomSpec, options: GrowOptions, t0: number, growSet: GrowSet): GrowResult {
+  const sets = spec.guideSets!;
+  const grown: GrowResult[] = [];
+  let total = 0;
+  let started = t0;
+  sets.forEach((set, i) => {
+    const at = `guideSets[${i}]`;
+    const mask = setRegionMask(surface, spec, set.region, `${at}.region`);
+    const setOptions = options.sampleOf !== undefined ? { ...options, sampleOf: Math.max(1, Math.floor(options.sampleOf / sets.length)) } : options;
+    const result = growSet(set.guides, mask, `${at}.guides`, setOptions, started);
+    started = now();
+    total += result.guides.count;
+    if (total * set.guides.pointsPerGuide > MAX_GUIDE_POINTS) {
+      throw new GroomError('too-many-guides', `${at}: with this set the groom has ${guidePointsProblem(total, set.guides.pointsPerGuide)}`, `${at}.guides`);
+    }
+    grown.push(result);
+  });
+  return joinSets(surface, spec, sets.map((s) => s.name), grown);
+}
+
+function joinSets(surface: GroomSurface, spec: GroomSpec, names: readonly string[], grown: readonly GrowResult[]): GrowResult {
+  const count = grown.reduce((sum, r) => sum + r.guides.count, 0);
+  const n = grown[0].guides.pointsPerGuide;
+  const points = new Float64Array(3 * n * count);
+  const guideId = new Uint32Array(count), rootFace = new Uint32Array(count), rootBarycentric = new Float64Array(3 * count);
+  const length = new Float64Array(count), stop = new Uint8Array(count);
+  const guideRootWidth = new Float64Array(count), guideTipWidth = new Float64Array(count);
+  const tuft = new Int32Array(count), innerTuft = new Int32Array(count);
+  const guideSet = new Uint16Array(count);
+  const ranges: { name: string; first: number; count: number; hairsPerGuide: number; areaSquareCm: number }[] = [];
+  let first = 0, centres = 0, innerCentres = 0, pushedOut = 0, areaSquareCm = 0;
+  const curves: Float64Array[] = [];
+  const timings = { rootsMilliseconds: 0, traceMilliseconds: 0, shapeMilliseconds: 0, tuftsMilliseconds: 0 };
+  grown.forEach((r, s) => {
+    const g = r.guides;
+    points.set(g.points, 3 * n * first);
+    guideId.set(g.guideId, first);
+    rootFace.set(g.rootFace, first);
+    rootBarycentric.set(g.rootBarycentric, 3 * first);
+    length.set(g.length, first);
+    stop.set(g.stop, first);
+    guideRootWidth.set(g.guideRootWidth, first);
+    guideTipWidth.set(g.guideTipWidth, first);
+    for (let k = 0; k < g.count; k++) {
+      tuft[first + k] = g.tuft[k] < 0 ? -1 : g.tuft[k] + centres;
+      innerTuft[first + k] = g.innerTuft[k] < 0 ? -1 : g.innerTuft[k] + innerCentres;
+    }
+    guideSet.fill(s, first, first + g.count);
+    ranges.push({ name: names[s], first, count: g.count, hairsPerGuide: g.hairsPerGuide, areaSquareCm: r.areaSquareCm });
+    if (r.tufts) {
+      curves.push(r.tufts.curves);
+      centres += r.tufts.centres;
+      innerCentres += r.tufts.innerCentres;
+    }
+    for (const key of Object.keys(timings) as (keyof typeof timings)[]) timings[key] += r.timings[key];
+    pushedOut += r.pushedOut;
+    areaSquareCm += r.areaSquareCm;
+    first += g.count;
+  });
+  const joinedCurves = new Float64Array(curves.reduce((sum, c) => sum + c.length, 0));
+  curves.reduce((at, c) => (joinedCurves.set(c, at), at + c.length), 0);
+  const head = grown[0].guides;
+  const guides: Guides = {
+    count,
+    pointsPerGuide: n,
+    points,
+    guideId,
+    rootFace,
+    rootBarycentric,
+    binding: bindRoots(surface.mesh, rootFace, rootBarycentric),
+    length,
+    stop,
+    rootWidth: head.rootWidth,
+    tipWidth: head.tipWidth,
+    guideRootWidth,
+    guideTipWidth,
+    tuft,
+    innerTuft,
+    units: spec.units,
+    upAxis: spec.upAxis,
+    hairsPerGuide: head.hairsPerGuide,
+    sets: ranges,
+    guideSet,
+  };
+  return { guides, areaSquareCm, pushedOut, ...(curves.length > 0 ? { tufts: { curves: joinedCurves, centres, innerCentres } } : {}), timings };
+}
