@@ -4,7 +4,7 @@ import { setRegionMask } from '../place/set-region';
 import { MAX_GUIDE_POINTS, guidePointsProblem, type GroomSpec, type GuideSettings } from '../spec/spec';
 import type { GroomSurface } from '../place/surface';
 import { bindRoots } from './binding';
-import type { GrowOptions, GrowResult, Guides } from './grown';
+import type { GrowOptions, GrowResult, GuideSetRange, Guides } from './grown';
 
 export type { GuideSetRange } from './grown';
 
@@ -107,4 +107,39 @@ function joinSets(surface: GroomSurface, spec: GroomSpec, names: readonly string
     guideSet,
   };
   return { guides, areaSquareCm, pushedOut, ...(curves.length > 0 ? { tufts: { curves: joinedCurves, centres, innerCentres } } : {}), timings };
+}
+
+/**
+ * One set's guides as guides of their own (views on the groom's arrays, nothing copied), for the
+ * writers that put each set in its own prim, node or group.
+ *
+ * Guarantees: guide k of the result is guide `set.first + k` of `guides`, every per-guide array cut
+ * alike; no `sets` on the result; `hairsPerGuide` is the set's.
+ */
+export function guidesOfSet(guides: Guides, set: GuideSetRange): Guides {
+  const a = set.first, b = set.first + set.count, n = guides.pointsPerGuide;
+  const bind = guides.binding;
+  const { sets: _sets, guideSet: _guideSet, ...rest } = guides;
+  return {
+    ...rest,
+    count: set.count,
+    points: guides.points.subarray(3 * n * a, 3 * n * b),
+    guideId: guides.guideId.subarray(a, b),
+    rootFace: guides.rootFace.subarray(a, b),
+    rootBarycentric: guides.rootBarycentric.subarray(3 * a, 3 * b),
+    binding: {
+      polygon: bind.polygon.subarray(a, b),
+      triangle: bind.triangle.subarray(a, b),
+      corners: bind.corners.subarray(3 * a, 3 * b),
+      weights: bind.weights.subarray(3 * a, 3 * b),
+      ...(bind.uv ? { uv: bind.uv.subarray(2 * a, 2 * b) } : {}),
+    },
+    length: guides.length.subarray(a, b),
+    stop: guides.stop.subarray(a, b),
+    guideRootWidth: guides.guideRootWidth.subarray(a, b),
+    guideTipWidth: guides.guideTipWidth.subarray(a, b),
+    tuft: guides.tuft.subarray(a, b),
+    innerTuft: guides.innerTuft.subarray(a, b),
+    hairsPerGuide: set.hairsPerGuide,
+  };
 }
