@@ -1,7 +1,7 @@
 // Every change the studio makes to a groom spec, as plain data: applied by one pure function,
 // named in words for the undo history, checked with the groom library's own schema before it
 // is accepted. The spec is never changed in place.
-import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec/spec';
+import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSetSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec } from '@/lib/groom/spec/spec';
 import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureRef, type Vec3 } from './features';
 
 export type CurveKind = 'parting' | 'crest';
@@ -19,6 +19,10 @@ export type SpecEdit =
   | { readonly type: 'remove'; readonly feature: FeatureRef }
   | { readonly type: 'set-guides'; readonly guides: GuideSettings }
   | { readonly type: 'set-field'; readonly settings: Partial<FieldSettings> }
+  /** A new guide set at the end; the groom's first set takes its one block of settings with it (see `withGuideSet`). */
+  | { readonly type: 'add-guide-set'; readonly set: GuideSetSpec }
+  | { readonly type: 'update-guide-set'; readonly index: number; readonly set: GuideSetSpec; readonly what: 'rename' | 'region' | 'settings' }
+  | { readonly type: 'remove-guide-set'; readonly index: number }
   | { readonly type: 'replace'; readonly spec: GroomSpec; readonly label: string };
 
 /** The index of a whorl and of a saddle, the two singularities the tools and the side list add by name. */
@@ -86,9 +90,38 @@ export function applySpecEdit(spec: GroomSpec, edit: SpecEdit): GroomSpec {
       return { ...spec, guides: edit.guides };
     case 'set-field':
       return { ...spec, field: { ...field, ...edit.settings } };
+    case 'add-guide-set':
+      return withGuideSet(spec, edit.set);
+    case 'update-guide-set':
+      return { ...spec, guideSets: replaced(spec.guideSets ?? [], edit.index, edit.set) };
+    case 'remove-guide-set':
+      return withoutGuideSet(spec, edit.index);
     case 'replace':
       return edit.spec;
   }
+}
+
+/** The name the groom's one block of settings carries when it becomes the first of several sets. */
+export const FIRST_SET_NAME = 'Whole coat';
+
+/**
+ * The spec with one more guide set. A groom without sets first turns its one block of settings
+ * into a set (named `FIRST_SET_NAME`, on the groups it grew on), so what it grew before it still
+ * grows, the same guides, beside the new set.
+ */
+function withGuideSet(spec: GroomSpec, set: GuideSetSpec): GroomSpec {
+  if (spec.guideSets) return { ...spec, guideSets: [...spec.guideSets, set] };
+  const { regions, ...settings } = spec.guides;
+  return { ...spec, guideSets: [{ name: FIRST_SET_NAME, region: { groups: regions }, guides: { ...settings, regions: [] } }, set] };
+}
+
+/** The spec without a set; taking away the last one gives the groom back one block: that set's settings, on its groups. */
+function withoutGuideSet(spec: GroomSpec, index: number): GroomSpec {
+  const sets = without(spec.guideSets ?? [], index);
+  if (sets.length > 0) return { ...spec, guideSets: sets };
+  const { guideSets: _gone, ...rest } = spec;
+  const last = spec.guideSets![index];
+  return { ...rest, guides: { ...last.guides, regions: last.region.groups ?? [] } };
 }
 
 function without<T>(list: readonly T[], index: number): T[] {
@@ -138,6 +171,14 @@ export function describeSpecEdit(before: GroomSpec, edit: SpecEdit): string {
       return 'Change guide settings';
     case 'set-field':
       return 'Change field settings';
+    case 'add-guide-set':
+      return `Add guide set “${edit.set.name}”`;
+    case 'update-guide-set': {
+      const name = before.guideSets?.[edit.index]?.name ?? `${edit.index + 1}`;
+      return edit.what === 'rename' ? `Rename guide set “${name}” to “${edit.set.name}”` : `Change ${edit.what === 'region' ? 'where' : 'how'} guide set “${name}” grows`;
+    }
+    case 'remove-guide-set':
+      return `Delete guide set “${before.guideSets?.[edit.index]?.name ?? edit.index + 1}”`;
     case 'replace':
       return edit.label;
   }
