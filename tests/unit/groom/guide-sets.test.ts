@@ -149,3 +149,24 @@ describe('the side of a parting', () => {
     for (let i = 0; i < guides.count; i++) expect(guides.points[3 * guides.pointsPerGuide * i + 1]).toBeGreaterThan(-0.3);
   });
 });
+
+describe('guide sets carried onto another surface', () => {
+  it('states each set’s lengths in the new units and carries its groups by the region map', async () => {
+    const { transferSpec } = await import('@/lib/groom/transfer/transfer');
+    const { identityOfMesh } = await import('@/lib/groom/transfer/identity');
+    // The same sphere in millimetres, its groups named anew.
+    const scaled = { ...mesh, positions: mesh.positions.map((x) => 10 * x), groups: { names: ['top', 'bottom'], groupOfFace: mesh.groups!.groupOfFace } };
+    const spec = parseGroomSpec(setsSpec({ length: 0.6, waver: { amplitude: 0.05 } }, {}));
+    const side = (m: typeof mesh, units?: 'mm') => ({ surface: prepareGroomSurface(m), identity: identityOfMesh(m), ...(units ? { units } : {}) });
+    const { spec: carried, report } = transferSpec(spec, side(mesh), side(scaled, 'mm'), { regionMap: { north: 'top' } });
+    const [crown, under] = carried.guideSets!;
+    // 1 cm = 10 mm.
+    expect(crown.guides.length).toBeCloseTo(6, 9);
+    expect(crown.guides.waver!.amplitude).toBeCloseTo(0.5, 9);
+    expect(crown.guides.width).toBeCloseTo(10 * spec.guideSets![0].guides.width, 9);
+    expect(crown.region).toEqual({ groups: ['top'] });
+    // "south" has no counterpart: left out, and said so.
+    expect(under.region).toEqual({ groups: [] });
+    expect(report.notCarried).toContainEqual({ path: 'guideSets[1].region.groups[0]', reason: 'the new surface has no group "south"' });
+  });
+});
