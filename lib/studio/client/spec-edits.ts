@@ -135,7 +135,7 @@ function removeFeature(spec: GroomSpec, ref: FeatureRef): GroomSpec {
     case 'singularity':
       return { ...spec, field: { ...field, singularities: without(field.singularities, ref.index) } };
     case 'parting':
-      return { ...spec, field: { ...field, partings: without(field.partings, ref.index) } };
+      return { ...spec, field: { ...field, partings: without(field.partings, ref.index) }, ...(spec.guideSets ? { guideSets: setsWithoutParting(spec.guideSets, ref.index) } : {}) };
     case 'crest':
       return { ...spec, field: { ...field, crests: without(field.crests, ref.index) } };
     case 'stroke':
@@ -143,6 +143,20 @@ function removeFeature(spec: GroomSpec, ref: FeatureRef): GroomSpec {
     case 'pin':
       return { ...spec, pins: without(spec.pins, ref.index) };
   }
+}
+
+/**
+ * The guide sets once parting `index` is gone: later partings' numbers move down by one. A set that
+ * grows on a side of that parting alone would be left without a region, so the edit is refused in words.
+ */
+function setsWithoutParting(sets: readonly GuideSetSpec[], index: number): GuideSetSpec[] {
+  return sets.map((set) => {
+    const partings = set.region.partings;
+    if (!partings) return set;
+    const kept = partings.filter((p) => p !== index).map((p) => (p > index ? p - 1 : p));
+    if (kept.length === 0) throw new Error(`Guide set “${set.name}” grows on one side of this parting; give the set another region before deleting it.`);
+    return { ...set, region: { ...set.region, partings: kept } };
+  });
 }
 
 /** The words the undo history shows for an edit ("Move whorl 2", "Add parting 1"). */

@@ -62,4 +62,20 @@ describe('guide sets in the editor', () => {
     expect(GUIDE_SET_PALETTE[1].name).toBe('Bracken');
     expect(guideSetColours({ count: 3, pointsPerGuide: 3 })).toBeNull();
   });
+
+  it('deleting a parting renumbers the sets that grow beside later partings, and refuses to strand a set', () => {
+    const spec = parseGroomSpec({
+      ...DEMO_GROOMS[0].spec,
+      field: { ...DEMO_GROOMS[0].spec.field, partings: [{ vertices: [0, 1] }, { vertices: [2, 3] }] },
+      guideSets: [
+        { name: 'Beside the second', region: { partings: [1], from: { vertex: 9 } } },
+        { name: 'Beside the first', region: { partings: [0], from: { vertex: 9 } } },
+      ],
+    });
+    const refused = checkedSpecEdit(spec, { type: 'remove', feature: { kind: 'parting', index: 0 } });
+    expect(refused).toEqual({ ok: false, problems: [{ path: '(the whole spec)', message: 'Guide set “Beside the first” grows on one side of this parting; give the set another region before deleting it.' }] });
+    const fewer = { ...spec, guideSets: spec.guideSets!.slice(0, 1) };
+    const done = checkedSpecEdit(fewer, { type: 'remove', feature: { kind: 'parting', index: 0 } });
+    expect(done.ok && done.spec.guideSets![0].region.partings).toEqual([0]);
+  });
 });
