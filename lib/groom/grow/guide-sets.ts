@@ -3,7 +3,6 @@ import { GroomError } from '../errors';
 import { setRegionMask } from '../place/set-region';
 import { MAX_GUIDE_POINTS, guidePointsProblem, type GroomSpec, type GuideSettings } from '../spec/spec';
 import type { GroomSurface } from '../place/surface';
-import { bindRoots } from './binding';
 import type { GrowOptions, GrowResult, GuideSetRange, Guides } from './grown';
 
 export type { GuideSetRange } from './grown';
@@ -39,10 +38,10 @@ export function growGuideSets(surface: GroomSurface, spec: GroomSpec, options: G
     }
     grown.push(result);
   });
-  return joinSets(surface, spec, sets.map((s) => s.name), grown);
+  return joinSets(spec, sets.map((s) => s.name), grown);
 }
 
-function joinSets(surface: GroomSurface, spec: GroomSpec, names: readonly string[], grown: readonly GrowResult[]): GrowResult {
+function joinSets(spec: GroomSpec, names: readonly string[], grown: readonly GrowResult[]): GrowResult {
   const count = grown.reduce((sum, r) => sum + r.guides.count, 0);
   const n = grown[0].guides.pointsPerGuide;
   const points = new Float64Array(3 * n * count);
@@ -51,6 +50,9 @@ function joinSets(surface: GroomSurface, spec: GroomSpec, names: readonly string
   const guideRootWidth = new Float64Array(count), guideTipWidth = new Float64Array(count);
   const tuft = new Int32Array(count), innerTuft = new Int32Array(count);
   const guideSet = new Uint16Array(count);
+  // Each set's roots are already bound in the file's numbering; the groom's binding is theirs put together.
+  const uvs = grown.every((r) => r.guides.binding.uv);
+  const binding = { polygon: new Uint32Array(count), triangle: new Uint32Array(count), corners: new Uint32Array(3 * count), weights: new Float64Array(3 * count), ...(uvs ? { uv: new Float64Array(2 * count) } : {}) };
   const ranges: { name: string; first: number; count: number; hairsPerGuide: number; areaSquareCm: number }[] = [];
   let first = 0, centres = 0, innerCentres = 0, pushedOut = 0, areaSquareCm = 0;
   const curves: Float64Array[] = [];
@@ -65,6 +67,11 @@ function joinSets(surface: GroomSurface, spec: GroomSpec, names: readonly string
     stop.set(g.stop, first);
     guideRootWidth.set(g.guideRootWidth, first);
     guideTipWidth.set(g.guideTipWidth, first);
+    binding.polygon.set(g.binding.polygon, first);
+    binding.triangle.set(g.binding.triangle, first);
+    binding.corners.set(g.binding.corners, 3 * first);
+    binding.weights.set(g.binding.weights, 3 * first);
+    if (binding.uv) binding.uv.set(g.binding.uv!, 2 * first);
     for (let k = 0; k < g.count; k++) {
       tuft[first + k] = g.tuft[k] < 0 ? -1 : g.tuft[k] + centres;
       innerTuft[first + k] = g.innerTuft[k] < 0 ? -1 : g.innerTuft[k] + innerCentres;
@@ -91,7 +98,7 @@ function joinSets(surface: GroomSurface, spec: GroomSpec, names: readonly string
     guideId,
     rootFace,
     rootBarycentric,
-    binding: bindRoots(surface.mesh, rootFace, rootBarycentric),
+    binding,
     length,
     stop,
     rootWidth: head.rootWidth,

@@ -4,6 +4,7 @@ import { icosphere } from '@/tests/fixtures/shapes';
 import { parseGroomSpec, parseGroomSpecJson, specToJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
 import { prepareGroomSurface } from '@/lib/groom/place/surface';
 import { setRegionMask } from '@/lib/groom/place/set-region';
+import { bindRoots } from '@/lib/groom/grow/binding';
 import { groomOn, withGroups } from './support';
 
 type Vec3 = [number, number, number];
@@ -81,6 +82,10 @@ describe('growing guide sets', () => {
       expect(set).toBe(i < crown.count ? 0 : 1);
       expect(mesh.groups!.groupOfFace[g.rootFace[i]]).toBe(set);
     }
+    // The joined binding is the binding of the joined roots (lib/groom/grow/binding.ts).
+    const bound = bindRoots(mesh, g.rootFace, g.rootBarycentric);
+    expect(Array.from(g.binding.polygon)).toEqual(Array.from(bound.polygon));
+    expect(Array.from(g.binding.weights)).toEqual(Array.from(bound.weights));
     // Ids are each set's own: both runs count from 0.
     expect(g.guideId[0]).toBe(0);
     expect(g.guideId[under.first]).toBe(0);
