@@ -2,6 +2,11 @@
  * Benchmark of lib/groom on a 100,000-face growth surface (a torus, 400 × 125 quads split in two):
  * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, 50,000 with two
  * levels of tufts, loners and waver (spec version 3), 50,000 with a painted density and length map, each export (the
+  row(`${what}: shaping and skin check`, t.shapeMilliseconds);
+  row(`${what}: total`, grown.ms);
+}
+{
+ * levels of tufts, loners and waver (spec version 3), 50,000 in two guide sets, each export (the
  * guide formats also with the surface beside them), and a 1024² thumbnail (render, then encoding).
  *
  *   npx tsx bench/groom.ts            prints a Markdown table
@@ -107,6 +112,30 @@ for (const count of [5_000, 50_000]) {
   const what = `50000 guides × 16 with a density and a length map (${nV} vertices, 16 bits)`;
   row(`${what}: roots (decoding the maps included)`, t.rootsMilliseconds);
   row(`${what}: tracing`, t.traceMilliseconds);
+  row(`${what}: shaping and skin check`, t.shapeMilliseconds);
+  row(`${what}: total`, grown.ms);
+}
+{
+  // Two guide sets (issue 16): the torus's upper and lower halves as face groups, 25,000 guides
+  // each, the lower with the tufts and waver above; each set grows as one block would on its half.
+  const groupOfFace = new Uint16Array(faces);
+  for (let f = 0; f < faces; f++) groupOfFace[f] = mesh.positions[3 * mesh.triangles[3 * f] + 2] >= 0 ? 0 : 1;
+  const grouped = prepareGroomSurface({ ...mesh, groups: { names: ['upper', 'lower'], groupOfFace } });
+  const { guides: block } = specFor(25_000) as { guides: Record<string, unknown> };
+  const spec = parseGroomSpec({
+    ...specFor(1),
+    guideSets: [
+      { name: 'upper', region: { groups: ['upper'] }, guides: block },
+      { name: 'lower', region: { groups: ['lower'] }, guides: { ...block, length: 2, ...SHAPED } },
+    ],
+  });
+  const twoSolved = solveGroomField(spec, grouped);
+  const grown = best(() => growGuides(grouped, twoSolved, spec));
+  const t = grown.result.timings;
+  const what = `50000 guides × 16 in two sets (25,000 plain; 25,000 with ${grown.result.tufts!.centres} tufts, ${grown.result.tufts!.innerCentres} inner tufts and waver)`;
+  row(`${what}: roots`, t.rootsMilliseconds);
+  row(`${what}: tracing`, t.traceMilliseconds);
+  row(`${what}: tufts`, t.tuftsMilliseconds);
   row(`${what}: shaping and skin check`, t.shapeMilliseconds);
   row(`${what}: total`, grown.ms);
 }

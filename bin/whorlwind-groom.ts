@@ -288,6 +288,7 @@ async function main(argv: string[]): Promise<void> {
       `guides      ${guides.count} × ${guides.pointsPerGuide} points (${(guides.count / Math.max(grown.areaSquareCm, 1e-12)).toFixed(3)} per cm², ${guides.hairsPerGuide} hairs each)`,
       `index       ${budget.pieces.map((c) => `${budget.pieces.length > 1 ? `piece ${c.piece + 1}: ` : ''}placed ${c.placed}${c.demanded === null ? ' (free boundary)' : ` of ${c.demanded}`}`).join('; ')}; measured = requested at ${checked - mismatched} of ${checked} vertices`,
       `edges       ${solved.edgeProof.checkedEdges} crossed without a seam (largest turn ${((solved.edgeProof.largestTurn * 180) / Math.PI).toFixed(1)}°), ${solved.edgeProof.checkedCurveTurns} turns round curve vertices as drawn`,
+      ...(guides.sets ?? []).map((set) => `  set       ${JSON.stringify(set.name)}: ${set.count} guides over ${set.areaSquareCm.toFixed(2)} cm², ${set.hairsPerGuide} hairs each`),
       ...(grown.tufts ? [`tufts       ${grown.tufts.centres} tufts${grown.tufts.innerCentres ? `, ${grown.tufts.innerCentres} inner tufts` : ''}; ${guides.tuft.filter((t) => t < 0).length} guides in none`] : []),
       `skin check  ${grown.pushedOut} points moved out from under the skin`,
       'timings',

@@ -23,6 +23,8 @@ export {
   type GroomSpec,
   type GroomSpecInput,
   type GuideSettings,
+  type GuideSetSpec,
+  type GuideSetRegion,
   type SingularitySpec,
   type CurveSpec,
   type StrokeSpec,
@@ -40,7 +42,7 @@ export { HUMAN_SCALP_PRESET } from './spec/presets';
 export { prepareGroomSurface, type GroomSurface } from './place/surface';
 export { buildSkin, SKIN_QUERY_SIZE, type Skin } from './place/skin';
 export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
-export { fieldRequestFromSpec, solveGroomField, downOf } from './place/request';
+export { fieldRequestFromSpec, solveGroomField, downOf, curveVertices } from './place/request';
 export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './place/suggest';
 export { blendPins, blendValues, type PinnedFactors } from './place/pins';
 export { surfaceSignature, encodeMap, decodeMap, attributeFactors, type AttributeFactors } from './place/maps';
@@ -59,7 +61,9 @@ export {
 export { detectMirrorPlane, mirrorMismatch, SYMMETRIC_MISMATCH, type DetectedMirror } from './place/mirror-plane';
 export { mirrorSpecFeatures, mirrorSingularity, mirrorPin, mirrorCurve, mirrorStroke, isOnPlane, pointOfPlace } from './place/mirror-features';
 export { mirroredRoots } from './grow/mirror-roots';
+export { setRegionMask } from './place/set-region';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';
+export { growGuideSets, guidesOfSet, type GuideSetRange } from './grow/guide-sets';
 export { coatFacts, type CoatFacts } from './grow/coat-facts';
 export { sampleRoots, FIRST_LEVEL_ROOTS, type Roots, type RootRequest } from './grow/roots';
 export { bindRoots, rootsOnSculpt, type RootBinding } from './grow/binding';
@@ -69,10 +73,10 @@ export { gatherOnto, nearestCentres, type Gather } from './grow/tufts';
 export { planTufts, type TuftPlan } from './grow/tuft-plan';
 export { EXPORT_FORMATS, EXPORT_FORMAT_FACTS, EXPORT_EXTENSIONS, formatOfExtension, type ExportFormat, type ExportFormatFacts, type ExportSource } from './export/formats';
 export { writeExport, type GroomMade, type ExportOptions } from './export/write';
-export { guidesToUsda, type UsdCurveBasis } from './export/usda';
+export { guidesToUsda, usdPrimNames, type UsdCurveBasis } from './export/usda';
 export { guidesToGltf, NO_TUFT } from './export/gltf';
 export { previewGuides, previewToGlb, PUBLIC_PREVIEW, type PreviewGuides, type PreviewLimits } from './export/preview';
-export { guidesToObj, OBJ_ROOT_RECORD, OBJ_SHAPE_RECORD } from './export/obj';
+export { guidesToObj, objGroupNames, OBJ_ROOT_RECORD, OBJ_SHAPE_RECORD, OBJ_SET_RECORD } from './export/obj';
 export { writtenSurface, type Provenance, type BindingExportOptions, type WrittenSurface } from './export/binding-data';
 export { fieldToPly } from './export/field-ply';
 export { renderThumbnail, THUMBNAIL_VIEWS, type ThumbnailView, type GuideColouring, type RgbaImage, type RenderOptions } from './render/render';

@@ -238,6 +238,32 @@ describe('what the file is made from', () => {
     expect(parseGroomSpecJson(text(bytes)).guides.length).toBe(current.spec.guides.length);
   });
 
+  it('writes each guide set of the saved spec as its own curve prim, read back by three.js’s USDA parser', async () => {
+    const sets = await brisquette('Brisquette — two coats');
+    const { regions: _regions, ...block } = sets.spec.guides;
+    const spec = {
+      ...sets.spec,
+      guideSets: [
+        { name: 'Head', region: { groups: ['head'] }, guides: { ...block, length: 0.4 } },
+        { name: 'Back fur', region: { groups: ['back'] }, guides: { ...block, length: 1.6 } },
+      ],
+    };
+    await expectJson(await callRoute(specRoute, 'PUT', `/api/studio/grooms/${sets.id}/spec`, { cookie: wren.cookie, body: { spec, baseRevision: sets.revision }, params: { groomId: sets.id } }), 200);
+    const job = await finished((await expectJson(await requestExport(wren, sets.id, 'usda'), 202)).data.export.id);
+    expect(job.status).toBe('done');
+    // three/examples/jsm/loaders/usd/USDAParser.js; prim names per lib/groom/README.md ("Guide sets").
+    const { specsByPath } = new USDAParser().parseData(text((await download(job)).bytes)) as { specsByPath: Record<string, { fields: Record<string, unknown> }> };
+    expect(specsByPath['/Groom/Guides'].fields.typeName).toBe('Scope');
+    const mean = (prim: string) => {
+      expect(specsByPath[`/Groom/Guides/${prim}`].fields.typeName).toBe('BasisCurves');
+      const lengths = specsByPath[`/Groom/Guides/${prim}.primvars:whorlwind:length`].fields.default as number[];
+      expect(lengths.length).toBeGreaterThan(10);
+      return lengths.reduce((a, b) => a + b, 0) / lengths.length;
+    };
+    expect(specsByPath['/Groom/Guides/Back_fur.whorlwind:guideSet'].fields.default).toBe('Back fur');
+    expect(mean('Back_fur') / mean('Head')).toBeGreaterThan(2);
+  });
+
   it('fails with lib/field’s words when the saved spec cannot be solved', async () => {
     const created = await callRoute(groomsRoute, 'POST', '/api/studio/grooms', { cookie: wren.cookie, body: { surfaceId: groom.surfaceId, name: 'Unbalanced' } });
     const unbalanced: GroomDetail = (await expectJson(created, 201)).data.groom;

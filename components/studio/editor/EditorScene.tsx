@@ -10,6 +10,7 @@ import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/
 import { placeOnSurface } from '@/lib/studio/client/marker-places';
 import type { GrainMark, GrownGuides, OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { guideSegments } from '@/lib/studio/client/surface-geometry';
+import { guideSetColours } from '@/lib/studio/client/guide-sets';
 import { CLICK_TRAVEL } from '@/lib/studio/client/tools/clicks';
 import { FatLine } from '../scene/FatLine';
 import { LineLayer } from '../scene/LineLayer';
@@ -188,6 +189,7 @@ export function EditorScene({
 }) {
   const size = surface.diagonal * 0.014;
   const guideLines = useMemo(() => (guides ? guideSegments(guides) : null), [guides]);
+  const guideColours = useMemo(() => (guides ? guideSetColours(guides) : null), [guides]);
   const reportFits = (list: readonly unknown[] | undefined, length: number) => !!list && list.length === length;
   const singularVertices = reportFits(solve?.singularities, spec.field.singularities.length) ? solve!.singularities : null;
   const pinVertices = reportFits(solve?.pinVertices, spec.pins.length) ? solve!.pinVertices : null;
@@ -200,7 +202,7 @@ export function EditorScene({
       {fieldLines && (
         <LineLayer lines={fieldLines} shade={fieldShade} tail={COLOURS.strokeTail} head={COLOURS.strokeHead} opacity={fieldFaded ? 0.3 : 1} onDrawn={onFieldDrawn} name="field" />
       )}
-      {showGuides && guideLines && <LineLayer lines={guideLines.lines} shade={guideLines.shade} tail={COLOURS.guideRoot} head={COLOURS.guideTip} opacity={guidesFaded ? 0.35 : 1} name="guides" />}
+      {showGuides && guideLines && <LineLayer lines={guideLines.lines} shade={guideLines.shade} colours={guideColours} tail={COLOURS.guideRoot} head={COLOURS.guideTip} opacity={guidesFaded ? 0.35 : 1} name="guides" />}
       {spec.field.singularities.map((s, index) => {
         const at = placeOnSurface(surface, singularVertices?.[index].vertex, s.point);
         if (!at) return null;

@@ -4,6 +4,9 @@
 import type { GroomSpec, GuideSettings } from '@/lib/groom/spec/spec';
 import { MAX_GUIDES } from '@/lib/groom/spec/spec';
 import type { GrownGuides } from '@/lib/studio/client/protocol';
+import type { SpecEdit } from '@/lib/studio/client/spec-edits';
+import { useState } from 'react';
+import { GuideSetList } from './GuideSetList';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './editor-actions';
 
@@ -52,10 +55,16 @@ export function GuidePanel({
   show: boolean;
   onShow: (show: boolean) => void;
 }) {
-  const g = spec.guides;
+  const [picked, setPicked] = useState(0);
+  const sets = spec.guideSets;
+  const chosen = sets ? Math.min(picked, sets.length - 1) : 0;
+  // With guide sets the form below edits the chosen set's settings; without, the groom's one block.
+  const g = sets ? sets[chosen].guides : spec.guides;
   const units = spec.units;
-  const set = (changes: Partial<GuideSettings>) => actions.edit({ type: 'set-guides', guides: { ...g, ...changes } as GuideSettings });
-  const preview = (changes: Partial<GuideSettings>) => actions.preview({ type: 'set-guides', guides: { ...g, ...changes } as GuideSettings });
+  const edit = (guides: GuideSettings): SpecEdit => (sets ? { type: 'update-guide-set', index: chosen, set: { ...sets[chosen], guides }, what: 'settings' } : { type: 'set-guides', guides });
+  const put = (guides: GuideSettings) => actions.edit(edit(guides));
+  const set = (changes: Partial<GuideSettings>) => put({ ...g, ...changes } as GuideSettings);
+  const preview = (changes: Partial<GuideSettings>) => actions.preview(edit({ ...g, ...changes } as GuideSettings));
   const byCount = g.count !== undefined;
   const { density: _density, count: _count, ...rest } = g;
   return (
@@ -69,31 +78,33 @@ export function GuidePanel({
           {error
             ? `Guides wait for a field that solves: ${error}`
             : guides
-              ? `${guides.count.toLocaleString('en-GB')} guides over ${guides.areaSquareCm.toLocaleString('en-GB', { maximumFractionDigits: 0 })} cm², grown in ${(guides.milliseconds / 1000).toFixed(1)} s${current ? '' : ' — growing again for the latest change…'}`
+              ? `${guides.count.toLocaleString('en-GB')} guides over ${guides.areaSquareCm.toLocaleString('en-GB', { maximumFractionDigits: 0 })} cm², grown in ${(guides.milliseconds / 1000).toFixed(1)} s${guides.sets ? ` (${guides.sets.map((s) => `${s.name}: ${s.count.toLocaleString('en-GB')}`).join(', ')})` : ''}${current ? '' : ' — growing again for the latest change…'}`
               : show
                 ? 'Growing the guides…'
                 : 'Guides are hidden.'}
         </p>
       </div>
 
-      <fieldset className="flex flex-col gap-2">
-        <legend className="pb-1 text-xs font-bold uppercase tracking-[0.12em] text-bracken">How many</legend>
+      <GuideSetList spec={spec} groups={groups} actions={actions} chosen={chosen} onChoose={setPicked} />
+
+      <fieldset className="flex flex-col gap-2" aria-label={sets ? `Settings of ${sets[chosen].name}` : 'Guide settings'}>
+        <legend className="pb-1 text-xs font-bold uppercase tracking-[0.12em] text-bracken">{sets ? `How many in “${sets[chosen].name}”` : 'How many'}</legend>
         <div className="flex gap-4 text-sm text-loam">
           <label className="flex items-center gap-1.5">
-            <input type="radio" name="amount" checked={!byCount} onChange={() => actions.edit({ type: 'set-guides', guides: { ...rest, density: g.density ?? 1 } as GuideSettings })} />
+            <input type="radio" name="amount" checked={!byCount} onChange={() => put({ ...rest, density: g.density ?? 1 } as GuideSettings)} />
             By density
           </label>
           <label className="flex items-center gap-1.5">
-            <input type="radio" name="amount" checked={byCount} onChange={() => actions.edit({ type: 'set-guides', guides: { ...rest, count: guides?.count || 1000 } as GuideSettings })} />
+            <input type="radio" name="amount" checked={byCount} onChange={() => put({ ...rest, count: (sets ? guides?.sets?.[chosen]?.count : guides?.count) || 1000 } as GuideSettings)} />
             By count
           </label>
         </div>
         {byCount ? (
-          <NumberField label="Guides" value={g.count} min={1} max={MAX_GUIDES} integer onCommit={(count) => actions.edit({ type: 'set-guides', guides: { ...rest, count } as GuideSettings })} />
+          <NumberField label="Guides" value={g.count} min={1} max={MAX_GUIDES} integer onCommit={(count) => put({ ...rest, count } as GuideSettings)} />
         ) : (
-          <NumberField label="Guides per cm²" value={g.density} min={0.0001} max={10_000} onCommit={(density) => actions.edit({ type: 'set-guides', guides: { ...rest, density } as GuideSettings })} />
+          <NumberField label="Guides per cm²" value={g.density} min={0.0001} max={10_000} onCommit={(density) => put({ ...rest, density } as GuideSettings)} />
         )}
-        {groups.length > 0 && (
+        {!sets && groups.length > 0 && (
           <div className="flex flex-col gap-1">
             <span className="text-xs font-semibold text-loam-soft">Grow on (none ticked: the whole surface)</span>
             <div className="flex flex-wrap gap-x-4 gap-y-1">

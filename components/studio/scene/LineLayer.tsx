@@ -9,6 +9,7 @@ import { BufferAttribute, BufferGeometry, Color, DynamicDrawUsage, type LineSegm
 export function LineLayer({
   lines,
   shade,
+  colours,
   tail,
   head,
   opacity = 1,
@@ -20,6 +21,8 @@ export function LineLayer({
   lines: Float32Array;
   /** Per end point, 0 (tail colour) to 1 (head colour); without it, tails and heads alternate. */
   shade?: Float32Array | null;
+  /** Per end point r, g, b (0–1), instead of shading between `tail` and `head` (guide sets, each in its own colours). */
+  colours?: Float32Array | null;
   tail: string;
   head: string;
   opacity?: number;
@@ -50,7 +53,8 @@ export function LineLayer({
     position.needsUpdate = true;
     const a = new Color(tail), b = new Color(head);
     const c = colour!.array as Float32Array;
-    for (let i = 0; i < count; i++) {
+    if (colours) c.set(colours);
+    else for (let i = 0; i < count; i++) {
       const t = shade ? shade[i] : i % 2;
       c[3 * i] = a.r + (b.r - a.r) * t;
       c[3 * i + 1] = a.g + (b.g - a.g) * t;
@@ -61,7 +65,7 @@ export function LineLayer({
     geometry.computeBoundingSphere();
     pendingDrawn.current = true;
     invalidate();
-  }, [geometry, head, invalidate, lines, shade, tail]);
+  }, [colours, geometry, head, invalidate, lines, shade, tail]);
 
   useEffect(() => () => geometry.dispose(), [geometry]);
 

@@ -1,4 +1,5 @@
 import type { Guides } from '../grow/guides';
+import { guidesOfSet } from '../grow/guide-sets';
 import { CENTIMETRES_PER_UNIT } from '../spec/spec';
 import { firstCornerByPolygonOrder, type BindingExportOptions } from './binding-data';
 
@@ -18,7 +19,9 @@ export const NO_TUFT = 0xffffffff;
  * `surface`, a second node "Surface" draws the growth surface as triangles, three vertices each
  * (with TEXCOORD_0 when it has UVs, v turned back to glTF's top-left origin), each triangle's
  * corners in rising polygon-corner order, so a root's weights apply to its surfaceTriangle's
- * vertices in order. Provenance goes in `asset.extras.whorlwind`.
+ * vertices in order. Provenance goes in `asset.extras.whorlwind`. With guide sets, each set (with
+ * guides) is its own node and mesh named by the set, with its own accessors and binding (and
+ * `extras.whorlwind.guideSet`, the set's name); the surface's node and mesh come after them.
  *
  * Guarantees: `.glb` bytes (`binary: true`) or `.gltf` JSON bytes with the buffer embedded as a
  * base64 data URI; POSITION has count × pointsPerGuide entries with exact float32 min/max; the
@@ -29,48 +32,14 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
   const total = guides.count * n;
   const metres = CENTIMETRES_PER_UNIT[guides.units] / 100;
   const zUp = guides.upAxis === 'z';
-  const positions = new Float32Array(3 * total);
-  for (let i = 0; i < total; i++) {
-    const x = guides.points[3 * i], y = guides.points[3 * i + 1], z = guides.points[3 * i + 2];
-    positions[3 * i] = x * metres;
-    positions[3 * i + 1] = (zUp ? z : y) * metres;
-    positions[3 * i + 2] = (zUp ? -y : z) * metres;
-  }
-  const min = [Infinity, Infinity, Infinity], max = [-Infinity, -Infinity, -Infinity];
-  for (let i = 0; i < positions.length; i++) {
-    const k = i % 3;
-    if (positions[i] < min[k]) min[k] = positions[i];
-    if (positions[i] > max[k]) max[k] = positions[i];
-  }
-  const widths = new Float32Array(total);
-  for (let i = 0; i < total; i++) {
-    const t = n > 1 ? (i % n) / (n - 1) : 0;
-    const g = Math.floor(i / n), root = guides.guideRootWidth[g];
-    widths[i] = (root + (guides.guideTipWidth[g] - root) * t) * metres;
-  }
-  const indices = guideLineIndices(guides.count, n);
   const toGltf = (x: number, y: number, z: number, out: Float32Array, at: number) => {
     out[at] = x * metres;
     out[at + 1] = (zUp ? z : y) * metres;
     out[at + 2] = (zUp ? -y : z) * metres;
   };
-  const b = guides.binding;
-  // Per-guide arrays, each an accessor named in extras (type, component type, values).
-  const perGuide: [string, string, number, Uint32Array | Float32Array][] = [
-    ['guideId', 'SCALAR', 5125, guides.guideId],
-    ['rootFace', 'SCALAR', 5125, b.polygon],
-    ['rootTriangle', 'SCALAR', 5125, b.triangle],
-    ['rootCorners', 'VEC3', 5125, b.corners],
-    ['rootBarycentric', 'VEC3', 5126, Float32Array.from(b.weights)],
-    ...(b.uv ? [['rootUv', 'VEC2', 5126, Float32Array.from(b.uv, (x, i) => (i % 2 === 1 ? 1 - x : x))] as [string, string, number, Float32Array]] : []),
-    ['length', 'SCALAR', 5126, Float32Array.from(guides.length, (x) => x * metres)],
-    // glTF has no signed 32-bit accessors: a guide in no tuft is 2³² − 1 there.
-    ['tuft', 'SCALAR', 5125, Uint32Array.from(guides.tuft, (x) => (x < 0 ? NO_TUFT : x))],
-    ['innerTuft', 'SCALAR', 5125, Uint32Array.from(guides.innerTuft, (x) => (x < 0 ? NO_TUFT : x))],
-    ['rootWidth', 'SCALAR', 5126, Float32Array.from(guides.guideRootWidth, (x) => x * metres)],
-    ['tipWidth', 'SCALAR', 5126, Float32Array.from(guides.guideTipWidth, (x) => x * metres)],
-    ...(options.surface ? [['surfaceTriangle', 'SCALAR', 5125, guides.rootFace] as [string, string, number, Uint32Array]] : []),
-  ];
+  // With guide sets, each set is its own mesh and node, named by the set; else one, "Guides".
+  const parts = guides.sets ? guides.sets.map((set) => ({ name: set.name, guides: guidesOfSet(guides, set) })).filter((part) => part.guides.count > 0) : [{ name: 'Guides', guides }];
+  const meshes = parts.map((part) => guideMesh(part.guides, toGltf, metres, options.surface !== undefined));
   const surfaceParts: Float32Array[] = [];
   if (options.surface) {
     const mesh = options.surface;
@@ -92,61 +61,57 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
     surfaceParts.push(corner);
     if (uvs) surfaceParts.push(uvs);
   }
-  const parts: (Float32Array | Uint32Array)[] = [positions, widths, indices, ...perGuide.map((entry) => entry[3]), ...surfaceParts];
-  const byteLength = parts.reduce((sum, a) => sum + a.byteLength, 0);
-  const binary = new Uint8Array(byteLength);
+  const arrays: (Float32Array | Uint32Array)[] = [];
   const views: object[] = [];
+  const accessors: object[] = [];
   let offset = 0;
-  parts.forEach((array, i) => {
-    binary.set(new Uint8Array(array.buffer, array.byteOffset, array.byteLength), offset);
-    // Only the drawn attributes and indices are GPU buffers; the per-guide arrays are data.
-    const target = i === 2 ? 34963 : i < 2 || i >= 3 + perGuide.length ? 34962 : undefined;
+  const view = (array: Float32Array | Uint32Array, target?: number): number => {
+    arrays.push(array);
     views.push({ buffer: 0, byteOffset: offset, byteLength: array.byteLength, ...(target ? { target } : {}) });
     offset += array.byteLength;
+    return views.length - 1;
+  };
+  const meshJson = meshes.map((m, i) => {
+    const position = accessors.push({ bufferView: view(m.positions, 34962), componentType: 5126, count: m.positions.length / 3, type: 'VEC3', min: m.min, max: m.max }) - 1;
+    const width = accessors.push({ bufferView: view(m.widths, 34962), componentType: 5126, count: m.widths.length, type: 'SCALAR' }) - 1;
+    const index = accessors.push({ bufferView: view(m.indices, 34963), componentType: 5125, count: m.indices.length, type: 'SCALAR' }) - 1;
+    // Only the drawn attributes and indices are GPU buffers; the per-guide arrays are data.
+    const binding = Object.fromEntries(
+      m.perGuide.map(([name, type, componentType, values]) => [name, accessors.push({ name: `whorlwind:${name}`, bufferView: view(values), componentType, count: m.count, type }) - 1]),
+    );
+    const part = parts[i];
+    return {
+      name: part.name,
+      primitives: [{ attributes: { POSITION: position, _WIDTH: width }, indices: index, mode: 1 }],
+      extras: { guideCount: m.count, pointsPerGuide: n, hairsPerGuide: part.guides.hairsPerGuide, whorlwind: { binding, ...(guides.sets ? { guideSet: part.name } : {}) } },
+    };
   });
-  const accessors = [
-    { bufferView: 0, componentType: 5126, count: total, type: 'VEC3', min: total ? min : [0, 0, 0], max: total ? max : [0, 0, 0] },
-    { bufferView: 1, componentType: 5126, count: total, type: 'SCALAR' },
-    { bufferView: 2, componentType: 5125, count: indices.length, type: 'SCALAR' },
-    ...perGuide.map(([name, type, componentType], i) => ({ name: `whorlwind:${name}`, bufferView: 3 + i, componentType, count: guides.count, type })),
-  ];
-  const binding = Object.fromEntries(perGuide.map(([name], i) => [name, 3 + i]));
-  const surfaceMesh: object[] = [];
   if (options.surface) {
-    const at = 3 + perGuide.length;
     const corner = surfaceParts[0];
     const smin = [Infinity, Infinity, Infinity], smax = [-Infinity, -Infinity, -Infinity];
     for (let i = 0; i < corner.length; i++) {
       smin[i % 3] = Math.min(smin[i % 3], corner[i]);
       smax[i % 3] = Math.max(smax[i % 3], corner[i]);
     }
-    accessors.push({ bufferView: at, componentType: 5126, count: corner.length / 3, type: 'VEC3', min: smin, max: smax } as (typeof accessors)[number]);
-    const attributes: Record<string, number> = { POSITION: at };
-    if (surfaceParts[1]) {
-      accessors.push({ bufferView: at + 1, componentType: 5126, count: surfaceParts[1].length / 2, type: 'VEC2' } as (typeof accessors)[number]);
-      attributes.TEXCOORD_0 = at + 1;
-    }
-    surfaceMesh.push({ name: 'Surface', primitives: [{ attributes, mode: 4 }] });
+    const attributes: Record<string, number> = { POSITION: accessors.push({ bufferView: view(corner, 34962), componentType: 5126, count: corner.length / 3, type: 'VEC3', min: smin, max: smax }) - 1 };
+    if (surfaceParts[1]) attributes.TEXCOORD_0 = accessors.push({ bufferView: view(surfaceParts[1], 34962), componentType: 5126, count: surfaceParts[1].length / 2, type: 'VEC2' }) - 1;
+    meshJson.push({ name: 'Surface', primitives: [{ attributes, mode: 4 }] } as (typeof meshJson)[number]);
   }
+  const byteLength = offset;
+  const binary = new Uint8Array(byteLength);
+  arrays.reduce((at, array) => (binary.set(new Uint8Array(array.buffer, array.byteOffset, array.byteLength), at), at + array.byteLength), 0);
   const json: Record<string, unknown> = {
     asset: { version: '2.0', generator: 'Whorlwind', ...(options.provenance ? { extras: { whorlwind: options.provenance } } : {}) },
     scene: 0,
-    scenes: [{ nodes: options.surface ? [0, 1] : [0] }],
-    nodes: [{ name: 'Guides', mesh: 0 }, ...(options.surface ? [{ name: 'Surface', mesh: 1 }] : [])],
-    meshes: [
-      {
-        name: 'Guides',
-        primitives: [{ attributes: { POSITION: 0, _WIDTH: 1 }, indices: 2, mode: 1 }],
-        extras: { guideCount: guides.count, pointsPerGuide: n, hairsPerGuide: guides.hairsPerGuide, whorlwind: { binding } },
-      },
-      ...surfaceMesh,
-    ],
+    scenes: [{ nodes: meshJson.map((_m, i) => i) }],
+    nodes: meshJson.map((m, i) => ({ name: m.name, mesh: i })),
+    meshes: meshJson,
     accessors,
     bufferViews: views,
     buffers: [{ byteLength }],
   };
   // glTF forbids zero-length buffers and accessors of count 0.
-  if (total === 0 || indices.length === 0) {
+  if (total === 0 || meshes.every((m) => m.indices.length === 0)) {
     json.accessors = [];
     json.bufferViews = [];
     json.buffers = [];
@@ -167,6 +132,44 @@ export function guidesToGltf(guides: Guides, options: { binary: boolean } & Bind
   out.set(encoded, head.length);
   out.set(tail, head.length + encoded.length);
   return out;
+}
+
+/** One guide mesh's arrays: points in metres and glTF's axes, widths per point, line indices, and the per-guide data. */
+function guideMesh(guides: Guides, toGltf: (x: number, y: number, z: number, out: Float32Array, at: number) => void, metres: number, withSurface: boolean) {
+  const n = guides.pointsPerGuide;
+  const total = guides.count * n;
+  const positions = new Float32Array(3 * total);
+  for (let i = 0; i < total; i++) toGltf(guides.points[3 * i], guides.points[3 * i + 1], guides.points[3 * i + 2], positions, 3 * i);
+  const min = [Infinity, Infinity, Infinity], max = [-Infinity, -Infinity, -Infinity];
+  for (let i = 0; i < positions.length; i++) {
+    const k = i % 3;
+    if (positions[i] < min[k]) min[k] = positions[i];
+    if (positions[i] > max[k]) max[k] = positions[i];
+  }
+  const widths = new Float32Array(total);
+  for (let i = 0; i < total; i++) {
+    const t = n > 1 ? (i % n) / (n - 1) : 0;
+    const g = Math.floor(i / n), root = guides.guideRootWidth[g];
+    widths[i] = (root + (guides.guideTipWidth[g] - root) * t) * metres;
+  }
+  const b = guides.binding;
+  // Per-guide arrays, each an accessor named in extras (type, component type, values).
+  const perGuide: [string, string, number, Uint32Array | Float32Array][] = [
+    ['guideId', 'SCALAR', 5125, guides.guideId],
+    ['rootFace', 'SCALAR', 5125, b.polygon],
+    ['rootTriangle', 'SCALAR', 5125, b.triangle],
+    ['rootCorners', 'VEC3', 5125, b.corners],
+    ['rootBarycentric', 'VEC3', 5126, Float32Array.from(b.weights)],
+    ...(b.uv ? [['rootUv', 'VEC2', 5126, Float32Array.from(b.uv, (x, i) => (i % 2 === 1 ? 1 - x : x))] as [string, string, number, Float32Array]] : []),
+    ['length', 'SCALAR', 5126, Float32Array.from(guides.length, (x) => x * metres)],
+    // glTF has no signed 32-bit accessors: a guide in no tuft is 2³² − 1 there.
+    ['tuft', 'SCALAR', 5125, Uint32Array.from(guides.tuft, (x) => (x < 0 ? NO_TUFT : x))],
+    ['innerTuft', 'SCALAR', 5125, Uint32Array.from(guides.innerTuft, (x) => (x < 0 ? NO_TUFT : x))],
+    ['rootWidth', 'SCALAR', 5126, Float32Array.from(guides.guideRootWidth, (x) => x * metres)],
+    ['tipWidth', 'SCALAR', 5126, Float32Array.from(guides.guideTipWidth, (x) => x * metres)],
+    ...(withSurface ? [['surfaceTriangle', 'SCALAR', 5125, guides.rootFace] as [string, string, number, Uint32Array]] : []),
+  ];
+  return { count: guides.count, positions, min: total ? min : [0, 0, 0], max: total ? max : [0, 0, 0], widths, indices: guideLineIndices(guides.count, n), perGuide };
 }
 
 /** Index pairs of a `LINES` primitive joining consecutive points of each guide, never two guides. */

@@ -6,6 +6,23 @@ import { writtenSurface, type BindingExportOptions } from './binding-data';
 export const OBJ_ROOT_RECORD = '#whorlwind-root';
 /** The comment each guide's shaping record starts with. */
 export const OBJ_SHAPE_RECORD = '#whorlwind-shape';
+/** The comment each guide set's record starts with. */
+export const OBJ_SET_RECORD = '#whorlwind-set';
+
+/**
+ * OBJ group names for the sets' names: a group name is one word (readers split `g` lines at
+ * spaces), so every run of white space becomes `_`; a name already taken gets `_2`, `_3`, … after it.
+ */
+export function objGroupNames(names: readonly string[]): string[] {
+  const taken = new Set<string>();
+  return names.map((name) => {
+    const base = name.trim().replace(/\s+/g, '_') || '_';
+    let group = base;
+    for (let k = 2; taken.has(group); k++) group = `${base}_${k}`;
+    taken.add(group);
+    return group;
+  });
+}
 
 /**
  * The guides as Wavefront OBJ text: every point a `v` line, every guide one `l` polyline through
@@ -18,7 +35,9 @@ export const OBJ_SHAPE_RECORD = '#whorlwind-shape';
  * surface's units). With `options.surface`, the growth
  * surface comes first as object `surface`, its `v` lines the file's vertices in the file's order
  * and its `f` lines the file's polygons (with `vt` per corner when it has UVs), so vertex and face
- * numbers are the artist's; the guides' vertices follow.
+ * numbers are the artist's; the guides' vertices follow. With guide sets, each set's `l` lines
+ * follow a `g <set>` line (the set's name, white space turned to `_`), and one record per set,
+ * `#whorlwind-set group first count "name"`, comes before the guides' records.
  *
  * Guarantees: `v` lines in guide order (point j of guide g is vertex V + g·pointsPerGuide + j + 1,
  * V being the surface's vertex count when it is written, else 0); one `l` element per guide; one
@@ -56,12 +75,19 @@ export function guidesToObj(guides: Guides, options: BindingExportOptions = {}):
   for (let i = 0; i < guides.count * n; i++) {
     out.text('v ').number(p[3 * i]).text(' ').number(p[3 * i + 1]).text(' ').number(p[3 * i + 2]).text('\n');
   }
-  for (let g = 0; g < guides.count; g++) {
+  const groups = guides.sets ? objGroupNames(guides.sets.map((set) => set.name)) : [];
+  for (let g = 0, set = 0; g < guides.count; g++) {
+    // Each guide set is a group of its own, named by the set.
+    while (guides.sets && set < guides.sets.length && guides.sets[set].first === g) out.text(`g ${groups[set++]}\n`);
     out.text('l');
     for (let j = 0; j < n; j++) out.text(' ').whole(offset + g * n + j + 1);
     out.text('\n');
   }
   const b = guides.binding;
+  if (guides.sets) {
+    out.text(`# ${OBJ_SET_RECORD.slice(1)} records: group first count name (guides first … first + count − 1, in the order of the l lines; ids are each set's own)\n`);
+    guides.sets.forEach((set, i) => out.text(`${OBJ_SET_RECORD} ${groups[i]} `).whole(set.first).text(' ').whole(set.count).text(` ${JSON.stringify(set.name)}\n`));
+  }
   out.text(`# ${OBJ_ROOT_RECORD.slice(1)} records: guideId rootFace rootTriangle c0 c1 c2 w0 w1 w2 length${b.uv ? ' u v' : ''}\n`);
   const lengthDecimals = AsciiWriter.decimalsFor(guides.length);
   for (let g = 0; g < guides.count; g++) {

@@ -41,21 +41,29 @@ export const PUBLIC_PREVIEW: PreviewLimits = { share: 0.1, pointsPerGuide: 4, ma
  * Guarantees: count ≤ share · guides.count and ≤ maxGuides; pointsPerGuide ≤ min(limits,
  * guides.pointsPerGuide); every point is one of the guide's own points (nothing is invented);
  * the guides kept are those of the lowest ids — by the fixed root order of lib/groom a spread-out
- * subset of the surface (a sparser set of the same groom), not a patch of it.
+ * subset of the surface (a sparser set of the same groom), not a patch of it. With guide sets, the
+ * share is taken of each set (its lowest ids), scaled down alike when over `maxGuides`.
  */
 export function previewGuides(guides: Guides, limits: PreviewLimits = PUBLIC_PREVIEW): PreviewGuides {
   if (!(limits.share > 0 && limits.share <= 1)) throw new Error(`a preview's share must be above 0 and at most 1, not ${limits.share}`);
   if (!(limits.pointsPerGuide >= 2)) throw new Error(`a preview keeps at least 2 points per guide, not ${limits.pointsPerGuide}`);
   // A small epsilon keeps 0.1 · 30 from rounding down to 2 in floating point.
-  const count = Math.min(Math.floor(limits.share * guides.count + 1e-9), Math.max(0, Math.floor(limits.maxGuides)));
+  const cap = Math.max(0, Math.floor(limits.maxGuides));
+  // With guide sets, the lowest ids of each set (ids are each set's own), so every set shows.
+  const runs = (guides.sets ?? [{ first: 0, count: guides.count }]).map((set) => ({ first: set.first, take: Math.floor(limits.share * set.count + 1e-9) }));
+  const asked = runs.reduce((sum, r) => sum + r.take, 0);
+  if (asked > cap) for (const r of runs) r.take = Math.floor((r.take * cap) / asked);
+  const chosen = runs.flatMap((r) => Array.from({ length: r.take }, (_x, k) => r.first + k));
+  const count = chosen.length;
   const n = guides.pointsPerGuide;
   const kept = Math.min(Math.floor(limits.pointsPerGuide), n);
   const points = new Float64Array(3 * kept * count);
-  // Guides are stored in id order, so the first `count` are the lowest ids.
-  for (let g = 0; g < count; g++) {
+  // Guides are stored in id order (set after set), so each run's first are its lowest ids.
+  for (let c = 0; c < count; c++) {
+    const g = chosen[c];
     for (let j = 0; j < kept; j++) {
       const from = 3 * (g * n + Math.round((j * (n - 1)) / Math.max(1, kept - 1)));
-      const to = 3 * (g * kept + j);
+      const to = 3 * (c * kept + j);
       points[to] = guides.points[from];
       points[to + 1] = guides.points[from + 1];
       points[to + 2] = guides.points[from + 2];

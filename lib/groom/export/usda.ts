@@ -1,6 +1,7 @@
 import type { TriangleMesh } from '../../field';
 import { AsciiWriter } from './ascii';
 import type { Guides } from '../grow/guides';
+import { guidesOfSet } from '../grow/guide-sets';
 import { CENTIMETRES_PER_UNIT } from '../spec/spec';
 import { writtenSurface, type BindingExportOptions, type Provenance } from './binding-data';
 
@@ -10,15 +11,15 @@ export type UsdCurveBasis = 'linear' | 'bspline' | 'catmullRom';
 const PER_LINE = 8;
 const INDENT = '            ';
 
-/** Writes `[` + `count` items (PER_LINE to a line) + `]`. */
-function list(out: AsciiWriter, count: number, item: (i: number) => void): void {
+/** Writes `[` + `count` items (PER_LINE to a line) + `]`; `pad` indents a prim nested one level deeper. */
+function list(out: AsciiWriter, count: number, item: (i: number) => void, pad = ''): void {
   out.text('[\n');
   for (let i = 0; i < count; i++) {
-    if (i % PER_LINE === 0) out.text(INDENT);
+    if (i % PER_LINE === 0) out.text(pad + INDENT);
     item(i);
     if (i + 1 < count) out.text(i % PER_LINE === PER_LINE - 1 ? ',\n' : ', ');
   }
-  out.text(`\n${INDENT.slice(4)}]`);
+  out.text(`\n${pad}${INDENT.slice(4)}]`);
 }
 
 /**
@@ -31,6 +32,9 @@ function list(out: AsciiWriter, count: number, item: (i: number) => void): void 
  * and the shaping data `tuft`, `innerTuft` (int, −1 for none), `rootWidth`, `tipWidth` (float);
  * with `options.surface`, the growth surface as a `Mesh` prim `/Groom/Surface` in the file's
  * numbering (UVs as faceVarying `primvars:st`); with `options.provenance`, `customLayerData`.
+ * With guide sets, `/Groom/Guides` is a `Scope` holding one such `BasisCurves` prim per set,
+ * `/Groom/Guides/<set>` (the name made a valid prim name by `usdPrimNames`), each with its own
+ * extent, hairs per guide and binding primvars, and the set's own name in `string whorlwind:guideSet`.
  *
  * Cubic bases are written with `wrap = "pinned"`, so the rendered curve starts exactly at the root
  * and ends at the tip. Guarantees: `curveVertexCounts` sums to the number of points; widths have
@@ -40,11 +44,6 @@ function list(out: AsciiWriter, count: number, item: (i: number) => void): void 
  */
 export function guidesToUsda(guides: Guides, basis: UsdCurveBasis = 'linear', options: BindingExportOptions = {}): string {
   const n = guides.pointsPerGuide;
-  const total = guides.count * n;
-  const p = guides.points;
-  const positions = AsciiWriter.decimalsFor(p);
-  const widthDecimals = Math.max(AsciiWriter.decimalsFor(guides.guideRootWidth), AsciiWriter.decimalsFor(guides.guideTipWidth));
-  const extent = curveExtent(guides, basis);
   const out = new AsciiWriter();
   out.text(`#usda 1.0
 (
@@ -56,73 +55,111 @@ ${options.provenance ? layerData(options.provenance) : ''})
 
 def Xform "Groom"
 {
-    def BasisCurves "Guides"
-    {
 `);
-  out.text(
-    basis === 'linear'
-      ? '        uniform token type = "linear"\n        uniform token wrap = "nonperiodic"\n'
-      : `        uniform token type = "cubic"\n        uniform token basis = "${basis}"\n        uniform token wrap = "pinned"\n`,
-  );
-  out.text('        int[] curveVertexCounts = ');
-  list(out, guides.count, () => out.whole(n));
-  out.text('\n        point3f[] points = ').precision(positions);
-  list(out, total, (i) => out.text('(').number(p[3 * i]).text(', ').number(p[3 * i + 1]).text(', ').number(p[3 * i + 2]).text(')'));
-  out.text('\n        float[] widths = ').precision(widthDecimals);
-  list(out, total, (i) => {
-    const g = Math.floor(i / n), root = guides.guideRootWidth[g];
-    out.number(root + ((guides.guideTipWidth[g] - root) * (i % n)) / Math.max(1, n - 1));
-  });
-  out.text(' (\n            interpolation = "vertex"\n        )\n').precision(positions);
-  out.text('        float3[] extent = [(').number(extent.min[0]).text(', ').number(extent.min[1]).text(', ').number(extent.min[2]);
-  out.text('), (').number(extent.max[0]).text(', ').number(extent.max[1]).text(', ').number(extent.max[2]).text(')]\n');
-  out.text(`        int primvars:hairsPerGuide = ${guides.hairsPerGuide} (
-            interpolation = "constant"
-        )
-`);
-  writeBinding(out, guides);
-  if (options.surface) out.text('        rel whorlwind:surface = </Groom/Surface>\n');
+  const rel = options.surface ? '</Groom/Surface>' : undefined;
+  if (guides.sets) {
+    // Each set its own curve prim, named by the set (as a valid prim name; the name itself beside it).
+    out.text('    def Scope "Guides"\n    {\n');
+    const prims = usdPrimNames(guides.sets.map((set) => set.name));
+    guides.sets.forEach((set, i) => {
+      out.text(`${i > 0 ? '\n' : ''}        def BasisCurves "${prims[i]}"\n        {\n`);
+      out.text(`            string whorlwind:guideSet = ${JSON.stringify(set.name)}\n`);
+      writeCurves(out, guidesOfSet(guides, set), basis, '    ', rel);
+      out.text('        }\n');
+    });
+  } else {
+    out.text('    def BasisCurves "Guides"\n    {\n');
+    writeCurves(out, guides, basis, '', rel);
+  }
   out.text('    }\n');
   if (options.surface) writeSurface(out, options.surface);
   out.text('}\n');
   return out.toString();
 }
 
-/** Writes one per-curve primvar: `count` items, then its interpolation. */
-function uniform(out: AsciiWriter, declaration: string, count: number, item: (i: number) => void): void {
-  out.text(`        ${declaration} = `);
-  list(out, count, item);
-  out.text(' (\n            interpolation = "uniform"\n        )\n');
+/** One `BasisCurves` prim's body: its curves, widths, extent and per-curve data; `pad` indents a prim nested under a set's scope. */
+function writeCurves(out: AsciiWriter, guides: Guides, basis: UsdCurveBasis, pad: string, surface: string | undefined): void {
+  const n = guides.pointsPerGuide;
+  const total = guides.count * n;
+  const p = guides.points;
+  const positions = AsciiWriter.decimalsFor(p);
+  const widthDecimals = Math.max(AsciiWriter.decimalsFor(guides.guideRootWidth), AsciiWriter.decimalsFor(guides.guideTipWidth));
+  const extent = curveExtent(guides, basis);
+  const at = pad + '        ', inner = pad + '            ';
+  out.text(
+    basis === 'linear'
+      ? `${at}uniform token type = "linear"\n${at}uniform token wrap = "nonperiodic"\n`
+      : `${at}uniform token type = "cubic"\n${at}uniform token basis = "${basis}"\n${at}uniform token wrap = "pinned"\n`,
+  );
+  out.text(`${at}int[] curveVertexCounts = `);
+  list(out, guides.count, () => out.whole(n), pad);
+  out.text(`\n${at}point3f[] points = `).precision(positions);
+  list(out, total, (i) => out.text('(').number(p[3 * i]).text(', ').number(p[3 * i + 1]).text(', ').number(p[3 * i + 2]).text(')'), pad);
+  out.text(`\n${at}float[] widths = `).precision(widthDecimals);
+  list(out, total, (i) => {
+    const g = Math.floor(i / n), root = guides.guideRootWidth[g];
+    out.number(root + ((guides.guideTipWidth[g] - root) * (i % n)) / Math.max(1, n - 1));
+  }, pad);
+  out.text(` (\n${inner}interpolation = "vertex"\n${at})\n`).precision(positions);
+  out.text(`${at}float3[] extent = [(`).number(extent.min[0]).text(', ').number(extent.min[1]).text(', ').number(extent.min[2]);
+  out.text('), (').number(extent.max[0]).text(', ').number(extent.max[1]).text(', ').number(extent.max[2]).text(')]\n');
+  out.text(`${at}int primvars:hairsPerGuide = ${guides.hairsPerGuide} (\n${inner}interpolation = "constant"\n${at})\n`);
+  writeBinding(out, guides, pad);
+  if (surface) out.text(`${at}rel whorlwind:surface = ${surface}\n`);
 }
 
-function writeBinding(out: AsciiWriter, guides: Guides): void {
+/**
+ * Valid, distinct prim names for the sets' names (OpenUSD identifiers: a letter or `_`, then
+ * letters, digits and `_`): every other character becomes `_`, a leading digit gets a `_` before
+ * it, and a name already taken gets `_2`, `_3`, … after it.
+ */
+export function usdPrimNames(names: readonly string[]): string[] {
+  const taken = new Set<string>();
+  return names.map((name) => {
+    let base = name.replace(/[^A-Za-z0-9_]/g, '_');
+    if (!/^[A-Za-z_]/.test(base)) base = `_${base}`;
+    let prim = base;
+    for (let k = 2; taken.has(prim); k++) prim = `${base}_${k}`;
+    taken.add(prim);
+    return prim;
+  });
+}
+
+/** Writes one per-curve primvar: `count` items, then its interpolation. */
+function uniform(out: AsciiWriter, declaration: string, count: number, item: (i: number) => void, pad = ''): void {
+  out.text(`${pad}        ${declaration} = `);
+  list(out, count, item, pad);
+  out.text(` (\n${pad}            interpolation = "uniform"\n${pad}        )\n`);
+}
+
+function writeBinding(out: AsciiWriter, guides: Guides, pad: string): void {
   const b = guides.binding;
   const count = guides.count;
-  uniform(out, 'int[] primvars:whorlwind:guideId', count, (g) => out.whole(guides.guideId[g]));
-  uniform(out, 'int[] primvars:whorlwind:rootFace', count, (g) => out.whole(b.polygon[g]));
-  uniform(out, 'int[] primvars:whorlwind:rootTriangle', count, (g) => out.whole(b.triangle[g]));
-  uniform(out, 'int3[] primvars:whorlwind:rootCorners', count, (g) => out.text('(').whole(b.corners[3 * g]).text(', ').whole(b.corners[3 * g + 1]).text(', ').whole(b.corners[3 * g + 2]).text(')'));
+  uniform(out, 'int[] primvars:whorlwind:guideId', count, (g) => out.whole(guides.guideId[g]), pad);
+  uniform(out, 'int[] primvars:whorlwind:rootFace', count, (g) => out.whole(b.polygon[g]), pad);
+  uniform(out, 'int[] primvars:whorlwind:rootTriangle', count, (g) => out.whole(b.triangle[g]), pad);
+  uniform(out, 'int3[] primvars:whorlwind:rootCorners', count, (g) => out.text('(').whole(b.corners[3 * g]).text(', ').whole(b.corners[3 * g + 1]).text(', ').whole(b.corners[3 * g + 2]).text(')'), pad);
   out.precision(9);
-  uniform(out, 'float3[] primvars:whorlwind:rootBarycentric', count, (g) => out.text('(').number(b.weights[3 * g]).text(', ').number(b.weights[3 * g + 1]).text(', ').number(b.weights[3 * g + 2]).text(')'));
+  uniform(out, 'float3[] primvars:whorlwind:rootBarycentric', count, (g) => out.text('(').number(b.weights[3 * g]).text(', ').number(b.weights[3 * g + 1]).text(', ').number(b.weights[3 * g + 2]).text(')'), pad);
   if (b.uv) {
     const uv = b.uv;
     out.precision(Math.max(7, AsciiWriter.decimalsFor(uv)));
-    uniform(out, 'texCoord2f[] primvars:whorlwind:rootUv', count, (g) => out.text('(').number(uv[2 * g]).text(', ').number(uv[2 * g + 1]).text(')'));
+    uniform(out, 'texCoord2f[] primvars:whorlwind:rootUv', count, (g) => out.text('(').number(uv[2 * g]).text(', ').number(uv[2 * g + 1]).text(')'), pad);
   }
   out.precisionFor(guides.length);
-  uniform(out, 'float[] primvars:whorlwind:length', count, (g) => out.number(guides.length[g]));
-  writeShapeData(out, guides);
+  uniform(out, 'float[] primvars:whorlwind:length', count, (g) => out.number(guides.length[g]), pad);
+  writeShapeData(out, guides, pad);
 }
 
 /** The per-guide shaping data (spec version 3): tuft and inner tuft (−1 for none), width at the root and at the tip. */
-function writeShapeData(out: AsciiWriter, guides: Guides): void {
+function writeShapeData(out: AsciiWriter, guides: Guides, pad: string): void {
   const count = guides.count;
   const signed = (x: number) => (x < 0 ? out.text('-').whole(-x) : out.whole(x));
-  uniform(out, 'int[] primvars:whorlwind:tuft', count, (g) => signed(guides.tuft[g]));
-  uniform(out, 'int[] primvars:whorlwind:innerTuft', count, (g) => signed(guides.innerTuft[g]));
+  uniform(out, 'int[] primvars:whorlwind:tuft', count, (g) => signed(guides.tuft[g]), pad);
+  uniform(out, 'int[] primvars:whorlwind:innerTuft', count, (g) => signed(guides.innerTuft[g]), pad);
   out.precision(Math.max(AsciiWriter.decimalsFor(guides.guideRootWidth), AsciiWriter.decimalsFor(guides.guideTipWidth)));
-  uniform(out, 'float[] primvars:whorlwind:rootWidth', count, (g) => out.number(guides.guideRootWidth[g]));
-  uniform(out, 'float[] primvars:whorlwind:tipWidth', count, (g) => out.number(guides.guideTipWidth[g]));
+  uniform(out, 'float[] primvars:whorlwind:rootWidth', count, (g) => out.number(guides.guideRootWidth[g]), pad);
+  uniform(out, 'float[] primvars:whorlwind:tipWidth', count, (g) => out.number(guides.guideTipWidth[g]), pad);
 }
 
 /** The growth surface as a `Mesh` prim: file vertices, file polygons, UVs per corner. */

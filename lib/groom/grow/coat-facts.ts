@@ -2,6 +2,7 @@
 // per cm² of the area they grow on, their lengths, points per guide, the regions asked for. The
 // guide count alone depends on the size of the mesh it was grown on; these do not.
 import { growthMask } from '../place/regions';
+import { setRegionMask } from '../place/set-region';
 import type { GroomSurface } from '../place/surface';
 import { CENTIMETRES_PER_UNIT, type GroomSpec, type Unit } from '../spec/spec';
 import type { Guides } from './guides';
@@ -33,12 +34,19 @@ export interface CoatFacts {
  * the units; densities are means over the unweighted growth area, so a spec of `density` d
  * without density pins gives d up to the rounding of the guide count; lengths are the guides'
  * polyline lengths (curl and jitter included), 0 for a groom of no guides; a region the surface
- * lacks is a GroomError `unknown-region`, as when growing.
+ * lacks is a GroomError `unknown-region`, as when growing. With guide sets: the area is the union of
+ * the sets' regions, hairs per guide and the combed length are means over the guides (weighted by
+ * each set's count), and the regions are the sets' groups.
  */
 export function coatFacts(surface: GroomSurface, spec: GroomSpec, guides: Guides): CoatFacts {
-  const mask = growthMask(surface.mesh, spec.guides.regions);
+  // With guide sets, the union of their regions; hairs per guide, the mean over the guides.
+  const masks = spec.guideSets ? spec.guideSets.map((set, i) => setRegionMask(surface, spec, set.region, `guideSets[${i}].region`)) : [growthMask(surface.mesh, spec.guides.regions)];
   let area = 0;
-  for (let f = 0; f < mask.length; f++) if (mask[f]) area += surface.faceArea[f];
+  for (let f = 0; f < surface.faceArea.length; f++) if (masks.some((m) => m[f])) area += surface.faceArea[f];
+  const sets = guides.sets;
+  const hairsPerGuide = sets && guides.count > 0 ? sets.reduce((sum, set) => sum + set.count * set.hairsPerGuide, 0) / guides.count : spec.guides.hairsPerGuide;
+  const combed = spec.guideSets && guides.count > 0 ? spec.guideSets.reduce((sum, set, i) => sum + set.guides.length * (sets?.[i]?.count ?? 0), 0) / guides.count : spec.guides.length;
+  const regions = spec.guideSets ? [...new Set(spec.guideSets.flatMap((set) => set.region.groups ?? []))] : spec.guides.regions;
   const growthAreaSquareCm = area * CENTIMETRES_PER_UNIT[spec.units] ** 2;
   const guidesPerSquareCm = growthAreaSquareCm > 0 ? guides.count / growthAreaSquareCm : 0;
   const sorted = Float64Array.from(guides.length).sort();
@@ -50,11 +58,11 @@ export function coatFacts(surface: GroomSurface, spec: GroomSpec, guides: Guides
     guideCount: guides.count,
     growthAreaSquareCm,
     guidesPerSquareCm,
-    hairsPerGuide: spec.guides.hairsPerGuide,
-    hairsPerSquareCm: guidesPerSquareCm * spec.guides.hairsPerGuide,
+    hairsPerGuide,
+    hairsPerSquareCm: guidesPerSquareCm * hairsPerGuide,
     pointsPerGuide: guides.pointsPerGuide,
-    length: { combed: spec.guides.length, shortest: n ? sorted[0] : 0, median, longest: n ? sorted[n - 1] : 0 },
-    regions: [...spec.guides.regions],
+    length: { combed, shortest: n ? sorted[0] : 0, median, longest: n ? sorted[n - 1] : 0 },
+    regions: [...regions],
     surfaceRegions: [...(surface.mesh.groups?.names ?? [])],
   };
 }

@@ -6,92 +6,19 @@ import { guideRandom } from './random';
 import { growthMask } from '../place/regions';
 import { downOf } from '../place/request';
 import { cellOrder, sampleRoots } from './roots';
-import { bindRoots, rootsOnSculpt, type RootBinding } from './binding';
+import { bindRoots, rootsOnSculpt } from './binding';
 import { mirroredRoots } from './mirror-roots';
-import type { MirrorPlane } from '../spec/symmetry';
 import { shapeGuide, waver, type WaverParameters } from './shape';
 import { gatherOnto, type Gather } from './tufts';
 import { planTufts } from './tuft-plan';
 import { SKIN_QUERY_SIZE } from '../place/skin';
-import { CENTIMETRES_PER_UNIT, guidePointsProblem, type GroomSpec, type Unit } from '../spec/spec';
+import { CENTIMETRES_PER_UNIT, guidePointsProblem, type GroomSpec, type GuideSettings } from '../spec/spec';
+import { growGuideSets } from './guide-sets';
+import type { GrowOptions, GrowResult } from './grown';
 import type { GroomSurface } from '../place/surface';
 import { createTracer } from './trace';
 
-/**
- * A set of guides: every guide has the same number of points, stored guide after guide.
- * Everything an export needs travels with it, so exports are pure functions of this.
- */
-export interface Guides {
-  readonly count: number;
-  readonly pointsPerGuide: number;
-  /** x, y, z of every point, guide after guide (3 · count · pointsPerGuide numbers), in surface units. */
-  readonly points: Float64Array;
-  /**
-   * Each guide's identity: its place in the surface's fixed order of roots (see roots.ts), so
-   * the same surface, regions, density pins and seed give guide n the same root at any count or
-   * density (a denser set keeps the sparser set's guides). Guides are stored in id order.
-   */
-  readonly guideId: Uint32Array;
-  /** The face (of the welded, triangulated mesh) each root lies in. */
-  readonly rootFace: Uint32Array;
-  /** The root's weights on its face's three corners, in the face's corner order (3 per guide). */
-  readonly rootBarycentric: Float64Array;
-  /** Where each root lies in the surface file's own numbering: polygon, triangle, corners, weights, UV. */
-  readonly binding: RootBinding;
-  /** Arc length of each guide's polyline, in surface units. */
-  readonly length: Float64Array;
-  /** Why each guide's skin path ended (see `STOP` in trace.ts): it reached its length, or a boundary, singularity, curve or convergence. */
-  readonly stop: Uint8Array;
-  /** The spec's width at the root and at the tip, in surface units (widths taper linearly along each guide). */
-  readonly rootWidth: number;
-  readonly tipWidth: number;
-  /** Each guide's own width at the root and at the tip (the spec's, times the width pins' factor at its root), surface units. */
-  readonly guideRootWidth: Float64Array;
-  readonly guideTipWidth: Float64Array;
-  /** The tuft each guide is drawn into (its number among the tuft centres), −1 for none (no tufts, or a loner). */
-  readonly tuft: Int32Array;
-  /** The inner tuft (of the finer level) each guide is drawn into, −1 for none. */
-  readonly innerTuft: Int32Array;
-  readonly units: Unit;
-  readonly upAxis: 'y' | 'z';
-  /** How many rendered hairs each guide stands for. */
-  readonly hairsPerGuide: number;
-}
-
-export interface GrowResult {
-  readonly guides: Guides;
-  /** Area the guides grow on (the chosen regions, weighted by density pins), in cm². */
-  readonly areaSquareCm: number;
-  /** Points moved out from under the skin by the collision check (of the guides and of the tufts' centre curves). */
-  readonly pushedOut: number;
-  /**
-   * With tufts: the centre curves guides were drawn onto (the inner level's when there is one; a
-   * guide's curve is its `innerTuft`, else its `tuft`), n points each, and how many centres each level has.
-   */
-  readonly tufts?: { readonly curves: Float64Array; readonly centres: number; readonly innerCentres: number };
-  /** Milliseconds by step; `tuftsMilliseconds` is the tufts' planning (sampling their centres, shaping their curves, assigning guides; their tracing is in `traceMilliseconds`). */
-  readonly timings: { readonly rootsMilliseconds: number; readonly traceMilliseconds: number; readonly shapeMilliseconds: number; readonly tuftsMilliseconds: number };
-}
-
-export type GrowOptions = {
-  /**
-   * Grow at most this many guides, spread over the same area at the same relative density (a
-   * picture of the coat, as thumbnails draw it, need not hold every guide).
-   */
-  readonly sampleOf?: number;
-  /**
-   * Sample the roots on this mesh and place them by face and weights on the surface: the mesh
-   * the groom was first grown on, when the surface is a sculpt pass of it (same triangles, moved
-   * vertices), so every guide keeps its id, polygon and weights. See `rootsOnSculpt`.
-   */
-  readonly rootsFrom?: TriangleMesh;
-  /**
-   * Make the roots mirror-symmetric across this plane (`mirroredRoots`: the positive side's roots
-   * and their mirror images), for a coat whose two sides must mirror each other. The count is then
-   * about the asked one (twice the positive side's share), and ids follow the kept roots' order.
-   */
-  readonly mirrorRootsAcross?: MirrorPlane;
-};
+export type { Guides, GrowResult, GrowOptions } from './grown';
 
 /** What is done to a curve after its shape: drawn onto a tuft's centre curve, wandered. */
 type Shaping = { gatherTo?: { curves: Float64Array; curve: number; gather: Gather }; waver?: WaverParameters };
@@ -133,16 +60,24 @@ function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y:
  * or waver of 0 leaves the points bit for bit as without them; a point drawn with a share of 1
  * lies exactly on its tuft's centre curve (re-set there after the collision check, the curve
  * keeping its own clearance). Without them the guides are those of version 2, bit for bit.
+ * With `guideSets` the top-level `guides` block is not grown: each set grows on its own region with
+ * its own settings (see `growGuideSets`); without them the guides are exactly as before sets existed.
  */
 export function growGuides(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, options: GrowOptions = {}): GrowResult {
-  const settings = spec.guides;
+  const t0 = now();
+  // Each attribute's factor per vertex: its painted map times its pins' blend (place/maps.ts).
+  const pins: AttributeFactors = attributeFactors(spec, surface.mesh, blendPins(spec, surface));
+  if (spec.guideSets) {
+    return growGuideSets(surface, spec, options, t0, (settings, mask, at, setOptions, started) => growSet(surface, solved, spec, settings, mask, pins, at, setOptions, started));
+  }
+  return growSet(surface, solved, spec, spec.guides, growthMask(surface.mesh, spec.guides.regions), pins, 'guides', options, t0);
+}
+
+/** Grows one block of guide settings on the faces of `mask`; `at` is the block's spec path, for the budget's words. */
+function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, settings: GuideSettings, mask: Uint8Array, pins: AttributeFactors, at: string, options: GrowOptions, t0: number): GrowResult {
   const { mesh } = surface;
   const p = mesh.positions;
   const tri = mesh.triangles;
-  const t0 = now();
-  const mask = growthMask(mesh, settings.regions);
-  // Each attribute's factor per vertex: its painted map times its pins' blend (place/maps.ts).
-  const pins: AttributeFactors = attributeFactors(spec, mesh, blendPins(spec, surface));
   const cm2PerUnit2 = CENTIMETRES_PER_UNIT[spec.units] ** 2;
   let area = 0;
   for (let f = 0; f < tri.length / 3; f++) {
@@ -155,8 +90,8 @@ export function growGuides(surface: GroomSurface, solved: SolvedField, spec: Gro
   // A count over budget never passes the schema; a density is checked here, where the area is known.
   const problem = guidePointsProblem(asked, settings.pointsPerGuide);
   if (problem) {
-    const path = settings.count === undefined ? 'guides.density' : 'guides.count';
-    const made = settings.count === undefined ? `guides.density: ${settings.density} guides per cm² over ${Math.round(areaSquareCm)} cm² makes ` : '';
+    const path = settings.count === undefined ? `${at}.density` : `${at}.count`;
+    const made = settings.count === undefined ? `${at}.density: ${settings.density} guides per cm² over ${Math.round(areaSquareCm)} cm² makes ` : '';
     throw new GroomError('too-many-guides', `${made}${problem}`, path);
   }
   const wanted = options.sampleOf !== undefined ? Math.min(asked, options.sampleOf) : asked;

@@ -14,7 +14,12 @@ export function downOf(upAxis: GroomSpec['upAxis']): [number, number, number] {
   return upAxis === 'z' ? [0, 0, -1] : [0, -1, 0];
 }
 
-function curveVertices(surface: GroomSurface, curve: CurveSpec, path: string): number[] {
+/**
+ * The welded vertices a parting or crest passes, anchors joined along mesh edges (closed curves end where they start).
+ *
+ * Guarantees: consecutive vertices share an edge; a GroomError naming `path` for places off the surface or too close together.
+ */
+export function curveVertices(surface: GroomSurface, curve: CurveSpec, path: string): number[] {
   const anchors = curve.points
     ? curve.points.map((point, i) => vertexOfPlace(surface, { point }, `${path}.points[${i}]`))
     : curve.vertices!.map((vertex, i) => vertexOfPlace(surface, { vertex }, `${path}.vertices[${i}]`));

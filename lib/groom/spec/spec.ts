@@ -3,6 +3,9 @@ import { GroomError } from '../errors';
 import { mapSchema } from './maps';
 
 export { MAP_ATTRIBUTES, type MapAttribute } from './maps';
+import { degrees, guideAmount, guidePointsProblem, guidesSchemaV3, notBothAmounts, resolveGuides, size, type GuidesInput } from './guide-settings';
+
+export { MAX_GUIDE_POINTS, MAX_GUIDES, TIP_TAPER, guidePointsProblem } from './guide-settings';
 
 /**
  * The groom spec: every decision of a groom in one versioned JSON document, so that the same spec
@@ -25,8 +28,6 @@ export type PinAttribute = (typeof PIN_ATTRIBUTES)[number];
 
 const vec3 = z.tuple([z.number(), z.number(), z.number()]);
 const fileVertex = z.int().min(0).max(2 ** 32 - 2);
-const degrees = (low: number, high: number) => z.number().min(low).max(high);
-const size = z.number().positive().max(1e6);
 
 const weight = z.number().min(-1e-6).max(1 + 1e-6);
 
@@ -128,95 +129,27 @@ const fieldSchemaV2 = z.strictObject({
 });
 
 /**
- * The hard budget of a groom: guides × points per guide. 4,000,000 points (250,000 guides of 16
- * points, 62,500 of 64) grow and write as USD text in about 650–850 MB, what a job worker with a
- * 1.5 GB budget holds with room to spare; see lib/groom/README.md, "Budgets", for the measurement.
+ * Where a guide set grows: the faces of named OBJ groups (none named: the whole surface), or the
+ * side of one or more partings — the faces reachable from `from` without crossing them.
  */
-export const MAX_GUIDE_POINTS = 4_000_000;
-/** Most guides, at the fewest points per guide (2). */
-export const MAX_GUIDES = MAX_GUIDE_POINTS / 2;
-
-/** The budget's words, shared by the schema (counts) and the grower (densities). */
-export function guidePointsProblem(guides: number, pointsPerGuide: number): string | null {
-  const points = guides * pointsPerGuide;
-  if (points <= MAX_GUIDE_POINTS) return null;
-  const fits = Math.floor(MAX_GUIDE_POINTS / pointsPerGuide);
-  return (
-    `${guides.toLocaleString('en')} guides × ${pointsPerGuide} points is ${points.toLocaleString('en')} points; a groom may have at most ` +
-    `${MAX_GUIDE_POINTS.toLocaleString('en')} (at ${pointsPerGuide} points per guide, ${fits.toLocaleString('en')} guides). Lower the guide count or the points per guide.`
-  );
-}
-
-/** The tip's width as a share of the root's when the spec gives none (what every guide had before version 3). */
-export const TIP_TAPER = 0.2;
-
-const guideAmount = {
-  density: z.number().positive().max(10_000).optional(),
-  count: z.int().min(1).max(MAX_GUIDES).optional(),
-};
-
-function notBothAmounts(value: { density?: number; count?: number }, ctx: z.RefinementCtx): void {
-  if (value.density !== undefined && value.count !== undefined) {
-    ctx.addIssue({ code: 'custom', message: 'give either "density" or "count", not both' });
-  }
-}
-
-/**
- * How strongly a guide is drawn onto its tuft's centre curve along its length: the share of the
- * way at the root and at the tip, with `rise` shaping the curve between them (the share at
- * s ∈ [0, 1] along the guide is root + (tip − root) · s^rise; 1 is a straight ramp, more holds the
- * guide free longer and closes the tuft near the tip).
- */
-const gatherSchema = z.strictObject({
-  root: z.number().min(0).max(1).default(0),
-  tip: z.number().min(0).max(1).default(0.8),
-  rise: z.number().min(0.1).max(10).default(1),
-});
-
-/** One level of tufts: centres sampled over the growth area at `density` per cm², and the draw toward them. */
-const tuftLevelSchema = z.strictObject({
-  density: z.number().positive().max(10_000),
-  gather: gatherSchema.prefault({}),
-});
-
-/** Guides gathered into tufts, optionally split again into finer tufts inside each one. */
-const tuftsSchema = z.strictObject({
-  ...tuftLevelSchema.shape,
-  inner: tuftLevelSchema.optional(),
-  /** Share (0–1) of guides, chosen by the seed, that keep out of every tuft. */
-  loners: z.number().min(0).max(1).default(0),
-});
-
-/** A wander of each guide off its combed line: smooth noise across the guide, growing from the root. */
-const waverSchema = z.strictObject({
-  /** Largest sideways wander, in units, reached at the tip. */
-  amplitude: z.number().min(0).max(1e6),
-  /** Waves of the noise along one guide's length. */
-  waves: z.number().min(0).max(64).default(3),
-});
-
-const guidesSchemaV3 = z
+const setRegionSchema = z
   .strictObject({
-    ...guideAmount,
-    regions: z.array(z.string().min(1).max(200)).max(1000).default([]),
-    length: size.optional(),
-    lift: degrees(0, 90).default(20),
-    droop: z.number().min(0).max(1).default(0.3),
-    curl: z.strictObject({ amplitude: z.number().min(0).max(1e6).optional(), wavelength: size.optional() }).prefault({}),
-    jitter: z.number().min(0).max(1).default(0.1),
-    pointsPerGuide: z.int().min(2).max(64).default(16),
-    seed: z.int().min(0).max(2 ** 32 - 1).default(1),
-    width: size.optional(),
-    tipWidth: z.number().min(0).max(1e6).optional(),
-    hairsPerGuide: z.int().min(1).max(100_000).default(100),
-    tufts: tuftsSchema.optional(),
-    waver: waverSchema.optional(),
+    groups: z.array(z.string().min(1).max(200)).max(1000).optional(),
+    partings: z.array(z.int().min(0).max(63)).min(1).max(64).optional(),
+    from: z.strictObject(placement).superRefine(exactlyOnePlace).optional(),
   })
-  .superRefine(notBothAmounts)
   .superRefine((value, ctx) => {
-    const problem = value.count === undefined ? null : guidePointsProblem(value.count, value.pointsPerGuide);
-    if (problem) ctx.addIssue({ code: 'custom', path: ['count'], message: problem });
+    const bySide = value.partings !== undefined || value.from !== undefined;
+    if (value.groups !== undefined && bySide) ctx.addIssue({ code: 'custom', message: 'give either "groups" or "partings" with "from", not both' });
+    else if (bySide && (value.partings === undefined || value.from === undefined)) ctx.addIssue({ code: 'custom', message: 'a side of a parting needs both "partings" (their numbers in field.partings) and "from" (a place on that side)' });
   });
+
+/** A named guide set: its own region and its own guide settings (the `guides` block's fields). */
+const guideSetSchema = z.strictObject({
+  name: z.string().trim().min(1).max(100),
+  region: setRegionSchema.prefault({}),
+  guides: guidesSchemaV3.prefault({}),
+});
 
 const specSchemaV3 = z
   .strictObject({
@@ -230,6 +163,7 @@ const specSchemaV3 = z
     pins: z.array(pinSchema).max(1024).default([]),
     maps: z.array(mapSchema).max(64).optional(),
     symmetry: symmetrySchema.optional(),
+    guideSets: z.array(guideSetSchema).min(1).max(64).optional(),
   })
   .superRefine((spec, ctx) => {
     spec.maps?.forEach((map, i) => {
@@ -237,6 +171,7 @@ const specSchemaV3 = z
         ctx.addIssue({ code: 'custom', path: ['maps', i, 'attribute'], message: `a map of "${map.attribute}" is already given; one map per attribute` });
       }
     });
+    spec.guideSets?.forEach((set, i) => guideSetProblems(spec, set, i, ctx));
     const order = spec.field.order;
     spec.field.singularities.forEach((s, i) => {
       if (Math.abs(s.index * order - Math.round(s.index * order)) > 1e-9) {
@@ -248,31 +183,33 @@ const specSchemaV3 = z
     // Lengths whose sensible default depends on the declared units are filled here, so that the
     // resolved spec written back out states every decision explicitly.
     const perCm = 1 / CENTIMETRES_PER_UNIT[spec.units];
-    const g = spec.guides;
-    const length = g.length ?? 2 * perCm;
-    const amount = g.count !== undefined ? { count: g.count } : { density: g.density ?? 1 };
-    const width = g.width ?? 0.01 * perCm;
+    const { guideSets, ...rest } = spec;
     return {
-      ...spec,
+      ...rest,
       specVersion: SPEC_VERSION as typeof SPEC_VERSION,
-      guides: {
-        ...amount,
-        regions: g.regions,
-        length,
-        lift: g.lift,
-        droop: g.droop,
-        curl: { amplitude: g.curl.amplitude ?? 0, wavelength: g.curl.wavelength ?? perCm },
-        jitter: g.jitter,
-        pointsPerGuide: g.pointsPerGuide,
-        seed: g.seed,
-        width,
-        tipWidth: g.tipWidth ?? width * TIP_TAPER,
-        hairsPerGuide: g.hairsPerGuide,
-        ...(g.tufts ? { tufts: g.tufts } : {}),
-        ...(g.waver ? { waver: g.waver } : {}),
-      },
+      guides: resolveGuides(spec.guides, perCm),
+      ...(guideSets ? { guideSets: guideSets.map((set) => ({ name: set.name, region: set.region, guides: resolveGuides(set.guides, perCm) })) } : {}),
     };
   });
+
+/** A set's own words: names unique, partings that exist, one points-per-guide for the whole groom. */
+function guideSetProblems(spec: { field: { partings: unknown[] }; guideSets?: { name: string; guides: GuidesInput }[] }, set: { name: string; region: { partings?: number[] }; guides: GuidesInput }, i: number, ctx: z.RefinementCtx): void {
+  const sets = spec.guideSets!;
+  const path = ['guideSets', i];
+  const same = sets.findIndex((other) => other.name === set.name);
+  if (same < i) ctx.addIssue({ code: 'custom', path: [...path, 'name'], message: `${JSON.stringify(set.name)} is already the name of guide set ${same}; every set needs its own name` });
+  set.region.partings?.forEach((p, k) => {
+    if (p >= spec.field.partings.length) ctx.addIssue({ code: 'custom', path: [...path, 'region', 'partings', k], message: `there is no parting ${p}; the spec has ${spec.field.partings.length} (field.partings)` });
+  });
+  if (set.guides.regions.length > 0) ctx.addIssue({ code: 'custom', path: [...path, 'guides', 'regions'], message: 'a guide set grows on its "region"; name its groups in region.groups' });
+  // Counts are known before growing, so their sum is checked here; densities when the areas are known.
+  const counted = sets.slice(0, i + 1).reduce((sum, s) => sum + (s.guides.count ?? 0), 0);
+  const over = set.guides.count !== undefined && guidePointsProblem(counted, set.guides.pointsPerGuide);
+  if (over && counted > set.guides.count!) ctx.addIssue({ code: 'custom', path: [...path, 'guides', 'count'], message: `with this set the groom has ${over}` });
+  const first = sets[0].guides.pointsPerGuide;
+  if (set.guides.pointsPerGuide !== first) ctx.addIssue({ code: 'custom', path: [...path, 'guides', 'pointsPerGuide'], message: `every guide set must have the same points per guide (${first}, as set ${JSON.stringify(sets[0].name)})` });
+}
+
 
 /** A groom spec as written by people and programs (defaults may be left out). */
 export type GroomSpecInput = z.input<typeof specSchemaV3>;
@@ -286,6 +223,9 @@ export type MapSpec = NonNullable<GroomSpec['maps']>[number];
 /** The spec's mirror plane (see `symmetrySchema`). */
 export type SymmetrySpec = NonNullable<GroomSpec['symmetry']>;
 export type GuideSettings = GroomSpec['guides'];
+/** A named guide set of the resolved spec. */
+export type GuideSetSpec = NonNullable<GroomSpec['guideSets']>[number];
+export type GuideSetRegion = GuideSetSpec['region'];
 /** A place on the surface as the spec gives it. */
 export interface PlaceSpec {
   readonly point?: readonly [number, number, number];

@@ -203,11 +203,28 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     }
   });
   const keptRegions = regions.flatMap((r) => (r.to ? [r.to] : []));
+  // A guide set's groups are carried as the top-level regions are (renamed, or left out in words).
+  const setGroups = (spec.guideSets ?? []).map((set, i) =>
+    (set.region.groups ?? []).flatMap((name, k) => {
+      const target = options.regionMap?.[name] ?? name;
+      if (names.includes(target)) return [target];
+      notCarried.push({ path: `guideSets[${i}].region.groups[${k}]`, reason: `the new surface has no group ${JSON.stringify(target)}` });
+      return [];
+    }),
+  );
 
   // Maps are factors, so they need no unit conversion; only where each new vertex reads them.
   const carried = spec.maps?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale) : undefined;
   const perUnit = CENTIMETRES_PER_UNIT[fromUnits] / CENTIMETRES_PER_UNIT[toUnits];
   const g = spec.guides;
+  const scaled = <T extends typeof g>(block: T): T => ({
+    ...block,
+    length: block.length * perUnit,
+    width: block.width * perUnit,
+    tipWidth: block.tipWidth * perUnit,
+    curl: { amplitude: block.curl.amplitude * perUnit, wavelength: block.curl.wavelength * perUnit },
+    ...(block.waver ? { waver: { ...block.waver, amplitude: block.waver.amplitude * perUnit } } : {}),
+  });
   const direction = spec.field.referenceDirection ? alignDirection(alignment, spec.field.referenceDirection) : undefined;
   const newSpec = parseGroomSpec({
     ...placed.spec,
@@ -223,6 +240,9 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
       width: g.width * perUnit,
       curl: { amplitude: g.curl.amplitude * perUnit, wavelength: g.curl.wavelength * perUnit },
     },
+    ...(spec.guideSets
+      ? { guideSets: spec.guideSets.map((set, i) => ({ ...set, region: set.region.groups ? { groups: setGroups[i] } : set.region, guides: scaled(set.guides) })) }
+      : {}),
   });
 
   let budget: TransferReport['budget'] = [];

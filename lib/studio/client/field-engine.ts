@@ -290,6 +290,7 @@ export class FieldEngine {
       points: Float32Array.from(grown.guides.points),
       areaSquareCm: grown.areaSquareCm,
       milliseconds: spent,
+      ...(grown.guides.sets ? { sets: grown.guides.sets.map(({ name, first, count }) => ({ name, first, count })) } : {}),
     };
   }
 
@@ -303,15 +304,19 @@ export class FieldEngine {
   }
 
   private expectedGuides(spec: GroomSpec, surface: GroomSurface): number {
-    if (spec.guides.count !== undefined) return spec.guides.count;
-    let area = 0;
-    try {
-      const mask = growthMask(surface.mesh, spec.guides.regions);
-      for (let f = 0; f < mask.length; f++) if (mask[f]) area += surface.faceArea[f];
-    } catch {
-      area = this.requireDrawing().totalArea;
-    }
-    return Math.round((spec.guides.density ?? 1) * area * CENTIMETRES_PER_UNIT[spec.units] ** 2);
+    // Each guide set on its groups (a side of a parting is counted as the whole surface: an estimate only).
+    const blocks = spec.guideSets ? spec.guideSets.map((set) => ({ guides: set.guides, groups: set.region.groups ?? [] })) : [{ guides: spec.guides, groups: spec.guides.regions }];
+    return blocks.reduce((sum, { guides, groups }) => {
+      if (guides.count !== undefined) return sum + guides.count;
+      let area = 0;
+      try {
+        const mask = growthMask(surface.mesh, groups);
+        for (let f = 0; f < mask.length; f++) if (mask[f]) area += surface.faceArea[f];
+      } catch {
+        area = this.requireDrawing().totalArea;
+      }
+      return sum + Math.round((guides.density ?? 1) * area * CENTIMETRES_PER_UNIT[spec.units] ** 2);
+    }, 0);
   }
 
   /**

@@ -156,6 +156,8 @@ export interface GrownGuides {
   readonly points: Float32Array;
   readonly areaSquareCm: number;
   readonly milliseconds: number;
+  /** With guide sets: each set's name and run of guides (set after set, in the spec's order). */
+  readonly sets?: readonly { readonly name: string; readonly first: number; readonly count: number }[];
 }
 
 export interface CurvePath {

@@ -1,7 +1,7 @@
 // Every change the studio makes to a groom spec, as plain data: applied by one pure function,
 // named in words for the undo history, checked with the groom library's own schema before it
 // is accepted. The spec is never changed in place.
-import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec, type SymmetrySpec } from '@/lib/groom/spec/spec';
+import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSetSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec, type SymmetrySpec } from '@/lib/groom/spec/spec';
 import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureKind, type FeatureRef, type Vec3 } from './features';
 import { mirrorOf, mirroredValue, partnerOf, type FeatureValue, type Mirror } from './mirror-edits';
 
@@ -22,6 +22,10 @@ export type SpecEdit =
   | { readonly type: 'set-guides'; readonly guides: GuideSettings }
   | { readonly type: 'set-field'; readonly settings: Partial<FieldSettings> }
   | { readonly type: 'set-symmetry'; readonly symmetry: SymmetrySpec | null }
+  /** A new guide set at the end; the groom's first set takes its one block of settings with it (see `withGuideSet`). */
+  | { readonly type: 'add-guide-set'; readonly set: GuideSetSpec }
+  | { readonly type: 'update-guide-set'; readonly index: number; readonly set: GuideSetSpec; readonly what: 'rename' | 'region' | 'settings' }
+  | { readonly type: 'remove-guide-set'; readonly index: number }
   | { readonly type: 'replace'; readonly spec: GroomSpec; readonly label: string };
 
 /** The index of a whorl and of a saddle, the two singularities the tools and the side list add by name. */
@@ -163,9 +167,38 @@ function applyOne(spec: GroomSpec, edit: SpecEdit): GroomSpec {
       const { symmetry: _off, ...rest } = spec;
       return edit.symmetry ? { ...spec, symmetry: edit.symmetry } : rest;
     }
+    case 'add-guide-set':
+      return withGuideSet(spec, edit.set);
+    case 'update-guide-set':
+      return { ...spec, guideSets: replaced(spec.guideSets ?? [], edit.index, edit.set) };
+    case 'remove-guide-set':
+      return withoutGuideSet(spec, edit.index);
     case 'replace':
       return edit.spec;
   }
+}
+
+/** The name the groom's one block of settings carries when it becomes the first of several sets. */
+export const FIRST_SET_NAME = 'Whole coat';
+
+/**
+ * The spec with one more guide set. A groom without sets first turns its one block of settings
+ * into a set (named `FIRST_SET_NAME`, on the groups it grew on), so what it grew before it still
+ * grows, the same guides, beside the new set.
+ */
+function withGuideSet(spec: GroomSpec, set: GuideSetSpec): GroomSpec {
+  if (spec.guideSets) return { ...spec, guideSets: [...spec.guideSets, set] };
+  const { regions, ...settings } = spec.guides;
+  return { ...spec, guideSets: [{ name: FIRST_SET_NAME, region: { groups: regions }, guides: { ...settings, regions: [] } }, set] };
+}
+
+/** The spec without a set; taking away the last one gives the groom back one block: that set's settings, on its groups. */
+function withoutGuideSet(spec: GroomSpec, index: number): GroomSpec {
+  const sets = without(spec.guideSets ?? [], index);
+  if (sets.length > 0) return { ...spec, guideSets: sets };
+  const { guideSets: _gone, ...rest } = spec;
+  const last = spec.guideSets![index];
+  return { ...rest, guides: { ...last.guides, regions: last.region.groups ?? [] } };
 }
 
 function without<T>(list: readonly T[], index: number): T[] {
@@ -179,7 +212,7 @@ function removeFeature(spec: GroomSpec, ref: FeatureRef): GroomSpec {
     case 'singularity':
       return { ...spec, field: { ...field, singularities: without(field.singularities, ref.index) } };
     case 'parting':
-      return { ...spec, field: { ...field, partings: without(field.partings, ref.index) } };
+      return { ...spec, field: { ...field, partings: without(field.partings, ref.index) }, ...(spec.guideSets ? { guideSets: setsWithoutParting(spec.guideSets, ref.index) } : {}) };
     case 'crest':
       return { ...spec, field: { ...field, crests: without(field.crests, ref.index) } };
     case 'stroke':
@@ -187,6 +220,20 @@ function removeFeature(spec: GroomSpec, ref: FeatureRef): GroomSpec {
     case 'pin':
       return { ...spec, pins: without(spec.pins, ref.index) };
   }
+}
+
+/**
+ * The guide sets once parting `index` is gone: later partings' numbers move down by one. A set that
+ * grows on a side of that parting alone would be left without a region, so the edit is refused in words.
+ */
+function setsWithoutParting(sets: readonly GuideSetSpec[], index: number): GuideSetSpec[] {
+  return sets.map((set) => {
+    const partings = set.region.partings;
+    if (!partings) return set;
+    const kept = partings.filter((p) => p !== index).map((p) => (p > index ? p - 1 : p));
+    if (kept.length === 0) throw new Error(`Guide set “${set.name}” grows on one side of this parting; give the set another region before deleting it.`);
+    return { ...set, region: { ...set.region, partings: kept } };
+  });
 }
 
 /** The words the undo history shows for an edit ("Move whorl 2", "Add parting 1"), "on both sides" when mirrored. */
@@ -226,6 +273,14 @@ function describeOne(before: GroomSpec, edit: SpecEdit): string {
       return 'Change field settings';
     case 'set-symmetry':
       return edit.symmetry ? 'Turn twin sides on' : 'Turn twin sides off';
+    case 'add-guide-set':
+      return `Add guide set “${edit.set.name}”`;
+    case 'update-guide-set': {
+      const name = before.guideSets?.[edit.index]?.name ?? `${edit.index + 1}`;
+      return edit.what === 'rename' ? `Rename guide set “${name}” to “${edit.set.name}”` : `Change ${edit.what === 'region' ? 'where' : 'how'} guide set “${name}” grows`;
+    }
+    case 'remove-guide-set':
+      return `Delete guide set “${before.guideSets?.[edit.index]?.name ?? edit.index + 1}”`;
     case 'replace':
       return edit.label;
   }

@@ -52,6 +52,31 @@ describe('whorlwind-groom command line', () => {
     expect(readFileSync(join(folder, 't.obj'), 'utf8')).toMatch(/^#whorlwind-shape 0 -?\d+ -?\d+ /m);
   });
 
+  it('grows guide sets on the two sides of a closed parting and reports each set', () => {
+    const ring = Array.from({ length: 12 }, (_x, i) => [5 * Math.cos((i * Math.PI) / 6), 0, 5 * Math.sin((i * Math.PI) / 6)]);
+    writeFileSync(
+      join(folder, 'sides.json'),
+      JSON.stringify({
+        specVersion: 3,
+        units: 'cm',
+        field: { singularities: [{ point: [0, 5, 0], index: 1 }, { point: [0, -5, 0], index: 1, twist: 180 }], partings: [{ points: ring, closed: true }] },
+        guideSets: [
+          { name: 'north cap', region: { partings: [0], from: { point: [0, 5, 0] } }, guides: { density: 1, length: 0.5 } },
+          { name: 'south cap', region: { partings: [0], from: { point: [0, -5, 0] } }, guides: { density: 2, length: 1.5 } },
+        ],
+      }),
+    );
+    const r = run('--surface', 'ball.obj', '--spec', 'sides.json', '--out', 'sides.usda', '--out', 'sides.obj', '--stats');
+    expect(r.stderr).toEqual([]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/set\s+"north cap": \d+ guides over [\d.]+ cm²/);
+    expect(r.stdout).toMatch(/set\s+"south cap": \d+ guides over [\d.]+ cm²/);
+    const usda = readFileSync(join(folder, 'sides.usda'), 'utf8');
+    expect(usda).toContain('def BasisCurves "north_cap"');
+    expect(usda).toContain('def BasisCurves "south_cap"');
+    expect(readFileSync(join(folder, 'sides.obj'), 'utf8')).toMatch(/^g south_cap$/m);
+  });
+
   it('writes the growth surface beside the guides with --with-surface, and the release in the provenance', () => {
     const r = run('--surface', 'ball.obj', '--spec', 'coat.json', '--out', 's.usda', '--out', 's.obj', '--with-surface');
     expect(r.stderr).toEqual([]);
