@@ -1,27 +1,16 @@
 // Read the grain: the editor's suggested layout (the smoothest field with free singularities)
 // shown as grain marks, taken all at once, and the field then solved and measured with exactly
 // those singularities; dismissing and undoing put things back.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import { closeDb } from '../../lib/platform/db';
-import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
-import { openPanel, waitForField } from './studio-helpers';
+import { openPanel, openPracticeFox } from './studio-helpers';
 
 test.afterAll(closeDb);
 
-async function openPracticeFox(page: Page) {
-  await page.goto('/studio/practice/bramble-fox-head');
-  if (new URL(page.url()).pathname === '/signin') {
-    const account = await confirmedAccount('grain', 'groomer', 'a-proper-coat-42');
-    await signInThroughForm(page, account.email, account.password);
-    await expectSignedInAs(page, account.displayName);
-    await page.goto('/studio/practice/bramble-fox-head');
-  }
-  await waitForField(page);
-}
 
 test('reading the grain on the fox: marks shown, taken all at once, the field proved with exactly those singularities', async ({ page }) => {
   test.setTimeout(180_000);
-  await openPracticeFox(page);
+  await openPracticeFox(page, 'grain');
   const rows = page.getByTestId('feature-row');
   const singularRows = rows.filter({ hasText: /^(Whorl|Saddle)/ });
   const placedBefore = await singularRows.count();

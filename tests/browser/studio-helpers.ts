@@ -1,6 +1,7 @@
 // Steps the studio's browser tests (and the studio benchmark) share.
 import { expect, type Locator, type Page } from '@playwright/test';
 import sharp from 'sharp';
+import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
 
 /** Types a number into a field of the side list and applies it (Enter), as a groomer would. */
 export async function typeNumber(field: Locator, value: number) {
@@ -16,6 +17,21 @@ export async function typePoint(group: Locator, point: readonly number[], prefix
 export async function openPanel(page: Page, name: 'Features' | 'Guides' | 'Field & view' | 'Versions' | 'Export') {
   await page.getByRole('tab', { name }).click();
   await expect(page.getByRole('tab', { name })).toHaveAttribute('aria-selected', 'true');
+}
+
+/**
+ * Opens the practice fox in the editor (signing in as a new groomer, named by `label`, when the
+ * page asks for it) and waits for its first field.
+ */
+export async function openPracticeFox(page: Page, label: string) {
+  await page.goto('/studio/practice/bramble-fox-head');
+  if (new URL(page.url()).pathname === '/signin') {
+    const account = await confirmedAccount(label, 'groomer', 'a-proper-coat-42');
+    await signInThroughForm(page, account.email, account.password);
+    await expectSignedInAs(page, account.displayName);
+    await page.goto('/studio/practice/bramble-fox-head');
+  }
+  await waitForField(page);
 }
 
 /** Waits until the editor has opened its surface and drawn a field. */

@@ -1,27 +1,16 @@
 // Twin sides on the demo fox: the switch finds Bramble's mirror plane (x = 0, the fox is sculpted
 // symmetric), and one whorl placed with the pointer off the middle appears on both sides — two
 // rows in the feature list at mirrored places — as one edit that one undo takes back.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import { closeDb } from '../../lib/platform/db';
-import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
-import { waitForField } from './studio-helpers';
+import { openPracticeFox } from './studio-helpers';
 
 test.afterAll(closeDb);
 
-async function openPracticeFox(page: Page) {
-  await page.goto('/studio/practice/bramble-fox-head');
-  if (new URL(page.url()).pathname === '/signin') {
-    const account = await confirmedAccount('twin-sides', 'groomer', 'a-proper-coat-42');
-    await signInThroughForm(page, account.email, account.password);
-    await expectSignedInAs(page, account.displayName);
-    await page.goto('/studio/practice/bramble-fox-head');
-  }
-  await waitForField(page);
-}
 
 test('twin sides on the fox: the plane found, one whorl placed appears mirrored, one undo takes both', async ({ page }) => {
   test.setTimeout(180_000);
-  await openPracticeFox(page);
+  await openPracticeFox(page, 'twin-sides');
   const twin = page.getByRole('group', { name: 'Twin sides' });
   // The switch turns on once the field worker has found the plane: a click, then its state.
   await twin.getByRole('checkbox').click();
