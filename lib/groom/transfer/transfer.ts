@@ -233,13 +233,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     field: { ...placed.spec.field, ...(direction ? { referenceDirection: direction } : {}) },
     ...(carried ? { maps: carried.maps } : {}),
     ...(spec.symmetry ? { symmetry: carriedSymmetry(spec.symmetry, alignment) } : {}),
-    guides: {
-      ...g,
-      regions: keptRegions,
-      length: g.length * perUnit,
-      width: g.width * perUnit,
-      curl: { amplitude: g.curl.amplitude * perUnit, wavelength: g.curl.wavelength * perUnit },
-    },
+    guides: { ...scaled(g), regions: keptRegions },
     ...(spec.guideSets
       ? { guideSets: spec.guideSets.map((set, i) => ({ ...set, region: set.region.groups ? { groups: setGroups[i] } : set.region, guides: scaled(set.guides) })) }
       : {}),

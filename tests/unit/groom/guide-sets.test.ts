@@ -174,4 +174,19 @@ describe('guide sets carried onto another surface', () => {
     expect(under.region).toEqual({ groups: [] });
     expect(report.notCarried).toContainEqual({ path: 'guideSets[1].region.groups[0]', reason: 'the new surface has no group "south"' });
   });
+
+  it('states the groom’s own block in the new units too: length, both widths, curl and the waver', async () => {
+    const { transferSpec } = await import('@/lib/groom/transfer/transfer');
+    const { identityOfMesh } = await import('@/lib/groom/transfer/identity');
+    const scaled = { ...mesh, positions: mesh.positions.map((x) => 10 * x) };
+    const spec = parseGroomSpec({ specVersion: 3, units: 'cm', field, guides: { count: 50, length: 0.6, width: 0.02, tipWidth: 0.005, curl: { amplitude: 0.1, wavelength: 0.4 }, waver: { amplitude: 0.05 } } });
+    const side = (m: typeof mesh, units?: 'mm') => ({ surface: prepareGroomSurface(m), identity: identityOfMesh(m), ...(units ? { units } : {}) });
+    const { guides } = transferSpec(spec, side(mesh), side(scaled, 'mm')).spec;
+    // 1 cm = 10 mm.
+    expect(guides.length).toBeCloseTo(6, 9);
+    expect(guides.width).toBeCloseTo(0.2, 9);
+    expect(guides.tipWidth).toBeCloseTo(0.05, 9);
+    expect(guides.curl).toEqual({ amplitude: expect.closeTo(1, 9), wavelength: expect.closeTo(4, 9) });
+    expect(guides.waver!.amplitude).toBeCloseTo(0.5, 9);
+  });
 });
