@@ -138,6 +138,10 @@ function namer(numbering: FileNumbering | undefined) {
       const shown = map(where, items);
       return shown ? { inFile: shown, inFileFrom: numbering!.from } : {};
     },
+    /** A problem whose message names `listed` (the examples unless given) where `words` puts them. */
+    problem(code: string, severity: Problem['severity'], where: 'vertex' | 'face' | 'edge', count: number, examples: readonly number[], words: (at: string) => string, listed = examples): Problem {
+      return { code, severity, message: words(this.list(where, listed)), count, examples, where, ...this.inFile(where, examples) };
+    },
   };
 }
 
@@ -187,15 +191,7 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     else nonFinite.add(v);
   }
   if (nonFinite.count > 0) {
-    problems.push({
-      code: 'non-finite-coordinates',
-      severity: 'error',
-      message: `${plural(nonFinite.count, 'vertex has', 'vertices have')} a coordinate that is not a number or is infinite (${named.list('vertex', nonFinite.items)}).`,
-      count: nonFinite.count,
-      examples: nonFinite.items,
-      where: 'vertex',
-      ...named.inFile('vertex', nonFinite.items),
-    });
+    problems.push(named.problem('non-finite-coordinates', 'error', 'vertex', nonFinite.count, nonFinite.items, (at) => `${plural(nonFinite.count, 'vertex has', 'vertices have')} a coordinate that is not a number or is infinite (${at}).`));
   }
 
   // Faces with three different, existing vertices take part in the edge analysis; the others are
@@ -234,61 +230,21 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     if (!((2 * areas[f]) / Math.sqrt(longest) > tolerance * Math.sqrt(longest))) degenerate.add(f);
   }
   if (outOfRange.count > 0) {
-    problems.push({
-      code: 'vertex-out-of-range',
-      severity: 'error',
-      message: `${plural(outOfRange.count, 'face refers', 'faces refer')} to vertices the surface does not have (it has ${nV}): ${named.list('face', outOfRange.items)}.`,
-      count: outOfRange.count,
-      examples: outOfRange.items,
-      where: 'face',
-      ...named.inFile('face', outOfRange.items),
-    });
+    problems.push(named.problem('vertex-out-of-range', 'error', 'face', outOfRange.count, outOfRange.items, (at) => `${plural(outOfRange.count, 'face refers', 'faces refer')} to vertices the surface does not have (it has ${nV}): ${at}.`));
   }
   if (degenerate.count > 0) {
-    problems.push({
-      code: 'degenerate-faces',
-      severity: 'error',
-      message: `${plural(degenerate.count, 'face has', 'faces have')} no area: their corners lie on one line or coincide (${named.list('face', degenerate.items)}). A direction cannot be laid on them; remove or repair them.`,
-      count: degenerate.count,
-      examples: degenerate.items,
-      where: 'face',
-      ...named.inFile('face', degenerate.items),
-    });
+    problems.push(named.problem('degenerate-faces', 'error', 'face', degenerate.count, degenerate.items, (at) => `${plural(degenerate.count, 'face has', 'faces have')} no area: their corners lie on one line or coincide (${at}). A direction cannot be laid on them; remove or repair them.`));
   }
 
   const edges = analyseEdges(tri, nV, valid);
   if (edges.nonManifold.count > 0) {
-    problems.push({
-      code: 'non-manifold-edge',
-      severity: 'error',
-      message: `${plural(edges.nonManifold.count, 'edge is', 'edges are')} shared by more than two faces (${named.list('edge', edges.nonManifold.items)}). Every edge may have at most one face on each side.`,
-      count: edges.nonManifold.count,
-      examples: edges.nonManifold.items,
-      where: 'edge',
-      ...named.inFile('edge', edges.nonManifold.items),
-    });
+    problems.push(named.problem('non-manifold-edge', 'error', 'edge', edges.nonManifold.count, edges.nonManifold.items, (at) => `${plural(edges.nonManifold.count, 'edge is', 'edges are')} shared by more than two faces (${at}). Every edge may have at most one face on each side.`));
   }
   if (edges.misoriented.count > 0) {
-    problems.push({
-      code: 'inconsistent-orientation',
-      severity: 'error',
-      message: `${plural(edges.misoriented.count, 'edge joins', 'edges join')} faces that face opposite ways (${named.list('edge', edges.misoriented.items)}): some faces are flipped. Unify the normals so that all point out of the skin.`,
-      count: edges.misoriented.count,
-      examples: edges.misoriented.items,
-      where: 'edge',
-      ...named.inFile('edge', edges.misoriented.items),
-    });
+    problems.push(named.problem('inconsistent-orientation', 'error', 'edge', edges.misoriented.count, edges.misoriented.items, (at) => `${plural(edges.misoriented.count, 'edge joins', 'edges join')} faces that face opposite ways (${at}): some faces are flipped. Unify the normals so that all point out of the skin.`));
   }
   if (edges.pinched.count > 0) {
-    problems.push({
-      code: 'non-manifold-vertex',
-      severity: 'error',
-      message: `At ${plural(edges.pinched.count, 'vertex', 'vertices')}, pieces of surface touch at a single point (${named.list('vertex', edges.pinched.items)}). Split or separate them.`,
-      count: edges.pinched.count,
-      examples: edges.pinched.items,
-      where: 'vertex',
-      ...named.inFile('vertex', edges.pinched.items),
-    });
+    problems.push(named.problem('non-manifold-vertex', 'error', 'vertex', edges.pinched.count, edges.pinched.items, (at) => `At ${plural(edges.pinched.count, 'vertex', 'vertices')}, pieces of surface touch at a single point (${at}). Split or separate them.`));
   }
 
   const isolated = new Examples();
@@ -298,52 +254,20 @@ export function checkSurface(mesh: TriangleMesh, options: CheckSurfaceOptions = 
     else isolated.add(v);
   }
   if (isolated.count > 0) {
-    problems.push({
-      code: 'isolated-vertices',
-      severity: 'warning',
-      message: `${plural(isolated.count, 'vertex belongs', 'vertices belong')} to no face (${named.list('vertex', isolated.items)}); they are ignored.`,
-      count: isolated.count,
-      examples: isolated.items,
-      where: 'vertex',
-      ...named.inFile('vertex', isolated.items),
-    });
+    problems.push(named.problem('isolated-vertices', 'warning', 'vertex', isolated.count, isolated.items, (at) => `${plural(isolated.count, 'vertex belongs', 'vertices belong')} to no face (${at}); they are ignored.`));
   }
   if (edges.componentCount > 1) {
-    problems.push({
-      code: 'several-components',
-      severity: 'warning',
-      message: `The surface is made of ${edges.componentCount} separate pieces (first ${named.list('face', edges.componentStarts)}). Each piece gets its own field, and on each closed piece the singularities must add up on their own.`,
-      count: edges.componentCount,
-      examples: edges.componentStarts.slice(0, EXAMPLE_LIMIT),
-      where: 'face',
-      ...named.inFile('face', edges.componentStarts.slice(0, EXAMPLE_LIMIT)),
-    });
+    problems.push(named.problem('several-components', 'warning', 'face', edges.componentCount, edges.componentStarts.slice(0, EXAMPLE_LIMIT), (at) => `The surface is made of ${edges.componentCount} separate pieces (first ${at}). Each piece gets its own field, and on each closed piece the singularities must add up on their own.`, edges.componentStarts));
   }
 
   const describe = options.describe ?? true;
   // Without cornerUvs the UV facts are "none", at no cost.
   const uvs = uvFacts({ ...whole, cornerUvs: describe ? mesh.cornerUvs : undefined });
   if (uvs.overlappingFaces.count > 0) {
-    problems.push({
-      code: 'uvs-overlap',
-      severity: 'warning',
-      message: `The UVs of ${plural(uvs.overlappingFaces.count, 'face overlap', 'faces overlap')} others (${(100 * uvs.overlapFraction).toFixed(1)} % of the map is used twice; ${named.list('face', uvs.overlappingFaces.examples)}). Places and guide roots are still bound by polygon, but moving a groom to another surface by UV is ambiguous there.`,
-      count: uvs.overlappingFaces.count,
-      examples: uvs.overlappingFaces.examples,
-      where: 'face',
-      ...named.inFile('face', uvs.overlappingFaces.examples),
-    });
+    problems.push(named.problem('uvs-overlap', 'warning', 'face', uvs.overlappingFaces.count, uvs.overlappingFaces.examples, (at) => `The UVs of ${plural(uvs.overlappingFaces.count, 'face overlap', 'faces overlap')} others (${(100 * uvs.overlapFraction).toFixed(1)} % of the map is used twice; ${at}). Places and guide roots are still bound by polygon, but moving a groom to another surface by UV is ambiguous there.`));
   }
   if (uvs.collapsedFaces.count > 0) {
-    problems.push({
-      code: 'uvs-collapsed',
-      severity: 'warning',
-      message: `${plural(uvs.collapsedFaces.count, 'face has', 'faces have')} UVs of no area (${named.list('face', uvs.collapsedFaces.examples)}): a UV names no single point there.`,
-      count: uvs.collapsedFaces.count,
-      examples: uvs.collapsedFaces.examples,
-      where: 'face',
-      ...named.inFile('face', uvs.collapsedFaces.examples),
-    });
+    problems.push(named.problem('uvs-collapsed', 'warning', 'face', uvs.collapsedFaces.count, uvs.collapsedFaces.examples, (at) => `${plural(uvs.collapsedFaces.count, 'face has', 'faces have')} UVs of no area (${at}): a UV names no single point there.`));
   }
 
   const ok = !problems.some((problem) => problem.severity === 'error');
