@@ -1,10 +1,11 @@
 // Limits on the requests that send account mail (sign-up, a new confirmation link, a reset link):
 // without them anyone could make Whorlwind mail an address over and over, or tie up the mail
 // service. Requests are rows in PostgreSQL (account_requests), like sign-in attempts, so the
-// limits hold across server processes; the caller takes an advisory lock per address first.
+// limits hold across server processes; the caller takes the address's lock (lockAddress) first.
 // The numbers are common practice, with no source: enough for a person who mistyped or waited
 // for a slow mail, far too few to be of use for flooding.
 import type { Knex } from 'knex';
+import { countWithinMinutes, lockUntilCommit } from '../platform/db';
 
 export type MailAction = 'sign-up' | 'verify-email' | 'reset-password';
 
@@ -18,7 +19,7 @@ export const TOO_MANY_MAIL_REQUESTS = `Too many e-mails were asked for this addr
 
 /** Serialises the account-mail requests of one address (sign-up, links) until the transaction ends. */
 export async function lockAddress(trx: Knex.Transaction, email: string): Promise<void> {
-  await trx.raw(`SELECT pg_advisory_xact_lock(hashtext('account-mail:' || ?))`, [email]);
+  await lockUntilCommit(trx, `account-mail:${email}`);
 }
 
 /**
@@ -26,16 +27,8 @@ export async function lockAddress(trx: Knex.Transaction, email: string): Promise
  * nothing when it is not (so waiting always lifts the limit). Run under lockAddress.
  */
 export async function admitMailRequest(trx: Knex.Transaction, action: MailAction, email: string, clientAddress: string | null): Promise<boolean> {
-  const since = trx.raw(`now() - make_interval(mins => ?)`, [MAIL_WINDOW_MINUTES]);
-  const [byAddress] = await trx('account_requests').where({ email }).where('requested_at', '>', since).count<{ count: string }[]>('* as count');
-  if (Number(byAddress.count) >= MAIL_REQUESTS_PER_ADDRESS) return false;
-  if (clientAddress !== null) {
-    const [byClient] = await trx('account_requests')
-      .where({ client_address: clientAddress })
-      .where('requested_at', '>', since)
-      .count<{ count: string }[]>('* as count');
-    if (Number(byClient.count) >= MAIL_REQUESTS_PER_CLIENT) return false;
-  }
+  if ((await countWithinMinutes(trx, 'account_requests', { email }, 'requested_at', MAIL_WINDOW_MINUTES)) >= MAIL_REQUESTS_PER_ADDRESS) return false;
+  if (clientAddress !== null && (await countWithinMinutes(trx, 'account_requests', { client_address: clientAddress }, 'requested_at', MAIL_WINDOW_MINUTES)) >= MAIL_REQUESTS_PER_CLIENT) return false;
   await trx('account_requests').insert({ action, email, client_address: clientAddress });
   return true;
 }

@@ -8,7 +8,7 @@
 // whose address is unknown (no trusted proxy, see client-address.ts) counts as one client, so
 // there the pair is the address alone.
 import type { Knex } from 'knex';
-import { db } from '../platform/db';
+import { db, lockUntilCommit } from '../platform/db';
 import { passwordMatches, spendComparisonTime } from './passwords';
 import { rolesOf } from './users';
 import type { Role } from './roles';
@@ -51,7 +51,7 @@ export async function checkCredentials(credentials: unknown, clientAddress: stri
   const { email, password } = parsed.data;
 
   return db().transaction(async (trx) => {
-    await trx.raw(`SELECT pg_advisory_xact_lock(hashtext('sign-in:' || ?))`, [email]);
+    await lockUntilCommit(trx, `sign-in:${email}`);
 
     // Refused attempts are not recorded, so waiting out the back-off always lifts the lock.
     if ((await pairLocked(trx, email, clientAddress)) || (clientAddress !== null && (await clientFailures(trx, clientAddress)) >= MAX_FAILURES_PER_CLIENT)) {

@@ -16,7 +16,7 @@
 // provider answers with the transfer it already made instead of paying again.
 import { createHash, randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
-import { db } from '../platform/db';
+import { db, lockUntilCommit } from '../platform/db';
 import { env } from '../platform/env';
 import { payments } from '../platform/payments';
 import { HttpError } from '../http/errors';
@@ -165,7 +165,7 @@ function payoutKey(sellerId: string, items: Item[], failedBefore: number): strin
 export async function requestPayout(actor: Actor, currency?: Currency): Promise<Payout> {
   const sellerId = actor.userId;
   const row = await db().transaction(async (trx): Promise<PayoutRow> => {
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`payout:${sellerId}`]);
+    await lockUntilCommit(trx, `payout:${sellerId}`);
     const inFlight = await trx('payouts')
       .where({ seller_id: sellerId, status: 'pending' })
       .modify((query) => (currency ? query.where({ currency }) : query))

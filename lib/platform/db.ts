@@ -32,3 +32,20 @@ export function isUniqueViolation(error: unknown, constraint?: string): boolean 
   const pgError = error as { code?: string; constraint?: string };
   return pgError?.code === UNIQUE_VIOLATION && (constraint === undefined || pgError.constraint === constraint);
 }
+
+/**
+ * Holds PostgreSQL's transaction-level advisory lock named by `key` until `trx` ends, so work on
+ * one key (an address's mail, a seller's payout…) runs one transaction at a time in every process.
+ */
+export async function lockUntilCommit(trx: Knex.Transaction, key: string): Promise<void> {
+  await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [key]);
+}
+
+/** How many rows of `table` matching `where` have `column` within the last `minutes` (by the database's clock). */
+export async function countWithinMinutes(trx: Knex.Transaction, table: string, where: Record<string, unknown>, column: string, minutes: number): Promise<number> {
+  const [{ count }] = await trx(table)
+    .where(where)
+    .where(column, '>', trx.raw('now() - make_interval(mins => ?)', [minutes]))
+    .count<{ count: string }[]>('* as count');
+  return Number(count);
+}

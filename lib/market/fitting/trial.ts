@@ -6,7 +6,7 @@
 // processes, and a refused request records nothing (waiting always lifts the limit).
 import type { Actor } from '../../accounts/actor';
 import { HttpError } from '../../http/errors';
-import { db } from '../../platform/db';
+import { countWithinMinutes, db, lockUntilCommit } from '../../platform/db';
 import { notFound } from '../errors';
 import type { PresetTransferView } from '../types';
 import { readySurfaceOf } from './fit';
@@ -28,12 +28,8 @@ export async function startTrial(actor: Actor, listingId: string, surfaceId: str
   if (listing.seller_id === actor.userId) throw new HttpError(403, 'own-listing', 'This is your own preset: open it in the studio instead of trying it.');
   const surface = await readySurfaceOf(actor, surfaceId);
   const id = await db().transaction(async (trx) => {
-    await trx.raw(`SELECT pg_advisory_xact_lock(hashtext('market-trials:' || ?))`, [actor.userId]);
-    const [{ count }] = await trx('preset_transfers')
-      .where({ buyer_id: actor.userId, kind: 'trial' })
-      .where('created_at', '>', trx.raw(`now() - make_interval(mins => ?)`, [TRIAL_WINDOW_MINUTES]))
-      .count<{ count: string }[]>('* as count');
-    if (Number(count) >= TRIALS_PER_BUYER) throw new HttpError(429, 'too-many-requests', TOO_MANY_TRIALS);
+    await lockUntilCommit(trx, `market-trials:${actor.userId}`);
+    if ((await countWithinMinutes(trx, 'preset_transfers', { buyer_id: actor.userId, kind: 'trial' }, 'created_at', TRIAL_WINDOW_MINUTES)) >= TRIALS_PER_BUYER) throw new HttpError(429, 'too-many-requests', TOO_MANY_TRIALS);
     const [row] = await trx('preset_transfers').insert({ kind: 'trial', buyer_id: actor.userId, listing_id: listing.id, target_surface_id: surface.id }).returning('id');
     return row.id as string;
   });

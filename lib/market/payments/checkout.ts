@@ -1,7 +1,7 @@
 // Checkout: a Checkout Session at the payment provider for one published listing, with the price
 // taken from the database. A buyer cannot buy their own listing or one they already own; a second
 // click while a checkout is open returns the same checkout instead of a second payment.
-import { db } from '../../platform/db';
+import { db, lockUntilCommit } from '../../platform/db';
 import { env } from '../../platform/env';
 import { payments } from '../../platform/payments';
 import { HttpError } from '../../http/errors';
@@ -28,7 +28,7 @@ export async function startCheckout(actor: Actor, listingId: string, options: { 
   const waivedAt = options.waiveCancellation ? new Date() : null;
   return db().transaction(async (trx) => {
     // One checkout decision at a time per buyer and listing (two quick clicks, two tabs).
-    await trx.raw('SELECT pg_advisory_xact_lock(hashtext(?))', [`checkout:${listingId}:${actor.userId}`]);
+    await lockUntilCommit(trx, `checkout:${listingId}:${actor.userId}`);
     const listing = await trx('listings').where({ id: listingId }).first('id', 'seller_id', 'state', 'title', 'price_cents', 'currency');
     if (!listing || (listing.state !== 'published' && listing.seller_id !== actor.userId && !actor.roles.includes('admin'))) throw notFound('listing');
     if (listing.seller_id === actor.userId) throw new HttpError(403, 'own-listing', 'This is your own preset: it is already yours to use.');
