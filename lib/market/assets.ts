@@ -207,7 +207,7 @@ async function buildOnce(listingId: string, stored: Stored): Promise<'done' | 'e
       }
       await trx('listings')
         .where({ id: listing.id })
-        .update({ assets_status: 'ready', assets_error: null, guide_count: guideCount, pictures: JSON.stringify(pictures), preview_key: previewKey, assets_prefix: null, facts: JSON.stringify(measured.facts), guides_per_cm2: measured.guidesPerCm2, typical_length_cm: measured.typicalLengthCm, updated_at: trx.fn.now() });
+        .update({ assets_status: 'ready', assets_error: null, guide_count: guideCount, pictures: JSON.stringify(pictures), preview_key: previewKey, facts: JSON.stringify(measured.facts), guides_per_cm2: measured.guidesPerCm2, typical_length_cm: measured.typicalLengthCm, updated_at: trx.fn.now() });
       return 'done';
     });
     // Listings built before the reduced preview kept the full guides there: no row names that file now.

@@ -223,7 +223,6 @@ export async function decideListingVersion(actor: Actor, versionId: string, deci
           typical_length_cm: version.typical_length_cm,
           assets_status: 'ready',
           assets_error: null,
-          assets_prefix: versionPrefix(listing.id, versionId),
           current_version: version.number,
           updated_at: trx.fn.now(),
         });

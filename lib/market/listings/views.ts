@@ -54,7 +54,6 @@ export type ListingRow = {
   roots_surface_file_name: string | null;
   current_version: number;
   ships_surface: boolean;
-  assets_prefix: string | null;
 };
 
 const isAdmin = (actor: Actor | null) => Boolean(actor?.roles.includes('admin'));
