@@ -5,7 +5,7 @@
 // that was sent back or taken off the market.
 import Link from 'next/link';
 import { useRouter } from 'next/navigation';
-import { useState, type SelectHTMLAttributes } from 'react';
+import { useState } from 'react';
 import useSWR from 'swr';
 import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
@@ -18,12 +18,12 @@ import type { CreateListingResponse, Licence, ListingDetail, UpdateListingRespon
 import { listingDraftSchema, tagsSchema } from '@/lib/market/validation';
 import { CURRENCIES, MAX_PRICE_CENTS, MIN_PRICE_CENTS, TAX_NOTE, type PackageFormat } from '@/lib/market/vocabulary';
 import { UnversionedGrooms } from './UnversionedGrooms';
-import type { GroomListResponse, VersionListResponse } from '@/lib/studio/types';
+import type { GroomListResponse } from '@/lib/studio/types';
 import { centsToText, TAG_KEYS, TAG_LABELS, TAG_VALUES, tagLabel } from './search-params';
-import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
 import { TextAreaField, textAreaField } from './TextAreaField';
 import { RightsFields, rightsFormFields } from './RightsFields';
 import { FormatChecks } from './FormatChecks';
+import { GroomVersionSelects, SelectField } from './GroomVersionSelects';
 
 const draft = listingDraftSchema.shape;
 
@@ -60,30 +60,6 @@ function formFields(fields: FieldErrors | undefined): FieldErrors | undefined {
   return { ...rest, ...(tags && { animal: tags }), ...(priceCents && { price: priceCents }) };
 }
 
-function SelectField({
-  name,
-  label,
-  error,
-  children,
-  ...select
-}: { name: string; label: string; error?: string } & SelectHTMLAttributes<HTMLSelectElement>) {
-  const id = `field-${name}`;
-  return (
-    <FieldFrame id={id} name={name} label={label} error={error}>
-      <select
-        id={id}
-        name={name}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(id, undefined, error)}
-        className={`rounded-xl border-2 bg-white px-3 py-2.5 text-base text-loam ${controlBorder(error)}`}
-        {...select}
-      >
-        {children}
-      </select>
-    </FieldFrame>
-  );
-}
-
 export type ListingFormProps = {
   licences: Licence[];
   /** Editing: the listing as it is. Creating: null. */
@@ -104,10 +80,6 @@ export function ListingForm({ licences, listing, preselect, feePercent }: Listin
   const editing = listing !== null;
 
   const grooms = useSWR<GroomListResponse, ApiRequestError>(editing ? null : '/api/studio/grooms', fetchData);
-  const versions = useSWR<VersionListResponse, ApiRequestError>(
-    !editing && groomId ? `/api/studio/grooms/${groomId}/versions` : null,
-    fetchData,
-  );
   // A groom fitted from a bought preset is used under the seller's licence and is never sold again.
   const fitted = grooms.data?.grooms.filter((groom) => groom.fromPurchaseId !== null) ?? [];
   const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0 && groom.fromPurchaseId === null) ?? [];
@@ -178,47 +150,18 @@ export function ListingForm({ licences, listing, preselect, feePercent }: Listin
           </>
         ) : (
           <div className="grid gap-4 sm:grid-cols-2">
-            <SelectField
-              name="groomId"
-              label="Groom"
-              error={form.errors.groomId}
-              value={groomId}
-              onChange={(event) => {
-                setGroomId(event.target.value);
+            <GroomVersionSelects
+              grooms={listable}
+              groomId={groomId}
+              onGroomChange={(next) => {
+                setGroomId(next);
                 form.clearError('groomId');
                 form.clearError('versionId');
               }}
-            >
-              <option value="">Choose a groom…</option>
-              {listable.map((groom) => (
-                <option key={groom.id} value={groom.id}>
-                  {groom.name} ({groom.surfaceName})
-                </option>
-              ))}
-            </SelectField>
-            <SelectField
-              key={`${groomId}:${versions.data ? 'ready' : 'loading'}`}
-              name="versionId"
-              label="Saved version"
-              error={form.errors.versionId}
-              defaultValue={preselect?.groomId === groomId ? (preselect?.versionId ?? '') : ''}
-              onChange={() => form.clearError('versionId')}
-              disabled={!groomId || !versions.data}
-            >
-              {!groomId ? (
-                <option value="">Choose a groom first</option>
-              ) : !versions.data ? (
-                <option value="">Loading its versions…</option>
-              ) : (
-                [...versions.data.versions]
-                  .sort((a, b) => b.number - a.number)
-                  .map((version) => (
-                    <option key={version.id} value={version.id}>
-                      Version {version.number}: {version.name}
-                    </option>
-                  ))
-              )}
-            </SelectField>
+              onVersionChange={() => form.clearError('versionId')}
+              errors={form.errors}
+              defaultVersionId={preselect?.groomId === groomId ? preselect?.versionId : undefined}
+            />
             <div className="sm:col-span-2">
               <UnversionedGrooms grooms={unversioned} />
             </div>

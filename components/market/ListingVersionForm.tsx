@@ -8,15 +8,15 @@ import { useState } from 'react';
 import useSWR from 'swr';
 import { z } from 'zod';
 import { Button } from '@/components/ui/Button';
-import { controlBorder, describedBy, FieldFrame } from '@/components/ui/FieldFrame';
 import { Notice } from '@/components/ui/Notice';
 import { useValidatedForm } from '@/components/ui/use-validated-form';
 import { fetchData, postJson, type ApiRequestError } from '@/lib/http/client';
 import type { ListingDetail, ListingVersionResponse } from '@/lib/market/types';
 import { listingVersionSchema } from '@/lib/market/validation';
 import type { PackageFormat } from '@/lib/market/vocabulary';
-import type { GroomListResponse, VersionListResponse } from '@/lib/studio/types';
+import type { GroomListResponse } from '@/lib/studio/types';
 import { FormatChecks } from './FormatChecks';
+import { GroomVersionSelects } from './GroomVersionSelects';
 import { RightsFields, rightsFormFields } from './RightsFields';
 import { TextAreaField, textAreaField } from './TextAreaField';
 
@@ -34,7 +34,6 @@ const versionFormSchema = z.object({
 });
 type VersionFormValues = z.output<typeof versionFormSchema>;
 
-const selectClass = (error?: string) => `rounded-xl border-2 bg-white px-3 py-2.5 text-base text-loam ${controlBorder(error)}`;
 
 export function ListingVersionForm({ listing }: { listing: ListingDetail }) {
   const router = useRouter();
@@ -42,8 +41,8 @@ export function ListingVersionForm({ listing }: { listing: ListingDetail }) {
   const [groomId, setGroomId] = useState(listing.groom.id);
   const [formats, setFormats] = useState<PackageFormat[]>(listing.formats);
   const grooms = useSWR<GroomListResponse, ApiRequestError>('/api/studio/grooms', fetchData);
-  const versions = useSWR<VersionListResponse, ApiRequestError>(groomId ? `/api/studio/grooms/${groomId}/versions` : null, fetchData);
-  const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0) ?? [];
+  // A groom fitted from a bought preset is never sold again (the route refuses it too).
+  const listable = grooms.data?.grooms.filter((groom) => groom.versionCount > 0 && groom.fromPurchaseId === null) ?? [];
 
   async function publish(input: VersionFormValues) {
     const sent = await postJson<ListingVersionResponse>(`/api/market/listings/${listing.id}/versions`, input);
@@ -59,46 +58,18 @@ export function ListingVersionForm({ listing }: { listing: ListingDetail }) {
       {form.failure && <Notice tone="error">{form.failure.message}</Notice>}
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="pb-2 text-lg font-bold">What the new version sells</legend>
-        <FieldFrame id="field-groomId" name="groomId" label="Groom" error={form.errors.groomId}>
-          <select
-            id="field-groomId"
-            name="groomId"
-            value={groomId}
-            aria-describedby={describedBy('field-groomId', undefined, form.errors.groomId)}
-            className={selectClass(form.errors.groomId)}
-            onChange={(event) => {
-              setGroomId(event.target.value);
-              form.clearError('versionId');
-            }}
-          >
-            <option value="">Choose a groom…</option>
-            {listable.map((groom) => (
-              <option key={groom.id} value={groom.id}>
-                {groom.name} ({groom.surfaceName})
-              </option>
-            ))}
-          </select>
-        </FieldFrame>
-        <FieldFrame id="field-versionId" name="versionId" label="Saved version" error={form.errors.versionId}>
-          <select
-            key={`${groomId}:${versions.data ? 'ready' : 'loading'}`}
-            id="field-versionId"
-            name="versionId"
-            aria-describedby={describedBy('field-versionId', undefined, form.errors.versionId)}
-            className={selectClass(form.errors.versionId)}
-            disabled={!groomId || !versions.data}
-            onChange={() => form.clearError('versionId')}
-          >
-            {[...(versions.data?.versions ?? [])]
-              .sort((a, b) => b.number - a.number)
-              .map((version) => (
-                <option key={version.id} value={version.id}>
-                  Version {version.number}: {version.name}
-                  {version.id === listing.groom.versionId ? ' (on sale now)' : ''}
-                </option>
-              ))}
-          </select>
-        </FieldFrame>
+        <GroomVersionSelects
+          grooms={listable}
+          groomId={groomId}
+          onGroomChange={(next) => {
+            setGroomId(next);
+            form.clearError('groomId');
+            form.clearError('versionId');
+          }}
+          onVersionChange={() => form.clearError('versionId')}
+          errors={form.errors}
+          versionNote={(version) => (version.id === listing.groom.versionId ? ' (on sale now)' : '')}
+        />
       </fieldset>
 
       <fieldset className="flex flex-col gap-4">
