@@ -16,7 +16,10 @@ const scope = self as unknown as {
 
 let current = 0;
 // The opening's preview arrays are made for the page alone: moved, not copied.
-const engine = new FieldEngine((progress) => post({ id: current, type: 'progress', progress }, progress.preview ? transferablesOf(progress.preview) : []));
+const engine = new FieldEngine((report) => {
+  const progress = { ...report, at: performance.timeOrigin + performance.now() };
+  post({ id: current, type: 'progress', progress }, progress.preview ? transferablesOf(progress.preview) : []);
+});
 
 function post(reply: WorkerReply, transfer: Transferable[] = []) {
   scope.postMessage(reply, transfer);

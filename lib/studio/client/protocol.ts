@@ -56,6 +56,8 @@ export interface ProgressReport {
   readonly fraction: number | null;
   /** For steps that report no progress of their own: how long the step is expected to take. */
   readonly expectedMilliseconds?: number;
+  /** When the worker sent it (ms since the epoch, `performance.timeOrigin + performance.now()`): replies held before the page listened keep their time. */
+  readonly at?: number;
   /** Opening only: the surface as read, sent once before its preparation, so the page can show it at once. */
   readonly preview?: SurfacePreview;
 }

@@ -59,7 +59,11 @@ function watchOpening() {
     // No Long Tasks API: the record stays empty.
   }
   setInterval(() => {
-    const text = (document.querySelector('[data-testid="opening-progress"]') as HTMLElement | null)?.innerText.replace(/\s+/g, ' ').replace(/\d+(\.\d+)? ?s\b.*$/, '').trim();
+    // The bar's label, and the stage line that is running (when the page shows them).
+    const box = document.querySelector('[data-testid="opening-progress"]');
+    const label = box?.querySelector('[role="progressbar"]')?.getAttribute('aria-label');
+    const running = box?.querySelector('[data-state="running"]')?.getAttribute('data-stage');
+    const text = box ? `${label ?? box.textContent?.slice(0, 60)}${running ? ` [${running}]` : ''}` : null;
     const lines = w.__opening.lines;
     if (text && lines[lines.length - 1]?.text !== text) lines.push({ at: Math.round(performance.now()), text });
   }, 50);

@@ -99,7 +99,9 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
         return;
       }
       const stage = stageOfReport(progress.stage);
-      if (stage) setStages((now) => enterStage(now, stage, performance.now()));
+      // The worker's own time of the report: an opening the page's inline script started is replayed late.
+      const at = progress.at !== undefined ? Math.min(performance.now(), progress.at - performance.timeOrigin) : performance.now();
+      if (stage) setStages((now) => enterStage(now, stage, at));
       reportOpening(progress);
     });
     // The first solve waits in the worker right behind the opening, so it runs while this page
