@@ -2,6 +2,7 @@
 import { join } from 'node:path';
 import { projectRoot, stackEnvironment, type StackProfile } from './stack';
 import { log, runCommand, startProcess, waitForHttp, type LongRunning } from './processes';
+import { bundleFieldWorker, watchFieldWorker } from './field-worker-bundle';
 
 const nextCli = join(projectRoot, 'node_modules', 'next', 'dist', 'bin', 'next');
 
@@ -14,6 +15,7 @@ function appEnvironment(profile: StackProfile): NodeJS.ProcessEnv {
 }
 
 export async function buildApp(profile: StackProfile) {
+  await bundleFieldWorker();
   log(`building the app (next build → ${DIST_DIRS[profile.name]})`);
   await runCommand(process.execPath, [nextCli, 'build'], { cwd: projectRoot, env: appEnvironment(profile) });
 }
@@ -32,6 +34,8 @@ export function startApp(profile: StackProfile) {
   return serve(profile, 'start');
 }
 
-export function startDevServer(profile: StackProfile) {
+export async function startDevServer(profile: StackProfile) {
+  // Lives as long as this process (the dev task): esbuild's service stops with it.
+  await watchFieldWorker();
   return serve(profile, 'dev');
 }

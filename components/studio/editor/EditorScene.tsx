@@ -164,6 +164,7 @@ export function EditorScene({
   handlers,
   pointer,
   onFieldDrawn,
+  onSurfaceDrawn,
   grainMarks,
   onTakeMark,
 }: {
@@ -183,6 +184,7 @@ export function EditorScene({
   handlers: MarkerHandlers;
   pointer: { down: SurfacePointerHandler; move: SurfacePointerHandler; up: SurfacePointerHandler };
   onFieldDrawn: () => void;
+  onSurfaceDrawn?: () => void;
   /** Grain marks still to take (none when no reading is in view). */
   grainMarks: readonly GrainMark[];
   onTakeMark: (mark: GrainMark) => void;
@@ -197,7 +199,7 @@ export function EditorScene({
 
   return (
     <>
-      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} />
+      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} onDrawn={onSurfaceDrawn} hierarchy={surface.pickHierarchy} />
       {surface.boundaryLines.length > 0 && <LineLayer lines={surface.boundaryLines} tail={COLOURS.border} head={COLOURS.border} name="border" />}
       {fieldLines && (
         <LineLayer lines={fieldLines} shade={fieldShade} tail={COLOURS.strokeTail} head={COLOURS.strokeHead} opacity={fieldFaded ? 0.3 : 1} onDrawn={onFieldDrawn} name="field" />

@@ -4,15 +4,14 @@
 // guides are rooted on after a move by polygon.
 import { useMemo } from 'react';
 import type { GroomDetail } from '@/lib/studio/client/api';
+import { groomSurfaceSource } from '@/lib/studio/client/field-start';
 import type { RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
 import { Workspace } from './Workspace';
 
 export function GroomEditor({ groom, maxUploadBytes }: { groom: GroomDetail; maxUploadBytes?: number }) {
-  const source = useMemo<SurfaceSource>(() => {
-    const file: SurfaceSource = { kind: 'url', url: groom.surface.fileUrl, fileName: groom.surface.fileName };
-    // The prepared form when the check wrote one (no parsing, no welding), with the file behind it.
-    return groom.surface.prepared ? { kind: 'url', ...groom.surface.prepared, fallback: file } : file;
-  }, [groom]);
+  // The prepared form when the check wrote one (no parsing, no welding), with the file behind it;
+  // the page's inline script (EarlyFieldStart) asked the worker for the same already.
+  const source = useMemo<SurfaceSource>(() => groomSurfaceSource(groom), [groom]);
   const rootsFrom = useMemo<RootsSource | undefined>(
     () => (groom.rootsSurface ? { key: groom.rootsSurface.id, source: { kind: 'url', url: groom.rootsSurface.fileUrl, fileName: groom.rootsSurface.fileName } } : undefined),
     [groom],

@@ -3,6 +3,7 @@
 // cannot be solved as placed, a notice about the last action, and the guides' progress.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { featureExists, featureLabel, type FeatureRef } from '@/lib/studio/client/features';
+import { OPENING_STAGES, OPENING_STAGE_LABELS, type OpeningStages } from '@/lib/studio/client/opening-stages';
 import type { WorkerError } from '@/lib/studio/client/protocol';
 import { ProgressBar } from '../ui/ProgressBar';
 import type { Task } from './hooks/useTask';
@@ -11,8 +12,37 @@ function capitaliseFirst(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
-export function StageMessages({ opened, opening, openError, fieldError, staleDrawing, errorFeature, spec, notice, onCloseNotice, guideTask }: {
+/**
+ * A line per stage of the opening: done ones with their time, the current one, and those still to
+ * come (stages passed over, such as the download of a demo character, are left out).
+ */
+function OpeningStageLines({ stages }: { stages: OpeningStages }) {
+  const begun = OPENING_STAGES.filter((stage) => stages[stage]);
+  const last = begun.length > 0 ? OPENING_STAGES.indexOf(begun[begun.length - 1]) : -1;
+  const shown = OPENING_STAGES.filter((stage, i) => stages[stage] || i > last);
+  return (
+    <ol className="mt-3 flex flex-col gap-0.5 text-xs text-chalk/80" data-testid="opening-stages">
+      {shown.map((stage) => {
+        const times = stages[stage];
+        const state = !times ? 'waiting' : times.endedAt === null ? 'running' : 'done';
+        return (
+          <li key={stage} className="flex justify-between gap-3" data-stage={stage} data-state={state}>
+            <span className={state === 'running' ? 'font-semibold text-chalk' : ''}>{OPENING_STAGE_LABELS[stage]}</span>
+            <span className="tabular-nums">{state === 'done' ? `${((times!.endedAt! - times!.startedAt) / 1000).toFixed(1)} s` : state === 'running' ? 'now' : ''}</span>
+          </li>
+        );
+      })}
+    </ol>
+  );
+}
+
+export function StageMessages({ opened, previewed, solved, stages, opening, openError, fieldError, staleDrawing, errorFeature, spec, notice, onCloseNotice, guideTask }: {
   opened: boolean;
+  /** The surface as read is drawn (its preparation still running): the progress moves out of its way. */
+  previewed: boolean;
+  /** The first solve has come: the opening is over. */
+  solved: boolean;
+  stages: OpeningStages;
   opening: Task | null;
   openError: string | null;
   fieldError: WorkerError | null;
@@ -27,10 +57,18 @@ export function StageMessages({ opened, opening, openError, fieldError, staleDra
 }) {
   return (
     <>
-      {(opening || (!opened && !openError)) && (
-        <div className="absolute inset-0 flex items-center justify-center p-8">
-          <div className="w-full max-w-md rounded-2xl bg-tarn/90 p-5 shadow-xl" data-testid="opening-progress">
-            <ProgressBar tone="dark" label={opening ? capitaliseFirst(opening.progress.stage) : 'Starting the field worker'} fraction={opening?.progress.fraction ?? null} expectedMilliseconds={opening?.progress.expectedMilliseconds} startedAt={opening?.startedAt} />
+      {(opening || ((!opened || !solved) && !openError)) && (
+        // Over the middle of the stage until the surface can be seen, then at its foot, out of the way.
+        <div className={`pointer-events-none absolute inset-0 flex justify-center p-8 ${previewed || opened ? 'items-end' : 'items-center'}`}>
+          <div className="pointer-events-auto w-full max-w-md rounded-2xl bg-tarn/90 p-5 shadow-xl" data-testid="opening-progress">
+            <ProgressBar
+              tone="dark"
+              label={opening ? capitaliseFirst(opening.progress.stage) : opened ? 'Solving the field' : 'Starting the field worker'}
+              fraction={opening?.progress.fraction ?? null}
+              expectedMilliseconds={opening?.progress.expectedMilliseconds}
+              startedAt={opening?.startedAt}
+            />
+            <OpeningStageLines stages={stages} />
           </div>
         </div>
       )}

@@ -15,6 +15,7 @@ import { featurePlace } from '@/lib/studio/client/marker-places';
 import type { DisplayOptions, RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
 import { toolOfKey, type ToolOptions } from '@/lib/studio/client/tools';
 import { Stage, type StageApi } from '../scene/Stage';
+import { SurfaceMesh } from '../scene/SurfaceMesh';
 import { BudgetCard } from './BudgetCard';
 import { EditorHeader } from './EditorHeader';
 import { EditorScene } from './EditorScene';
@@ -39,6 +40,7 @@ import { useGuides } from './hooks/useGuides';
 import { useLiveState } from './hooks/useLiveState';
 import { useShortcuts } from './hooks/useShortcuts';
 import { useToolDriver } from './hooks/useToolDriver';
+import { useSteadyFrame } from './hooks/useSteadyFrame';
 
 // The field worker's code starts loading as soon as the editor's code runs, before the page is
 // hydrated: it is the longest wait before the surface can be opened.
@@ -59,6 +61,9 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
 
   const field = useFieldSession({ source, initialSpec, spec, display, quick: gesture, onFailure: setNotice });
   const { surface, solve } = field;
+  // What the stage frames: the prepared surface, or the surface as read while it is prepared (the
+  // same centre and radius, so the view does not jump when the prepared surface replaces it).
+  const view = useSteadyFrame(surface ?? field.preview);
   const actions = useEditorActions({ getEditor, setEditor, surface, solve, stage, onAdded: () => setTab('features') });
   const tools = useToolDriver({ getEditor, setEditor, surface, solve, options: toolOptions, stage, onNotice: setNotice });
   const dragging = tools.dragging !== null;
@@ -116,9 +121,10 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
 
       <div className="grid min-h-[620px] gap-3 lg:grid-cols-[minmax(0,1fr)_26rem]" style={{ height: 'calc(100vh - 12rem)' }}>
         <section aria-label="Surface view" className="relative min-h-[420px] overflow-hidden rounded-2xl bg-tarn-deep">
-          {surface ? (
-            <Stage label={`The growth surface with the field${showGuides ? ' and guides' : ''}`} center={surface.center} radius={surface.radius} upAxis={spec.upAxis} apiRef={stage} pickTarget={meshRef}>
-              <EditorScene
+          {view ? (
+            <Stage label={surface ? `The growth surface with the field${showGuides ? ' and guides' : ''}` : 'The growth surface, while the field solver is prepared'} center={view.center} radius={view.radius} upAxis={spec.upAxis} apiRef={stage} pickTarget={meshRef}>
+              {!surface && field.preview && <SurfaceMesh positions={field.preview.positions} triangles={field.preview.triangles} normals={field.preview.vertexNormals} onDrawn={field.onSurfaceDrawn} />}
+              {surface && <EditorScene
                 surface={surface}
                 spec={spec}
                 solve={solve}
@@ -140,7 +146,8 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
                   const refused = actions.edit(takeMark(mark));
                   if (refused) setNotice(refused);
                 }}
-              />
+                onSurfaceDrawn={field.onSurfaceDrawn}
+              />}
               <ScreenAnchor point={selectedPoint} element={cardRef} />
             </Stage>
           ) : null}
@@ -148,6 +155,9 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
           {surface && <ToolRail tool={tools.tool} onTool={tools.choose} options={toolOptions} onOptions={setToolOptions} order={spec.field.order} draftLength={tools.draft.length} onFinish={tools.finishDraft} onCancel={tools.discardDraft} onFrameAll={() => stage.current?.frameAll()} />}
           <StageMessages
             opened={!!surface}
+            previewed={!!field.preview}
+            solved={!!solve}
+            stages={field.stages}
             opening={field.task}
             openError={field.openError}
             fieldError={fieldError}

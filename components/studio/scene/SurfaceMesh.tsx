@@ -53,6 +53,8 @@ export function SurfaceMesh({
   onPointerMove,
   onPointerUp,
   onPointerLeave,
+  onDrawn,
+  hierarchy,
 }: {
   positions: ArrayLike<number>;
   triangles: Uint32Array;
@@ -67,9 +69,20 @@ export function SurfaceMesh({
   onPointerMove?: SurfacePointerHandler;
   onPointerUp?: SurfacePointerHandler;
   onPointerLeave?: SurfacePointerHandler;
+  /** Called after each frame that draws the surface. */
+  onDrawn?: () => void;
+  /** A picking hierarchy built elsewhere on these same arrays (OpenedSurface's `pickHierarchy`). */
+  hierarchy?: { readonly roots: readonly ArrayBuffer[]; readonly indirectBuffer: Uint32Array | Uint16Array };
 }) {
   const geometry = useMemo(() => surfaceGeometry(positions, triangles, undefined, normals), [normals, positions, triangles]);
   useEffect(() => {
+    if (hierarchy && !geometry.boundsTree) {
+      // Built by the field worker on the same arrays: taken as it is, nothing to compute here.
+      // Version 1 of the layout (lib/groom/place/skin.ts checks it): without it three-mesh-bvh would "fix up" the buffers.
+      const serialized = { version: 1, roots: [...hierarchy.roots], index: triangles, indirectBuffer: hierarchy.indirectBuffer } as unknown as Parameters<typeof MeshBVH.deserialize>[0];
+      geometry.boundsTree = MeshBVH.deserialize(serialized, geometry, { setIndex: false });
+      return () => geometry.dispose();
+    }
     // The picking hierarchy is built once the page is idle, so it does not hold up the first
     // field; until then a pick tests every face.
     const build = () => {
@@ -80,7 +93,7 @@ export function SurfaceMesh({
       if (typeof cancelIdleCallback === 'function' && typeof idle === 'number') cancelIdleCallback(idle);
       geometry.dispose();
     };
-  }, [geometry]);
+  }, [geometry, hierarchy, triangles]);
   return (
     <mesh
       ref={meshRef}
@@ -90,6 +103,7 @@ export function SurfaceMesh({
       onPointerMove={onPointerMove && hiding(onPointerMove)}
       onPointerUp={onPointerUp && hiding(onPointerUp)}
       onPointerLeave={onPointerLeave}
+      {...(onDrawn ? { onAfterRender: onDrawn } : {})}
     >
       <meshLambertMaterial
         color={colour}

@@ -20,6 +20,13 @@ export interface Skin {
    * `hintFace`, a face likely to be near, only speeds the search up; the answer is the same.
    */
   closest(x: number, y: number, z: number, maxDistance: number, out: Float64Array, hintFace?: number): boolean;
+  /**
+   * The hierarchy as three-mesh-bvh serializes it (version 1, indirect), built on the mesh's
+   * positions in single precision and its triangles: `MeshBVH.deserialize` gives it to a three
+   * geometry of the same arrays (the editor's page picks with it instead of building its own).
+   * Read only: the skin's queries walk these buffers.
+   */
+  readonly hierarchy: { readonly roots: readonly ArrayBuffer[]; readonly indirectBuffer: Uint32Array | Uint16Array };
 }
 
 /** out layout of `Skin.closest`. */
@@ -143,6 +150,7 @@ export function buildSkin(mesh: TriangleMesh, topology: Topology): Skin {
   };
 
   return {
+    hierarchy: { roots: serialized.roots, indirectBuffer: order },
     closest(x, y, z, maxDistance, out, hintFace) {
       qx = x; qy = y; qz = z;
       bestSq = maxDistance * maxDistance;

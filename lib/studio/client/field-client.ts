@@ -4,7 +4,8 @@
 // that one when the worker answers — so the worker always works on the latest position and the
 // screen updates as fast as the worker solves. Lanes of lower priority (guide growth) wait until
 // the lanes above them are idle, so a long growth never starts in the middle of a drag.
-import type { ProgressReport, ResultOf, WorkerError, WorkerReply, WorkerRequest, WorkerRequestBody } from './protocol';
+import { EARLY_OPEN_ID, FIELD_WORKER_NAME, FIELD_WORKER_URL, hasEarlyField, openingKey, takeEarlyField } from './field-start';
+import type { OpenedSurface, ProgressReport, ResultOf, WorkerError, WorkerReply, WorkerRequest, WorkerRequestBody } from './protocol';
 
 export interface WorkerLike {
   postMessage(message: WorkerRequest, transfer?: Transferable[]): void;
@@ -52,7 +53,14 @@ export class FieldClient {
   private readonly lanes = new Map<string, Lane>();
   private broken: WorkerError | null = null;
 
-  constructor(private readonly worker: WorkerLike) {
+  /**
+   * `early`: the opening the page's inline script already sent this worker (field-start.ts), with
+   * the replies that came before this client; `open` takes it over when it asks for the same.
+   */
+  constructor(
+    private readonly worker: WorkerLike,
+    private early: { readonly key: string; readonly held: WorkerReply[] } | null = null,
+  ) {
     worker.onmessage = (event) => this.receive(event.data);
     worker.onerror = (event) => {
       event.preventDefault?.();
@@ -64,6 +72,20 @@ export class FieldClient {
   request<K extends Kind>(body: BodyOf<K>, onProgress?: Listener): Promise<ResultOf[K]> {
     return new Promise<ResultOf[K]>((resolve, reject) => {
       this.send(body, { resolve: resolve as (value: unknown) => void, reject, onProgress });
+    });
+  }
+
+  /**
+   * Opens a surface: takes over the opening the page's inline script started when it is of the same
+   * surface and boundary (its progress so far is replayed to `onProgress`), otherwise sends it.
+   */
+  open(body: BodyOf<'open'>, onProgress?: Listener): Promise<OpenedSurface> {
+    const early = this.early;
+    this.early = null;
+    if (!early || early.key !== openingKey(body.source, body.boundary) || this.broken) return this.request(body, onProgress);
+    return new Promise<OpenedSurface>((resolve, reject) => {
+      this.pending.set(EARLY_OPEN_ID, { resolve: resolve as (value: unknown) => void, reject, onProgress });
+      for (const reply of early.held) this.receive(reply);
     });
   }
 
@@ -136,7 +158,11 @@ export class FieldClient {
 
   private receive(reply: WorkerReply): void {
     const pending = this.pending.get(reply.id);
-    if (!pending) return;
+    if (!pending) {
+      // The inline script's opening, until `open` takes it over.
+      if (reply.id === EARLY_OPEN_ID && this.early) this.early.held.push(reply);
+      return;
+    }
     if (reply.type === 'progress') {
       pending.onProgress?.(reply.progress);
       return;
@@ -161,21 +187,30 @@ export class FieldClient {
 
 let prewarmed: Worker | null = null;
 
+/** The bundled worker (field-start.ts): one static script, no chunks to load one by one. */
 function newWorker(): Worker {
-  return new Worker(new URL('./field-worker.ts', import.meta.url), { type: 'module', name: 'whorlwind-field' });
+  return new Worker(FIELD_WORKER_URL, { name: FIELD_WORKER_NAME });
 }
 
 /**
  * Starts a field worker ahead of need, so that its code loads while the page is still being
- * hydrated; the next `startFieldWorker` takes it. Does nothing outside a browser.
+ * hydrated; the next `startFieldWorker` takes it. Does nothing outside a browser, nor when the
+ * page's inline script has started one already.
  */
 export function prewarmFieldWorker(): void {
-  if (typeof window === 'undefined' || typeof Worker === 'undefined') return;
+  if (typeof window === 'undefined' || typeof Worker === 'undefined' || hasEarlyField()) return;
   prewarmed ??= newWorker();
 }
 
-/** The worker of the studio, bundled by Next.js from field-worker.ts. */
-export function startFieldWorker(): FieldClient {
+/**
+ * The studio's field worker. With `adoptEarly` (the editor's own surface), the worker the page's
+ * inline script started, with its opening; otherwise the prewarmed one or a new one.
+ */
+export function startFieldWorker(options: { adoptEarly?: boolean } = {}): FieldClient {
+  const early = options.adoptEarly ? takeEarlyField() : null;
+  if (early) {
+    return new FieldClient(early.worker as unknown as WorkerLike, { key: early.key, held: early.held });
+  }
   const worker = prewarmed ?? newWorker();
   prewarmed = null;
   return new FieldClient(worker as unknown as WorkerLike);

@@ -37,7 +37,7 @@ import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
 import { errorOf, proofOf } from './field-reports';
 import type { DisplayOptions, FoundMirror, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
-import { describeSurface, loadSurfaceBytes } from './surface-opening';
+import { describeSurface, loadSurfaceBytes, previewOf } from './surface-opening';
 
 
 /** Milliseconds per face for preparing a surface (topology, generators, factorization), for the progress estimate. */
@@ -82,6 +82,8 @@ export class FieldEngine {
       this.progress({ stage: 'reading the surface file instead of its prepared form', fraction: null });
       read = await this.read(source.fallback);
     }
+    // The page draws the surface while the solver is prepared.
+    this.progress({ stage: 'surface read', fraction: 1, preview: previewOf(read.mesh) });
     const t2 = now();
     this.prepare(read.mesh, boundary);
     const t3 = now();

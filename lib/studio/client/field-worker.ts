@@ -15,7 +15,11 @@ const scope = self as unknown as {
 };
 
 let current = 0;
-const engine = new FieldEngine((progress) => post({ id: current, type: 'progress', progress }));
+// The opening's preview arrays are made for the page alone: moved, not copied.
+const engine = new FieldEngine((report) => {
+  const progress = { ...report, at: performance.timeOrigin + performance.now() };
+  post({ id: current, type: 'progress', progress }, progress.preview ? transferablesOf(progress.preview) : []);
+});
 
 function post(reply: WorkerReply, transfer: Transferable[] = []) {
   scope.postMessage(reply, transfer);

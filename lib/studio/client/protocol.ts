@@ -56,6 +56,27 @@ export interface ProgressReport {
   readonly fraction: number | null;
   /** For steps that report no progress of their own: how long the step is expected to take. */
   readonly expectedMilliseconds?: number;
+  /** When the worker sent it (ms since the epoch, `performance.timeOrigin + performance.now()`): replies held before the page listened keep their time. */
+  readonly at?: number;
+  /** Opening only: the surface as read, sent once before its preparation, so the page can show it at once. */
+  readonly preview?: SurfacePreview;
+}
+
+/**
+ * The surface as read, before the one-off preparation: enough to draw it (the editor shows it while
+ * the solver is prepared). Single precision: it is only drawn; points and picks wait for the
+ * prepared surface (OpenedSurface).
+ */
+export interface SurfacePreview {
+  readonly positions: Float32Array;
+  readonly triangles: Uint32Array;
+  /** Area-weighted vertex normals. */
+  readonly vertexNormals: Float32Array;
+  readonly vertexCount: number;
+  readonly faceCount: number;
+  /** The middle of the bounding box and half its diagonal, as OpenedSurface's `center` and `radius`. */
+  readonly center: Vec3;
+  readonly radius: number;
 }
 
 export type WorkerReply =
@@ -90,6 +111,12 @@ export interface OpenedSurface {
   readonly meanEdge: number;
   readonly boundary: BoundaryMode;
   readonly timings: { readonly downloadMilliseconds: number; readonly readMilliseconds: number; readonly prepareMilliseconds: number };
+  /**
+   * The picking hierarchy the worker built with the surface (three-mesh-bvh's serialization,
+   * indirect, over single-precision `positions` and `triangles`): the page deserializes it instead
+   * of building its own on the main thread (half a second at a million faces).
+   */
+  readonly pickHierarchy?: { readonly roots: ArrayBuffer[]; readonly indirectBuffer: Uint32Array | Uint16Array };
 }
 
 /** A surface read for inspection only (it may be broken): enough to draw it and point at faces. */

@@ -4,7 +4,8 @@
 import { FieldError, type TriangleMesh } from '@/lib/field';
 import type { GroomSurface } from '@/lib/groom';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
-import type { OpenedSurface, ProgressReport, SurfaceSource } from './protocol';
+import type { OpenedSurface, ProgressReport, SurfacePreview, SurfaceSource } from './protocol';
+import { surfaceBounds } from './surface-geometry';
 
 /** The bytes of a surface source, with download progress. */
 export async function loadSurfaceBytes(source: SurfaceSource, progress: (report: ProgressReport) => void): Promise<{ bytes: Uint8Array; fileName: string } | { mesh: TriangleMesh; fileName: string }> {
@@ -28,12 +29,18 @@ export async function loadSurfaceBytes(source: SurfaceSource, progress: (report:
   const reader = response.body.getReader();
   const chunks: Uint8Array[] = [];
   let received = 0;
+  // A report per whole per cent (or per megabyte when the size is unknown): each one re-renders the page.
+  let reported = 0;
   for (;;) {
     const { done, value } = await reader.read();
     if (done) break;
     chunks.push(value);
     received += value.length;
-    progress({ stage: 'downloading the surface', fraction: total > 0 ? Math.min(1, received / total) : null });
+    const step = total > 0 ? Math.floor((100 * received) / total) : Math.floor(received / 1e6);
+    if (step > reported) {
+      reported = step;
+      progress({ stage: 'downloading the surface', fraction: total > 0 ? Math.min(1, received / total) : null });
+    }
   }
   const bytes = new Uint8Array(received);
   let at = 0;
@@ -42,6 +49,36 @@ export async function loadSurfaceBytes(source: SurfaceSource, progress: (report:
     at += chunk.length;
   }
   return { bytes, fileName: source.fileName };
+}
+
+/**
+ * The surface as read, for the page to draw before the preparation (see SurfacePreview). Linear in
+ * the size; fresh arrays, so they can be transferred to the page. Guarantees: the same triangles
+ * and positions (rounded to single precision), and the centre and radius `describeSurface` gives
+ * the prepared surface (the middle of the bounding box and half its diagonal).
+ */
+export function previewOf(mesh: TriangleMesh): SurfacePreview {
+  const p = mesh.positions;
+  const t = mesh.triangles;
+  const normals = new Float32Array(p.length);
+  for (let f = 0; f < t.length; f += 3) {
+    const a = 3 * t[f], b = 3 * t[f + 1], c = 3 * t[f + 2];
+    const ux = p[b] - p[a], uy = p[b + 1] - p[a + 1], uz = p[b + 2] - p[a + 2];
+    const vx = p[c] - p[a], vy = p[c + 1] - p[a + 1], vz = p[c + 2] - p[a + 2];
+    // The cross product's length is twice the area: larger faces weigh more.
+    const nx = uy * vz - uz * vy, ny = uz * vx - ux * vz, nz = ux * vy - uy * vx;
+    for (const v of [a, b, c]) {
+      normals[v] += nx;
+      normals[v + 1] += ny;
+      normals[v + 2] += nz;
+    }
+  }
+  for (let v = 0; v < normals.length; v += 3) {
+    const length = Math.hypot(normals[v], normals[v + 1], normals[v + 2]);
+    if (length > 0) for (let k = 0; k < 3; k++) normals[v + k] /= length;
+  }
+  const { center, radius } = surfaceBounds(p);
+  return { positions: Float32Array.from(p), triangles: t.slice(), vertexNormals: normals, vertexCount: p.length / 3, faceCount: t.length / 3, center, radius };
 }
 
 /**
@@ -88,5 +125,7 @@ export function describeSurface(surface: GroomSurface, fileVertexCount: number, 
     meanEdge: surface.meanEdge,
     boundary: field.boundary,
     timings,
+    // Copies: the worker's skin keeps walking its own.
+    pickHierarchy: { roots: surface.skin.hierarchy.roots.map((root) => root.slice(0)), indirectBuffer: surface.skin.hierarchy.indirectBuffer.slice() },
   };
 }

@@ -5,13 +5,18 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { SUPERSEDED, WorkerFailure, startFieldWorker, type FieldClient } from '@/lib/studio/client/field-client';
-import type { DisplayOptions, OpenedSurface, SolveReport, SurfaceSource } from '@/lib/studio/client/protocol';
+import { endStage, enterStage, stageOfReport, type OpeningStages } from '@/lib/studio/client/opening-stages';
+import type { DisplayOptions, OpenedSurface, SolveReport, SurfacePreview, SurfaceSource } from '@/lib/studio/client/protocol';
 import { useLatest } from './useLiveState';
 import { useTask, type Task } from './useTask';
 
 export interface FieldSession {
   readonly client: FieldClient | null;
   readonly surface: OpenedSurface | null;
+  /** The surface as read, to draw while it is prepared (null once `surface` is there, or before it is read). */
+  readonly preview: SurfacePreview | null;
+  /** The opening's stages (download, read, prepare, first solve), until the first solve has come. */
+  readonly stages: OpeningStages;
   readonly openError: string | null;
   /** The opening of the surface while it runs. */
   readonly task: Task | null;
@@ -20,6 +25,8 @@ export interface FieldSession {
   readonly drawing: { readonly lines: Float32Array; readonly shade: Float32Array | null } | null;
   /** For the stage to call when it has drawn the field. */
   readonly onFieldDrawn: () => void;
+  /** For the stage to call when it has drawn the surface (its preview or the prepared surface). */
+  readonly onSurfaceDrawn: () => void;
 }
 
 /**
@@ -36,6 +43,8 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
 }): FieldSession {
   const [client, setClient] = useState<FieldClient | null>(null);
   const [surface, setSurface] = useState<OpenedSurface | null>(null);
+  const [preview, setPreview] = useState<SurfacePreview | null>(null);
+  const [stages, setStages] = useState<OpeningStages>({});
   const [openError, setOpenError] = useState<string | null>(null);
   const [task, reportOpening, clearOpening] = useTask();
   const [solve, setSolve] = useState<SolveReport | null>(null);
@@ -59,6 +68,7 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
           if (!solvedOnce.current) {
             solvedOnce.current = true;
             performance.mark('whorlwind:first-solve', { detail: { milliseconds: report.milliseconds } });
+            setStages((now) => endStage(now, 'solve', performance.now()));
           }
           setSolve(report);
           if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade });
@@ -73,14 +83,25 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
 
   useEffect(() => {
     performance.mark('whorlwind:editor-mounted');
-    const worker = startFieldWorker();
+    // The worker the page's inline script started (with this opening already under way), when there is one.
+    const worker = startFieldWorker({ adoptEarly: true });
     setClient(worker);
-    performance.mark('whorlwind:worker-starting');
+    if (performance.getEntriesByName('whorlwind:worker-starting').length === 0) performance.mark('whorlwind:worker-starting');
     let heard = false;
-    const opening = worker.request({ type: 'open', source, boundary: initialSpec.field.boundary }, (progress) => {
+    const opening = worker.open({ type: 'open', source, boundary: initialSpec.field.boundary }, (progress) => {
       // The worker's first word: its code is loaded and it has started on the surface.
       if (!heard) performance.mark('whorlwind:worker-working');
       heard = true;
+      if (progress.preview) {
+        // The surface as read: drawn at once, while the solver is prepared.
+        performance.mark('whorlwind:surface-read');
+        setPreview(progress.preview);
+        return;
+      }
+      const stage = stageOfReport(progress.stage);
+      // The worker's own time of the report: an opening the page's inline script started is replayed late.
+      const at = progress.at !== undefined ? Math.min(performance.now(), progress.at - performance.timeOrigin) : performance.now();
+      if (stage) setStages((now) => enterStage(now, stage, at));
       reportOpening(progress);
     });
     // The first solve waits in the worker right behind the opening, so it runs while this page
@@ -91,6 +112,8 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
       .then((opened) => {
         performance.mark('whorlwind:surface-opened', { detail: opened.timings });
         setSurface(opened);
+        setPreview(null);
+        if (!solvedOnce.current) setStages((now) => enterStage(now, 'solve', performance.now()));
         clearOpening();
       })
       .catch((error: unknown) => {
@@ -113,7 +136,13 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     performance.mark('whorlwind:field-drawn');
     if (drawnCount.current++ === 0) performance.mark('whorlwind:first-field');
   }, []);
+  const surfaceDrawn = useRef(false);
+  const onSurfaceDrawn = useCallback(() => {
+    if (surfaceDrawn.current) return;
+    surfaceDrawn.current = true;
+    performance.mark('whorlwind:surface-shown');
+  }, []);
 
   const drawing = solve?.lines ? { lines: solve.lines, shade: solve.lineShade } : lastDrawing;
-  return { client, surface, openError, task, solve, drawing, onFieldDrawn };
+  return { client, surface, preview, stages, openError, task, solve, drawing, onFieldDrawn, onSurfaceDrawn };
 }
