@@ -8,6 +8,7 @@ import type { SpecEdit } from '@/lib/studio/client/spec-edits';
 import { useState } from 'react';
 import { CoatShapeFields } from './CoatShapeFields';
 import { GuideSetList } from './GuideSetList';
+import { ImageMapControl } from './ImageMapControl';
 import { SettingSlider as Slider } from './SettingSlider';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './editor-actions';
@@ -21,6 +22,7 @@ export function GuidePanel({
   error,
   show,
   onShow,
+  surfaceId,
 }: {
   spec: GroomSpec;
   groups: readonly string[];
@@ -30,6 +32,8 @@ export function GuidePanel({
   error: string | null;
   show: boolean;
   onShow: (show: boolean) => void;
+  /** The stored surface the groom grows on (none in the practice editor, which has no server). */
+  surfaceId?: string;
 }) {
   const [picked, setPicked] = useState(0);
   const sets = spec.guideSets;
@@ -123,6 +127,7 @@ export function GuidePanel({
         </div>
       </fieldset>
       <CoatShapeFields key={sets ? `set-${chosen}` : 'groom'} settings={g} units={units} onEdit={set} onPreview={preview} onFinish={actions.finish} />
+      {surfaceId && <ImageMapControl spec={spec} surfaceId={surfaceId} actions={actions} />}
       <p className="text-xs text-loam-soft">Pins (Features → Add pin) vary length, lift, droop, curl, jitter or density over the surface.</p>
     </div>
   );
