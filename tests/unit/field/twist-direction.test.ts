@@ -4,7 +4,7 @@ import { FieldError } from '@/lib/field/mesh/errors';
 import type { TriangleMesh } from '@/lib/field/mesh/mesh';
 import { solveField } from '@/lib/field/solve-field';
 import type { PointSingularity } from '@/lib/field/connection/request';
-import { icosphere } from '@/tests/fixtures/shapes';
+import { mirrorSymmetricShape } from '@/tests/fixtures/shapes';
 
 /**
  * A twist stated against a direction (PointSingularity.twistDirection, connection/twist.ts) rather
@@ -16,19 +16,8 @@ import { icosphere } from '@/tests/fixtures/shapes';
  * reflection maps onto themselves, so it is unique and must be symmetric; 1e-9 is rounding.
  */
 
-/** The icosphere (mapped onto itself by x → −x: the icosahedron has that symmetry, and midpoints keep it exactly), sheared so that x = 0 is its only mirror plane. */
-function symmetricShape(): TriangleMesh {
-  const m = icosphere(3, 1);
-  const p = m.positions;
-  for (let v = 0; v < p.length / 3; v++) {
-    const [x, y, z] = [p[3 * v], p[3 * v + 1], p[3 * v + 2]];
-    p[3 * v + 1] = 1.3 * y + 0.2 * x * x;
-    p[3 * v + 2] = 0.8 * z + 0.15 * y;
-  }
-  return m;
-}
 
-const mesh = symmetricShape();
+const mesh = mirrorSymmetricShape();
 const surface = prepareSurface(mesh, { boundary: 'free' });
 const P = mesh.positions;
 const nV = P.length / 3, nF = mesh.triangles.length / 3;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { TriangleMesh } from '@/lib/field';
-import { icosphere } from '@/tests/fixtures/shapes';
+import { mirrorSymmetricShape } from '@/tests/fixtures/shapes';
 import { parseGroomSpec, parseGroomSpecJson, specToJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
 import { prepareGroomSurface, type GroomSurface } from '@/lib/groom/place/surface';
 import { solveGroomField } from '@/lib/groom/place/request';
@@ -12,24 +12,9 @@ import { isOnPlane, mirrorSingularity, mirrorSpecFeatures } from '@/lib/groom/pl
 import { GroomError } from '@/lib/groom/errors';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
 
-/**
- * A test shape exactly symmetric about x = 0 and about no other plane: an icosphere (whose
- * vertices and faces the reflection x → −x maps onto each other, the icosahedron having that
- * symmetry) stretched and sheared in y and z by functions of x² and y only.
- */
-function symmetricShape(): TriangleMesh {
-  const m = icosphere(3, 1);
-  const p = m.positions;
-  for (let v = 0; v < p.length / 3; v++) {
-    const [x, y, z] = [p[3 * v], p[3 * v + 1], p[3 * v + 2]];
-    p[3 * v + 1] = 1.3 * y + 0.2 * x * x;
-    p[3 * v + 2] = 0.8 * z + 0.15 * y;
-  }
-  return m;
-}
 
 const X_PLANE: MirrorPlane = { normal: [1, 0, 0], offset: 0 };
-const surface = prepareGroomSurface(symmetricShape());
+const surface = prepareGroomSurface(mirrorSymmetricShape());
 
 /** Rotation about a unit axis by an angle (Rodrigues), applied to every vertex, then a shift. */
 function moved(mesh: TriangleMesh, axis: number[], angle: number, shift: number[]): TriangleMesh {
@@ -58,7 +43,7 @@ describe('the mirror plane of a surface', () => {
     const axis = [1, 2, 2].map((c) => c / 3);
     const angle = 0.7;
     const shift = [0.3, -0.2, 1.5];
-    const found = detectMirrorPlane(prepareGroomSurface(moved(symmetricShape(), axis, angle, shift)));
+    const found = detectMirrorPlane(prepareGroomSurface(moved(mirrorSymmetricShape(), axis, angle, shift)));
     // The plane x = 0 turned the same way: its normal is the turned x axis, through the moved origin.
     const normal = moved({ positions: Float64Array.of(1, 0, 0), triangles: new Uint32Array() }, axis, angle, [0, 0, 0]).positions;
     const alignment = Math.abs(normal[0] * found.plane.normal[0] + normal[1] * found.plane.normal[1] + normal[2] * found.plane.normal[2]);
@@ -69,7 +54,7 @@ describe('the mirror plane of a surface', () => {
   });
 
   it('calls a lopsided surface not symmetric and says by how much', () => {
-    const lopsided = symmetricShape();
+    const lopsided = mirrorSymmetricShape();
     const p = lopsided.positions;
     // One cheek pushed out by 20 % of the radius: no plane maps the surface onto itself.
     for (let v = 0; v < p.length / 3; v++) if (p[3 * v] > 0.3 && p[3 * v + 2] > 0) p[3 * v] *= 1.2;
