@@ -1,7 +1,8 @@
 // A painted map read from an image through a surface's UVs, by the studio's route handler against
 // the real PostgreSQL and the S3 stand-in: the surface is uploaded and checked as any other, the
 // image is made by sharp here, and the answered map is decoded on the same surface read locally.
-import { callRoute, createSurface, expectJson, studioCast, type TestAccount } from './studio-helpers';
+import { callRoute, createSurface, expectJson, studioCast, withinRequest, type TestAccount } from './studio-helpers';
+import { NextRequest } from 'next/server';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readSurface } from '@/lib/field';
@@ -10,6 +11,8 @@ import { parseGroomSpec } from '@/lib/groom/spec/spec';
 import { DEMO_GROOMS, surfaceToObj } from '@/lib/groom/demo';
 import { closeDb } from '@/lib/platform/db';
 import type { ImageMapResponse } from '@/lib/studio/types';
+import { MAP_IMAGE_BODY_LIMIT } from '@/lib/studio/validation';
+import { JSON_BODY_LIMIT } from '@/lib/http/server';
 import * as imageMapRoute from '@/app/api/studio/surfaces/[surfaceId]/image-map/route';
 
 afterAll(closeDb);
@@ -98,5 +101,39 @@ describe('a map from an image', () => {
     const unknown = await expectJson(await post(owner, gridId, { attribute: 'shine', image: png }), 400);
     expect(unknown.error.fields.attribute).toMatch(/^Choose what the map drives/);
     await expectJson(await post(rival, gridId, { attribute: 'length', image: png }), 404);
+  });
+
+  it('takes an image well past the 1 MB of other JSON bodies, and refuses a body past its own limit (413) without reading it', async () => {
+    // A 1024² 8-bit PNG of noise hardly compresses: about 1 MB of image, 1.4 MB of base64.
+    let state = 0x9e3779b9;
+    const noise = Uint8Array.from({ length: 1024 * 1024 }, () => {
+      // xorshift32 (Marsaglia 2003), a fixed seed: the same image every run
+      state ^= state << 13;
+      state ^= state >>> 17;
+      state ^= state << 5;
+      return state & 255;
+    });
+    const png = await sharp(noise, { raw: { width: 1024, height: 1024, channels: 1 } }).png().toBuffer();
+    const image = png.toString('base64');
+    expect(image.length).toBeGreaterThan(JSON_BODY_LIMIT);
+    const { map } = (await expectJson<{ data: ImageMapResponse }>(await post(owner, gridId, { attribute: 'jitter', image }), 200)).data;
+    expect(map.attribute).toBe('jitter');
+    let pulled = 0;
+    const chunk = new Uint8Array(64 * 1024).fill(0x20);
+    const stream = new ReadableStream<Uint8Array>({
+      pull(controller) {
+        pulled += chunk.byteLength;
+        controller.enqueue(chunk);
+      },
+    });
+    const request = new NextRequest(new URL(`/api/studio/surfaces/${gridId}/image-map`, process.env.NEXTAUTH_URL), {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'content-length': String(MAP_IMAGE_BODY_LIMIT + 1), cookie: owner.cookie },
+      body: stream,
+      duplex: 'half',
+    } as ConstructorParameters<typeof NextRequest>[1]);
+    const refused = await expectJson(await withinRequest(request, () => imageMapRoute.POST(request, { params: Promise.resolve({ surfaceId: gridId }) })), 413);
+    expect(refused.error.code).toBe('too-large');
+    expect(pulled).toBeLessThanOrEqual(2 * chunk.byteLength);
   });
 });
