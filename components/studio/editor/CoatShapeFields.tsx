@@ -45,7 +45,7 @@ function GatherFields({ label, gather, onEdit, onPreview, onFinish }: { label: s
     <>
       <SettingSlider label={`${label} at the root`} percent value={gather.root} min={R.gatherRoot.min} max={R.gatherRoot.max} step={0.01} onPreview={(root) => onPreview({ ...gather, root })} onFinish={onFinish} />
       <SettingSlider label={`${label} at the tip`} percent value={gather.tip} min={R.gatherTip.min} max={R.gatherTip.max} step={0.01} onPreview={(tip) => onPreview({ ...gather, tip })} onFinish={onFinish} />
-      <Bounded label={`${label}: rise (1 even, more: closes late)`} range={R.gatherRise} value={gather.rise} onCommit={(rise) => onEdit({ ...gather, rise })} />
+      <Bounded label={`${label}: rise (1 even; more closes nearer the tip)`} range={R.gatherRise} value={gather.rise} onCommit={(rise) => onEdit({ ...gather, rise })} />
     </>
   );
 }
