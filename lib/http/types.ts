@@ -27,6 +27,7 @@ export type ApiErrorCode =
   | 'stale-revision'
   | 'transfer-refused'
   | 'same-surface'
+  | 'map-refused'
   // market
   | 'bad-signature'
   | 'own-listing'

@@ -1,7 +1,7 @@
 // The shapes the studio's route handlers answer with (docs/studio-api.md). Types only, so the
 // studio's client code can import them without pulling in anything of the server.
 import type { ComponentFacts, Problem } from '../field';
-import type { GroomSpec, TransferReport } from '../groom';
+import type { GroomSpec, MapSpec, TransferReport } from '../groom';
 import { EXPORT_FORMATS, type ExportFormat } from '../groom/export/formats';
 
 export const SURFACE_UNITS = ['mm', 'cm', 'm', 'in'] as const;
@@ -182,3 +182,5 @@ export type SurfaceMovePreview = {
   to: { id: string; name: string };
 };
 export type SurfaceMovePreviewResponse = { preview: SurfaceMovePreview };
+/** A painted map read from an image through a surface's UVs, ready to go into a spec's `maps`. */
+export type ImageMapResponse = { map: MapSpec };

@@ -1,6 +1,7 @@
 // The zod schemas of the studio's request bodies, shared by the route handlers and the studio's
 // forms (plain zod, safe to import from client code).
 import { z } from 'zod';
+import { MAP_ATTRIBUTES } from '../groom/spec/maps';
 import { EXPORT_FORMATS, SURFACE_UNITS } from './types';
 
 const name = (what: string) =>
@@ -55,3 +56,31 @@ export const createExportSchema = z.object({
   /** Write the growth surface beside the guides (USD, glTF and OBJ; the other formats have no guides to bind). */
   withSurface: z.boolean('withSurface is true or false.').optional(),
 });
+
+/**
+ * Most bytes of a map image: 16 MB (a 2048² 16-bit greyscale PNG is 8 MB uncompressed, a 4096²
+ * 8-bit one 16 MB). Our choice, from the sizes painters use for a character's maps; no standard.
+ */
+export const MAP_IMAGE_MAX_BYTES = 16_000_000;
+/** The image map request's body: the image in base64 (4 bytes per 3) and a few hundred bytes of fields. */
+export const MAP_IMAGE_BODY_LIMIT = Math.ceil(MAP_IMAGE_MAX_BYTES / 3) * 4 + 10_000;
+
+/** A factor (the spec's map bounds: 0–10). */
+const factor = (what: string) => z.number(`Give the ${what} factor as a number.`).min(0, `The ${what} factor is 0 or more.`).max(10, `The ${what} factor is 10 or less.`);
+
+/**
+ * A painted map read from an image through the surface's UVs: which attribute it drives, the
+ * factors of black (`low`) and white (`high`), and the image itself (PNG or TIFF, base64).
+ */
+export const imageMapSchema = z
+  .object({
+    attribute: z.enum(MAP_ATTRIBUTES, `Choose what the map drives: ${MAP_ATTRIBUTES.join(', ')}.`),
+    low: factor('black').default(0),
+    high: factor('white').default(1),
+    image: z
+      .string('Choose a PNG or TIFF image.')
+      .min(1, 'Choose a PNG or TIFF image.')
+      .max(Math.ceil(MAP_IMAGE_MAX_BYTES / 3) * 4, `The image is larger than ${MAP_IMAGE_MAX_BYTES / 1_000_000} MB; use a smaller one.`)
+      .regex(/^[A-Za-z0-9+/]*={0,2}$/, 'The image must be sent as base64.'),
+  })
+  .refine((value) => value.low <= value.high, { path: ['high'], message: 'The white factor must not be below the black one.' });

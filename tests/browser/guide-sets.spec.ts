@@ -1,6 +1,7 @@
 // Guide sets in the studio: two sets with different lengths on the demo fox (crown and ears, the
-// fox's own OBJ groups), each listed and drawn in its own colours, saved, and exported as USD with
-// each set its own curve prim, read back by three's USDA parser.
+// fox's own OBJ groups), each listed and drawn in its own colours, the ears gathered into tufts
+// and given a tip width in the settings form, saved, and exported as USD with each set its own
+// curve prim and per-guide tuft numbers and widths, read back by three's USDA parser.
 import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
 import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
@@ -44,6 +45,13 @@ test('guide sets: two sets with different lengths on the fox (crown and ears), e
   await page.getByRole('checkbox', { name: 'ears' }).check();
   await typeNumber(page.getByLabel('Length', { exact: true }), 3);
   await expect(page.getByRole('button', { name: 'Undo' })).toHaveAttribute('title', /guide set “Ears”/);
+  // The ears' coat shaped in the form: gathered into tufts, and a tip width of its own.
+  await page.locator('summary', { hasText: 'Tufts' }).click();
+  await page.getByLabel('Gather the guides into tufts').check();
+  await typeNumber(page.getByLabel('Tufts per cm²', { exact: true }), 0.5);
+  await page.locator('summary', { hasText: 'Width' }).click();
+  await typeNumber(page.getByLabel('Tip width', { exact: true }), 0.004);
+  await expect(page.getByRole('button', { name: 'Undo' })).toHaveAttribute('title', /guide set “Ears”/);
 
   // The first set: the crown, short.
   await list.getByRole('button', { name: 'Whole coat' }).click();
@@ -72,4 +80,12 @@ test('guide sets: two sets with different lengths on the fox (crown and ears), e
   const crown = meanLength('Crown'), ears = meanLength('Ears');
   // Lengths 0.5 and 3 (jitter and curl move each guide a little; the ratio stays far from 1).
   expect(ears / crown).toBeGreaterThan(2.5);
+  // The tufts set in the form: every ear guide drawn into a tuft (no loners), no crown guide in one;
+  // the ears' tip width as typed (no width pins or maps on this groom), the crown's the default taper.
+  const perGuide = (set: string, name: string) => specsByPath[`/Groom/Guides/${set}.primvars:whorlwind:${name}`].fields.default as number[];
+  expect(perGuide('Ears', 'tuft').every((t) => t >= 0)).toBe(true);
+  expect(new Set(perGuide('Ears', 'tuft')).size).toBeGreaterThan(1);
+  expect(perGuide('Crown', 'tuft').every((t) => t === -1)).toBe(true);
+  expect(perGuide('Ears', 'tipWidth').every((w) => Math.abs(w - 0.004) < 1e-5)).toBe(true);
+  expect(perGuide('Crown', 'tipWidth').every((w) => Math.abs(w - 0.004) > 1e-4)).toBe(true);
 });

@@ -96,6 +96,8 @@ function page(path: string, expected: string, options: Omit<PageRow, 'kind' | 'p
 
 const all = (status: number | 'signin') => Array(WHO.length).fill(status).join(' ');
 const surface = { surfaceId: 'surface' } as const;
+/** A 2 × 2 mid-grey PNG (made with sharp), for the image map row. */
+const GREY_PNG = 'iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAACXBIWXMAAAPoAAAD6AG1e1JrAAAADklEQVQImWNoAAMGCAUAKg4GAeLeQoEAAAAASUVORK5CYII=';
 const groom = { groomId: 'groom' } as const;
 const listing = { id: 'listing' } as const;
 
@@ -118,6 +120,8 @@ export const ROUTE_ROWS: RouteRow[] = [
   route('POST', '/api/studio/surfaces', '401 404 202 404 403', { body: (t) => ({ uploadId: t.upload, name: 'Matrix surface', units: 'cm' }) }),
   route('GET', '/api/studio/surfaces/[surfaceId]', '401 404 200 404 403', { params: surface }),
   route('GET', '/api/studio/surfaces/[surfaceId]/prepared', '401 404 200 404 403', { params: surface }),
+  // The matrix's surface (the demo ring as OBJ) has no UVs: the owner's image is read and refused in words (422).
+  route('POST', '/api/studio/surfaces/[surfaceId]/image-map', '401 404 422 404 403', { params: surface, body: { attribute: 'length', image: GREY_PNG } }),
   route('GET', '/api/studio/surfaces/[surfaceId]', '401 404 404 404 403', { params: { surfaceId: ['not-an-id'] }, note: 'malformed id' }),
   route('DELETE', '/api/studio/surfaces/[surfaceId]', '401 404 200 404 403', { params: { surfaceId: 'spareSurface' } }),
   route('GET', '/api/studio/grooms', '401 200 200 200 403'),

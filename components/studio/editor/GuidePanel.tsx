@@ -6,35 +6,12 @@ import { MAX_GUIDES } from '@/lib/groom/spec/spec';
 import type { GrownGuides } from '@/lib/studio/client/protocol';
 import type { SpecEdit } from '@/lib/studio/client/spec-edits';
 import { useState } from 'react';
+import { CoatShapeFields } from './CoatShapeFields';
 import { GuideSetList } from './GuideSetList';
+import { ImageMapControl } from './ImageMapControl';
+import { SettingSlider as Slider } from './SettingSlider';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './editor-actions';
-
-function Slider({ label, value, min, max, step, unit, onPreview, onFinish }: { label: string; value: number; min: number; max: number; step: number; unit?: string; onPreview: (value: number) => void; onFinish: () => void }) {
-  return (
-    <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
-      <span className="flex justify-between">
-        {label}
-        <span className="tabular-nums text-loam">
-          {value}
-          {unit ?? ''}
-        </span>
-      </span>
-      <input
-        type="range"
-        min={min}
-        max={max}
-        step={step}
-        value={value}
-        onChange={(event) => onPreview(Number(event.target.value))}
-        onPointerUp={onFinish}
-        onKeyUp={onFinish}
-        onBlur={onFinish}
-        className="accent-bracken"
-      />
-    </label>
-  );
-}
 
 export function GuidePanel({
   spec,
@@ -45,6 +22,7 @@ export function GuidePanel({
   error,
   show,
   onShow,
+  surfaceId,
 }: {
   spec: GroomSpec;
   groups: readonly string[];
@@ -54,6 +32,8 @@ export function GuidePanel({
   error: string | null;
   show: boolean;
   onShow: (show: boolean) => void;
+  /** The stored surface the groom grows on (none in the practice editor, which has no server). */
+  surfaceId?: string;
 }) {
   const [picked, setPicked] = useState(0);
   const sets = spec.guideSets;
@@ -127,7 +107,6 @@ export function GuidePanel({
         <legend className="pb-1 text-xs font-bold uppercase tracking-[0.12em] text-bracken">Shape</legend>
         <div className="grid grid-cols-2 gap-2">
           <NumberField label="Length" unit={units} value={g.length} min={1e-6} max={1e6} onCommit={(length) => set({ length })} />
-          <NumberField label="Root width" unit={units} value={g.width} min={1e-6} max={1e6} onCommit={(width) => set({ width })} />
         </div>
         <Slider label="Lift off the skin" unit="°" value={g.lift} min={0} max={90} step={1} onPreview={(lift) => preview({ lift })} onFinish={actions.finish} />
         <Slider label="Droop" value={g.droop} min={0} max={1} step={0.01} onPreview={(droop) => preview({ droop })} onFinish={actions.finish} />
@@ -147,6 +126,8 @@ export function GuidePanel({
           </button>
         </div>
       </fieldset>
+      <CoatShapeFields key={sets ? `set-${chosen}` : 'groom'} settings={g} units={units} onEdit={set} onPreview={preview} onFinish={actions.finish} />
+      {surfaceId && <ImageMapControl spec={spec} surfaceId={surfaceId} actions={actions} />}
       <p className="text-xs text-loam-soft">Pins (Features → Add pin) vary length, lift, droop, curl, jitter or density over the surface.</p>
     </div>
   );

@@ -186,7 +186,7 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
                 />
               </div>
             )}
-            {tab === 'guides' && <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} />}
+            {tab === 'guides' && <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} surfaceId={persistence?.surfaceId} />}
             {tab === 'field' && (
               <div className="flex flex-col gap-5">
                 {surface && <GrainPanel spec={spec} grain={grain} actions={actions} onLookAt={(mark) => stage.current?.lookAt(mark.point, mark.normal)} />}

@@ -11,6 +11,7 @@ import { TWO_PI, angleInFace } from '../mesh/transport';
 import { validateRequest } from './budget';
 import { layOutCurves } from './curves';
 import { boundaryLoopChain, cutIntoPieces } from './pieces';
+import { twistReference } from './twist';
 import type { ConnectionResult, FieldRequest } from './request';
 import { isIndependentRow, ringSolution, solveRows, type ExtraRow } from './schur-rows';
 import type { FieldSurface } from './surface';
@@ -180,20 +181,12 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
     });
   });
   const tri = topology.triangles;
-  const p = surface.mesh.positions;
   for (const s of request.singularities ?? []) {
     if (s.orientation === undefined) continue;
-    const h = topology.vertexHalfedge[s.vertex];
-    const f = faceOfHalfedge(h);
-    let cx = 0, cy = 0, cz = 0;
-    for (let k = 0; k < 3; k++) {
-      const w = 3 * tri[3 * f + k];
-      cx += p[w] / 3; cy += p[w + 1] / 3; cz += p[w + 2] / 3;
-    }
-    const o = 3 * s.vertex;
-    const outward = angleInFace(frames, f, cx - p[o], cy - p[o + 1], cz - p[o + 2]);
-    fix(f, outward + s.orientation, `The twist of the singularity at vertex ${s.vertex}`);
-    features.push(f);
+    const what = `The twist of the singularity at vertex ${s.vertex}`;
+    const { face, angle } = twistReference(frames, topology, surface.mesh.positions, s.vertex, s.twistDirection, what);
+    fix(face, angle + s.orientation, what);
+    features.push(face);
   }
   if (surface.boundary !== 'free') {
     const quarter = surface.boundary === 'normal' ? Math.PI / 2 : 0;

@@ -21,6 +21,13 @@ export interface PointSingularity {
    * ±π/2 a spiral.
    */
   readonly orientation?: number;
+  /**
+   * Optional: a world direction the twist is measured from instead of the first face. The twist
+   * is then fixed in the ring face this direction, laid into the faces' planes, points into, and
+   * measured from the direction there (connection/twist.ts) — chosen by geometry, not by the face
+   * order, so a mirrored singularity with the mirrored direction fixes the mirrored face.
+   */
+  readonly twistDirection?: readonly [number, number, number];
 }
 
 /** A face whose direction is fixed: one sample of a flow stroke. */

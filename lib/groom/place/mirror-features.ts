@@ -9,16 +9,16 @@ import type { GroomSurface } from './surface';
  * the mirror names no polygon of the file until it is next carried (`withSurfacePositions`).
  *
  * The twist. `twist` with `handedness` is one signed angle o (counterclockwise seen from outside
- * positive): the field's angle from the direction pointing out of the singular vertex into its
- * first face. A mirror reverses every turning seen from outside, so a whorl's o becomes −o: the
- * same `twist`, the other `handedness` (a clockwise spiral becomes an anticlockwise one; outflow 0
- * and inflow 180 stay what they are). For an index k other than 1 the angle to the outward
- * direction itself turns by (k − 1) times the way round the vertex, and the mirror vertex's first
- * face need not be the image of the first face, so o' = −(o + (k − 1) Δ), Δ the angle (about the
- * vertex normal) from the first face's outward direction to the image of the mirror's first face's.
+ * positive), measured from a direction at the singular vertex: its `twistFrom` direction when it
+ * has one, else the direction out of the vertex into its first face. A mirror reverses every
+ * turning seen from outside, so the mirror's angle is −o measured from the mirror image of that
+ * direction: the same `twist`, the other `handedness` (a clockwise spiral becomes an anticlockwise
+ * one; outflow 0 and inflow 180 stay), and the mirrored direction written as the mirror's
+ * `twistFrom`. The field engine then fixes the mirror's twist in the mirror image of the face it
+ * fixes the original's in (lib/field connection/twist.ts chooses that face by the direction, not by
+ * the face order), so a mirrored pair of twisted singularities of any index solves to a mirrored
+ * field on a symmetric surface. The original is kept as it was.
  */
-
-const DEGREES = 180 / Math.PI;
 
 /** The point a place names (a vertex's own position for `vertex` places). */
 export function pointOfPlace(surface: GroomSurface, place: PlaceSpec, path: string): [number, number, number] {
@@ -47,16 +47,6 @@ function outwardOfFirstFace(surface: GroomSurface, v: number): [number, number, 
   return out;
 }
 
-/** Signed angle from a to b about the unit normal n (counterclockwise seen from the normal's side), both projected into n's plane. */
-function angleAbout(n: ArrayLike<number>, a: readonly number[], b: readonly number[]): number {
-  const dot = (u: readonly number[], w: ArrayLike<number>) => u[0] * w[0] + u[1] * w[1] + u[2] * w[2];
-  const da = dot(a, n), db = dot(b, n);
-  const pa = [a[0] - da * n[0], a[1] - da * n[1], a[2] - da * n[2]];
-  const pb = [b[0] - db * n[0], b[1] - db * n[1], b[2] - db * n[2]];
-  const cross = [pa[1] * pb[2] - pa[2] * pb[1], pa[2] * pb[0] - pa[0] * pb[2], pa[0] * pb[1] - pa[1] * pb[0]];
-  return Math.atan2(dot(cross, n), dot(pa, pb));
-}
-
 export { mirrorStroke };
 
 /**
@@ -65,17 +55,9 @@ export { mirrorStroke };
  */
 export function mirrorSingularity(surface: GroomSurface, plane: MirrorPlane, s: SingularitySpec, path = 'singularity'): SingularitySpec {
   const mirrored = mirrorSingularityPoint(plane, { ...s, vertex: undefined, point: pointOfPlace(surface, s, path) })!;
-  const point = mirrored.point!;
-  if (s.twist === undefined || s.index === 1) return mirrored;
-  const turn = s.handedness === 'clockwise' ? -1 : 1;
-  let o = (turn * s.twist) / DEGREES;
-  const v = vertexOfPlace(surface, s, path);
-  const w = vertexOfPlace(surface, { point }, path);
-  const n = surface.vertexNormal.subarray(3 * v, 3 * v + 3);
-  o += (s.index - 1) * angleAbout(n, outwardOfFirstFace(surface, v), mirrorDirection(plane, outwardOfFirstFace(surface, w)));
-  const reversed = Math.atan2(Math.sin(-o), Math.cos(-o));
-  const twist = Math.min(180, Math.abs(reversed) * DEGREES);
-  return { ...mirrored, twist, handedness: reversed < 0 ? 'clockwise' : 'counterclockwise' };
+  if (s.twist === undefined) return mirrored;
+  const from = s.twistFrom ?? outwardOfFirstFace(surface, vertexOfPlace(surface, s, path));
+  return { ...mirrored, twistFrom: mirrorDirection(plane, from) };
 }
 
 /** The mirror image of a pin: its point mirrored, attribute and value kept. */

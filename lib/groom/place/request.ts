@@ -80,7 +80,8 @@ export function fieldRequestFromSpec(spec: GroomSpec, surface: GroomSurface): Fi
     const vertex = vertexOfPlace(surface, s, `field.singularities[${i}]`);
     if (s.twist === undefined) return { vertex, index: s.index };
     const sign = s.handedness === 'clockwise' ? -1 : 1;
-    return { vertex, index: s.index, orientation: sign * s.twist * RADIANS_PER_DEGREE };
+    const orientation = sign * s.twist * RADIANS_PER_DEGREE;
+    return s.twistFrom ? { vertex, index: s.index, orientation, twistDirection: s.twistFrom } : { vertex, index: s.index, orientation };
   });
   const curves: CurveFeature[] = [
     ...f.partings.map((c, i) => ({ kind: 'parting' as const, vertices: curveVertices(surface, c, `field.partings[${i}]`) })),

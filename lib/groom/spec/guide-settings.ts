@@ -102,6 +102,43 @@ export const guidesSchemaV3 = z
 
 export type GuidesInput = z.output<typeof guidesSchemaV3>;
 
+/** The bounds a number field of the schema accepts; `above` when the lower bound itself is refused (`positive()`). */
+export interface SettingRange {
+  readonly min: number;
+  readonly max: number;
+  readonly above: boolean;
+}
+
+/** Reads a number's bounds off its zod schema (through `.default`/`.optional`), so a form's ranges are the schema's own. */
+function rangeOf(schema: z.ZodType): SettingRange {
+  let inner: z.ZodType = schema;
+  while (inner instanceof z.ZodDefault || inner instanceof z.ZodOptional || inner instanceof z.ZodPrefault) inner = inner.unwrap() as z.ZodType;
+  if (!(inner instanceof z.ZodNumber)) throw new Error('rangeOf: not a number schema');
+  const checks = (inner.def.checks ?? []) as unknown as { _zod: { def: { check: string; value: number; inclusive: boolean } } }[];
+  const low = checks.map((c) => c._zod.def).find((d) => d.check === 'greater_than');
+  return { min: inner.minValue ?? -Infinity, max: inner.maxValue ?? Infinity, above: low ? !low.inclusive : false };
+}
+
+/**
+ * The ranges of the coat's shaping settings, read from the schema above: the editor's fields refuse
+ * what the spec would, in the same bounds, and cannot drift from it.
+ */
+export const COAT_SETTING_RANGES = {
+  width: rangeOf(size),
+  tipWidth: rangeOf(guidesSchemaV3.shape.tipWidth),
+  tuftDensity: rangeOf(tuftLevelSchema.shape.density),
+  gatherRoot: rangeOf(gatherSchema.shape.root),
+  gatherTip: rangeOf(gatherSchema.shape.tip),
+  gatherRise: rangeOf(gatherSchema.shape.rise),
+  loners: rangeOf(tuftsSchema.shape.loners),
+  waverAmplitude: rangeOf(waverSchema.shape.amplitude),
+  waverWaves: rangeOf(waverSchema.shape.waves),
+} as const;
+
+/** The defaults the schema fills in a tuft level's gather, and a waver's waves (what a new tuft level or waver starts from). */
+export const GATHER_DEFAULTS = gatherSchema.parse({});
+export const WAVER_WAVES_DEFAULT = waverSchema.shape.waves.parse(undefined);
+
 /** Fills the guide settings' defaults that depend on the units, so the written spec states every decision. */
 export function resolveGuides(g: GuidesInput, perCm: number) {
   const length = g.length ?? 2 * perCm;

@@ -71,6 +71,12 @@ const singularitySchema = z
     index: z.number().min(-8).max(8).refine((x) => x !== 0, 'an index of 0 is no singularity'),
     twist: degrees(0, 180).optional(),
     handedness: z.enum(['counterclockwise', 'clockwise']).default('counterclockwise'),
+    /**
+     * A world direction the twist is measured from, instead of the singular vertex's first face:
+     * the twist is fixed in the face this direction points into and measured from it there, so a
+     * mirrored singularity with the mirrored direction twists exactly mirrored. Absent: as before.
+     */
+    twistFrom: vec3.refine((v) => v[0] !== 0 || v[1] !== 0 || v[2] !== 0, 'the direction must not be zero').optional(),
   })
   .superRefine(exactlyOnePlace);
 

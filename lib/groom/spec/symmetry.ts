@@ -49,14 +49,21 @@ export function mirrorDirection(plane: MirrorPlane, v: readonly number[]): Point
  * The mirror image of a singularity placed by a point, by the whorl's rule: the point mirrored,
  * the index kept (a reflection keeps every index), the twist kept and its handedness reversed — a
  * mirror reverses every turning seen from outside, so a clockwise spiral becomes an anticlockwise
- * one (outflow 0 and inflow 180 look the same either way). Exact for a whorl; for other indices
- * see `mirrorSingularity` in place/mirror-features.ts, which corrects the twist on the surface.
+ * one (outflow 0 and inflow 180 look the same either way); a `twistFrom` direction is mirrored
+ * too. Exact for a whorl, and for any index when the twist has a `twistFrom`; otherwise see
+ * `mirrorSingularity` in place/mirror-features.ts, which states the mirror's twist exactly.
  * Null for a singularity placed by file vertex (its point needs the surface).
  */
 export function mirrorSingularityPoint(plane: MirrorPlane, s: SingularitySpec): SingularitySpec | null {
   if (!s.point) return null;
   const handedness = s.handedness === 'clockwise' ? 'counterclockwise' : 'clockwise';
-  return { point: mirrorPoint(plane, s.point), index: s.index, ...(s.twist !== undefined ? { twist: s.twist } : {}), handedness };
+  return {
+    point: mirrorPoint(plane, s.point),
+    index: s.index,
+    ...(s.twist !== undefined ? { twist: s.twist } : {}),
+    handedness,
+    ...(s.twistFrom ? { twistFrom: mirrorDirection(plane, s.twistFrom) } : {}),
+  };
 }
 
 /** The mirror image of a pin placed by a point (null when placed by file vertex). */

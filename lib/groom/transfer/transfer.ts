@@ -230,7 +230,12 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     ...placed.spec,
     units: toUnits,
     upAxis: toUp,
-    field: { ...placed.spec.field, ...(direction ? { referenceDirection: direction } : {}) },
+    field: {
+      ...placed.spec.field,
+      ...(direction ? { referenceDirection: direction } : {}),
+      // A twist's own direction turns with the surface, as the reference direction does.
+      singularities: placed.spec.field.singularities.map((s) => (s.twistFrom ? { ...s, twistFrom: alignDirection(alignment, s.twistFrom) } : s)),
+    },
     ...(carried ? { maps: carried.maps } : {}),
     ...(spec.symmetry ? { symmetry: carriedSymmetry(spec.symmetry, alignment) } : {}),
     guides: { ...scaled(g), regions: keptRegions },

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { TriangleMesh } from '@/lib/field';
-import { icosphere } from '@/tests/fixtures/shapes';
+import { mirrorSymmetricShape } from '@/tests/fixtures/shapes';
 import { parseGroomSpec, parseGroomSpecJson, specToJson, type GroomSpecInput } from '@/lib/groom/spec/spec';
 import { prepareGroomSurface, type GroomSurface } from '@/lib/groom/place/surface';
 import { solveGroomField } from '@/lib/groom/place/request';
@@ -12,24 +12,9 @@ import { isOnPlane, mirrorSingularity, mirrorSpecFeatures } from '@/lib/groom/pl
 import { GroomError } from '@/lib/groom/errors';
 import { DEMO_GROOMS } from '@/lib/groom/demo';
 
-/**
- * A test shape exactly symmetric about x = 0 and about no other plane: an icosphere (whose
- * vertices and faces the reflection x → −x maps onto each other, the icosahedron having that
- * symmetry) stretched and sheared in y and z by functions of x² and y only.
- */
-function symmetricShape(): TriangleMesh {
-  const m = icosphere(3, 1);
-  const p = m.positions;
-  for (let v = 0; v < p.length / 3; v++) {
-    const [x, y, z] = [p[3 * v], p[3 * v + 1], p[3 * v + 2]];
-    p[3 * v + 1] = 1.3 * y + 0.2 * x * x;
-    p[3 * v + 2] = 0.8 * z + 0.15 * y;
-  }
-  return m;
-}
 
 const X_PLANE: MirrorPlane = { normal: [1, 0, 0], offset: 0 };
-const surface = prepareGroomSurface(symmetricShape());
+const surface = prepareGroomSurface(mirrorSymmetricShape());
 
 /** Rotation about a unit axis by an angle (Rodrigues), applied to every vertex, then a shift. */
 function moved(mesh: TriangleMesh, axis: number[], angle: number, shift: number[]): TriangleMesh {
@@ -58,7 +43,7 @@ describe('the mirror plane of a surface', () => {
     const axis = [1, 2, 2].map((c) => c / 3);
     const angle = 0.7;
     const shift = [0.3, -0.2, 1.5];
-    const found = detectMirrorPlane(prepareGroomSurface(moved(symmetricShape(), axis, angle, shift)));
+    const found = detectMirrorPlane(prepareGroomSurface(moved(mirrorSymmetricShape(), axis, angle, shift)));
     // The plane x = 0 turned the same way: its normal is the turned x axis, through the moved origin.
     const normal = moved({ positions: Float64Array.of(1, 0, 0), triangles: new Uint32Array() }, axis, angle, [0, 0, 0]).positions;
     const alignment = Math.abs(normal[0] * found.plane.normal[0] + normal[1] * found.plane.normal[1] + normal[2] * found.plane.normal[2]);
@@ -69,7 +54,7 @@ describe('the mirror plane of a surface', () => {
   });
 
   it('calls a lopsided surface not symmetric and says by how much', () => {
-    const lopsided = symmetricShape();
+    const lopsided = mirrorSymmetricShape();
     const p = lopsided.positions;
     // One cheek pushed out by 20 % of the radius: no plane maps the surface onto itself.
     for (let v = 0; v < p.length / 3; v++) if (p[3 * v] > 0.3 && p[3 * v + 2] > 0) p[3 * v] *= 1.2;
@@ -204,20 +189,70 @@ describe('a mirrored spec on a symmetric surface', () => {
     expect(worstMirrorGap(plain.guides, X_PLANE).gap / surface.diagonal).toBeGreaterThan(1e-3);
   });
 
-  it('reverses a spiral’s twist in the solved field: the field turns −40° off the outward direction at the whorl, +40° at its mirror', () => {
+  it('reverses a spiral’s twist in the solved field: −40° off the outward direction in the whorl’s first face, +40° off its mirror image in the mirror face', () => {
     const twisted = mirrorSpecFeatures(parseGroomSpec({ ...half, field: { ...half.field, singularities: [{ point: [0.7, 0.5, 0.5], index: 1, twist: 40, handedness: 'clockwise' }] } }), surface, X_PLANE);
     const field = solveGroomField(twisted, surface);
-    const angles = twisted.field.singularities.map((s, i) => twistInFirstFace(surface, field.field.faceDirection, vertexOfPlace(surface, s, `s${i}`)));
-    expect(angles[0]).toBeCloseTo(-40, 6);
-    expect(angles[1]).toBeCloseTo(40, 6);
+    const [v, w] = twisted.field.singularities.map((s, i) => vertexOfPlace(surface, s, `s${i}`));
+    const first = firstFace(surface, v);
+    expect(twistInFace(surface, field.field.faceDirection, v, first)).toBeCloseTo(-40, 6);
+    expect(twistInFace(surface, field.field.faceDirection, w, mirrorFaceOf(surface, first))).toBeCloseTo(40, 6);
     expect(twisted.field.singularities.map((s) => Math.round(field.measuredIndex[vertexOfPlace(surface, s, 's')] * 1e9) / 1e9)).toEqual([1, 1]);
   });
 });
 
-/** The field's angle in degrees, counterclockwise seen from outside, from the direction out of vertex v into its first face (the face the engine fixes a twist in). */
-function twistInFirstFace(surface: GroomSurface, faceDirection: Float64Array, v: number): number {
+describe('a twisted whorl and its twin, nothing else fixing the field (issue 16’s symmetry check)', () => {
+  // Only the whorl is placed; its twin comes from mirrorSpecFeatures with the twist reversed and
+  // measured from the mirrored direction (twistFrom), so the engine fixes the mirror image of the
+  // whorl's twisted face. The minimal-norm connection of a reflected request is the reflected
+  // connection (it is unique), so the fields must agree face by face up to rounding.
+  for (const [index, twist] of [[1, 40], [1, 150]] as const) {
+    it(`a whorl twisted ${twist}° clockwise: every face’s vector is its mirror face’s reflected within 1e-9, unit within 1e-9; indices mirrored, twists reversed`, () => {
+      const spec = mirrorSpecFeatures(
+        parseGroomSpec({ specVersion: 3, units: 'cm', field: { singularities: [{ point: [0.7, 0.5, 0.5], index, twist, handedness: 'clockwise' }] } }),
+        surface,
+        X_PLANE,
+      );
+      const [s, t] = spec.field.singularities;
+      expect(t).toMatchObject({ index, twist, handedness: 'counterclockwise' });
+      expect(s.twistFrom).toBeUndefined();
+      const solved = solveGroomField(spec, surface);
+      const d = solved.field.faceDirection, nF = d.length / 3;
+      let gap = 0, unit = 0;
+      for (let f = 0; f < nF; f++) {
+        const g = mirrorFaceOf(surface, f);
+        gap = Math.max(gap, Math.hypot(-d[3 * f] - d[3 * g], d[3 * f + 1] - d[3 * g + 1], d[3 * f + 2] - d[3 * g + 2]));
+        unit = Math.max(unit, Math.abs(Math.hypot(d[3 * f], d[3 * f + 1], d[3 * f + 2]) - 1));
+      }
+      expect(gap).toBeLessThan(1e-9);
+      expect(unit).toBeLessThan(1e-9);
+      const p = surface.mesh.positions;
+      for (let v = 0; v < p.length / 3; v++) {
+        const w = vertexOfPlace(surface, { point: mirrorPoint(X_PLANE, [p[3 * v], p[3 * v + 1], p[3 * v + 2]]) }, 'mirror');
+        expect(Math.abs(solved.measuredIndex[w] - solved.measuredIndex[v])).toBeLessThan(1e-9);
+      }
+      const [v, w] = [s, t].map((x, i) => vertexOfPlace(surface, x, `s${i}`));
+      const first = firstFace(surface, v);
+      expect(twistInFace(surface, d, v, first)).toBeCloseTo(-twist, 6);
+      expect(twistInFace(surface, d, w, mirrorFaceOf(surface, first))).toBeCloseTo(twist, 6);
+    });
+  }
+});
+
+function firstFace(surface: GroomSurface, v: number): number {
+  return (surface.field.topology.vertexHalfedge[v] / 3) | 0;
+}
+
+/** The face the reflection x → −x maps face f onto (the test shape is exactly symmetric). */
+function mirrorFaceOf(surface: GroomSurface, f: number): number {
+  const t = surface.field.topology.triangles, p = surface.mesh.positions;
+  const mirrored = [0, 1, 2].map((k) => vertexOfPlace(surface, { point: mirrorPoint(X_PLANE, [p[3 * t[3 * f + k]], p[3 * t[3 * f + k] + 1], p[3 * t[3 * f + k] + 2]]) }, 'm')).sort((a, b) => a - b).join(',');
+  for (let g = 0; g < t.length / 3; g++) if ([t[3 * g], t[3 * g + 1], t[3 * g + 2]].sort((a, b) => a - b).join(',') === mirrored) return g;
+  throw new Error(`no mirror face of ${f}`);
+}
+
+/** The field's angle in degrees in face f, counterclockwise seen from outside, from the direction out of vertex v to f's centroid. */
+function twistInFace(surface: GroomSurface, faceDirection: Float64Array, v: number, f: number): number {
   const t = surface.field.topology, p = surface.mesh.positions;
-  const f = (t.vertexHalfedge[v] / 3) | 0;
   const c = [0, 1, 2].map((k) => (p[3 * t.triangles[3 * f] + k] + p[3 * t.triangles[3 * f + 1] + k] + p[3 * t.triangles[3 * f + 2] + k]) / 3 - p[3 * v + k]);
   const n = surface.field.frames.normal.subarray(3 * f, 3 * f + 3);
   const d = faceDirection.subarray(3 * f, 3 * f + 3);

@@ -186,6 +186,17 @@ describe('a spec carried to the same character in another file', () => {
     expect(same.spec.field.partings[0].vertices).toEqual(ring);
   });
 
+  it('a twist’s own direction (twistFrom) turns with the surface, as the reference direction does', () => {
+    const twisted = parseGroomSpec({ ...JSON.parse(specToJson(SPEC)), field: { ...JSON.parse(specToJson(SPEC)).field, singularities: SPEC.field.singularities.map((x, i) => (i === 1 ? { ...x, twistFrom: [0.2, -0.3, 1] } : x)) } });
+    // The same sphere declared Z up on one side and Y up on the other: a quarter turn about x.
+    const { spec, report } = transferSpec(twisted, from, { ...side(a), upAxis: 'y' }, { method: 'alignment' });
+    const r = report.alignment.rotation;
+    const turned = [0, 1, 2].map((i) => r[3 * i] * 0.2 + r[3 * i + 1] * -0.3 + r[3 * i + 2] * 1);
+    expect(Math.abs(r[4])).toBeLessThan(1e-12); // y and z exchanged: a real turn, not the identity
+    spec.field.singularities[1].twistFrom!.forEach((c, k) => expect(c).toBeCloseTo(turned[k], 12));
+    expect(spec.field.singularities[0].twistFrom).toBeUndefined();
+  });
+
   it('a sculpt pass (same polygons, moved vertices): every feature keeps its polygon, corners and barycentric', () => {
     const sculpted = transferSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => { const k = 1 + 0.08 * Math.sin(3 * x) * Math.cos(2 * y); return [k * x, k * y, k * z]; } });
     const first = transferSpec(SPEC, from, side(a)).spec; // positions stated on the original

@@ -35,6 +35,14 @@ describe('spec version 3', () => {
     expect(guides.count).toBe(750);
     expect(hashOf(guides.points)).toBe('9e715d5ea9e3f3c097d7c1ed3399dc7690385c7b5262619c89ecc354a988f9dd');
     expect(Array.from(guides.tuft).every((t) => t === -1)).toBe(true);
+    // Written, it is a version-3 spec stating every decision (the tip width among them), and read
+    // back it grows the same guides again, bit for bit.
+    const written = JSON.parse(specToJson(spec));
+    expect(written.specVersion).toBe(3);
+    expect(written.guides.tipWidth).toBeCloseTo(0.2 * written.guides.width, 15);
+    expect(['tufts', 'waver'].filter((k) => k in written.guides)).toEqual([]);
+    expect(['maps', 'guideSets', 'symmetry'].filter((k) => k in written)).toEqual([]);
+    expect(hashOf(groomOn(mesh, written).guides.points)).toBe('9e715d5ea9e3f3c097d7c1ed3399dc7690385c7b5262619c89ecc354a988f9dd');
   });
 
   it('names a bad tuft setting by its path', () => {

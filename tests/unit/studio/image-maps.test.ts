@@ -1,0 +1,42 @@
+import { describe, expect, it } from 'vitest';
+import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
+import { encodeMap } from '@/lib/groom/place/maps';
+import { parseGroomSpec } from '@/lib/groom/spec/spec';
+import { MAP_ATTRIBUTES } from '@/lib/groom/spec/maps';
+import { applyCheckedEdit, createEditorState, currentSpec, undo, undoLabel } from '@/lib/studio/client/editor-state';
+import { MAP_ATTRIBUTE_WORDS, fileToBase64, imageMapEdit } from '@/lib/studio/client/image-maps';
+
+// The editor's side of a map read from an image (components/studio/editor/ImageMapControl.tsx):
+// the map the server answers enters the spec as one undoable edit.
+
+const fox = DEMO_GROOMS[0];
+const mesh = fox.surface();
+const nV = mesh.positions.length / 3;
+
+describe('a map from an image in the editor', () => {
+  it('is one undoable edit that adds the map, and a second image of the same attribute replaces it', () => {
+    const spec = parseGroomSpec(fox.spec);
+    let state = createEditorState(spec);
+    const first = encodeMap('length', new Float64Array(nV).fill(1.5), mesh, 16, { low: 0.5, high: 2.5 });
+    const width = encodeMap('width', new Float64Array(nV).fill(2), mesh, 16, { low: 0, high: 2 });
+    let step = applyCheckedEdit(state, imageMapEdit(currentSpec(state), first, 'fur-length.png'));
+    expect(step.refused).toBeNull();
+    state = applyCheckedEdit(step.state, imageMapEdit(currentSpec(step.state), width, 'width.tif')).state;
+    expect(undoLabel(state)).toBe('Add the width map from width.tif');
+    const second = encodeMap('length', new Float64Array(nV).fill(0.5), mesh, 16, { low: 0.5, high: 2.5 });
+    step = applyCheckedEdit(state, imageMapEdit(currentSpec(state), second, 'shorter.png'));
+    expect(undoLabel(step.state)).toBe('Replace the length map from shorter.png');
+    expect(currentSpec(step.state).maps!.map((m) => [m.attribute, m.data])).toEqual([['length', second.data], ['width', width.data]]);
+    expect(currentSpec(undo(step.state)).maps!.map((m) => m.data)).toEqual([first.data, width.data]);
+    expect(currentSpec(undo(undo(undo(step.state)))).maps).toBeUndefined();
+  });
+
+  it('names every attribute a map may drive', () => {
+    expect(Object.keys(MAP_ATTRIBUTE_WORDS).sort()).toEqual([...MAP_ATTRIBUTES].sort());
+  });
+
+  it('sends the file as base64 (RFC 4648), byte for byte', async () => {
+    const bytes = Uint8Array.from({ length: 70_000 }, (_x, i) => (i * 31) & 255);
+    expect(await fileToBase64(new Blob([bytes]))).toBe(Buffer.from(bytes).toString('base64'));
+  });
+});
