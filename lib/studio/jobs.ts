@@ -24,7 +24,11 @@ export type ThumbnailJobData = { groomId: string; versionId?: string };
  * surface and the written file need, with Node's own ~100 MB on top.
  */
 export const EXPORT_BUDGET: JobBudget = { seconds: 10 * 60, memoryMb: 1536 };
-export const THUMBNAIL_BUDGET: JobBudget = { seconds: 3 * 60, memoryMb: 768 };
+/**
+ * A thumbnail grows a bounded sample of guides, but solves the whole field first: on a surface at
+ * the face limit that is most of its memory (a 1,000,000-face sphere peaks at about 1 GB in Node).
+ */
+export const THUMBNAIL_BUDGET: JobBudget = { seconds: 3 * 60, memoryMb: 2048 };
 /** Two surfaces read and prepared (each up to the face limit) and a spec carried from one to the other. */
 export const SURFACE_MOVE_BUDGET: JobBudget = { seconds: 5 * 60, memoryMb: 2048 };
 /** Reading and checking a surface of up to 200 MB and 2,000,000 faces, with its thumbnail and starting spec. */
