@@ -147,6 +147,8 @@ export interface SolveReport {
   readonly curves: readonly { readonly kind: 'parting' | 'crest'; readonly points: Float32Array }[];
   readonly proof: IndexProof | null;
   readonly milliseconds: number;
+  /** Where the worker's milliseconds went: resolving the spec's places, the solve (with the proof when full), the drawing. */
+  readonly stages?: { readonly request: number; readonly solve: number; readonly drawing: number };
 }
 
 export interface GrownGuides {

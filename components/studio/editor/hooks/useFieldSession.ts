@@ -4,6 +4,7 @@
 // the moments a groomer waits on marked for the browser benchmarks.
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
+import { askOf, markFieldDrawn } from '@/lib/studio/client/drag-timing';
 import { SUPERSEDED, WorkerFailure, startFieldWorker, type FieldClient } from '@/lib/studio/client/field-client';
 import type { DisplayOptions, OpenedSurface, SolveReport, SurfaceSource } from '@/lib/studio/client/protocol';
 import { useLatest } from './useLiveState';
@@ -20,6 +21,14 @@ export interface FieldSession {
   readonly drawing: { readonly lines: Float32Array; readonly shade: Float32Array | null } | null;
   /** For the stage to call when it has drawn the field. */
   readonly onFieldDrawn: () => void;
+}
+
+/** A field drawing with the drag ask it answers (null when no drag asked for it). */
+interface Shown {
+  readonly lines: Float32Array;
+  readonly shade: Float32Array | null;
+  readonly ask: number | null;
+  readonly quick: boolean;
 }
 
 /**
@@ -39,7 +48,9 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
   const [openError, setOpenError] = useState<string | null>(null);
   const [task, reportOpening, clearOpening] = useTask();
   const [solve, setSolve] = useState<SolveReport | null>(null);
-  const [lastDrawing, setLastDrawing] = useState<FieldSession['drawing']>(null);
+  const [lastDrawing, setLastDrawing] = useState<Shown | null>(null);
+  /** The drag ask (drag-timing.ts) each report answers. */
+  const askOfReport = useRef(new WeakMap<SolveReport, number | null>());
   const failure = useLatest(onFailure);
   const firstDisplay = useLatest(display);
 
@@ -51,17 +62,19 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
       const last = sent.current;
       if (last && last.spec === next && last.display === shown && last.quick === fast) return;
       sent.current = { spec: next, display: shown, quick: fast };
+      const ask = askOf(next);
       worker
         .latest('field', 0, { type: 'solve', spec: next, display: shown, quick: fast })
         .then((report) => {
           if (report === SUPERSEDED) return;
-          performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick } });
+          performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick, ask, stages: report.stages } });
           if (!solvedOnce.current) {
             solvedOnce.current = true;
             performance.mark('whorlwind:first-solve', { detail: { milliseconds: report.milliseconds } });
           }
+          askOfReport.current.set(report, ask);
           setSolve(report);
-          if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade });
+          if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade, ask, quick: report.quick });
         })
         .catch((error: unknown) => {
           if (error instanceof WorkerFailure && (error.error.code === 'closed' || error.error.code === 'no-surface')) return;
@@ -108,12 +121,15 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     if (surface && client) requestSolve(client, spec, display, quick);
   }, [client, display, quick, requestSolve, spec, surface]);
 
+  const drawing: Shown | null = solve?.lines ? { lines: solve.lines, shade: solve.lineShade, ask: askOfReport.current.get(solve) ?? null, quick: solve.quick } : lastDrawing;
+  // The drawing of this render is the one the stage's next "drawn" call is about.
+  const shown = useRef(drawing);
+  shown.current = drawing;
   const drawnCount = useRef(0);
   const onFieldDrawn = useCallback(() => {
-    performance.mark('whorlwind:field-drawn');
+    markFieldDrawn(shown.current?.ask ?? null, shown.current?.quick ?? false);
     if (drawnCount.current++ === 0) performance.mark('whorlwind:first-field');
   }, []);
 
-  const drawing = solve?.lines ? { lines: solve.lines, shade: solve.lineShade } : lastDrawing;
   return { client, surface, openError, task, solve, drawing, onFieldDrawn };
 }
