@@ -16,7 +16,11 @@ export interface DirectionField {
   readonly faceAngle: Float64Array;
   /** Unit tangent direction per face (3 per face); for order n > 1 the first of its n directions. */
   readonly faceDirection: Float64Array;
-  /** Unit tangent direction per vertex (3 per vertex), blended from the faces around it; 0 where no face uses the vertex. */
+  /**
+   * Unit tangent direction per vertex (3 per vertex), blended from the faces around it; 0 where no
+   * face uses the vertex. Blended on first use and kept: a field drawn while a feature is dragged
+   * never needs it, and blending costs more than carrying the field over the surface.
+   */
   readonly vertexDirection: Float64Array;
 }
 
@@ -35,6 +39,7 @@ export interface FieldStart {
  * held boundaries) get exactly their fixed direction (up to the field's symmetry); within a piece,
  * crossing any interior edge not on a curve changes the direction by exactly the connection's
  * rotation, modulo 2π/order — because the connection is trivial, the tree chosen does not matter.
+ * The per-vertex directions are blended when first read (the same values either way).
  */
 export function buildDirectionField(surface: FieldSurface, connection: ConnectionResult, start: FieldStart = {}): DirectionField {
   const topology = surface.topology;
@@ -81,11 +86,15 @@ export function buildDirectionField(surface: FieldSurface, connection: Connectio
     const c = Math.cos(faceAngle[f]), s = Math.sin(faceAngle[f]);
     for (let i = 0; i < 3; i++) faceDirection[3 * f + i] = c * frames.frameX[3 * f + i] + s * frames.frameY[3 * f + i];
   }
+  let blended: Float64Array | null = null;
   return {
     order: connection.order,
     faceAngle,
     faceDirection,
-    vertexDirection: blendAtVertices(surface, faceDirection, connection.order),
+    get vertexDirection() {
+      blended ??= blendAtVertices(surface, faceDirection, connection.order);
+      return blended;
+    },
   };
 }
 
