@@ -134,7 +134,7 @@ export interface SolveReport {
   readonly quick: boolean;
   /** Field drawing as segment end points (x, y, z pairs), or null when the solve failed. */
   readonly lines: Float32Array | null;
-  /** Where along each drawn line a point lies (0 at the tail, 1 at the head), for shading. */
+  /** Where along each drawn line a point lies (0 at the tail, 1 at the head), for shading; null for short strokes (tail and head alternate). */
   readonly lineShade: Float32Array | null;
   readonly error: WorkerError | null;
   /** Null when the spec's places could not be resolved on the surface. */

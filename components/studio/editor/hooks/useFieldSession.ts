@@ -17,6 +17,8 @@ export interface FieldSession {
   /** The opening of the surface while it runs. */
   readonly task: Task | null;
   readonly solve: SolveReport | null;
+  /** The spec `solve` was solved for (while a marker is dragged, the one the stage shows). */
+  readonly solvedSpec: GroomSpec | null;
   /** The newest field drawing: the last solve's, or the one before while a solve brings none. */
   readonly drawing: { readonly lines: Float32Array; readonly shade: Float32Array | null } | null;
   /** For the stage to call when it has drawn the field. */
@@ -49,8 +51,9 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
   const [task, reportOpening, clearOpening] = useTask();
   const [solve, setSolve] = useState<SolveReport | null>(null);
   const [lastDrawing, setLastDrawing] = useState<Shown | null>(null);
-  /** The drag ask (drag-timing.ts) each report answers. */
+  /** The spec and the drag ask (drag-timing.ts) each report answers. */
   const askOfReport = useRef(new WeakMap<SolveReport, number | null>());
+  const specOfReport = useRef(new WeakMap<SolveReport, GroomSpec>());
   const failure = useLatest(onFailure);
   const firstDisplay = useLatest(display);
 
@@ -73,6 +76,7 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
             performance.mark('whorlwind:first-solve', { detail: { milliseconds: report.milliseconds } });
           }
           askOfReport.current.set(report, ask);
+          specOfReport.current.set(report, next);
           setSolve(report);
           if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade, ask, quick: report.quick });
         })
@@ -131,5 +135,5 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     if (drawnCount.current++ === 0) performance.mark('whorlwind:first-field');
   }, []);
 
-  return { client, surface, openError, task, solve, drawing, onFieldDrawn };
+  return { client, surface, openError, task, solve, solvedSpec: solve ? (specOfReport.current.get(solve) ?? null) : null, drawing, onFieldDrawn };
 }
