@@ -47,6 +47,16 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow }
   | { readonly id: number; readonly type: 'find-mirror' };
 
+/**
+ * What a solve request carries of a spec: all but its painted maps, guide sets and symmetry,
+ * which a solve never reads (it reads the field, the up axis and the pins) and which can weigh
+ * megabytes — a drag sends a solve request at every pointer move.
+ */
+export function solvePart(spec: GroomSpec): GroomSpec {
+  const { maps: _maps, guideSets: _sets, symmetry: _symmetry, ...part } = spec;
+  return part;
+}
+
 export type WorkerRequestBody = WorkerRequest extends infer R ? (R extends { id: number } ? Omit<R, 'id'> : never) : never;
 
 export interface ProgressReport {

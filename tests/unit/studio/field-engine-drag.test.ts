@@ -5,6 +5,7 @@ import { surfaceToObj } from '@/lib/groom/demo/obj';
 import { parseGroomSpec, type GroomSpec } from '@/lib/groom/spec/spec';
 import { FieldDrawing } from '@/lib/studio/client/field-drawing';
 import { FieldEngine } from '@/lib/studio/client/field-engine';
+import { solvePart } from '@/lib/studio/client/protocol';
 import { uvSphere } from '@/tests/fixtures/shapes';
 
 const RINGS = 30, SEGMENTS = 36;
@@ -95,6 +96,20 @@ describe('the field engine while a whorl is dragged', () => {
     expect(second.lineShade!.length * 3).toBe(second.lines!.length);
     const again = engine.solve(benchSpec(places[0]), streamlines, false);
     expect(Array.from(again.lines!)).toEqual(Array.from(copy));
+  });
+
+  it('a solve request carries the spec without what a solve never reads (guide sets, painted maps, symmetry), and solves the same', () => {
+    const spec = parseGroomSpec({
+      ...benchSpec(places[2]),
+      guideSets: [{ name: 'crown', guides: { density: 3 } }],
+      symmetry: { axis: 'x' },
+    });
+    const part = solvePart(spec);
+    expect(Object.keys(part).sort()).toEqual(['field', 'guides', 'pins', 'specVersion', 'units', 'upAxis']);
+    const whole = engine.solve(spec, strokes, false);
+    const sent = engine.solve(structuredClone(part), strokes, false);
+    expect(Array.from(sent.lines!)).toEqual(Array.from(whole.lines!));
+    expect(sent.proof).toEqual(whole.proof);
   });
 
   it('draws strokes without working out the field’s directions over the whole surface', () => {

@@ -6,7 +6,7 @@ import { useCallback, useEffect, useRef, useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { askOf, markFieldDrawn } from '@/lib/studio/client/drag-timing';
 import { SUPERSEDED, WorkerFailure, startFieldWorker, type FieldClient } from '@/lib/studio/client/field-client';
-import type { DisplayOptions, OpenedSurface, SolveReport, SurfaceSource } from '@/lib/studio/client/protocol';
+import { solvePart, type DisplayOptions, type OpenedSurface, type SolveReport, type SurfaceSource } from '@/lib/studio/client/protocol';
 import { useLatest } from './useLiveState';
 import { useTask, type Task } from './useTask';
 
@@ -67,7 +67,7 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
       sent.current = { spec: next, display: shown, quick: fast };
       const ask = askOf(next);
       worker
-        .latest('field', 0, { type: 'solve', spec: next, display: shown, quick: fast })
+        .latest('field', 0, { type: 'solve', spec: solvePart(next), display: shown, quick: fast })
         .then((report) => {
           if (report === SUPERSEDED) return;
           performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick, ask, stages: report.stages } });
