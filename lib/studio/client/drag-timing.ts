@@ -9,6 +9,14 @@
 const askOfSpec = new WeakMap<object, number>();
 let asks = 0;
 
+/** The marks a drag leaves, dropped when the next drag starts so that a long session does not pile them up. */
+const DRAG_MARKS = ['whorlwind:drag-asked', 'whorlwind:field-drawn', 'whorlwind:solved'];
+
+/** A marker was pressed: the marks of the drags before go (the first field's marks stay). */
+export function startDragTiming(): void {
+  for (const name of DRAG_MARKS) performance.clearMarks(name);
+}
+
 /**
  * Records that the pointer event at `eventTime` (the event's `timeStamp`, on the page's clock)
  * asked for the field of `spec`; returns the ask's number (1, 2, … in the order of the events).

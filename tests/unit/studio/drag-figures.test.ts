@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { askOf, markAsked, markFieldDrawn, startDragTiming } from '@/lib/studio/client/drag-timing';
 import { dragFigures, nearestRank } from '@/tests/browser/bench/drag-figures';
 
 describe('the drag bench figures', () => {
@@ -32,5 +33,25 @@ describe('the drag bench figures', () => {
   it('an ask no quick field answered is counted, not timed', () => {
     const figures = dragFigures([{ ask: 1, at: 10 }, { ask: 2, at: 20 }], [{ at: 15, ask: 1, quick: true }, { at: 40, ask: 2, quick: false }], 0, 50);
     expect(figures).toMatchObject({ asks: 2, updates: 1, unanswered: 1, latencyP50: 5, latencyP95: 5 });
+  });
+});
+
+describe('the drag marks of the page', () => {
+  it('an ask is marked at its pointer event’s time and tags its spec; a new drag drops the marks of the drags before', () => {
+    const spec = {};
+    const at = performance.now();
+    const ask = markAsked(spec, at);
+    expect(askOf(spec)).toBe(ask);
+    expect(askOf({})).toBeNull();
+    markFieldDrawn(ask, true);
+    const asked = performance.getEntriesByName('whorlwind:drag-asked') as PerformanceMark[];
+    expect(asked.at(-1)).toMatchObject({ startTime: at, detail: { ask } });
+    expect((performance.getEntriesByName('whorlwind:field-drawn').at(-1) as PerformanceMark).detail).toEqual({ ask, quick: true });
+    // A synthetic event's time stamp of 0 is taken as the mark's own time.
+    markAsked({}, 0);
+    expect((performance.getEntriesByName('whorlwind:drag-asked').at(-1) as PerformanceMark).startTime).toBeGreaterThan(0);
+    startDragTiming();
+    expect(performance.getEntriesByName('whorlwind:drag-asked')).toHaveLength(0);
+    expect(performance.getEntriesByName('whorlwind:field-drawn')).toHaveLength(0);
   });
 });

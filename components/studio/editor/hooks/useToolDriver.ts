@@ -6,7 +6,7 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { useCallback, useEffect, useMemo, useRef, type RefObject } from 'react';
 import type { EditorState } from '@/lib/studio/client/editor-state';
 import type { FeatureRef, Vec3 } from '@/lib/studio/client/features';
-import { markAsked } from '@/lib/studio/client/drag-timing';
+import { markAsked, startDragTiming } from '@/lib/studio/client/drag-timing';
 import type { OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { nearestCorner, vertexPoint } from '@/lib/studio/client/surface-geometry';
 import { TOOLS, type SurfaceHit, type ToolContext, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
@@ -70,7 +70,10 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
       const before = getSession();
       const step = make(before, { editor: getEditor(), options: chosen, surface: opened, solve: solved });
       if (!step) return false;
-      if (!before.drag && step.session.drag) solveBefore.current = solved;
+      if (!before.drag && step.session.drag) {
+        solveBefore.current = solved;
+        startDragTiming();
+      }
       if (step.session !== before) setSession(step.session);
       const done = applyChanges(getEditor(), step.changes);
       if (done.editor !== getEditor()) setEditor(done.editor);
