@@ -14,9 +14,17 @@ export interface DirectionField {
   readonly order: number;
   /** Angle of the (first) direction in each face's frame. */
   readonly faceAngle: Float64Array;
-  /** Unit tangent direction per face (3 per face); for order n > 1 the first of its n directions. */
+  /**
+   * Unit tangent direction per face (3 per face); for order n > 1 the first of its n directions:
+   * cos(faceAngle)·frameX + sin(faceAngle)·frameY, worked out on first use and kept (a drawing
+   * of a few thousand strokes needs only its own faces' directions).
+   */
   readonly faceDirection: Float64Array;
-  /** Unit tangent direction per vertex (3 per vertex), blended from the faces around it; 0 where no face uses the vertex. */
+  /**
+   * Unit tangent direction per vertex (3 per vertex), blended from the faces around it; 0 where no
+   * face uses the vertex. Blended on first use and kept: a field drawn while a feature is dragged
+   * never needs it, and blending costs more than carrying the field over the surface.
+   */
   readonly vertexDirection: Float64Array;
 }
 
@@ -35,6 +43,7 @@ export interface FieldStart {
  * held boundaries) get exactly their fixed direction (up to the field's symmetry); within a piece,
  * crossing any interior edge not on a curve changes the direction by exactly the connection's
  * rotation, modulo 2π/order — because the connection is trivial, the tree chosen does not matter.
+ * The per-face and per-vertex directions are worked out when first read (the same values either way).
  */
 export function buildDirectionField(surface: FieldSurface, connection: ConnectionResult, start: FieldStart = {}): DirectionField {
   const topology = surface.topology;
@@ -76,17 +85,30 @@ export function buildDirectionField(surface: FieldSurface, connection: Connectio
     }
   }
 
-  const faceDirection = new Float64Array(3 * nF);
-  for (let f = 0; f < nF; f++) {
-    const c = Math.cos(faceAngle[f]), s = Math.sin(faceAngle[f]);
-    for (let i = 0; i < 3; i++) faceDirection[3 * f + i] = c * frames.frameX[3 * f + i] + s * frames.frameY[3 * f + i];
-  }
+  let directions: Float64Array | null = null;
+  let blended: Float64Array | null = null;
+  const faceDirection = () => (directions ??= faceDirections(surface, faceAngle));
   return {
     order: connection.order,
     faceAngle,
-    faceDirection,
-    vertexDirection: blendAtVertices(surface, faceDirection, connection.order),
+    get faceDirection() {
+      return faceDirection();
+    },
+    get vertexDirection() {
+      return (blended ??= blendAtVertices(surface, faceDirection(), connection.order));
+    },
   };
+}
+
+/** cos(angle)·frameX + sin(angle)·frameY in every face. */
+function faceDirections(surface: FieldSurface, faceAngle: Float64Array): Float64Array {
+  const { frameX, frameY } = surface.frames;
+  const out = new Float64Array(3 * faceAngle.length);
+  for (let f = 0; f < faceAngle.length; f++) {
+    const c = Math.cos(faceAngle[f]), s = Math.sin(faceAngle[f]);
+    for (let i = 0; i < 3; i++) out[3 * f + i] = c * frameX[3 * f + i] + s * frameY[3 * f + i];
+  }
+  return out;
 }
 
 /** Per-vertex tangent bases and face areas, the same for every field on a surface. */

@@ -126,7 +126,10 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
               {!surface && field.preview && <SurfaceMesh positions={field.preview.positions} triangles={field.preview.triangles} normals={field.preview.vertexNormals} onDrawn={field.onSurfaceDrawn} />}
               {surface && <EditorScene
                 surface={surface}
-                spec={spec}
+                // While a marker is dragged the stage shows the spec of the field it draws: the
+                // marker moves with its field, and a pointer move alone draws no frame (each one
+                // costs the software renderer as much as a field update, on the worker's cores).
+                spec={dragging && field.solvedSpec ? field.solvedSpec : spec}
                 solve={solve}
                 fieldLines={field.drawing?.lines ?? null}
                 fieldShade={field.drawing?.shade ?? null}

@@ -1,7 +1,8 @@
 'use client';
 // Many thin line segments in one draw call — the field's strokes or streamlines, guides, the
 // surface border — shaded from one colour at each line's tail to another at its head, so the
-// direction of the flow reads at a glance. Updates reuse the buffers when the size allows.
+// direction of the flow reads at a glance. Updates reuse the buffers when the size allows, and
+// fill the colours again only when they change.
 import { useThree } from '@react-three/fiber';
 import { useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import { BufferAttribute, BufferGeometry, Color, DynamicDrawUsage, type LineSegments } from 'three';
@@ -35,6 +36,8 @@ export function LineLayer({
   const geometry = useMemo(() => new BufferGeometry(), []);
   const object = useRef<LineSegments>(null);
   const pendingDrawn = useRef(false);
+  /** What the colour attribute was last filled from (its first `count` points). */
+  const coloured = useRef<{ attribute: BufferAttribute; count: number; shade: Float32Array | null; colours: Float32Array | null; tail: string; head: string } | null>(null);
 
   useLayoutEffect(() => {
     const count = lines.length / 3;
@@ -51,16 +54,22 @@ export function LineLayer({
     }
     (position.array as Float32Array).set(lines);
     position.needsUpdate = true;
-    const a = new Color(tail), b = new Color(head);
-    const c = colour!.array as Float32Array;
-    if (colours) c.set(colours);
-    else for (let i = 0; i < count; i++) {
-      const t = shade ? shade[i] : i % 2;
-      c[3 * i] = a.r + (b.r - a.r) * t;
-      c[3 * i + 1] = a.g + (b.g - a.g) * t;
-      c[3 * i + 2] = a.b + (b.b - a.b) * t;
+    // The colours only when they change: a field dragged with short strokes keeps its count and
+    // alternating shade, so each update uploads the positions alone.
+    const was = coloured.current;
+    if (!was || was.attribute !== colour || was.count < count || was.shade !== shade || was.colours !== colours || was.tail !== tail || was.head !== head) {
+      const a = new Color(tail), b = new Color(head);
+      const c = colour!.array as Float32Array;
+      if (colours) c.set(colours);
+      else for (let i = 0; i < count; i++) {
+        const t = shade ? shade[i] : i % 2;
+        c[3 * i] = a.r + (b.r - a.r) * t;
+        c[3 * i + 1] = a.g + (b.g - a.g) * t;
+        c[3 * i + 2] = a.b + (b.b - a.b) * t;
+      }
+      colour!.needsUpdate = true;
+      coloured.current = { attribute: colour!, count, shade: shade ?? null, colours: colours ?? null, tail, head };
     }
-    colour!.needsUpdate = true;
     geometry.setDrawRange(0, count);
     geometry.computeBoundingSphere();
     pendingDrawn.current = true;

@@ -4,8 +4,9 @@
  */
 import { FieldError } from '../mesh/errors';
 import { faceOfHalfedge } from '../mesh/topology';
-import { curveName, layOutCurves, type CurveGeometry } from './curves';
-import { cutIntoPieces, type SurfacePieces } from './pieces';
+import { curveName, type CurveGeometry } from './curves';
+import { laidOut } from './laid-out';
+import type { SurfacePieces } from './pieces';
 import type { FieldRequest, IndexBudget, PieceBudget } from './request';
 import type { FieldSurface } from './surface';
 
@@ -17,8 +18,7 @@ import type { FieldSurface } from './surface';
  * curves that cannot be laid out (as `solveConnection` would).
  */
 export function indexBudget(surface: FieldSurface, request: FieldRequest): IndexBudget {
-  const curves = layOutCurves(surface, request.curves ?? []);
-  return budgetOfPieces(surface, request, cutIntoPieces(surface.topology, curves, surface.boundary));
+  return budgetOfPieces(surface, request, laidOut(surface, request.curves ?? []).cut);
 }
 
 /** The piece a vertex off every curve lies on. */

@@ -9,8 +9,8 @@ import { FieldError } from '../mesh/errors';
 import { faceOfHalfedge } from '../mesh/topology';
 import { TWO_PI, angleInFace } from '../mesh/transport';
 import { validateRequest } from './budget';
-import { layOutCurves } from './curves';
-import { boundaryLoopChain, cutIntoPieces } from './pieces';
+import { laidOut } from './laid-out';
+import { boundaryLoopChain } from './pieces';
 import { twistReference } from './twist';
 import type { ConnectionResult, FieldRequest } from './request';
 import { isIndependentRow, ringSolution, solveRows, type ExtraRow } from './schur-rows';
@@ -74,8 +74,8 @@ export function solveConnection(surface: FieldSurface, request: FieldRequest): C
   const started = now();
   const topology = surface.topology;
   const { rowOfVertex, vertexOfRow, droppedVertexOfComponent, ringDefect } = surface.solver;
-  const curves = layOutCurves(surface, request.curves ?? []);
-  const cut = cutIntoPieces(topology, curves, surface.boundary);
+  // Kept from the last request with the same curves: a moved singularity changes neither.
+  const { curves, cut } = laidOut(surface, request.curves ?? []);
   const { order, requestedIndex, budget } = validateRequest(surface, request, curves, cut);
   const frames = surface.frames;
   const step = TWO_PI / order;

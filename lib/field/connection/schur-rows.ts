@@ -7,7 +7,7 @@ import { factorDenseLU } from '../linalg/dense';
 import type { DualChain } from '../mesh/dual-chains';
 import { FieldError } from '../mesh/errors';
 import { nextHalfedge } from '../mesh/topology';
-import type { RowCacheEntry } from './ring-solver';
+import type { RingSolver, RowCacheEntry } from './ring-solver';
 import type { FieldSurface } from './surface';
 
 export interface ExtraRow {
@@ -47,6 +47,31 @@ function coupling(surface: FieldSurface, row: ExtraRow): { idx: Int32Array; val:
   return { idx, val };
 }
 
+const edgeRowsOf = new WeakMap<FieldSurface, { head: Int32Array; tail: Int32Array }>();
+
+/**
+ * The ring rows at the head and tail of every edge (−1 where the vertex has no row, and at both
+ * ends of a boundary edge, which carries no angle), worked out once per surface: every solve
+ * turns the ring solution into edge angles through them.
+ */
+function edgeRows(surface: FieldSurface): { head: Int32Array; tail: Int32Array } {
+  const known = edgeRowsOf.get(surface);
+  if (known) return known;
+  const { topology } = surface;
+  const { rowOfVertex } = surface.solver;
+  const head = new Int32Array(topology.edgeCount).fill(-1);
+  const tail = new Int32Array(topology.edgeCount).fill(-1);
+  for (let e = 0; e < topology.edgeCount; e++) {
+    const h = topology.edgeHalfedge[e];
+    if (topology.twin[h] === -1) continue;
+    head[e] = rowOfVertex[topology.triangles[nextHalfedge(h)]];
+    tail[e] = rowOfVertex[topology.triangles[h]];
+  }
+  const made = { head, tail };
+  edgeRowsOf.set(surface, made);
+  return made;
+}
+
 function sparseDot(idx: Int32Array, val: Float64Array, dense: Float64Array): number {
   let s = 0;
   for (let i = 0; i < idx.length; i++) s += val[i] * dense[idx[i]];
@@ -67,8 +92,11 @@ function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEn
     if (!entry) {
       const { idx, val } = coupling(surface, row);
       entry = { couplingIdx: idx, couplingVal: val, schur: new Map(), response: null };
-      rowCache.set(row.key, entry);
+    } else {
+      // Most recently used last: responses are given up oldest first (see `keepResponse`).
+      rowCache.delete(row.key);
     }
+    rowCache.set(row.key, entry);
     return entry;
   });
   const rhs = new Float64Array(factor.n);
@@ -79,10 +107,7 @@ function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEn
     rhs.fill(0);
     for (let k = 0; k < entry.couplingIdx.length; k++) rhs[entry.couplingIdx[k]] = entry.couplingVal[k];
     const w = factor.solve(rhs);
-    if (solver.storedResponses + w.length <= RESPONSE_BUDGET) {
-      entry.response = w;
-      solver.storedResponses += w.length;
-    }
+    keepResponse(solver, entry, w, entries);
     if (row.chain) for (let k = 0; k < row.chain.edges.length; k++) scratch[row.chain.edges[k]] += row.chain.signs[k];
     rows.forEach((other, j) => {
       if (entry.schur.has(other.key)) return;
@@ -95,6 +120,31 @@ function cacheRows(surface: FieldSurface, rows: readonly ExtraRow[]): RowCacheEn
     if (row.chain) for (let k = 0; k < row.chain.edges.length; k++) scratch[row.chain.edges[k]] = 0;
   });
   return entries;
+}
+
+/**
+ * Keeps a row's L⁻¹Pᵣ column within the budget, giving up the columns of the rows least recently
+ * used (never those of `inUse`) to make room: a dragged twist or stroke makes a new row at every
+ * step, and without this the budget would fill with rows of positions long left, after which no
+ * new row could keep its column and every re-solve would pay a second sparse solve.
+ */
+export function keepResponse(solver: Pick<RingSolver, 'rowCache' | 'storedResponses'>, entry: RowCacheEntry, w: Float64Array, inUse: readonly RowCacheEntry[], budget = RESPONSE_BUDGET): void {
+  if (entry.response) {
+    solver.storedResponses -= entry.response.length;
+    entry.response = null;
+  }
+  if (w.length > budget) return;
+  if (solver.storedResponses + w.length > budget) {
+    for (const old of solver.rowCache.values()) {
+      if (solver.storedResponses + w.length <= budget) break;
+      if (!old.response || inUse.includes(old)) continue;
+      solver.storedResponses -= old.response.length;
+      old.response = null;
+    }
+  }
+  if (solver.storedResponses + w.length > budget) return;
+  entry.response = w;
+  solver.storedResponses += w.length;
 }
 
 /**
@@ -165,13 +215,10 @@ export function solveRows(surface: FieldSurface, ringValues: Float64Array, t: Fl
     if (!r.chain) removed[surface.solver.rowOfVertex[r.removedVertex]] = 1;
   });
   const x = new Float64Array(topology.edgeCount);
-  const { rowOfVertex } = surface.solver;
+  const { head, tail } = edgeRows(surface);
   for (let e = 0; e < topology.edgeCount; e++) {
-    const h = topology.edgeHalfedge[e];
-    if (topology.twin[h] === -1) continue;
-    const head = rowOfVertex[topology.triangles[nextHalfedge(h)]];
-    const tail = rowOfVertex[topology.triangles[h]];
-    x[e] = (head >= 0 && !removed[head] ? y[head] : 0) - (tail >= 0 && !removed[tail] ? y[tail] : 0);
+    const a = head[e], b = tail[e];
+    x[e] = (a >= 0 && !removed[a] ? y[a] : 0) - (b >= 0 && !removed[b] ? y[b] : 0);
   }
   rows.forEach((r, i) => {
     if (!r.chain) return;

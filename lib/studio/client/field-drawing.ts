@@ -51,6 +51,8 @@ export class FieldDrawing {
   /** The surface's whole area, in its own units squared. */
   readonly totalArea: number;
   private readonly layouts = new Map<number, StrokeLayout>();
+  /** Where streamlines are traced before they are copied out, kept from one drawing to the next. */
+  private traceScratch: { lines: Float32Array; shade: Float32Array } | null = null;
 
   constructor(private readonly surface: GroomSurface) {
     const { mesh } = surface;
@@ -117,22 +119,29 @@ export class FieldDrawing {
     return layout;
   }
 
-  /** The field drawing at the page's display options: short strokes along the field, or streamlines traced through it. */
-  draw(solved: DrawableField, display: DisplayOptions): { lines: Float32Array; shade: Float32Array } {
+  /**
+   * The field drawing at the page's display options: short strokes along the field (no shade:
+   * tail and head alternate), or streamlines traced through it (shaded along each line). The
+   * lines are new arrays each time, made to be moved to the page, which keeps no reference back.
+   */
+  draw(solved: DrawableField, display: DisplayOptions): { lines: Float32Array; shade: Float32Array | null } {
     if (display.drawing === 'streamlines') return this.streamlines(solved, display.density / 6);
     const { faces, centers, halfLength } = this.layout(display.density);
-    const d = solved.field.faceDirection;
+    // Each stroke's direction from its face's angle, as DirectionField.faceDirection has it: while
+    // a whorl is dragged the field's directions over the whole surface are never worked out.
+    const angle = solved.field.faceAngle;
+    const { frameX, frameY } = this.surface.field.frames;
     const lines = new Float32Array(6 * faces.length);
-    const shade = new Float32Array(2 * faces.length);
     for (let i = 0; i < faces.length; i++) {
       const f = faces[i];
+      const c = Math.cos(angle[f]), s = Math.sin(angle[f]);
       for (let k = 0; k < 3; k++) {
-        lines[6 * i + k] = centers[3 * i + k] - halfLength * d[3 * f + k];
-        lines[6 * i + 3 + k] = centers[3 * i + k] + halfLength * d[3 * f + k];
+        const d = c * frameX[3 * f + k] + s * frameY[3 * f + k];
+        lines[6 * i + k] = centers[3 * i + k] - halfLength * d;
+        lines[6 * i + 3 + k] = centers[3 * i + k] + halfLength * d;
       }
-      shade[2 * i + 1] = 1;
     }
-    return { lines, shade };
+    return { lines, shade: null };
   }
 
   private streamlines(solved: DrawableField, seeds: number): { lines: Float32Array; shade: Float32Array } {
@@ -150,8 +159,16 @@ export class FieldDrawing {
     const outFace = new Uint32Array(TRACE_POINTS + 1);
     const normal = surface.field.frames.normal;
     const lift = 0.08 * surface.meanEdge;
-    const lines: number[] = [];
-    const shade: number[] = [];
+    // Written into kept buffers of the largest size the layout can need, then copied out at the
+    // size reached: one copy per update instead of growing lists point by point.
+    const most = 2 * TRACE_POINTS * faces.length;
+    if (!this.traceScratch || this.traceScratch.shade.length < most) this.traceScratch = { lines: new Float32Array(3 * most), shade: new Float32Array(most) };
+    const { lines, shade } = this.traceScratch;
+    let points = 0;
+    const put = (q: number, face: number) => {
+      for (let k = 0; k < 3; k++) lines[3 * points + k] = out[3 * q + k] + lift * normal[3 * face + k];
+      shade[points++] = q / TRACE_POINTS;
+    };
     for (let i = 0; i < faces.length; i++) {
       const f = faces[i];
       const x = centers[3 * i] - lift * normal[3 * f], y = centers[3 * i + 1] - lift * normal[3 * f + 1], z = centers[3 * i + 2] - lift * normal[3 * f + 2];
@@ -159,13 +176,10 @@ export class FieldDrawing {
       outFace[0] = f;
       const reached = tracer.trace(f, x, y, z, targets, TRACE_POINTS, out, outFace, 1);
       for (let j = 0; j < reached; j++) {
-        const a = j, b = j + 1;
-        for (const [q, face] of [[a, outFace[a]], [b, outFace[b]]] as const) {
-          lines.push(out[3 * q] + lift * normal[3 * face], out[3 * q + 1] + lift * normal[3 * face + 1], out[3 * q + 2] + lift * normal[3 * face + 2]);
-        }
-        shade.push(a / TRACE_POINTS, b / TRACE_POINTS);
+        put(j, outFace[j]);
+        put(j + 1, outFace[j + 1]);
       }
     }
-    return { lines: Float32Array.from(lines), shade: Float32Array.from(shade) };
+    return { lines: lines.slice(0, 3 * points), shade: shade.slice(0, points) };
   }
 }

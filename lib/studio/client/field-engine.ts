@@ -209,6 +209,7 @@ export class FieldEngine {
     let budget: IndexBudget | null = null;
     let field: (DrawableField & { budget: IndexBudget }) | null = null;
     let solved: SolvedField | null = null;
+    const t2 = now();
     if (request && !error && !pinError) {
       try {
         if (this.lastFull?.key === fieldKey) {
@@ -246,7 +247,9 @@ export class FieldEngine {
       requested: field ? field.requestedIndex[s.vertex] : s.index,
       measured: solved ? solved.measuredIndex[s.vertex] : null,
     }));
+    const t3 = now();
     const drawing = field ? this.requireDrawing().draw(field, display) : null;
+    const t4 = now();
     return {
       quick,
       lines: drawing?.lines ?? null,
@@ -258,6 +261,7 @@ export class FieldEngine {
       curves: (request?.curves ?? []).map((curve) => ({ kind: curve.kind, points: this.requireDrawing().chainPoints(curve.vertices) })),
       proof: solved ? proofOf(solved) : null,
       milliseconds: now() - t0,
+      stages: { request: t2 - t0, solve: t3 - t2, drawing: t4 - t3 },
     };
   }
 

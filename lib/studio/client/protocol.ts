@@ -47,6 +47,16 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow }
   | { readonly id: number; readonly type: 'find-mirror' };
 
+/**
+ * What a solve request carries of a spec: all but its painted maps, guide sets and symmetry,
+ * which a solve never reads (it reads the field, the up axis and the pins) and which can weigh
+ * megabytes — a drag sends a solve request at every pointer move.
+ */
+export function solvePart(spec: GroomSpec): GroomSpec {
+  const { maps: _maps, guideSets: _sets, symmetry: _symmetry, ...part } = spec;
+  return part;
+}
+
 export type WorkerRequestBody = WorkerRequest extends infer R ? (R extends { id: number } ? Omit<R, 'id'> : never) : never;
 
 export interface ProgressReport {
@@ -161,7 +171,7 @@ export interface SolveReport {
   readonly quick: boolean;
   /** Field drawing as segment end points (x, y, z pairs), or null when the solve failed. */
   readonly lines: Float32Array | null;
-  /** Where along each drawn line a point lies (0 at the tail, 1 at the head), for shading. */
+  /** Where along each drawn line a point lies (0 at the tail, 1 at the head), for shading; null for short strokes (tail and head alternate). */
   readonly lineShade: Float32Array | null;
   readonly error: WorkerError | null;
   /** Null when the spec's places could not be resolved on the surface. */
@@ -174,6 +184,8 @@ export interface SolveReport {
   readonly curves: readonly { readonly kind: 'parting' | 'crest'; readonly points: Float32Array }[];
   readonly proof: IndexProof | null;
   readonly milliseconds: number;
+  /** Where the worker's milliseconds went: resolving the spec's places, the solve (with the proof when full), the drawing. */
+  readonly stages?: { readonly request: number; readonly solve: number; readonly drawing: number };
 }
 
 export interface GrownGuides {

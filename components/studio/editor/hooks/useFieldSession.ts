@@ -4,9 +4,10 @@
 // the moments a groomer waits on marked for the browser benchmarks.
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
+import { askOf, markFieldDrawn } from '@/lib/studio/client/drag-timing';
 import { SUPERSEDED, WorkerFailure, startFieldWorker, type FieldClient } from '@/lib/studio/client/field-client';
 import { endStage, enterStage, stageOfReport, type OpeningStages } from '@/lib/studio/client/opening-stages';
-import type { DisplayOptions, OpenedSurface, SolveReport, SurfacePreview, SurfaceSource } from '@/lib/studio/client/protocol';
+import { solvePart, type DisplayOptions, type OpenedSurface, type SolveReport, type SurfacePreview, type SurfaceSource } from '@/lib/studio/client/protocol';
 import { useLatest } from './useLiveState';
 import { useTask, type Task } from './useTask';
 
@@ -21,12 +22,22 @@ export interface FieldSession {
   /** The opening of the surface while it runs. */
   readonly task: Task | null;
   readonly solve: SolveReport | null;
+  /** The spec `solve` was solved for (while a marker is dragged, the one the stage shows). */
+  readonly solvedSpec: GroomSpec | null;
   /** The newest field drawing: the last solve's, or the one before while a solve brings none. */
   readonly drawing: { readonly lines: Float32Array; readonly shade: Float32Array | null } | null;
   /** For the stage to call when it has drawn the field. */
   readonly onFieldDrawn: () => void;
   /** For the stage to call when it has drawn the surface (its preview or the prepared surface). */
   readonly onSurfaceDrawn: () => void;
+}
+
+/** A field drawing with the drag ask it answers (null when no drag asked for it). */
+interface Shown {
+  readonly lines: Float32Array;
+  readonly shade: Float32Array | null;
+  readonly ask: number | null;
+  readonly quick: boolean;
 }
 
 /**
@@ -48,7 +59,10 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
   const [openError, setOpenError] = useState<string | null>(null);
   const [task, reportOpening, clearOpening] = useTask();
   const [solve, setSolve] = useState<SolveReport | null>(null);
-  const [lastDrawing, setLastDrawing] = useState<FieldSession['drawing']>(null);
+  const [lastDrawing, setLastDrawing] = useState<Shown | null>(null);
+  /** The spec and the drag ask (drag-timing.ts) each report answers. */
+  const askOfReport = useRef(new WeakMap<SolveReport, number | null>());
+  const specOfReport = useRef(new WeakMap<SolveReport, GroomSpec>());
   const failure = useLatest(onFailure);
   const firstDisplay = useLatest(display);
 
@@ -60,18 +74,21 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
       const last = sent.current;
       if (last && last.spec === next && last.display === shown && last.quick === fast) return;
       sent.current = { spec: next, display: shown, quick: fast };
+      const ask = askOf(next);
       worker
-        .latest('field', 0, { type: 'solve', spec: next, display: shown, quick: fast })
+        .latest('field', 0, { type: 'solve', spec: solvePart(next), display: shown, quick: fast })
         .then((report) => {
           if (report === SUPERSEDED) return;
-          performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick } });
+          performance.mark('whorlwind:solved', { detail: { milliseconds: report.milliseconds, quick: report.quick, ask, stages: report.stages } });
           if (!solvedOnce.current) {
             solvedOnce.current = true;
             performance.mark('whorlwind:first-solve', { detail: { milliseconds: report.milliseconds } });
             setStages((now) => endStage(now, 'solve', performance.now()));
           }
+          askOfReport.current.set(report, ask);
+          specOfReport.current.set(report, next);
           setSolve(report);
-          if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade });
+          if (report.lines) setLastDrawing({ lines: report.lines, shade: report.lineShade, ask, quick: report.quick });
         })
         .catch((error: unknown) => {
           if (error instanceof WorkerFailure && (error.error.code === 'closed' || error.error.code === 'no-surface')) return;
@@ -131,9 +148,13 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     if (surface && client) requestSolve(client, spec, display, quick);
   }, [client, display, quick, requestSolve, spec, surface]);
 
+  const drawing: Shown | null = solve?.lines ? { lines: solve.lines, shade: solve.lineShade, ask: askOfReport.current.get(solve) ?? null, quick: solve.quick } : lastDrawing;
+  // The drawing of this render is the one the stage's next "drawn" call is about.
+  const shown = useRef(drawing);
+  shown.current = drawing;
   const drawnCount = useRef(0);
   const onFieldDrawn = useCallback(() => {
-    performance.mark('whorlwind:field-drawn');
+    markFieldDrawn(shown.current?.ask ?? null, shown.current?.quick ?? false);
     if (drawnCount.current++ === 0) performance.mark('whorlwind:first-field');
   }, []);
   const surfaceDrawn = useRef(false);
@@ -143,6 +164,5 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     performance.mark('whorlwind:surface-shown');
   }, []);
 
-  const drawing = solve?.lines ? { lines: solve.lines, shade: solve.lineShade } : lastDrawing;
-  return { client, surface, preview, stages, openError, task, solve, drawing, onFieldDrawn, onSurfaceDrawn };
+  return { client, surface, preview, stages, openError, task, solve, solvedSpec: solve ? (specOfReport.current.get(solve) ?? null) : null, drawing, onFieldDrawn, onSurfaceDrawn };
 }

@@ -6,6 +6,7 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { useCallback, useEffect, useMemo, useRef, type RefObject } from 'react';
 import type { EditorState } from '@/lib/studio/client/editor-state';
 import type { FeatureRef, Vec3 } from '@/lib/studio/client/features';
+import { markAsked, startDragTiming } from '@/lib/studio/client/drag-timing';
 import type { OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { nearestCorner, vertexPoint } from '@/lib/studio/client/surface-geometry';
 import { TOOLS, type SurfaceHit, type ToolContext, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
@@ -69,7 +70,10 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
       const before = getSession();
       const step = make(before, { editor: getEditor(), options: chosen, surface: opened, solve: solved });
       if (!step) return false;
-      if (!before.drag && step.session.drag) solveBefore.current = solved;
+      if (!before.drag && step.session.drag) {
+        solveBefore.current = solved;
+        startDragTiming();
+      }
       if (step.session !== before) setSession(step.session);
       const done = applyChanges(getEditor(), step.changes);
       if (done.editor !== getEditor()) setEditor(done.editor);
@@ -101,14 +105,19 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
       },
       move(event: ThreeEvent<PointerEvent>) {
         const hit = hitOf(event);
-        if (hit) run((s, c) => pointerMove(s, hit, c));
+        if (!hit) return;
+        const before = getEditor().present.spec;
+        run((s, c) => pointerMove(s, hit, c));
+        // A held marker that moved: the field now owes the groomer this position (timed from the event).
+        const after = getEditor().present.spec;
+        if (after !== before && getSession().drag) markAsked(after, event.nativeEvent.timeStamp);
       },
       up(event: ThreeEvent<PointerEvent>) {
         const hit = hitOf(event);
         if (hit) run((s, c) => pointerUp(s, hit, c));
       },
     }),
-    [hitOf, run],
+    [getEditor, getSession, hitOf, run],
   );
 
   // A release anywhere on the page ends a drag or a stroke (the surface hears only releases over it).
