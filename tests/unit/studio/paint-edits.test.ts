@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { encodeMap, encodeMask } from '@/lib/groom/place/maps';
 import { parseGroomSpec } from '@/lib/groom/spec/spec';
 import { applyCheckedEdit, createEditorState, undo } from '@/lib/studio/client/editor-state';
+import { TINT_RAMP, tintColours } from '@/lib/studio/client/paint';
 import { gridPlane } from '@/tests/fixtures/shapes';
 
 const grid = gridPlane(4, 4);
@@ -31,5 +32,18 @@ describe('map and mask edits', () => {
     const refused = applyCheckedEdit(editor, { type: 'remove-mask', name: 'cap' });
     expect(refused.refused).toMatch(/Guide set “crown” grows on the mask “cap”/);
     expect(refused.state).toBe(editor);
+  });
+});
+
+describe('the tint ramp', () => {
+  it('shows 1× (a map) and 0 (a mask) as the bare surface exactly, doubling and halving equally far from it, every channel in [0, 1]', () => {
+    const bare = Array.from(TINT_RAMP.bare, (x) => Math.fround(x));
+    expect(Array.from(tintColours([1], 'map'))).toEqual(bare);
+    expect(Array.from(tintColours([0], 'mask'))).toEqual(bare);
+    const [twice, half] = [tintColours([2], 'map'), tintColours([0.5], 'map')];
+    const away = (c: Float32Array, to: readonly number[]) => Math.hypot(...[0, 1, 2].map((k) => (c[k] - TINT_RAMP.bare[k]) / (to[k] - TINT_RAMP.bare[k]))) / Math.sqrt(3);
+    expect(away(twice, TINT_RAMP.high)).toBeCloseTo(0.5, 6);
+    expect(away(half, TINT_RAMP.low)).toBeCloseTo(0.5, 6);
+    expect(Array.from(tintColours([0, 10, 0.001, 4, 0.25], 'map')).every((x) => x >= 0 && x <= 1)).toBe(true);
   });
 });
