@@ -77,7 +77,7 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
       const { surface: opened, solve: solved, options: chosen, onNotice: say } = latest.current;
       if (!opened) return false;
       const before = getSession();
-      const paint = before.tool === 'tint' || chosen.brush ? paintOf(opened) : undefined;
+      const paint = before.tool === 'tint' ? paintOf(opened) : undefined;
       const step = make(before, { editor: getEditor(), options: chosen, surface: opened, solve: solved, ...(paint ? { paint } : {}) });
       if (!step) return false;
       if (!before.drag && step.session.drag) solveBefore.current = solved;
