@@ -53,7 +53,7 @@ test('a whole coat: two sets, a tinted length map (undo, reload), a mirrored who
   await typeNumber(page.getByLabel('Length', { exact: true }), 1);
   await expect(list.getByRole('button')).toHaveText(['Head', 'Ears']);
 
-  // A length map, tinted 3× with the brush across the middle of the view (the muzzle: the fox faces us).
+  // A length map, tinted 3× with the brush across the fox's face (it faces us).
   const tints = page.getByTestId('tints-panel');
   await tints.getByLabel('Map for').selectOption('length');
   await tints.getByRole('button', { name: 'Add map' }).click();
@@ -68,9 +68,10 @@ test('a whole coat: two sets, a tinted length map (undo, reload), a mirrored who
   const stage = page.getByRole('img', { name: /The growth surface with the field/ });
   const box = (await stage.boundingBox())!;
   const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
-  await page.mouse.move(cx - 40, cy + 30);
+  // Right of the middle: the brush's options card sits over the stage's upper left.
+  await page.mouse.move(cx + 20, cy + 30);
   await page.mouse.down();
-  for (let i = 1; i <= 16; i++) await page.mouse.move(cx - 40 + i * 5, cy + 30);
+  for (let i = 1; i <= 16; i++) await page.mouse.move(cx + 20 + i * 5, cy + 30);
   await page.mouse.up();
   const undoButton = page.getByRole('button', { name: 'Undo' });
   await expect(undoButton).toHaveAttribute('title', 'Undo: Tint the length map (Ctrl+Z)');
@@ -87,12 +88,22 @@ test('a whole coat: two sets, a tinted length map (undo, reload), a mirrored who
   const twin = page.getByRole('group', { name: 'Twin sides' });
   await twin.getByRole('checkbox').click();
   await expect(twin.getByRole('checkbox')).toBeChecked();
+  // The switch shows on while the worker looks for the plane; the plane's line says it was found.
+  await expect(twin.getByTestId('twin-plane')).toContainText('Mirror plane x = 0', { timeout: 60_000 });
   const whorls = page.getByTestId('feature-row').filter({ hasText: /^Whorl/ });
   const before = await whorls.count();
   await page.getByRole('button', { name: 'Whorl', exact: true }).click();
   await page.mouse.click(cx - 50, cy + 60);
   await expect(whorls).toHaveCount(before + 2);
   await expect(undoButton).toHaveAttribute('title', 'Undo: Add whorl on both sides (Ctrl+Z)');
+  // The two whorls add +2 to a surface whose indices must sum to 2: a mirrored pair of saddles
+  // (low on the sides of the head) keeps the field solvable, and the export growable.
+  const saddles = page.getByTestId('feature-row').filter({ hasText: /^Saddle/ });
+  const saddlesBefore = await saddles.count();
+  await page.getByRole('button', { name: 'Saddle', exact: true }).click();
+  await page.mouse.click(cx - 60, cy + 120);
+  await expect(saddles).toHaveCount(saddlesBefore + 2);
+  await expect(page.getByTestId('budget-remainder')).toHaveText('0');
   await waitForSaved(page);
 
   // Autosaved: after a reload the painted map is still there.
