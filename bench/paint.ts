@@ -2,7 +2,8 @@
  * Benchmark of the tint brush on the 50,000-vertex torus of bench/groom.ts (400 × 125 quads): what
  * a stroke costs at its press (preparing the surface once, decoding a 16-bit map), per dab (the reach
  * along the surface and the dab itself, at radii of 4, 8 and 16 mean edges; tinting, evening out,
- * and a dab mirrored with twin sides on) and at its release (encoding the map for the spec).
+ * and a dab mirrored with twin sides on; the stage's recolouring of every vertex) and at its
+ * release (encoding the map for the spec).
  *
  *   node --import tsx bench/paint.ts      prints a Markdown table
  *
@@ -11,7 +12,7 @@
 import { cpus, loadavg } from 'node:os';
 import { decodeMap, encodeMap, parseGroomSpec } from '../lib/groom';
 import { applyDab, dabReach, MAP_PAINT_RANGE } from '../lib/groom/place/paint';
-import { preparePaintSurface } from '../lib/studio/client/paint';
+import { preparePaintSurface, tintColours } from '../lib/studio/client/paint';
 import { strokeReach } from '../lib/studio/client/tools/tint';
 import { torus } from '../tests/fixtures/shapes';
 import { best } from './best-of';
@@ -51,6 +52,8 @@ for (const edgesAcross of [4, 8, 16]) {
 }
 const twin = parseGroomSpec({ specVersion: 3, units: 'cm', field: {}, symmetry: { axis: 'x' } });
 row('dab, radius 8 mean edges, twin sides on: both reaches', best(() => strokeReach(paint, twin, { point: centre as [number, number, number], face }, 8 * meanEdge)).ms);
+const colours = new Float32Array(3 * nV);
+row('each dab, on the stage: recolour every vertex in the tint ramp', best(() => tintColours(values, 'map', colours)).ms);
 row('release: encode the map (16 bits)', best(() => encodeMap('length', values, mesh, 16)).ms);
 
 const [one, five, fifteen] = loadavg();
