@@ -13,8 +13,7 @@ import { foxHead } from '../../lib/groom/demo/surfaces';
 import { decodeMap } from '../../lib/groom/place/maps';
 import { buildNearestVertex } from '../../lib/groom/place/nearest-vertex';
 import type { GroomSpec } from '../../lib/groom/spec/spec';
-import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
-import { openPanel, typeNumber, waitForField, waitForSaved } from './studio-helpers';
+import { groomUploadedFox, openPanel, typeNumber, waitForField, waitForSaved } from './studio-helpers';
 
 test.afterAll(closeDb);
 
@@ -22,19 +21,7 @@ const FOX_OBJ = Buffer.from(surfaceToObj(foxHead(), 'Bramble, for the tints test
 
 test('a whole coat: two sets, a tinted length map (undo, reload), a mirrored whorl, both sets in the USD with longer guides where tinted', async ({ page }) => {
   test.setTimeout(480_000);
-  const account = await confirmedAccount('tints', 'groomer', 'a-proper-coat-42');
-  await signInThroughForm(page, account.email, account.password);
-  await expectSignedInAs(page, account.displayName);
-  await page.goto('/studio');
-  await page.getByLabel('Surface file').setInputFiles({ name: 'bramble.obj', mimeType: 'application/octet-stream', buffer: FOX_OBJ });
-  await page.getByRole('button', { name: 'Upload and check' }).click();
-  await expect(page.getByText('bramble is ready')).toBeVisible({ timeout: 60_000 });
-  await page.getByRole('button', { name: 'Start a groom on bramble' }).click();
-  await page.getByLabel('Name of the new groom on bramble').fill('Tinted coat');
-  await page.getByRole('button', { name: 'Start grooming' }).click();
-  await expect(page).toHaveURL(/\/studio\/grooms\/[0-9a-f-]+$/);
-  const groomId = new URL(page.url()).pathname.split('/').pop()!;
-  await waitForField(page);
+  const groomId = await groomUploadedFox(page, 'tints', FOX_OBJ, 'Tinted coat');
 
   // Two guide sets: the ears long (3 cm), the head (crown and muzzle) short (1 cm).
   await openPanel(page, 'Guides');

@@ -9,7 +9,7 @@
  * ear's thickness away, which a ball of the brush's radius would.
  */
 import type { TriangleMesh } from '../../field';
-import type { VertexFaces } from './geodesic';
+import { acrossTriangle, type VertexFaces } from './geodesic';
 import { MaxHeap } from './heap';
 
 /** How a dab's strength falls off from its centre to its rim. */
@@ -114,23 +114,6 @@ export function dabReach(mesh: TriangleMesh, around: VertexFaces, face: number, 
     }
   }
   return { vertices: Int32Array.from(vertices), distances: Float64Array.from(distances) };
-}
-
-/** The distance at c from a planar front at da from a and db from b (see geodesic.ts), or Infinity when c does not see it through ab. */
-function acrossTriangle(p: Float64Array, a: number, b: number, c: number, da: number, db: number): number {
-  const abx = p[3 * b] - p[3 * a], aby = p[3 * b + 1] - p[3 * a + 1], abz = p[3 * b + 2] - p[3 * a + 2];
-  const acx = p[3 * c] - p[3 * a], acy = p[3 * c + 1] - p[3 * a + 1], acz = p[3 * c + 2] - p[3 * a + 2];
-  const ab = Math.sqrt(abx * abx + aby * aby + abz * abz);
-  if (ab === 0) return Infinity;
-  const cx = (acx * abx + acy * aby + acz * abz) / ab;
-  const cy = Math.sqrt(Math.max(0, acx * acx + acy * acy + acz * acz - cx * cx));
-  const sx = (da * da - db * db + ab * ab) / (2 * ab);
-  const sy2 = da * da - sx * sx;
-  if (sy2 < 0 || cy === 0) return Infinity;
-  const sy = -Math.sqrt(sy2);
-  const crossX = sx + ((cx - sx) * -sy) / (cy - sy);
-  if (crossX < 0 || crossX > ab) return Infinity;
-  return Math.hypot(cx - sx, cy - sy);
 }
 
 /**
