@@ -30,6 +30,7 @@ export {
   type StrokeSpec,
   type PinSpec,
   type MapSpec,
+  type MaskSpec,
   type MapAttribute,
   type SymmetrySpec,
   type PlaceSpec,
@@ -45,7 +46,8 @@ export { vertexOfPlace, surfacePointOf, edgePath } from './place/place';
 export { fieldRequestFromSpec, solveGroomField, downOf, curveVertices } from './place/request';
 export { suggestGroomSpec, specFromSuggestion, fileVertexOfVertex } from './place/suggest';
 export { blendPins, blendValues, type PinnedFactors } from './place/pins';
-export { surfaceSignature, encodeMap, decodeMap, attributeFactors, type AttributeFactors } from './place/maps';
+export { surfaceSignature, encodeMap, decodeMap, encodeMask, decodeMask, attributeFactors, type AttributeFactors } from './place/maps';
+export { dabReach, applyDab, falloffWeight, facesOfMask, MAP_PAINT_RANGE, MASK_PAINT_RANGE, type BrushSettings, type BrushFalloff, type BrushMode, type PaintRange, type DabReach } from './place/paint';
 export { geodesicDistances, vertexFaces, type VertexFaces } from './place/geodesic';
 export { growthMask } from './place/regions';
 export {
@@ -95,4 +97,4 @@ export {
 } from './transfer/transfer';
 export { transferReportText } from './transfer/report-text';
 export { withSurfacePositions } from './transfer/features';
-export { carryMaps, type MapTransfer } from './transfer/maps';
+export { carryMaps, type MapTransfer, type MaskTransfer } from './transfer/maps';

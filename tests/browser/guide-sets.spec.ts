@@ -8,8 +8,7 @@ import { USDAParser } from 'three/examples/jsm/loaders/usd/USDAParser.js';
 import { closeDb } from '../../lib/platform/db';
 import { surfaceToObj } from '../../lib/groom/demo/obj';
 import { foxHead } from '../../lib/groom/demo/surfaces';
-import { confirmedAccount, expectSignedInAs, signInThroughForm } from './helpers';
-import { openPanel, typeNumber, waitForField, waitForSaved } from './studio-helpers';
+import { groomUploadedFox, openPanel, typeNumber, waitForSaved } from './studio-helpers';
 
 test.afterAll(closeDb);
 
@@ -17,18 +16,7 @@ const FOX_OBJ = Buffer.from(surfaceToObj(foxHead(), 'Bramble, for the guide sets
 
 test('guide sets: two sets with different lengths on the fox (crown and ears), each its own prim in the USD', async ({ page }) => {
   test.setTimeout(360_000);
-  const account = await confirmedAccount('guide-sets', 'groomer', 'a-proper-coat-42');
-  await signInThroughForm(page, account.email, account.password);
-  await expectSignedInAs(page, account.displayName);
-  await page.goto('/studio');
-  await page.getByLabel('Surface file').setInputFiles({ name: 'bramble.obj', mimeType: 'application/octet-stream', buffer: FOX_OBJ });
-  await page.getByRole('button', { name: 'Upload and check' }).click();
-  await expect(page.getByText('bramble is ready')).toBeVisible({ timeout: 60_000 });
-  await page.getByRole('button', { name: 'Start a groom on bramble' }).click();
-  await page.getByLabel('Name of the new groom on bramble').fill('Two coats');
-  await page.getByRole('button', { name: 'Start grooming' }).click();
-  await expect(page).toHaveURL(/\/studio\/grooms\/[0-9a-f-]+$/);
-  await waitForField(page);
+  await groomUploadedFox(page, 'guide-sets', FOX_OBJ, 'Two coats');
 
   await openPanel(page, 'Guides');
   const show = page.getByLabel('Show the guides on the surface');

@@ -34,6 +34,26 @@ export async function openPracticeFox(page: Page, label: string) {
   await waitForField(page);
 }
 
+/**
+ * Signs in a new groomer (named by `label`), uploads `obj` as bramble.obj, starts a groom named
+ * `groomName` on it, waits for its first field and gives back the groom's id.
+ */
+export async function groomUploadedFox(page: Page, label: string, obj: Buffer, groomName: string): Promise<string> {
+  const account = await confirmedAccount(label, 'groomer', 'a-proper-coat-42');
+  await signInThroughForm(page, account.email, account.password);
+  await expectSignedInAs(page, account.displayName);
+  await page.goto('/studio');
+  await page.getByLabel('Surface file').setInputFiles({ name: 'bramble.obj', mimeType: 'application/octet-stream', buffer: obj });
+  await page.getByRole('button', { name: 'Upload and check' }).click();
+  await expect(page.getByText('bramble is ready')).toBeVisible({ timeout: 60_000 });
+  await page.getByRole('button', { name: 'Start a groom on bramble' }).click();
+  await page.getByLabel('Name of the new groom on bramble').fill(groomName);
+  await page.getByRole('button', { name: 'Start grooming' }).click();
+  await expect(page).toHaveURL(/\/studio\/grooms\/[0-9a-f-]+$/);
+  await waitForField(page);
+  return new URL(page.url()).pathname.split('/').pop()!;
+}
+
 /** Waits until the editor has opened its surface and drawn a field. */
 export async function waitForField(page: Page, timeout = 90_000) {
   await expect(page.getByTestId('opening-progress')).toHaveCount(0, { timeout });

@@ -15,6 +15,7 @@ import { CLICK_TRAVEL } from '@/lib/studio/client/tools/clicks';
 import { FatLine } from '../scene/FatLine';
 import { LineLayer } from '../scene/LineLayer';
 import { SurfaceMesh, type SurfacePointerHandler } from '../scene/SurfaceMesh';
+import { TintOverlay } from './TintOverlay';
 
 export const COLOURS = {
   strokeTail: '#a39a88',
@@ -33,6 +34,7 @@ export const COLOURS = {
   border: '#e9bb4d',
   draft: '#8e3f1d',
   grain: '#f6f2e9',
+  tint: '#d0692b',
 };
 
 export interface MarkerHandlers {
@@ -167,6 +169,7 @@ export function EditorScene({
   onSurfaceDrawn,
   grainMarks,
   onTakeMark,
+  tint = null,
 }: {
   surface: OpenedSurface;
   spec: GroomSpec;
@@ -188,6 +191,8 @@ export function EditorScene({
   /** Grain marks still to take (none when no reading is in view). */
   grainMarks: readonly GrainMark[];
   onTakeMark: (mark: GrainMark) => void;
+  /** The map or mask the brush paints, drawn over the surface (`version` changes when the values change in place). */
+  tint?: { readonly values: Float64Array; readonly kind: 'map' | 'mask'; readonly version: number } | null;
 }) {
   const size = surface.diagonal * 0.014;
   const guideLines = useMemo(() => (guides ? guideSegments(guides) : null), [guides]);
@@ -200,6 +205,7 @@ export function EditorScene({
   return (
     <>
       <SurfaceMesh positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} onDrawn={onSurfaceDrawn} hierarchy={surface.pickHierarchy} />
+      {tint && tint.values.length === surface.vertexCount && <TintOverlay positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} values={tint.values} kind={tint.kind} version={tint.version} />}
       {surface.boundaryLines.length > 0 && <LineLayer lines={surface.boundaryLines} tail={COLOURS.border} head={COLOURS.border} name="border" />}
       {fieldLines && (
         <LineLayer lines={fieldLines} shade={fieldShade} tail={COLOURS.strokeTail} head={COLOURS.strokeHead} opacity={fieldFaded ? 0.3 : 1} onDrawn={onFieldDrawn} name="field" />

@@ -1,6 +1,6 @@
 'use client';
 // The Guides panel's list of guide sets: add, pick, rename, delete, and where the picked set grows
-// (face groups, or one side of a parting). Each set shows the colours it is drawn in. Every change
+// (face groups, one side of a parting, or a painted mask). Each set shows the colours it is drawn in. Every change
 // is an edit of the spec, undoable and autosaved like any other.
 import { useState } from 'react';
 import type { GroomSpec, GuideSetRegion, GuideSetSpec } from '@/lib/groom/spec/spec';
@@ -95,7 +95,9 @@ function markers(spec: GroomSpec) {
 }
 
 function SetRegion({ spec, groups, region, onChange }: { spec: GroomSpec; groups: readonly string[]; region: GuideSetRegion; onChange: (region: GuideSetRegion) => void }) {
+  const byMask = region.mask !== undefined;
   const bySide = region.partings !== undefined;
+  const masks = spec.masks ?? [];
   const partings = spec.field.partings;
   const starts = markers(spec);
   const chosenStart = region.from ? starts.findIndex((m) => JSON.stringify(m.from) === JSON.stringify({ ...(region.from!.point ? { point: region.from!.point } : { vertex: region.from!.vertex }) })) : -1;
@@ -106,15 +108,31 @@ function SetRegion({ spec, groups, region, onChange }: { spec: GroomSpec; groups
       <span className="text-xs font-semibold text-loam-soft">This set grows on</span>
       <div className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-loam">
         <label className="flex items-center gap-1.5">
-          <input type="radio" name="set-region" checked={!bySide} onChange={() => onChange({ groups: [] })} />
+          <input type="radio" name="set-region" checked={!bySide && !byMask} onChange={() => onChange({ groups: [] })} />
           Face groups
         </label>
         <label className="flex items-center gap-1.5" title={canSide ? undefined : 'Draw a parting and place a marker on the side to grow on first.'}>
           <input type="radio" name="set-region" checked={bySide} disabled={!canSide} onChange={() => onChange({ partings: [0], from: starts[0].from })} />
           One side of a parting
         </label>
+        <label className="flex items-center gap-1.5" title={masks.length > 0 ? undefined : 'Add a mask in the Tints panel and paint it first.'}>
+          <input type="radio" name="set-region" checked={byMask} disabled={masks.length === 0} onChange={() => onChange({ mask: masks[0].name })} />
+          A painted mask
+        </label>
       </div>
-      {!bySide && groups.length > 0 && (
+      {byMask && (
+        <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
+          Mask (faces whose corners are half painted or more)
+          <select value={region.mask} onChange={(event) => onChange({ mask: event.target.value })} className="rounded-lg border-2 border-loam/15 bg-vellum px-2 py-1 text-sm text-loam">
+            {masks.map((m) => (
+              <option key={m.name} value={m.name}>
+                {m.name}
+              </option>
+            ))}
+          </select>
+        </label>
+      )}
+      {!bySide && !byMask && groups.length > 0 && (
         <div className="flex flex-wrap gap-x-4 gap-y-1">
           {groups.map((name) => (
             <label key={name} className="flex items-center gap-1.5 text-sm text-loam">
@@ -124,7 +142,7 @@ function SetRegion({ spec, groups, region, onChange }: { spec: GroomSpec; groups
           ))}
         </div>
       )}
-      {!bySide && <span className="text-xs text-loam-soft">{groupsOf.length === 0 ? 'No group ticked: the whole surface.' : ''}</span>}
+      {!bySide && !byMask && <span className="text-xs text-loam-soft">{groupsOf.length === 0 ? 'No group ticked: the whole surface.' : ''}</span>}
       {bySide && (
         <div className="grid grid-cols-2 gap-2">
           <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">

@@ -4,6 +4,41 @@ import { NumberField } from '../ui/NumberField';
 import { COLOURS } from './EditorScene';
 import { PinAttributeSelect } from './PinAttributeSelect';
 import { RAIL_TOOLS, TOOLS, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
+import { targetLabel, type BrushOptions } from '@/lib/studio/client/paint';
+import type { BrushMode } from '@/lib/groom/place/paint';
+
+const MODES: readonly { mode: BrushMode; label: string }[] = [
+  { mode: 'paint', label: 'Tint' },
+  { mode: 'smooth', label: 'Even out' },
+  { mode: 'erase', label: 'Clear' },
+];
+
+/** The tint brush's choices: what it does, its reach in surface units, how strongly, and its edge. */
+function BrushOptionsCard({ brush, onBrush }: { brush: BrushOptions; onBrush: (brush: BrushOptions) => void }) {
+  const mask = brush.paints?.kind === 'mask';
+  return (
+    <div className="absolute left-[10.5rem] top-3 z-10 flex w-56 flex-col gap-2 rounded-2xl bg-chalk/95 p-3 shadow-lg" aria-label="Brush options" role="group">
+      <p className="text-xs font-semibold text-loam">{brush.paints ? `Tinting ${targetLabel(brush.paints)}` : 'Pick a map or mask in the Tints panel (Guides tab).'}</p>
+      <div className="flex gap-1" role="radiogroup" aria-label="Brush does">
+        {MODES.map(({ mode, label }) => (
+          <button key={mode} type="button" role="radio" aria-checked={brush.mode === mode} onClick={() => onBrush({ ...brush, mode })} className={`flex-1 rounded-full px-2 py-1 text-xs font-semibold ${brush.mode === mode ? 'bg-tarn text-chalk' : 'border-2 border-tarn/25 text-tarn'}`}>
+            {label}
+          </button>
+        ))}
+      </div>
+      {brush.mode === 'paint' && <NumberField label={mask ? 'Share (0 outside, 1 inside)' : 'Factor (1× is no change)'} value={brush.target} min={0} max={mask ? 1 : 10} onCommit={(target) => onBrush({ ...brush, target })} />}
+      <NumberField label="Radius (surface units)" value={brush.radius} min={0} max={1e9} onCommit={(radius) => (radius > 0 ? onBrush({ ...brush, radius }) : 'The radius must be more than 0.')} />
+      <NumberField label="Strength (0 – 1)" value={brush.strength} min={0} max={1} onCommit={(strength) => onBrush({ ...brush, strength })} />
+      <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
+        Edge
+        <select value={brush.falloff} onChange={(event) => onBrush({ ...brush, falloff: event.target.value as BrushOptions['falloff'] })} className="rounded-lg border-2 border-vellum bg-white px-2 py-1 text-sm text-loam">
+          <option value="smooth">Soft (fades to the rim)</option>
+          <option value="hard">Hard (even to the rim)</option>
+        </select>
+      </label>
+    </div>
+  );
+}
 
 const SWATCH: Partial<Record<ToolId, string>> = {
   whorl: COLOURS.whorl,
@@ -13,6 +48,7 @@ const SWATCH: Partial<Record<ToolId, string>> = {
   crest: COLOURS.crest,
   flow: COLOURS.flow,
   pin: COLOURS.pin,
+  tint: COLOURS.tint,
 };
 
 export function ToolRail({
@@ -98,6 +134,8 @@ export function ToolRail({
           )}
         </div>
       )}
+
+      {tool === 'tint' && options.brush && <BrushOptionsCard brush={options.brush} onBrush={(brush) => onOptions({ ...options, brush })} />}
 
       {hint && (
         <p className="pointer-events-none absolute bottom-3 left-3 z-10 max-w-[60%] rounded-xl bg-tarn/85 px-3 py-2 text-xs text-chalk" data-testid="tool-hint">

@@ -12,7 +12,8 @@ import { featureExists, featureOfPath } from '@/lib/studio/client/features';
 import { prewarmFieldWorker } from '@/lib/studio/client/field-client';
 import { takeMark } from '@/lib/studio/client/grain-marks';
 import { featurePlace } from '@/lib/studio/client/marker-places';
-import type { DisplayOptions, RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
+import { codedOf, decodeTarget, defaultBrush, type BrushOptions, type PaintTarget } from '@/lib/studio/client/paint';
+import type { DisplayOptions, OpenedSurface, RootsSource, SurfaceSource } from '@/lib/studio/client/protocol';
 import { toolOfKey, type ToolOptions } from '@/lib/studio/client/tools';
 import { Stage, type StageApi } from '../scene/Stage';
 import { SurfaceMesh } from '../scene/SurfaceMesh';
@@ -27,6 +28,7 @@ import { GuidePanel } from './GuidePanel';
 import { MarkerCard, ScreenAnchor } from './MarkerCard';
 import { PanelTabs, type PanelTab } from './PanelTabs';
 import { StageMessages } from './StageMessages';
+import { TintsPanel } from './TintsPanel';
 import { SurfaceMovePanel } from './SurfaceMovePanel';
 import { ToolRail } from './ToolRail';
 import { TwinSidesPanel } from './TwinSidesPanel';
@@ -39,7 +41,7 @@ import { useGrain } from './hooks/useGrain';
 import { useGuides } from './hooks/useGuides';
 import { useLiveState } from './hooks/useLiveState';
 import { useShortcuts } from './hooks/useShortcuts';
-import { useToolDriver } from './hooks/useToolDriver';
+import { useToolDriver, type ToolDriver } from './hooks/useToolDriver';
 import { useSteadyFrame } from './hooks/useSteadyFrame';
 
 // The field worker's code starts loading as soon as the editor's code runs, before the page is
@@ -65,7 +67,12 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
   // same centre and radius, so the view does not jump when the prepared surface replaces it).
   const view = useSteadyFrame(surface ?? field.preview);
   const actions = useEditorActions({ getEditor, setEditor, surface, solve, stage, onAdded: () => setTab('features') });
-  const tools = useToolDriver({ getEditor, setEditor, surface, solve, options: toolOptions, stage, onNotice: setNotice });
+  // The brush starts eight mean edges across once the surface is open; the groomer's choices are kept in the tool options.
+  const brush = useMemo(() => toolOptions.brush ?? (surface ? defaultBrush(surface.meanEdge) : null), [surface, toolOptions.brush]);
+  const options = useMemo(() => (brush && !toolOptions.brush ? { ...toolOptions, brush } : toolOptions), [brush, toolOptions]);
+  const setBrush = useCallback((next: BrushOptions) => setToolOptions((old) => ({ ...old, brush: next })), []);
+  const tools = useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice: setNotice });
+  const tint = useTintView(surface, spec, tools.tool === 'tint' ? (brush?.paints ?? null) : null, tools.painting);
   const dragging = tools.dragging !== null;
   const guides = useGuides({ client: field.client, surface, spec, rootsFrom, show: showGuides, paused: dragging });
   const draftPath = useDraftPath({ client: field.client, points: tools.draft, joined: tools.joinsDraft, closed: toolOptions.closed, onFailure: setNotice });
@@ -144,6 +151,7 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
                 handlers={tools.markers}
                 pointer={tools.pointer}
                 onFieldDrawn={field.onFieldDrawn}
+                tint={tint}
                 grainMarks={grain.left}
                 onTakeMark={(mark) => {
                   const refused = actions.edit(takeMark(mark));
@@ -155,7 +163,7 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
             </Stage>
           ) : null}
           {surface && !dragging && <MarkerCard spec={spec} feature={editor.selection} actions={actions} element={cardRef} onNotice={setNotice} />}
-          {surface && <ToolRail tool={tools.tool} onTool={tools.choose} options={toolOptions} onOptions={setToolOptions} order={spec.field.order} draftLength={tools.draft.length} onFinish={tools.finishDraft} onCancel={tools.discardDraft} onFrameAll={() => stage.current?.frameAll()} />}
+          {surface && <ToolRail tool={tools.tool} onTool={tools.choose} options={options} onOptions={setToolOptions} order={spec.field.order} draftLength={tools.draft.length} onFinish={tools.finishDraft} onCancel={tools.discardDraft} onFrameAll={() => stage.current?.frameAll()} />}
           <StageMessages
             opened={!!surface}
             previewed={!!field.preview}
@@ -189,7 +197,12 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
                 />
               </div>
             )}
-            {tab === 'guides' && <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} surfaceId={persistence?.surfaceId} />}
+            {tab === 'guides' && (
+              <div className="flex flex-col gap-3">
+                <GuidePanel spec={spec} groups={surface?.groups ?? []} actions={actions} guides={guides.grown} current={guides.current} error={guides.error} show={showGuides} onShow={setShowGuides} surfaceId={persistence?.surfaceId} />
+                <TintsPanel spec={spec} surface={surface} actions={actions} brush={brush} onBrush={setBrush} onPaint={() => tools.choose('tint')} />
+              </div>
+            )}
             {tab === 'field' && (
               <div className="flex flex-col gap-5">
                 {surface && <GrainPanel spec={spec} grain={grain} actions={actions} onLookAt={(mark) => stage.current?.lookAt(mark.point, mark.normal)} />}
@@ -206,4 +219,24 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
       </div>
     </div>
   );
+}
+
+/**
+ * What the stage tints the surface with: the stroke being dragged (its values, changed in place),
+ * else the picked map or mask as the spec holds it (decoded once per change of its coded values),
+ * else nothing.
+ */
+function useTintView(surface: OpenedSurface | null, spec: GroomSpec, paints: PaintTarget | null, painting: ToolDriver['painting']) {
+  const found = paints ? codedOf(spec, paints) : undefined;
+  const coded = found?.coded;
+  const saved = useMemo(() => {
+    if (!surface || !paints) return null;
+    try {
+      return decodeTarget(coded ? { coded, path: '' } : undefined, paints.kind, { positions: surface.positions, triangles: surface.triangles });
+    } catch {
+      return null;
+    }
+  }, [surface, coded, paints]);
+  if (painting) return { values: painting.values, kind: painting.target.kind, version: painting.dabs };
+  return paints && saved ? { values: saved, kind: paints.kind, version: -1 } : null;
 }

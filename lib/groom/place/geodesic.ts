@@ -32,7 +32,7 @@ export function vertexFaces(mesh: TriangleMesh): VertexFaces {
  * The distance at c from a planar front that is at distance da at a and db at b, or Infinity when
  * the front's source does not see c through the edge ab (then the edges decide).
  */
-function acrossTriangle(p: Float64Array, a: number, b: number, c: number, da: number, db: number): number {
+export function acrossTriangle(p: Float64Array, a: number, b: number, c: number, da: number, db: number): number {
   const abx = p[3 * b] - p[3 * a], aby = p[3 * b + 1] - p[3 * a + 1], abz = p[3 * b + 2] - p[3 * a + 2];
   const acx = p[3 * c] - p[3 * a], acy = p[3 * c + 1] - p[3 * a + 1], acz = p[3 * c + 2] - p[3 * a + 2];
   const ab = Math.sqrt(abx * abx + aby * aby + abz * abz);

@@ -1,6 +1,6 @@
 import type { TriangleMesh } from '../../field';
 import { GroomError } from '../errors';
-import { MAP_ATTRIBUTES, type GroomSpec, type MapAttribute, type MapSpec } from '../spec/spec';
+import { MAP_ATTRIBUTES, type GroomSpec, type MapAttribute, type MapSpec, type MaskSpec } from '../spec/spec';
 import type { PinnedFactors } from './pins';
 
 /** Per-vertex factors of each painted (or pinned) attribute; an attribute with neither is absent (factor 1). */
@@ -61,12 +61,34 @@ export function encodeMap(attribute: MapAttribute, values: ArrayLike<number>, me
  * and the top code exactly `high`.
  */
 export function decodeMap(map: MapSpec, mesh: TriangleMesh, path = 'maps'): Float64Array {
+  return decodeCoded(map, mesh, path, `the ${map.attribute} map`);
+}
+
+/**
+ * A mask in the spec's compact form: `values` (one share per vertex of `mesh`, each in [0, 1])
+ * coded as `encodeMap` codes a map's factors. Guarantees as `encodeMap`'s; a mask of one value
+ * everywhere decodes exactly to it.
+ */
+export function encodeMask(name: string, values: ArrayLike<number>, mesh: TriangleMesh, bits: 8 | 16 = 8): MaskSpec {
+  for (let v = 0; v < values.length; v++) {
+    if (!(values[v] >= 0 && values[v] <= 1)) throw new RangeError(`A mask's values are shares from 0 to 1; vertex ${v} has ${values[v]}.`);
+  }
+  const { attribute: _attribute, ...coded } = encodeMap('density', values, mesh, bits);
+  return { name, ...coded };
+}
+
+/** The share per vertex of one mask on `mesh`; refused as `decodeMap` says for a mask painted on another surface. */
+export function decodeMask(mask: MaskSpec, mesh: TriangleMesh, path = 'masks'): Float64Array {
+  return decodeCoded(mask, mesh, path, `the mask ${JSON.stringify(mask.name)}`);
+}
+
+function decodeCoded(map: Omit<MapSpec, 'attribute'>, mesh: TriangleMesh, path: string, what: string): Float64Array {
   const id = surfaceSignature(mesh);
   if (map.vertices !== id.vertices || map.faces !== id.faces || map.signature !== id.signature) {
     throw new GroomError(
       'map-surface-mismatch',
-      `${path}: the ${map.attribute} map was painted on a surface of ${map.vertices} vertices and ${map.faces} triangles (signature ${map.signature}); ` +
-        `this surface has ${id.vertices} vertices and ${id.faces} triangles (signature ${id.signature}). Carry the groom onto this surface (transfer) or repaint the map.`,
+      `${path}: ${what} was painted on a surface of ${map.vertices} vertices and ${map.faces} triangles (signature ${map.signature}); ` +
+        `this surface has ${id.vertices} vertices and ${id.faces} triangles (signature ${id.signature}). Carry the groom onto this surface (transfer) or repaint it.`,
       path,
     );
   }

@@ -1,6 +1,8 @@
 import { GroomError } from '../errors';
 import { curveVertices } from './request';
 import { surfacePointOf, vertexOfPlace } from './place';
+import { decodeMask } from './maps';
+import { facesOfMask } from './paint';
 import { growthMask } from './regions';
 import type { GroomSpec, GuideSetRegion } from '../spec/spec';
 import type { GroomSurface } from './surface';
@@ -8,14 +10,17 @@ import type { GroomSurface } from './surface';
 /**
  * The faces a guide set grows on (1 per face it may use): its OBJ groups (none named: every face),
  * or the side of its partings — the faces reachable from `from` over shared edges without crossing
- * an edge of those partings (a flood fill over the dual graph).
+ * an edge of those partings (a flood fill over the dual graph), or its painted mask (the faces
+ * whose three corners' mean share is at least ½, `facesOfMask`).
  *
  * Guarantees: a GroomError naming `path` (`guideSets[i].region…`) for a group the surface lacks
  * (`unknown-region`), a `from` vertex lying on one of the partings (`ambiguous-side`: it has no
  * side), or partings that do not cut the piece of surface `from` lies on in two (`parting-does-not-separate`:
- * every face of that piece is reachable without crossing them).
+ * every face of that piece is reachable without crossing them); for a mask, `empty-region` when
+ * no face reaches ½ (nothing painted in it yet), and `map-surface-mismatch` as `decodeMask` says.
  */
 export function setRegionMask(surface: GroomSurface, spec: GroomSpec, region: GuideSetRegion, path: string): Uint8Array {
+  if (region.mask !== undefined) return paintedRegion(surface, spec, region.mask, path);
   if (!region.partings || !region.from) {
     return growthMask(surface.mesh, region.groups ?? [], `${path}.groups`);
   }
@@ -79,4 +84,19 @@ function fill(tri: Uint32Array, twin: Int32Array, seed: number, stops: (halfedge
     }
   }
   return mask;
+}
+
+/** The faces of a named painted mask; refused in words when it holds none. */
+function paintedRegion(surface: GroomSurface, spec: GroomSpec, name: string, path: string): Uint8Array {
+  const index = spec.masks?.findIndex((m) => m.name === name) ?? -1;
+  if (index < 0) throw new GroomError('unknown-region', `${path}.mask: there is no mask named ${JSON.stringify(name)} in the spec's masks.`, `${path}.mask`);
+  const faces = facesOfMask(surface.mesh, decodeMask(spec.masks![index], surface.mesh, `masks[${index}]`));
+  if (!faces.includes(1)) {
+    throw new GroomError(
+      'empty-region',
+      `${path}.mask: the mask ${JSON.stringify(name)} covers no face (a face belongs when its corners' mean is at least ½). Paint the mask over the part of the surface this set should grow on.`,
+      `${path}.mask`,
+    );
+  }
+  return faces;
 }

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { GroomError } from '../errors';
-import { mapSchema } from './maps';
+import { mapSchema, maskSchema } from './maps';
 
 export { MAP_ATTRIBUTES, type MapAttribute } from './maps';
 import { degrees, guideAmount, guidePointsProblem, guidesSchemaV3, notBothAmounts, resolveGuides, size, type GuidesInput } from './guide-settings';
@@ -135,18 +135,21 @@ const fieldSchemaV2 = z.strictObject({
 });
 
 /**
- * Where a guide set grows: the faces of named OBJ groups (none named: the whole surface), or the
- * side of one or more partings — the faces reachable from `from` without crossing them.
+ * Where a guide set grows: the faces of named OBJ groups (none named: the whole surface), the
+ * side of one or more partings — the faces reachable from `from` without crossing them —, or a
+ * painted mask named in the spec's `masks` (the faces whose corners' mean share is at least ½).
  */
 const setRegionSchema = z
   .strictObject({
     groups: z.array(z.string().min(1).max(200)).max(1000).optional(),
     partings: z.array(z.int().min(0).max(63)).min(1).max(64).optional(),
     from: z.strictObject(placement).superRefine(exactlyOnePlace).optional(),
+    mask: z.string().trim().min(1).max(100).optional(),
   })
   .superRefine((value, ctx) => {
     const bySide = value.partings !== undefined || value.from !== undefined;
-    if (value.groups !== undefined && bySide) ctx.addIssue({ code: 'custom', message: 'give either "groups" or "partings" with "from", not both' });
+    if (value.mask !== undefined && (value.groups !== undefined || bySide)) ctx.addIssue({ code: 'custom', message: 'give either "mask" or the region\'s other kind ("groups", or "partings" with "from"), not both' });
+    else if (value.groups !== undefined && bySide) ctx.addIssue({ code: 'custom', message: 'give either "groups" or "partings" with "from", not both' });
     else if (bySide && (value.partings === undefined || value.from === undefined)) ctx.addIssue({ code: 'custom', message: 'a side of a parting needs both "partings" (their numbers in field.partings) and "from" (a place on that side)' });
   });
 
@@ -168,6 +171,7 @@ const specSchemaV3 = z
     guides: guidesSchemaV3.prefault({}),
     pins: z.array(pinSchema).max(1024).default([]),
     maps: z.array(mapSchema).max(64).optional(),
+    masks: z.array(maskSchema).max(64).optional(),
     symmetry: symmetrySchema.optional(),
     guideSets: z.array(guideSetSchema).min(1).max(64).optional(),
   })
@@ -175,6 +179,11 @@ const specSchemaV3 = z
     spec.maps?.forEach((map, i) => {
       if (spec.maps!.findIndex((other) => other.attribute === map.attribute) < i) {
         ctx.addIssue({ code: 'custom', path: ['maps', i, 'attribute'], message: `a map of "${map.attribute}" is already given; one map per attribute` });
+      }
+    });
+    spec.masks?.forEach((mask, i) => {
+      if (spec.masks!.findIndex((other) => other.name === mask.name) < i) {
+        ctx.addIssue({ code: 'custom', path: ['masks', i, 'name'], message: `a mask named ${JSON.stringify(mask.name)} is already given; every mask needs its own name` });
       }
     });
     spec.guideSets?.forEach((set, i) => guideSetProblems(spec, set, i, ctx));
@@ -199,7 +208,7 @@ const specSchemaV3 = z
   });
 
 /** A set's own words: names unique, partings that exist, one points-per-guide for the whole groom. */
-function guideSetProblems(spec: { field: { partings: unknown[] }; guideSets?: { name: string; guides: GuidesInput }[] }, set: { name: string; region: { partings?: number[] }; guides: GuidesInput }, i: number, ctx: z.RefinementCtx): void {
+function guideSetProblems(spec: { field: { partings: unknown[] }; masks?: { name: string }[]; guideSets?: { name: string; guides: GuidesInput }[] }, set: { name: string; region: { partings?: number[]; mask?: string }; guides: GuidesInput }, i: number, ctx: z.RefinementCtx): void {
   const sets = spec.guideSets!;
   const path = ['guideSets', i];
   const same = sets.findIndex((other) => other.name === set.name);
@@ -207,6 +216,10 @@ function guideSetProblems(spec: { field: { partings: unknown[] }; guideSets?: { 
   set.region.partings?.forEach((p, k) => {
     if (p >= spec.field.partings.length) ctx.addIssue({ code: 'custom', path: [...path, 'region', 'partings', k], message: `there is no parting ${p}; the spec has ${spec.field.partings.length} (field.partings)` });
   });
+  const mask = set.region.mask;
+  if (mask !== undefined && !spec.masks?.some((m) => m.name === mask)) {
+    ctx.addIssue({ code: 'custom', path: [...path, 'region', 'mask'], message: `there is no mask named ${JSON.stringify(mask)}; the spec's masks are ${spec.masks?.length ? spec.masks.map((m) => JSON.stringify(m.name)).join(', ') : 'none'}` });
+  }
   if (set.guides.regions.length > 0) ctx.addIssue({ code: 'custom', path: [...path, 'guides', 'regions'], message: 'a guide set grows on its "region"; name its groups in region.groups' });
   // Counts are known before growing, so their sum is checked here; densities when the areas are known.
   const counted = sets.slice(0, i + 1).reduce((sum, s) => sum + (s.guides.count ?? 0), 0);
@@ -226,6 +239,8 @@ export type CurveSpec = GroomSpec['field']['partings'][number];
 export type StrokeSpec = GroomSpec['field']['strokes'][number];
 export type PinSpec = GroomSpec['pins'][number];
 export type MapSpec = NonNullable<GroomSpec['maps']>[number];
+/** A painted mask (see `maskSchema` in maps.ts). */
+export type MaskSpec = NonNullable<GroomSpec['masks']>[number];
 /** The spec's mirror plane (see `symmetrySchema`). */
 export type SymmetrySpec = NonNullable<GroomSpec['symmetry']>;
 export type GuideSettings = GroomSpec['guides'];

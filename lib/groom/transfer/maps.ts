@@ -1,7 +1,7 @@
-import { decodeMap, encodeMap } from '../place/maps';
+import { decodeMap, decodeMask, encodeMap, encodeMask } from '../place/maps';
 import { SKIN_QUERY_SIZE } from '../place/skin';
 import type { GroomSurface } from '../place/surface';
-import type { GroomSpec, MapAttribute, MapSpec } from '../spec/spec';
+import type { GroomSpec, MapAttribute, MapSpec, MaskSpec } from '../spec/spec';
 import type { Alignment } from './align';
 import { barycentricOnFace, type SurfaceIdentity } from './identity';
 import { buildNormalProbe, type NormalProbe } from './ray';
@@ -17,6 +17,9 @@ export interface MapTransfer {
   /** For `closest point`: new vertices that found no old surface facing their way within reach, and took the nearest point whatever its side. */
   readonly unchecked?: number;
 }
+
+/** How one painted mask reached the new surface (as a map does). */
+export type MaskTransfer = Omit<MapTransfer, 'attribute'> & { readonly name: string };
 
 interface Side {
   readonly surface: GroomSurface;
@@ -39,37 +42,51 @@ interface Side {
  * what keeps a vertex on one side of a thin gap (lips, an ear's two sheets) from reading the other
  * sheet's value.
  */
-export function carryMaps(spec: GroomSpec, from: Side, to: Side, samePolygons: boolean, alignment: Alignment, reach: number): { maps: MapSpec[]; report: MapTransfer[] } {
+export function carryMaps(spec: GroomSpec, from: Side, to: Side, samePolygons: boolean, alignment: Alignment, reach: number): { maps: MapSpec[]; report: MapTransfer[]; masks: MaskSpec[]; maskReport: MaskTransfer[] } {
   const maps: MapSpec[] = [];
   const report: MapTransfer[] = [];
+  const masks: MaskSpec[] = [];
+  const maskReport: MaskTransfer[] = [];
   const toMesh = to.surface.mesh;
   const nV = toMesh.positions.length / 3;
   // Where each new vertex reads the old map: an old vertex (by polygon) or a face and weights.
-  let readAt: ((old: Float64Array) => Float64Array) | undefined;
+  let readAt: ((old: Float64Array, blank: number) => Float64Array) | undefined;
   let farthest = 0, unchecked = 0;
+  const read = (old: Float64Array, blank: number) => {
+    if (!readAt) ({ readAt, farthest, unchecked } = samePolygons ? byPolygon(from.identity, to.identity, nV) : byClosestPoint(from.surface, to.surface, alignment, reach));
+    return readAt(old, blank);
+  };
+  const how = () => (samePolygons ? { how: 'polygon' as const } : { how: 'closest point' as const, farthest: farthest / to.surface.diagonal, unchecked });
   for (const [i, map] of (spec.maps ?? []).entries()) {
     const path = `maps[${i}]`;
-    const old = decodeMap(map, from.surface.mesh, path);
-    if (!readAt) ({ readAt, farthest, unchecked } = samePolygons ? byPolygon(from.identity, to.identity, nV) : byClosestPoint(from.surface, to.surface, alignment, reach));
-    const values = readAt(old);
-    if (samePolygons) {
-      // Same values coded between the same low and high: the very codes, so the map decodes identically.
-      maps.push(encodeMap(map.attribute, values, toMesh, map.bits, { low: map.low, high: map.high }));
-      report.push({ path, attribute: map.attribute, how: 'polygon' });
-    } else {
-      maps.push(encodeMap(map.attribute, values, toMesh, map.bits));
-      report.push({ path, attribute: map.attribute, how: 'closest point', farthest: farthest / to.surface.diagonal, unchecked });
-    }
+    const values = read(decodeMap(map, from.surface.mesh, path), 1);
+    // By polygon: the same values coded between the same low and high — the very codes, so the map decodes identically.
+    maps.push(encodeMap(map.attribute, values, toMesh, map.bits, samePolygons ? { low: map.low, high: map.high } : undefined));
+    report.push({ path, attribute: map.attribute, ...how() });
   }
-  return { maps, report };
+  // Masks travel as maps do: a share per vertex, read at the same corner or the nearest facing point.
+  for (const [i, mask] of (spec.masks ?? []).entries()) {
+    const path = `masks[${i}]`;
+    const values = read(decodeMask(mask, from.surface.mesh, path), 0);
+    const coded = encodeMask(mask.name, values.map((x) => Math.min(1, x)), toMesh, mask.bits);
+    masks.push(samePolygons ? { ...coded, ...encodeRange(mask, values, toMesh) } : coded);
+    maskReport.push({ path, name: mask.name, ...how() });
+  }
+  return { maps, report, masks, maskReport };
+}
+
+/** A mask's values coded between the old mask's own low and high, so that carrying by polygon keeps its codes. */
+function encodeRange(mask: MaskSpec, values: Float64Array, mesh: GroomSurface['mesh']): Pick<MaskSpec, 'low' | 'high' | 'data'> {
+  const { low, high, data } = encodeMap('density', values, mesh, mask.bits, { low: mask.low, high: mask.high });
+  return { low, high, data };
 }
 
 /** Each new vertex's old vertex: the old welded vertex at the first polygon corner that uses it. */
 function byPolygon(from: SurfaceIdentity, to: SurfaceIdentity, nV: number) {
   const source = new Int32Array(nV).fill(-1);
   for (let k = 0; k < to.cornerVertex.length; k++) if (source[to.cornerVertex[k]] < 0) source[to.cornerVertex[k]] = from.cornerVertex[k];
-  // A vertex on no polygon weighs on nothing; it keeps the factor 1.
-  return { readAt: (old: Float64Array) => Float64Array.from(source, (v) => (v >= 0 ? old[v] : 1)), farthest: 0, unchecked: 0 };
+  // A vertex on no polygon weighs on nothing; it keeps the unpainted value (a map's 1×, a mask's 0).
+  return { readAt: (old: Float64Array, blank: number) => Float64Array.from(source, (v) => (v >= 0 ? old[v] : blank)), farthest: 0, unchecked: 0 };
 }
 
 /** Each new vertex laid into the old space by the inverse alignment, and the nearest old point's face and weights. */

@@ -11,7 +11,7 @@ import { anchorFeatures, placeFeatures, type AnchoredFeature, type FeatureKind, 
 import { barycentricOnFace, pointOfPosition, positionOnFace, sameTopology, type SurfaceIdentity } from './identity';
 import { buildNormalProbe } from './ray';
 import { buildUvLocator } from './uv-locate';
-import { carryMaps, type MapTransfer } from './maps';
+import { carryMaps, type MapTransfer, type MaskTransfer } from './maps';
 
 /**
  * Moving a groom spec onto another surface — a new sculpt pass, a retopology, another character —
@@ -75,6 +75,8 @@ export interface TransferReport {
   readonly field: { readonly solved: true } | { readonly solved: false; readonly code: string; readonly message: string };
   /** The painted maps carried, each once, and how (present when the spec has maps). */
   readonly maps?: readonly MapTransfer[];
+  /** The painted masks carried, each once, and how (present when the spec has masks). */
+  readonly masks?: readonly MaskTransfer[];
 }
 
 export interface TransferResult {
@@ -214,7 +216,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   );
 
   // Maps are factors, so they need no unit conversion; only where each new vertex reads them.
-  const carried = spec.maps?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale) : undefined;
+  const carried = spec.maps?.length || spec.masks?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale) : undefined;
   const perUnit = CENTIMETRES_PER_UNIT[fromUnits] / CENTIMETRES_PER_UNIT[toUnits];
   const g = spec.guides;
   const scaled = <T extends typeof g>(block: T): T => ({
@@ -236,7 +238,8 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
       // A twist's own direction turns with the surface, as the reference direction does.
       singularities: placed.spec.field.singularities.map((s) => (s.twistFrom ? { ...s, twistFrom: alignDirection(alignment, s.twistFrom) } : s)),
     },
-    ...(carried ? { maps: carried.maps } : {}),
+    ...(carried && spec.maps?.length ? { maps: carried.maps } : {}),
+    ...(carried && spec.masks?.length ? { masks: carried.masks } : {}),
     ...(spec.symmetry ? { symmetry: carriedSymmetry(spec.symmetry, alignment) } : {}),
     guides: { ...scaled(g), regions: keptRegions },
     ...(spec.guideSets
@@ -258,7 +261,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
   }
   return {
     spec: newSpec,
-    report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field, ...(carried ? { maps: carried.report } : {}) },
+    report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field, ...(carried && spec.maps?.length ? { maps: carried.report } : {}), ...(carried && spec.masks?.length ? { masks: carried.maskReport } : {}) },
     ...(solved ? { solved } : {}),
   };
 }

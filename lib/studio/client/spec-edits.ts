@@ -1,7 +1,7 @@
 // Every change the studio makes to a groom spec, as plain data: applied by one pure function,
 // named in words for the undo history, checked with the groom library's own schema before it
 // is accepted. The spec is never changed in place.
-import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSetSpec, type GuideSettings, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec, type SymmetrySpec } from '@/lib/groom/spec/spec';
+import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSetSpec, type GuideSettings, type MapAttribute, type MapSpec, type MaskSpec, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec, type SymmetrySpec } from '@/lib/groom/spec/spec';
 import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureKind, type FeatureRef, type Vec3 } from './features';
 import { mirrorOf, mirroredValue, partnerOf, type FeatureValue, type Mirror } from './mirror-edits';
 
@@ -26,6 +26,12 @@ export type SpecEdit =
   | { readonly type: 'add-guide-set'; readonly set: GuideSetSpec }
   | { readonly type: 'update-guide-set'; readonly index: number; readonly set: GuideSetSpec; readonly what: 'rename' | 'region' | 'settings' }
   | { readonly type: 'remove-guide-set'; readonly index: number }
+  /** The painted map of its attribute, put in place of the one there (or added); `label`: the history's words, when not "Paint the … map". */
+  | { readonly type: 'set-map'; readonly map: MapSpec; readonly label?: string }
+  | { readonly type: 'remove-map'; readonly attribute: MapAttribute }
+  /** The painted mask of its name, put in place of the one there (or added). */
+  | { readonly type: 'set-mask'; readonly mask: MaskSpec; readonly label?: string }
+  | { readonly type: 'remove-mask'; readonly name: string }
   | { readonly type: 'replace'; readonly spec: GroomSpec; readonly label: string };
 
 /** The index of a whorl and of a saddle, the two singularities the tools and the side list add by name. */
@@ -173,9 +179,38 @@ function applyOne(spec: GroomSpec, edit: SpecEdit): GroomSpec {
       return { ...spec, guideSets: replaced(spec.guideSets ?? [], edit.index, edit.set) };
     case 'remove-guide-set':
       return withoutGuideSet(spec, edit.index);
+    case 'set-map':
+      return { ...spec, maps: withItem(spec.maps, edit.map, (m) => m.attribute === edit.map.attribute) };
+    case 'remove-map':
+      return withList(spec, 'maps', withoutItem(spec.maps, (m) => m.attribute === edit.attribute, `There is no ${edit.attribute} map to remove.`));
+    case 'set-mask':
+      return { ...spec, masks: withItem(spec.masks, edit.mask, (m) => m.name === edit.mask.name) };
+    case 'remove-mask': {
+      const user = spec.guideSets?.find((set) => set.region.mask === edit.name);
+      if (user) throw new Error(`Guide set “${user.name}” grows on the mask “${edit.name}”; give the set another region before removing the mask.`);
+      return withList(spec, 'masks', withoutItem(spec.masks, (m) => m.name === edit.name, `There is no mask “${edit.name}” to remove.`));
+    }
     case 'replace':
       return edit.spec;
   }
+}
+
+/** A list with `item` in place of the one `same` picks, or at its end. */
+function withItem<T>(list: readonly T[] | undefined, item: T, same: (old: T) => boolean): T[] {
+  const at = (list ?? []).findIndex(same);
+  return at < 0 ? [...(list ?? []), item] : (list ?? []).map((old, i) => (i === at ? item : old));
+}
+
+function withoutItem<T>(list: readonly T[] | undefined, gone: (item: T) => boolean, missing: string): T[] {
+  if (!list?.some(gone)) throw new Error(missing);
+  return list.filter((item) => !gone(item));
+}
+
+/** The spec with an optional list replaced, left out when it is empty (as a spec that never had one). */
+function withList<K extends 'maps' | 'masks'>(spec: GroomSpec, key: K, list: NonNullable<GroomSpec[K]>): GroomSpec {
+  if (list.length > 0) return { ...spec, [key]: list };
+  const { [key]: _gone, ...rest } = spec;
+  return rest as GroomSpec;
 }
 
 /** The name the groom's one block of settings carries when it becomes the first of several sets. */
@@ -281,6 +316,14 @@ function describeOne(before: GroomSpec, edit: SpecEdit): string {
     }
     case 'remove-guide-set':
       return `Delete guide set “${before.guideSets?.[edit.index]?.name ?? edit.index + 1}”`;
+    case 'set-map':
+      return edit.label ?? (before.maps?.some((m) => m.attribute === edit.map.attribute) ? `Paint the ${edit.map.attribute} map` : `Add a ${edit.map.attribute} map`);
+    case 'remove-map':
+      return `Remove the ${edit.attribute} map`;
+    case 'set-mask':
+      return edit.label ?? (before.masks?.some((m) => m.name === edit.mask.name) ? `Paint mask “${edit.mask.name}”` : `Add mask “${edit.mask.name}”`);
+    case 'remove-mask':
+      return `Remove mask “${edit.name}”`;
     case 'replace':
       return edit.label;
   }

@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseGroomSpec, prepareGroomSurface, transferReportText, transferSpec, withoutUv, type SurfaceIdentity } from '@/lib/groom';
 import type { TriangleMesh } from '@/lib/field';
-import { decodeMap, encodeMap } from '@/lib/groom/place/maps';
+import { decodeMap, decodeMask, encodeMap, encodeMask } from '@/lib/groom/place/maps';
 import { carryMaps } from '@/lib/groom/transfer/maps';
 import { identityOfMesh } from '@/lib/groom/transfer/identity';
 import { gridPlane } from '@/tests/fixtures/shapes';
@@ -68,6 +68,23 @@ describe('painted maps travel with the groom', () => {
       expect(Math.abs(length[v] - (1 + z))).toBeLessThanOrEqual(2 / 65535 + 1e-6);
       expect(Math.abs(width[v] - (0.5 + x * x))).toBeLessThanOrEqual(1 / 255 + 1e-6);
     }
+  });
+
+  it('carries a painted mask as a map: by polygon code for code, by the nearest point within a code step, the set still naming it', () => {
+    const p = a.mesh.positions, nV = p.length / 3;
+    const cap = Float64Array.from({ length: nV }, (_x, v) => Math.max(0, Math.min(1, 2 * p[3 * v + 2])));
+    const masked = parseGroomSpec({ specVersion: 3, units: 'cm', upAxis: 'z', field: {}, masks: [encodeMask('cap', cap, a.mesh)], guideSets: [{ name: 'crown', region: { mask: 'cap' } }] });
+    const sculpted = transferSphere(RINGS, SEGMENTS, { sculpt: ([x, y, z]) => [1.1 * x, y, 0.9 * z] });
+    const byPolygon = transferSpec(masked, side(a), side(sculpted));
+    expect(byPolygon.report.masks).toEqual([{ path: 'masks[0]', name: 'cap', how: 'polygon' }]);
+    expect(byPolygon.spec.masks![0].data).toBe(masked.masks![0].data);
+    expect(byPolygon.spec.guideSets![0].region).toEqual({ mask: 'cap' });
+    const c = transferSphere(RINGS, SEGMENTS, { split: 'bc', asTriangles: true, shift: 7, scale: 2, translation: [1, 0, 0] });
+    const moved = transferSpec(masked, side(a, withoutUv(a.identity)), side(c, withoutUv(c.identity)));
+    expect(moved.report.masks![0].how).toBe('closest point');
+    const after = decodeMask(moved.spec.masks![0], c.mesh);
+    // The unit sphere's cap, 2 × larger and moved by (1, 0, 0): twice quantised at 8 bits, and read across faces where the clamp bends it (a face is about 0.2 across).
+    for (let v = 0; v < after.length; v++) expect(Math.abs(after[v] - Math.max(0, Math.min(1, c.mesh.positions[3 * v + 2])))).toBeLessThanOrEqual(2 / 255 + 0.05);
   });
 
   it('refuses a map that was not painted on the old surface', () => {

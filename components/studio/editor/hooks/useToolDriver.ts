@@ -7,6 +7,7 @@ import { useCallback, useEffect, useMemo, useRef, type RefObject } from 'react';
 import type { EditorState } from '@/lib/studio/client/editor-state';
 import type { FeatureRef, Vec3 } from '@/lib/studio/client/features';
 import { markAsked, startDragTiming } from '@/lib/studio/client/drag-timing';
+import { preparePaintSurface, type PaintSurface } from '@/lib/studio/client/paint';
 import type { OpenedSurface, SolveReport } from '@/lib/studio/client/protocol';
 import { nearestCorner, vertexPoint } from '@/lib/studio/client/surface-geometry';
 import { TOOLS, type SurfaceHit, type ToolContext, type ToolId, type ToolOptions } from '@/lib/studio/client/tools';
@@ -27,6 +28,7 @@ import {
   type SessionStep,
   type ToolSession,
 } from '@/lib/studio/client/tools/session';
+import { strokeInView, type TintState } from '@/lib/studio/client/tools/tint';
 import type { StageApi } from '../../scene/Stage';
 import type { MarkerHandlers } from '../EditorScene';
 import { useLatest, useLiveState } from './useLiveState';
@@ -47,6 +49,8 @@ export interface ToolDriver {
   discardDraft(): void;
   /** Puts the index budget's remainder at the surface point in the middle of the view. */
   placeRemainderAtCentre(): void;
+  /** The tint stroke being dragged: its values (changed in place; `dabs` counts the changes), or null. */
+  readonly painting: ReturnType<typeof strokeInView>;
 }
 
 export function useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice }: {
@@ -59,6 +63,12 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
   onNotice: (words: string | null) => void;
 }): ToolDriver {
   const [session, getSession, setSession] = useLiveState<ToolSession>(() => startSession());
+  // The brush's view of the surface is prepared once per surface, when the brush is first used.
+  const paintSurface = useRef<{ surface: OpenedSurface; paint: PaintSurface } | null>(null);
+  const paintOf = useCallback((opened: OpenedSurface): PaintSurface => {
+    if (paintSurface.current?.surface !== opened) paintSurface.current = { surface: opened, paint: preparePaintSurface({ positions: opened.positions, triangles: opened.triangles }) };
+    return paintSurface.current.paint;
+  }, []);
   const latest = useLatest({ surface, solve, options, onNotice });
   const solveBefore = useRef<SolveReport | null>(null);
 
@@ -68,7 +78,8 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
       const { surface: opened, solve: solved, options: chosen, onNotice: say } = latest.current;
       if (!opened) return false;
       const before = getSession();
-      const step = make(before, { editor: getEditor(), options: chosen, surface: opened, solve: solved });
+      const paint = before.tool === 'tint' ? paintOf(opened) : undefined;
+      const step = make(before, { editor: getEditor(), options: chosen, surface: opened, solve: solved, ...(paint ? { paint } : {}) });
       if (!step) return false;
       if (!before.drag && step.session.drag) {
         solveBefore.current = solved;
@@ -83,7 +94,7 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
       if (holds !== holdsPointer(before)) stage.current?.setNavigation(!holds);
       return true;
     },
-    [getEditor, getSession, latest, setEditor, setSession, stage],
+    [getEditor, getSession, latest, paintOf, setEditor, setSession, stage],
   );
 
   const hitOf = useCallback(
@@ -166,5 +177,6 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
     finishDraft: useCallback(() => void run((s, c) => finishDraft(s, c)), [run]),
     discardDraft: useCallback(() => void run((s, c) => discardDraft(s, c)), [run]),
     placeRemainderAtCentre,
+    painting: session.tool === 'tint' ? strokeInView(session.state as TintState) : null,
   };
 }

@@ -9,6 +9,7 @@ import { pinTool } from './pin';
 import { remainderTool } from './remainder';
 import { saddleTool } from './saddle';
 import { singularityTool } from './singularity';
+import { tintTool } from './tint';
 import type { Tool, ToolId } from './tool';
 import { whorlTool } from './whorl';
 
@@ -27,10 +28,11 @@ export const TOOLS: Readonly<Record<ToolId, AnyTool>> = {
   flow: flowTool,
   pin: pinTool,
   remainder: remainderTool,
+  tint: tintTool,
 };
 
 /** The tools on the rail, each with its key; the remainder tool is picked from the budget card instead. */
-export const RAIL_TOOLS: readonly AnyTool[] = [lookTool, whorlTool, saddleTool, singularityTool, partingTool, crestTool, flowTool, pinTool];
+export const RAIL_TOOLS: readonly AnyTool[] = [lookTool, whorlTool, saddleTool, singularityTool, partingTool, crestTool, flowTool, pinTool, tintTool];
 
 /** The rail's tool picked by a key (any case), or undefined. */
 export function toolOfKey(key: string): AnyTool | undefined {

@@ -5,10 +5,11 @@
 import type { PinAttribute } from '@/lib/groom/spec/spec';
 import type { EditorState } from '../editor-state';
 import type { FeatureRef, Vec3 } from '../features';
+import type { BrushOptions, PaintSurface } from '../paint';
 import type { OpenedSurface, SolveReport } from '../protocol';
 import type { SpecEdit } from '../spec-edits';
 
-export type ToolId = 'look' | 'whorl' | 'saddle' | 'singularity' | 'parting' | 'crest' | 'flow' | 'pin' | 'remainder';
+export type ToolId = 'look' | 'whorl' | 'saddle' | 'singularity' | 'parting' | 'crest' | 'flow' | 'pin' | 'remainder' | 'tint';
 
 /** The choices the tool rail offers for the tools that need them. */
 export interface ToolOptions {
@@ -18,6 +19,8 @@ export interface ToolOptions {
   readonly value: number;
   /** Whether a parting or crest being drawn closes into a loop. */
   readonly closed: boolean;
+  /** The tint brush's choices (absent: the brush has nothing to paint yet). */
+  readonly brush?: BrushOptions;
 }
 
 /** Where the pointer meets the surface. */
@@ -37,6 +40,8 @@ export interface ToolContext {
   readonly options: ToolOptions;
   readonly surface: Pick<OpenedSurface, 'meanEdge'>;
   readonly solve: Pick<SolveReport, 'budget'> | null;
+  /** The surface prepared for the tint brush (absent until the surface is open). */
+  readonly paint?: PaintSurface;
 }
 
 /** A change a tool asks of the editor state; `apply` is checked with the groom schema first. */

@@ -61,7 +61,7 @@ describe('dragging a marker, with any tool but those that draw lines', () => {
 
 describe('keys and picking tools', () => {
   it('each rail tool has its own key; the remainder tool has none', () => {
-    expect(RAIL_TOOLS.map((tool) => tool.shortcut)).toEqual(['V', 'W', 'S', 'I', 'P', 'C', 'F', 'N']);
+    expect(RAIL_TOOLS.map((tool) => tool.shortcut)).toEqual(['V', 'W', 'S', 'I', 'P', 'C', 'F', 'N', 'T']);
     expect(toolOfKey('w')?.id).toBe('whorl');
     expect(toolOfKey('x')).toBeUndefined();
     expect(TOOLS.remainder.shortcut).toBeNull();
