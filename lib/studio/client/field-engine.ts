@@ -23,11 +23,9 @@ import {
   edgePath,
   fieldRequestFromSpec,
   growGuides,
-  growthMask,
   prepareGroomSurface,
   solveGroomField,
   vertexOfPlace,
-  CENTIMETRES_PER_UNIT,
   downOf,
   detectMirrorPlane,
   type GroomSpec,
@@ -35,6 +33,7 @@ import {
 } from '@/lib/groom';
 import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
+import { expectedGuideCount } from './guide-estimate';
 import { errorOf, proofOf } from './field-reports';
 import type { DisplayOptions, FoundMirror, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes, previewOf } from './surface-opening';
@@ -285,7 +284,7 @@ export class FieldEngine {
     const t0 = now();
     const surface = this.requireSurface();
     const solved = this.fullySolved(spec);
-    const expected = this.expectedGuides(spec, surface);
+    const expected = expectedGuideCount(spec, surface);
     this.progress({ stage: `growing about ${expected.toLocaleString('en-GB')} guides`, fraction: null, expectedMilliseconds: expected * this.msPerGuide });
     const grown = growGuides(surface, solved, spec, rootsMesh ? { rootsFrom: rootsMesh } : {});
     const spent = now() - t0;
@@ -307,22 +306,6 @@ export class FieldEngine {
       this.roots = { key, mesh: 'mesh' in loaded ? loaded.mesh : readSurface(loaded.bytes, loaded.fileName).mesh };
     }
     return this.roots.mesh;
-  }
-
-  private expectedGuides(spec: GroomSpec, surface: GroomSurface): number {
-    // Each guide set on its groups (a side of a parting is counted as the whole surface: an estimate only).
-    const blocks = spec.guideSets ? spec.guideSets.map((set) => ({ guides: set.guides, groups: set.region.groups ?? [] })) : [{ guides: spec.guides, groups: spec.guides.regions }];
-    return blocks.reduce((sum, { guides, groups }) => {
-      if (guides.count !== undefined) return sum + guides.count;
-      let area = 0;
-      try {
-        const mask = growthMask(surface.mesh, groups);
-        for (let f = 0; f < mask.length; f++) if (mask[f]) area += surface.faceArea[f];
-      } catch {
-        area = this.requireDrawing().totalArea;
-      }
-      return sum + Math.round((guides.density ?? 1) * area * CENTIMETRES_PER_UNIT[spec.units] ** 2);
-    }, 0);
   }
 
   /**

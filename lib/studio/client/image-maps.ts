@@ -18,14 +18,13 @@ export const MAP_ATTRIBUTE_WORDS: Readonly<Record<MapAttribute, string>> = {
 };
 
 /**
- * The edit that puts a map into the spec as one undoable step: the map of that attribute is
- * replaced (the spec holds one per attribute), every other map kept in its place.
+ * The edit that puts a map into the spec as one undoable step: the brush's own `set-map` edit (the
+ * map of that attribute replaced in its place — the spec holds one per attribute — or added at the
+ * end, every other map kept), labelled with the image it came from.
  */
 export function imageMapEdit(spec: GroomSpec, map: MapSpec, fileName: string): SpecEdit {
-  const maps = spec.maps ?? [];
-  const at = maps.findIndex((m) => m.attribute === map.attribute);
-  const next = at >= 0 ? maps.map((m, i) => (i === at ? map : m)) : [...maps, map];
-  return { type: 'replace', spec: { ...spec, maps: next }, label: `${at >= 0 ? 'Replace' : 'Add'} the ${map.attribute} map from ${fileName}` };
+  const replacing = (spec.maps ?? []).some((m) => m.attribute === map.attribute);
+  return { type: 'set-map', map, label: `${replacing ? 'Replace' : 'Add'} the ${map.attribute} map from ${fileName}` };
 }
 
 /** The bytes of a file as base64 (RFC 4648), as the image map route takes them. */

@@ -5,6 +5,7 @@ import { parseGroomSpec } from '@/lib/groom/spec/spec';
 import { MAP_ATTRIBUTES } from '@/lib/groom/spec/maps';
 import { applyCheckedEdit, createEditorState, currentSpec, undo, undoLabel } from '@/lib/studio/client/editor-state';
 import { MAP_ATTRIBUTE_WORDS, fileToBase64, imageMapEdit } from '@/lib/studio/client/image-maps';
+import { addSingularity } from '@/lib/studio/client/spec-edits';
 
 // The editor's side of a map read from an image (components/studio/editor/ImageMapControl.tsx):
 // the map the server answers enters the spec as one undoable edit.
@@ -29,6 +30,20 @@ describe('a map from an image in the editor', () => {
     expect(currentSpec(step.state).maps!.map((m) => [m.attribute, m.data])).toEqual([['length', second.data], ['width', width.data]]);
     expect(currentSpec(undo(step.state)).maps!.map((m) => m.data)).toEqual([first.data, width.data]);
     expect(currentSpec(undo(undo(undo(step.state)))).maps).toBeUndefined();
+  });
+
+  it('is the brush’s own set-map edit, carrying the map alone, so an edit made while the image was read is kept', () => {
+    const spec = parseGroomSpec(fox.spec);
+    const map = encodeMap('length', new Float64Array(nV).fill(1.5), mesh, 16, { low: 0.5, high: 2.5 });
+    // The edit is made from the spec as it was when the image was sent …
+    const edit = imageMapEdit(spec, map, 'fur-length.png');
+    expect(edit).toEqual({ type: 'set-map', map, label: 'Add the length map from fur-length.png' });
+    // … and the groomer placed a whorl before the server answered: a whole-spec replace would drop it.
+    let state = applyCheckedEdit(createEditorState(spec), addSingularity([0, 1, 0], 1)).state;
+    state = applyCheckedEdit(state, edit).state;
+    expect(currentSpec(state).field.singularities).toHaveLength(spec.field.singularities.length + 1);
+    expect(currentSpec(state).maps!.map((m) => m.data)).toEqual([map.data]);
+    expect(undoLabel(state)).toBe('Add the length map from fur-length.png');
   });
 
   it('names every attribute a map may drive', () => {
