@@ -61,7 +61,7 @@ export {
   type MirrorPlane,
 } from './spec/symmetry';
 export { detectMirrorPlane, mirrorMismatch, SYMMETRIC_MISMATCH, type DetectedMirror } from './place/mirror-plane';
-export { mirrorSpecFeatures, mirrorSingularity, mirrorPin, mirrorCurve, mirrorStroke, isOnPlane, pointOfPlace } from './place/mirror-features';
+export { mirrorSpecFeatures, mirrorSingularity, mirrorPin, mirrorCurve, mirrorStroke, isOnPlane, pointOfPlace, twistFaceOf } from './place/mirror-features';
 export { mirroredRoots } from './grow/mirror-roots';
 export { setRegionMask } from './place/set-region';
 export { growGuides, type Guides, type GrowOptions, type GrowResult } from './grow/guides';

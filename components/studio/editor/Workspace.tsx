@@ -42,6 +42,7 @@ import { useGuides } from './hooks/useGuides';
 import { useLiveState } from './hooks/useLiveState';
 import { useShortcuts } from './hooks/useShortcuts';
 import { useToolDriver, type ToolDriver } from './hooks/useToolDriver';
+import { useTwinSurface } from './hooks/useTwinSurface';
 import { useSteadyFrame } from './hooks/useSteadyFrame';
 
 // The field worker's code starts loading as soon as the editor's code runs, before the page is
@@ -67,6 +68,7 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
   // same centre and radius, so the view does not jump when the prepared surface replaces it).
   const view = useSteadyFrame(surface ?? field.preview);
   const actions = useEditorActions({ getEditor, setEditor, surface, solve, stage, onAdded: () => setTab('features') });
+  useTwinSurface({ client: field.client, surface, on: !!spec.symmetry, getEditor, setEditor, onFailure: setNotice });
   // The brush starts eight mean edges across once the surface is open; the groomer's choices are kept in the tool options.
   const brush = useMemo(() => toolOptions.brush ?? (surface ? defaultBrush(surface.meanEdge) : null), [surface, toolOptions.brush]);
   const options = useMemo(() => (brush && !toolOptions.brush ? { ...toolOptions, brush } : toolOptions), [brush, toolOptions]);

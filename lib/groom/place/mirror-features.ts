@@ -37,11 +37,20 @@ export function isOnPlane(surface: GroomSurface, plane: MirrorPlane, place: Plac
   return vertexOfPlace(surface, { point }, path) === vertexOfPlace(surface, { point: mirrorPoint(plane, point) }, path);
 }
 
+/**
+ * The face a twist without `twistFrom` is fixed in at vertex v: its first face (lib/field's
+ * `twistReference`), −1 for a vertex of no face. The editor's twin sides read it from the field
+ * worker to state a mirror's `twistFrom` as `mirrorSingularity` does.
+ */
+export function twistFaceOf(surface: GroomSurface, v: number): number {
+  const h = surface.field.topology.vertexHalfedge[v];
+  return h < 0 ? -1 : (h / 3) | 0;
+}
+
 /** Direction from vertex v into its first face (the face the field's twist is fixed in). */
 function outwardOfFirstFace(surface: GroomSurface, v: number): [number, number, number] {
-  const t = surface.field.topology;
-  const f = (t.vertexHalfedge[v] / 3) | 0;
-  const p = surface.mesh.positions, tri = t.triangles;
+  const f = twistFaceOf(surface, v);
+  const p = surface.mesh.positions, tri = surface.field.topology.triangles;
   const out: [number, number, number] = [0, 0, 0];
   for (let k = 0; k < 3; k++) out[k] = (p[3 * tri[3 * f] + k] + p[3 * tri[3 * f + 1] + k] + p[3 * tri[3 * f + 2] + k]) / 3 - p[3 * v + k];
   return out;

@@ -3,6 +3,7 @@
 // become one history entry when the pointer is let go). Every function returns a new state.
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { featureExists, sameFeature, type FeatureRef } from './features';
+import type { TwinSurface } from './mirror-edits';
 import { applySpecEdit, checkedSpecEdit, describeSpecEdit, refusalText, type SpecEdit } from './spec-edits';
 
 export interface HistoryEntry {
@@ -18,6 +19,8 @@ export interface EditorState {
   readonly selection: FeatureRef | null;
   /** While a drag runs: the entry before it. Its intermediate specs replace `present` without history. */
   readonly gestureBase: HistoryEntry | null;
+  /** The open surface as twin sides read it (not history): mirrored twists are then exact (see `applySpecEdit`). */
+  readonly twinSurface?: TwinSurface;
 }
 
 /** Most undo steps kept; the oldest go first. */
@@ -29,6 +32,12 @@ export function createEditorState(spec: GroomSpec, label = 'Opened'): EditorStat
 
 export function currentSpec(state: EditorState): GroomSpec {
   return state.present.spec;
+}
+
+/** The state with the open surface twin sides read (null: none known, mirrors stated by points alone). */
+export function withTwinSurface(state: EditorState, twinSurface: TwinSurface | null): EditorState {
+  const { twinSurface: _old, ...rest } = state;
+  return twinSurface ? { ...rest, twinSurface } : rest;
 }
 
 // An added feature is selected: it is appended, so its number is the length of its list before
@@ -52,7 +61,7 @@ function selectionAfter(before: GroomSpec, spec: GroomSpec, selection: FeatureRe
  */
 export function applyEdit(state: EditorState, edit: SpecEdit, spec?: GroomSpec): EditorState {
   const base = state.gestureBase ? endGesture(state) : state;
-  const next = spec ?? applySpecEdit(base.present.spec, edit);
+  const next = spec ?? applySpecEdit(base.present.spec, edit, base.twinSurface);
   const entry: HistoryEntry = { spec: next, label: describeSpecEdit(base.present.spec, edit) };
   return {
     past: [...base.past, base.present].slice(-HISTORY_LIMIT),
@@ -60,6 +69,7 @@ export function applyEdit(state: EditorState, edit: SpecEdit, spec?: GroomSpec):
     future: [],
     selection: selectionAfter(base.present.spec, next, base.selection, edit),
     gestureBase: null,
+    ...(base.twinSurface ? { twinSurface: base.twinSurface } : {}),
   };
 }
 
@@ -71,13 +81,13 @@ export interface CheckedStep {
 
 /** Applies an edit as one undoable step if the groom schema accepts the result (see `checkedSpecEdit`). */
 export function applyCheckedEdit(state: EditorState, edit: SpecEdit): CheckedStep {
-  const checked = checkedSpecEdit(state.present.spec, edit);
+  const checked = checkedSpecEdit(state.present.spec, edit, state.twinSurface);
   return checked.ok ? { state: applyEdit(state, edit, checked.spec), refused: null } : { state, refused: refusalText(checked.problems) };
 }
 
 /** Shows a step of a gesture if the groom schema accepts the result. */
 export function previewCheckedEdit(state: EditorState, edit: SpecEdit): CheckedStep {
-  const checked = checkedSpecEdit(state.present.spec, edit);
+  const checked = checkedSpecEdit(state.present.spec, edit, state.twinSurface);
   return checked.ok ? { state: previewEdit(state, edit, checked.spec), refused: null } : { state, refused: refusalText(checked.problems) };
 }
 
@@ -87,7 +97,7 @@ export function previewCheckedEdit(state: EditorState, edit: SpecEdit): CheckedS
  */
 export function previewEdit(state: EditorState, edit: SpecEdit, spec?: GroomSpec): EditorState {
   const base = state.gestureBase ?? state.present;
-  const next = spec ?? applySpecEdit(state.present.spec, edit);
+  const next = spec ?? applySpecEdit(state.present.spec, edit, state.twinSurface);
   return { ...state, gestureBase: base, present: { spec: next, label: describeSpecEdit(base.spec, edit) } };
 }
 

@@ -28,6 +28,7 @@ import {
   vertexOfPlace,
   downOf,
   detectMirrorPlane,
+  twistFaceOf,
   type GroomSpec,
   type GroomSurface,
 } from '@/lib/groom';
@@ -35,7 +36,7 @@ import type { Vec3 } from './features';
 import { FieldDrawing, type DrawableField } from './field-drawing';
 import { expectedGuideCount } from './guide-estimate';
 import { errorOf, proofOf } from './field-reports';
-import type { DisplayOptions, FoundMirror, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, WorkerError } from './protocol';
+import type { DisplayOptions, FoundMirror, GrainFollow, GrainReading, GrownGuides, InspectedSurface, OpenedSurface, ProgressReport, RootsSource, SingularityCheck, SolveReport, SurfaceSource, TwistFaces, WorkerError } from './protocol';
 import { describeSurface, loadSurfaceBytes, previewOf } from './surface-opening';
 
 
@@ -320,6 +321,14 @@ export class FieldEngine {
     const found = detectMirrorPlane(surface);
     const [x, y, z] = found.plane.normal;
     return { normal: [x, y, z], offset: found.plane.offset, mismatch: found.mismatch, symmetric: found.symmetric, seam: surface.meanEdge };
+  }
+
+  /** Per welded vertex of the open surface, the face a twist without `twistFrom` is fixed in (see TwistFaces). */
+  twistFaces(): TwistFaces {
+    const surface = this.requireSurface();
+    const firstFace = new Int32Array(surface.field.topology.vertexCount);
+    for (let v = 0; v < firstFace.length; v++) firstFace[v] = twistFaceOf(surface, v);
+    return { firstFace };
   }
 
   readGrain(spec: GroomSpec, follow: GrainFollow): GrainReading {

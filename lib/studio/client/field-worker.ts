@@ -52,6 +52,8 @@ async function answer(request: WorkerRequest): Promise<unknown> {
       return engine.readGrain(request.spec, request.follow);
     case 'find-mirror':
       return engine.findMirror();
+    case 'twist-faces':
+      return engine.twistFaces();
   }
 }
 

@@ -2,22 +2,64 @@
 // plane as one edit. Partners are found by geometry, never stored: a feature's partner is the one
 // of the same kind (and index, or pin attribute) whose points are its mirror image. So turning
 // symmetry off leaves two independent features, and turning it on again pairs them again.
+import { buildNearestVertex, type NearestVertex } from '@/lib/groom/place/nearest-vertex';
 import type { CurveSpec, GroomSpec, PinSpec, SingularitySpec, StrokeSpec, SymmetrySpec } from '@/lib/groom/spec/spec';
-import { mirrorCurvePoints, mirrorPinPoint, mirrorSingularityPoint, mirrorStroke, planeDistance, planeOfSymmetry, type MirrorPlane } from '@/lib/groom/spec/symmetry';
+import { mirrorCurvePoints, mirrorDirection, mirrorPinPoint, mirrorSingularityPoint, mirrorStroke, planeDistance, planeOfSymmetry, type MirrorPlane } from '@/lib/groom/spec/symmetry';
 import type { FeatureKind, FeatureRef } from './features';
+import type { OpenedSurface, TwistFaces } from './protocol';
+
+/**
+ * What twin sides read of the open surface: where a twist without `twistFrom` is fixed. A twist is
+ * an angle measured from a direction at its vertex — its `twistFrom`, else the direction into the
+ * vertex's first face — and the mirror of the first face need not be the mirror vertex's first
+ * face, so a mirror stated by points alone is not the exact mirror image. With this the twin gets
+ * the mirrored first-face direction as its `twistFrom`, as lib/groom's `mirrorSingularity` gives it.
+ */
+export interface TwinSurface {
+  /** The welded vertex a point snaps to, as the worker snaps a spec's point (nearest; lowest number on a tie). */
+  vertexOf(point: readonly number[]): number;
+  /** The direction from vertex v into the face its twist is fixed in (to the face's centroid); null for a vertex of no face. */
+  twistOrigin(v: number): [number, number, number] | null;
+}
+
+/**
+ * The open surface as twin sides read it: the worker's positions and triangles (the prepared
+ * surface's own, in its numbering) and its first faces (`twist-faces`). The nearest-vertex grid is
+ * built at the first look-up. Guarantees: the vertex and the direction `mirrorSingularity` uses
+ * for the same point on the same surface, bit for bit (the same arithmetic in the same order).
+ */
+export function twinSurfaceOf(opened: Pick<OpenedSurface, 'positions' | 'triangles'>, faces: TwistFaces): TwinSurface {
+  const p = opened.positions, tri = opened.triangles;
+  let nearest: NearestVertex | null = null;
+  return {
+    vertexOf(point) {
+      nearest ??= buildNearestVertex(p);
+      return nearest.find(point[0], point[1], point[2]).vertex;
+    },
+    twistOrigin(v) {
+      const f = faces.firstFace[v];
+      if (f === undefined || f < 0) return null;
+      const out: [number, number, number] = [0, 0, 0];
+      for (let k = 0; k < 3; k++) out[k] = (p[3 * tri[3 * f] + k] + p[3 * tri[3 * f + 1] + k] + p[3 * tri[3 * f + 2] + k]) / 3 - p[3 * v + k];
+      return out;
+    },
+  };
+}
 
 export interface Mirror {
   readonly plane: MirrorPlane;
   /** Places nearer the plane than this (surface units) are on it: not doubled, no partner. */
   readonly seam: number;
+  /** The open surface, when known: a twisted singularity's mirror then gets its exact `twistFrom`. */
+  readonly surface?: TwinSurface;
 }
 
 /** A feature's value, whatever its kind. */
 export type FeatureValue = SingularitySpec | PinSpec | CurveSpec | StrokeSpec;
 
-/** The mirror the spec's `symmetry` asks for; null when symmetry is off. */
-export function mirrorOf(spec: GroomSpec): Mirror | null {
-  return spec.symmetry ? { plane: planeOfSymmetry(spec.symmetry), seam: spec.symmetry.seam ?? 0 } : null;
+/** The mirror the spec's `symmetry` asks for, on the open surface when it is given; null when symmetry is off. */
+export function mirrorOf(spec: GroomSpec, surface?: TwinSurface | null): Mirror | null {
+  return spec.symmetry ? { plane: planeOfSymmetry(spec.symmetry), seam: spec.symmetry.seam ?? 0, ...(surface ? { surface } : {}) } : null;
 }
 
 export function featureValue(spec: GroomSpec, ref: FeatureRef): FeatureValue | undefined {
@@ -56,15 +98,24 @@ function onPlane(mirror: Mirror, points: readonly (readonly number[])[]): boolea
 /**
  * The mirror image of a feature (see lib/groom/spec/symmetry.ts: a whorl's twist kept with its
  * handedness reversed, curves and strokes point by point); null when it lies on the plane (every
- * point within the seam) or is placed by file vertices.
+ * point within the seam) or is placed by file vertices. A twisted singularity without `twistFrom`
+ * gets, on a mirror that knows the surface, the mirror image of its first-face direction as its
+ * twin's `twistFrom` — exactly the singularity lib/groom's `mirrorSingularity` makes.
  */
 export function mirroredValue(mirror: Mirror, kind: FeatureKind, value: FeatureValue): FeatureValue | null {
   const points = pointsOf(kind, value);
   if (!points || onPlane(mirror, points)) return null;
-  if (kind === 'singularity') return mirrorSingularityPoint(mirror.plane, value as SingularitySpec);
+  if (kind === 'singularity') return mirroredSingularity(mirror, value as SingularitySpec);
   if (kind === 'pin') return mirrorPinPoint(mirror.plane, value as PinSpec);
   if (kind === 'stroke') return mirrorStroke(mirror.plane, value as StrokeSpec);
   return mirrorCurvePoints(mirror.plane, value as CurveSpec);
+}
+
+function mirroredSingularity(mirror: Mirror, s: SingularitySpec): SingularitySpec {
+  const image = mirrorSingularityPoint(mirror.plane, s)!;
+  if (s.twist === undefined || s.twistFrom || !mirror.surface) return image;
+  const from = mirror.surface.twistOrigin(mirror.surface.vertexOf(s.point!));
+  return from ? { ...image, twistFrom: mirrorDirection(mirror.plane, from) } : image;
 }
 
 function sameKindOf(kind: FeatureKind, a: FeatureValue, b: FeatureValue): boolean {

@@ -45,7 +45,8 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'grow'; readonly spec: GroomSpec; readonly rootsFrom?: RootsSource }
   | { readonly id: number; readonly type: 'curve-path'; readonly points: readonly Vec3[]; readonly closed: boolean }
   | { readonly id: number; readonly type: 'read-grain'; readonly spec: GroomSpec; readonly follow: GrainFollow }
-  | { readonly id: number; readonly type: 'find-mirror' };
+  | { readonly id: number; readonly type: 'find-mirror' }
+  | { readonly id: number; readonly type: 'twist-faces' };
 
 /**
  * What a solve request carries of a spec: all but its painted maps, guide sets and symmetry,
@@ -239,6 +240,15 @@ export interface FoundMirror {
   readonly seam: number;
 }
 
+/**
+ * Where the open surface fixes a twist that has no `twistFrom`: per welded vertex, the face it is
+ * measured in (its first face, `twistFaceOf`), −1 for a vertex of no face. Twin sides read it to
+ * give a twisted singularity's mirror the `twistFrom` that makes it its exact mirror image.
+ */
+export interface TwistFaces {
+  readonly firstFace: Int32Array;
+}
+
 export interface ResultOf {
   open: OpenedSurface;
   inspect: InspectedSurface;
@@ -247,4 +257,5 @@ export interface ResultOf {
   'curve-path': CurvePath;
   'read-grain': GrainReading;
   'find-mirror': FoundMirror;
+  'twist-faces': TwistFaces;
 }

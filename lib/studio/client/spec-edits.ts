@@ -3,7 +3,7 @@
 // is accepted. The spec is never changed in place.
 import { validateGroomSpec, type CurveSpec, type GroomSpec, type GuideSetSpec, type GuideSettings, type MapAttribute, type MapSpec, type MaskSpec, type PinSpec, type SingularitySpec, type SpecProblem, type StrokeSpec, type SymmetrySpec } from '@/lib/groom/spec/spec';
 import { CURVE_NAMES, SINGULARITY_NAMES, featureLabel, singularityKind, type FeatureKind, type FeatureRef, type Vec3 } from './features';
-import { mirrorOf, mirroredValue, partnerOf, type FeatureValue, type Mirror } from './mirror-edits';
+import { mirrorOf, mirroredValue, partnerOf, type FeatureValue, type Mirror, type TwinSurface } from './mirror-edits';
 
 export type CurveKind = 'parting' | 'crest';
 export type FieldSettings = Pick<GroomSpec['field'], 'order' | 'boundary' | 'rotation' | 'referenceDirection'>;
@@ -75,11 +75,13 @@ function curveList(kind: CurveKind): 'partings' | 'crests' {
  * gains its mirror image unless it lies on the plane; a changed or moved one takes its partner
  * (see `partnerOf`) along as its mirror image — or deletes it, when the change puts it on the
  * plane; a deleted one takes its partner with it. Features without a partner (made while symmetry
- * was off, or placed by file vertex) change alone. Throws RangeError for an edit that names a
+ * was off, or placed by file vertex) change alone. With the open `surface`, a twisted
+ * singularity's mirror is its exact mirror image (its `twistFrom` stated, see `mirroredValue`);
+ * without it the mirror is stated by points alone. Throws RangeError for an edit that names a
  * feature the spec lacks.
  */
-export function applySpecEdit(spec: GroomSpec, edit: SpecEdit): GroomSpec {
-  const mirror = mirrorOf(spec);
+export function applySpecEdit(spec: GroomSpec, edit: SpecEdit, surface?: TwinSurface | null): GroomSpec {
+  const mirror = mirrorOf(spec, surface);
   return mirror ? applyMirrored(spec, edit, mirror) : applyOne(spec, edit);
 }
 
@@ -335,10 +337,10 @@ export type CheckedEdit = { ok: true; spec: GroomSpec } | { ok: false; problems:
  * Applies an edit and checks the result with the groom library's schema, so that nothing the
  * server would refuse enters the editor. The accepted spec is the resolved one (defaults filled).
  */
-export function checkedSpecEdit(spec: GroomSpec, edit: SpecEdit): CheckedEdit {
+export function checkedSpecEdit(spec: GroomSpec, edit: SpecEdit, surface?: TwinSurface | null): CheckedEdit {
   let next: GroomSpec;
   try {
-    next = applySpecEdit(spec, edit);
+    next = applySpecEdit(spec, edit, surface);
   } catch (error) {
     return { ok: false, problems: [{ path: '(the whole spec)', message: (error as Error).message }] };
   }

@@ -1,8 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { parseGroomSpec, type GroomSpec, type SingularitySpec } from '@/lib/groom/spec/spec';
-import { applyCheckedEdit, createEditorState, currentSpec, endGesture, previewCheckedEdit, undo, undoLabel, type EditorState } from '@/lib/studio/client/editor-state';
+import { applyCheckedEdit, createEditorState, currentSpec, endGesture, previewCheckedEdit, undo, undoLabel, withTwinSurface, type EditorState } from '@/lib/studio/client/editor-state';
 import { addSingularity, moveFeature, type SpecEdit } from '@/lib/studio/client/spec-edits';
-import { partnerOf, mirrorOf, planeWords, symmetryOfPlane } from '@/lib/studio/client/mirror-edits';
+import { partnerOf, mirrorOf, planeWords, symmetryOfPlane, twinSurfaceOf, type TwinSurface } from '@/lib/studio/client/mirror-edits';
+import type { Vec3 } from '@/lib/studio/client/features';
+import { mirrorSpecFeatures } from '@/lib/groom/place/mirror-features';
+import { solveGroomField } from '@/lib/groom/place/request';
+import type { GroomSurface } from '@/lib/groom/place/surface';
+import type { MirrorPlane } from '@/lib/groom/spec/symmetry';
+import { mirrorSymmetricShape } from '@/tests/fixtures/shapes';
 import { FieldEngine } from '@/lib/studio/client/field-engine';
 import { DEMO_GROOMS } from '@/lib/groom/demo/grooms';
 import { surfaceToObj } from '@/lib/groom/demo/obj';
@@ -117,3 +123,76 @@ describe('the plane found on the open surface', () => {
     expect(planeWords(symmetry)).toBe('0.707x + 0.707y = 0.5');
   });
 });
+
+describe('a twisted whorl’s twin in the editor is its exact mirror image', () => {
+  // The editor reads where the open surface fixes a twist from the field worker (`twist-faces`,
+  // here the worker's FieldEngine itself) and states the twin's `twistFrom` as lib/groom's
+  // mirrorSpecFeatures does; the reference is that function and the field it solves to.
+  const X: MirrorPlane = { normal: [1, 0, 0], offset: 0 };
+  const open = async () => {
+    const engine = new FieldEngine(() => {});
+    const opened = await engine.open({ kind: 'bytes', bytes: new TextEncoder().encode(surfaceToObj(mirrorSymmetricShape(), 'symmetric')).buffer as ArrayBuffer, fileName: 'symmetric.obj' }, 'free');
+    return { surface: engine.prepared!, twin: twinSurfaceOf(opened, engine.twistFaces()) };
+  };
+  const twinnedOn = (twin: TwinSurface | null) => withTwinSurface(createEditorState(parseGroomSpec({ specVersion: 3, units: 'cm', field: {}, symmetry: { axis: 'x', seam: 0.01 } })), twin);
+  const spiral = (point: Vec3): SingularitySpec => ({ point, index: 1, twist: 40, handedness: 'clockwise' });
+  /** What mirrorSpecFeatures makes of the one whorl alone. */
+  const reference = (surface: GroomSurface, s: SingularitySpec) => mirrorSpecFeatures(parseGroomSpec({ specVersion: 3, units: 'cm', field: { singularities: [s] } }), surface, X).field.singularities;
+
+  it('on adding, twisting and dragging the whorl: the spec mirrorSpecFeatures gives, and fields mirrored within 1e-9', async () => {
+    const { surface, twin } = await open();
+    let state = step(twinnedOn(twin), addSingularity([0.7, 0.5, 0.5], 1));
+    state = step(state, { type: 'update-singularity', index: 0, singularity: spiral([0.7, 0.5, 0.5]) });
+    expect(undoLabel(state)).toBe('Change whorl 1 on both sides');
+    const pair = currentSpec(state).field.singularities;
+    expect(pair[1].twistFrom).toBeDefined();
+    expect(pair).toEqual(reference(surface, spiral([0.7, 0.5, 0.5])));
+    expect(mirrorGap(surface, currentSpec(state))).toBeLessThan(1e-9);
+    // A drag of the whorl: its vertex (and first face) change, the twin's twistFrom with them.
+    for (const point of [[0.65, 0.6, 0.5], [0.55, 0.7, 0.45]] as Vec3[]) {
+      state = previewCheckedEdit(state, moveFeature(currentSpec(state), { kind: 'singularity', index: 0 }, point)!).state;
+    }
+    state = endGesture(state);
+    expect(undoLabel(state)).toBe('Move whorl 1 on both sides');
+    expect(currentSpec(state).field.singularities).toEqual(reference(surface, spiral([0.55, 0.7, 0.45])));
+    expect(mirrorGap(surface, currentSpec(state))).toBeLessThan(1e-9);
+    // Moving the twin instead brings the whorl along, as the twin's mirror: still exact.
+    state = step(state, moveFeature(currentSpec(state), { kind: 'singularity', index: 1 }, [-0.7, 0.5, 0.5])!);
+    expect(currentSpec(state).field.singularities[0].twistFrom).toBeDefined();
+    expect(mirrorGap(surface, currentSpec(state))).toBeLessThan(1e-9);
+  });
+
+  it('without the surface the twin is stated by points alone, and its field is not the mirror image', async () => {
+    const { surface } = await open();
+    let state = step(twinnedOn(null), addSingularity([0.7, 0.5, 0.5], 1));
+    state = step(state, { type: 'update-singularity', index: 0, singularity: spiral([0.7, 0.5, 0.5]) });
+    expect(currentSpec(state).field.singularities[1].twistFrom).toBeUndefined();
+    // The twin's twist is fixed in its own first face, not the mirror of the whorl's (lib/groom/README.md, "Mirror symmetry").
+    expect(mirrorGap(surface, currentSpec(state))).toBeGreaterThan(1e-3);
+  });
+
+  it('keeps the surface through edits, undo and redo, and drops it when told', async () => {
+    const { twin } = await open();
+    let state = step(twinnedOn(twin), addSingularity([0.7, 0.5, 0.5], 1));
+    expect(state.twinSurface).toBe(twin);
+    expect(undo(state).twinSurface).toBe(twin);
+    expect(withTwinSurface(state, null).twinSurface).toBeUndefined();
+  });
+});
+
+/** The largest gap between a face's field vector reflected across x = 0 and its mirror face's vector (the shape is exactly symmetric). */
+function mirrorGap(surface: GroomSurface, spec: GroomSpec): number {
+  const d = solveGroomField(spec, surface).field.faceDirection;
+  const t = surface.field.topology.triangles, p = surface.mesh.positions;
+  const key = (a: number[]) => a.sort((x, y) => x - y).join(',');
+  const faceOf = new Map<string, number>();
+  for (let f = 0; f < t.length / 3; f++) faceOf.set(key([t[3 * f], t[3 * f + 1], t[3 * f + 2]]), f);
+  const nearest = surface.nearestVertex();
+  const mirrorVertex = (v: number) => nearest.find(-p[3 * v], p[3 * v + 1], p[3 * v + 2]).vertex;
+  let gap = 0;
+  for (let f = 0; f < t.length / 3; f++) {
+    const g = faceOf.get(key([0, 1, 2].map((k) => mirrorVertex(t[3 * f + k]))))!;
+    gap = Math.max(gap, Math.hypot(-d[3 * f] - d[3 * g], d[3 * f + 1] - d[3 * g + 1], d[3 * f + 2] - d[3 * g + 2]));
+  }
+  return gap;
+}
