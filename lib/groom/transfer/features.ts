@@ -2,7 +2,7 @@ import { GroomError } from '../errors';
 import { vertexOfPlace } from '../place/place';
 import { SKIN_QUERY_SIZE } from '../place/skin';
 import type { GroomSurface } from '../place/surface';
-import type { CurveSpec, GroomSpec, PlaceSpec, StrokeSpec, SurfacePosition } from '../spec/spec';
+import type { CurveSpec, GroomSpec, GuideSetSpec, PlaceSpec, StrokeSpec, SurfacePosition } from '../spec/spec';
 import { barycentricOnFace, pointOfPosition, positionOnFace, type SurfaceIdentity } from './identity';
 
 /**
@@ -11,11 +11,13 @@ import { barycentricOnFace, pointOfPosition, positionOnFace, type SurfaceIdentit
  * surface point nearest what was drawn.
  */
 
-export type FeatureKind = 'singularity' | 'pin' | 'curve vertex' | 'stroke sample';
+/** `parting side`: the `from` place of a guide set grown on the side of a parting. */
+export type FeatureKind = 'singularity' | 'pin' | 'curve vertex' | 'stroke sample' | 'parting side';
 
 /** Where a feature lives in the spec: the list, the item, and the point within a curve or stroke. */
 export interface FeatureSlot {
-  readonly list: 'singularities' | 'pins' | 'partings' | 'crests' | 'strokes';
+  /** `sides`: guide set `item`'s `region.from`. */
+  readonly list: 'singularities' | 'pins' | 'partings' | 'crests' | 'strokes' | 'sides';
   readonly item: number;
   readonly point?: number;
 }
@@ -133,6 +135,14 @@ export function anchorFeatures(spec: GroomSpec, surface: GroomSurface, identity:
     const path = `pins[${i}]`;
     out.push({ kind: 'pin', path, slot: { list: 'pins', item: i }, ...anchorPlace(surface, identity, pin, path) });
   });
+  spec.guideSets?.forEach((set, i) => {
+    const from = set.region.from;
+    if (!from) return;
+    const path = `guideSets[${i}].region.from`;
+    // A point names its side by the surface point nearest it (setRegionMask), not by a vertex, which may lie on the parting.
+    const at = from.point ? (fromStored(surface, identity, from.surface, from.point) ?? nearestOnSurface(surface, identity, from.point, path)) : anchorPlace(surface, identity, from, path);
+    out.push({ kind: 'parting side', path, slot: { list: 'sides', item: i }, ...at });
+  });
   return out;
 }
 
@@ -160,6 +170,9 @@ export function withSurfacePositions(spec: GroomSpec, surface: GroomSurface, ide
       strokes: spec.field.strokes.map((stroke, item) => ({ ...stroke, surface: along('strokes', item, stroke.points.length) })),
     },
     pins: spec.pins.map((pin, item) => ({ ...pin, surface: position({ list: 'pins', item }) })),
+    ...(spec.guideSets
+      ? { guideSets: spec.guideSets.map((set, item) => (set.region.from ? { ...set, region: { ...set.region, from: { ...set.region.from, surface: position({ list: 'sides', item }) } } } : set)) }
+      : {}),
   };
 }
 
@@ -180,6 +193,10 @@ function key(slot: FeatureSlot): string {
  * the same topology) with their `surface` position; a curve any of whose points was not carried is
  * left out whole (and listed in `droppedCurves`), as is a stroke left with fewer than two points.
  *
+ * A guide set grown on the side of partings keeps its side: its `from` at its landing, its
+ * partings renumbered as the partings left out close up; when its `from` was not carried, or none
+ * of its partings was, it grows on the whole surface instead (listed in `droppedSides`).
+ *
  * Guarantees: the result parses as a spec; features not in `landings` (or landing null) are gone.
  */
 export function placeFeatures(
@@ -187,7 +204,7 @@ export function placeFeatures(
   features: readonly AnchoredFeature[],
   landings: readonly (Landing | null)[],
   dropCurves: ReadonlySet<string>,
-): { spec: GroomSpec; droppedCurves: string[]; droppedStrokes: string[] } {
+): { spec: GroomSpec; droppedCurves: string[]; droppedStrokes: string[]; droppedSides: { path: string; reason: string }[] } {
   const landed = new Map<string, Landing | null>();
   features.forEach((f, i) => landed.set(key(f.slot), landings[i]));
   const place = (slot: FeatureSlot, keepVertex: boolean) => {
@@ -232,9 +249,31 @@ export function placeFeatures(
     const { point: _p, vertex: _v, surface: _s, ...rest } = pin;
     return p ? [{ ...rest, ...p }] : [];
   });
+  const partings = curves('partings');
+  // Each old parting's number among those kept (−1: left out).
+  const keptParting: number[] = [];
+  let next = 0;
+  spec.field.partings.forEach((_curve, i) => keptParting.push(droppedCurves.includes(`field.partings[${i}]`) ? -1 : next++));
+  const droppedSides: { path: string; reason: string }[] = [];
+  const side = (set: GuideSetSpec, i: number): GuideSetSpec => {
+    const region = set.region;
+    if (!region.from || !region.partings) return set;
+    const from = place({ list: 'sides', item: i }, region.from.vertex !== undefined);
+    const kept = region.partings.map((p) => keptParting[p]).filter((p) => p >= 0);
+    if (from && kept.length > 0) return { ...set, region: { partings: kept, from } };
+    const why = !from ? 'its place on the side (region.from) could not be carried' : `its ${region.partings.length === 1 ? 'parting was' : 'partings were'} left out`;
+    droppedSides.push({ path: `guideSets[${i}].region`, reason: `${why}, so the set grows on the whole surface` });
+    return { ...set, region: { groups: [] } };
+  };
   return {
-    spec: { ...spec, field: { ...spec.field, singularities, partings: curves('partings'), crests: curves('crests'), strokes }, pins },
+    spec: {
+      ...spec,
+      field: { ...spec.field, singularities, partings, crests: curves('crests'), strokes },
+      pins,
+      ...(spec.guideSets ? { guideSets: spec.guideSets.map(side) } : {}),
+    },
     droppedCurves,
     droppedStrokes,
+    droppedSides,
   };
 }

@@ -5,13 +5,20 @@ import type { GroomSpec, MapAttribute, MapSpec, MaskSpec } from '../spec/spec';
 import type { Alignment } from './align';
 import { barycentricOnFace, type SurfaceIdentity } from './identity';
 import { buildNormalProbe, type NormalProbe } from './ray';
+import type { UvLocator } from './uv-locate';
 
 /** How one painted map reached the new surface. */
 export interface MapTransfer {
   readonly path: string;
   readonly attribute: MapAttribute;
-  /** `polygon`: each vertex's value read at the same polygon corner (same topology), unchanged; `closest point`: interpolated where the alignment puts the vertex. */
-  readonly how: 'polygon' | 'closest point';
+  /**
+   * `polygon`: each vertex's value read at the same polygon corner (same topology), unchanged;
+   * `uv`: interpolated where the vertex's UV lies in the old UV layout (the features went by UV);
+   * `closest point`: interpolated where the alignment puts the vertex.
+   */
+  readonly how: 'polygon' | 'uv' | 'closest point';
+  /** For `uv`: new vertices whose UV lies on no part of the old layout (or that have none), read at the nearest facing point instead. */
+  readonly unlocated?: number;
   /** For `closest point`: the farthest a new vertex lay from the old surface, over the new surface's diagonal. */
   readonly farthest?: number;
   /** For `closest point`: new vertices that found no old surface facing their way within reach, and took the nearest point whatever its side. */
@@ -29,7 +36,10 @@ interface Side {
 /**
  * Carries every painted map of a spec from the old surface onto the new one: on the same
  * topology (`samePolygons`), each new vertex takes the value of the old vertex at the same polygon
- * corner; otherwise each new vertex is laid back into the old space (the inverse of `alignment`,
+ * corner; by UV (`uv`, the old surface's UV locator, given when the features went by UV) each new
+ * vertex reads the old map barycentrically where its UV (its first polygon corner's) lies in the old
+ * layout, within 10⁻³ of it as the features are; otherwise — and for a vertex whose UV lies on no
+ * part of the old layout — each new vertex is laid back into the old space (the inverse of `alignment`,
  * the one the features were carried by) and takes the value interpolated barycentrically at the
  * nearest point of the old surface that faces its way (its normal turned back likewise): the
  * nearest point when it does, else the nearest face facing that way along the normal within
@@ -42,7 +52,7 @@ interface Side {
  * what keeps a vertex on one side of a thin gap (lips, an ear's two sheets) from reading the other
  * sheet's value.
  */
-export function carryMaps(spec: GroomSpec, from: Side, to: Side, samePolygons: boolean, alignment: Alignment, reach: number): { maps: MapSpec[]; report: MapTransfer[]; masks: MaskSpec[]; maskReport: MaskTransfer[] } {
+export function carryMaps(spec: GroomSpec, from: Side, to: Side, samePolygons: boolean, alignment: Alignment, reach: number, uv?: UvLocator): { maps: MapSpec[]; report: MapTransfer[]; masks: MaskSpec[]; maskReport: MaskTransfer[] } {
   const maps: MapSpec[] = [];
   const report: MapTransfer[] = [];
   const masks: MaskSpec[] = [];
@@ -51,12 +61,17 @@ export function carryMaps(spec: GroomSpec, from: Side, to: Side, samePolygons: b
   const nV = toMesh.positions.length / 3;
   // Where each new vertex reads the old map: an old vertex (by polygon) or a face and weights.
   let readAt: ((old: Float64Array, blank: number) => Float64Array) | undefined;
-  let farthest = 0, unchecked = 0;
+  let farthest = 0, unchecked = 0, unlocated = 0;
+  const byUv = !samePolygons && uv !== undefined && to.identity.cornerUv !== undefined;
   const read = (old: Float64Array, blank: number) => {
-    if (!readAt) ({ readAt, farthest, unchecked } = samePolygons ? byPolygon(from.identity, to.identity, nV) : byClosestPoint(from.surface, to.surface, alignment, reach));
+    if (!readAt) {
+      if (samePolygons) ({ readAt, farthest, unchecked } = byPolygon(from.identity, to.identity, nV));
+      else ({ readAt, farthest, unchecked, unlocated } = byUv ? byUvOrClosestPoint(from.surface, to, alignment, reach, uv) : byUvOrClosestPoint(from.surface, to, alignment, reach));
+    }
     return readAt(old, blank);
   };
-  const how = () => (samePolygons ? { how: 'polygon' as const } : { how: 'closest point' as const, farthest: farthest / to.surface.diagonal, unchecked });
+  const how = () =>
+    samePolygons ? { how: 'polygon' as const } : byUv ? { how: 'uv' as const, unlocated } : { how: 'closest point' as const, farthest: farthest / to.surface.diagonal, unchecked };
   for (const [i, map] of (spec.maps ?? []).entries()) {
     const path = `maps[${i}]`;
     const values = read(decodeMap(map, from.surface.mesh, path), 1);
@@ -89,33 +104,29 @@ function byPolygon(from: SurfaceIdentity, to: SurfaceIdentity, nV: number) {
   return { readAt: (old: Float64Array, blank: number) => Float64Array.from(source, (v) => (v >= 0 ? old[v] : blank)), farthest: 0, unchecked: 0 };
 }
 
-/** Each new vertex laid into the old space by the inverse alignment, and the nearest old point's face and weights. */
-function byClosestPoint(from: GroomSurface, to: GroomSurface, a: Alignment, reach: number) {
-  const q = to.mesh.positions, nV = q.length / 3;
+/**
+ * Where each new vertex reads the old surface: with `uv`, at its first polygon corner's UV located
+ * in the old layout; otherwise (and for a vertex the layout does not hold) laid into the old space
+ * by the inverse alignment at the nearest old point facing its way.
+ */
+function byUvOrClosestPoint(from: GroomSurface, to: Side, a: Alignment, reach: number, uv?: UvLocator) {
+  const nV = to.surface.mesh.positions.length / 3;
   const face = new Uint32Array(nV), weights = new Float64Array(3 * nV);
-  const query = new Float64Array(SKIN_QUERY_SIZE);
-  const r = a.rotation;
-  const turnBack = (d: readonly number[]) => [r[0] * d[0] + r[3] * d[1] + r[6] * d[2], r[1] * d[0] + r[4] * d[1] + r[7] * d[2], r[2] * d[0] + r[5] * d[1] + r[8] * d[2]];
-  const normal = to.vertexNormal;
-  let probe: NormalProbe | undefined;
-  let farthest = 0, unchecked = 0;
+  const corner = new Int32Array(nV).fill(-1);
+  const cornerUv = to.identity.cornerUv;
+  if (uv && cornerUv) for (let k = 0; k < to.identity.cornerVertex.length; k++) if (corner[to.identity.cornerVertex[k]] < 0) corner[to.identity.cornerVertex[k]] = k;
+  const nearest = closestPointOf(from, to.surface, a, reach);
+  let unlocated = 0;
   for (let v = 0; v < nV; v++) {
-    // x_old = Rᵀ (x_new − t) / s, R being a rotation; the normal turned back by Rᵀ alone.
-    const [x, y, z] = turnBack([0, 1, 2].map((k) => (q[3 * v + k] - a.translation[k]) / a.scale));
-    const n = turnBack([normal[3 * v], normal[3 * v + 1], normal[3 * v + 2]]);
-    from.skin.closest(x, y, z, Infinity, query, v > 0 ? face[v - 1] : undefined);
-    let point: [number, number, number] = [query[0], query[1], query[2]];
-    face[v] = query[7];
-    if (query[3] * n[0] + query[4] * n[1] + query[5] * n[2] <= 0) {
-      probe ??= buildNormalProbe(from.mesh);
-      const hit = probe.along([x, y, z], n, reach);
-      if (hit) {
-        point = hit.point;
-        face[v] = hit.face;
-      } else unchecked++;
+    const c = corner[v];
+    const hit = uv && c >= 0 ? uv.locate(cornerUv![2 * c], cornerUv![2 * c + 1], 1e-3) : null;
+    if (hit) {
+      face[v] = hit.face;
+      weights.set(hit.weights, 3 * v);
+      continue;
     }
-    weights.set(barycentricOnFace(from.mesh, face[v], point), 3 * v);
-    farthest = Math.max(farthest, Math.hypot(point[0] - x, point[1] - y, point[2] - z) * a.scale);
+    if (uv) unlocated++;
+    face[v] = nearest.locate(v, v > 0 ? face[v - 1] : undefined, weights);
   }
   const tri = from.mesh.triangles;
   return {
@@ -125,7 +136,43 @@ function byClosestPoint(from: GroomSurface, to: GroomSurface, a: Alignment, reac
         const value = weights[3 * v] * old[tri[3 * f]] + weights[3 * v + 1] * old[tri[3 * f + 1]] + weights[3 * v + 2] * old[tri[3 * f + 2]];
         return Math.min(10, Math.max(0, value));
       }),
-    farthest,
-    unchecked,
+    farthest: nearest.farthest,
+    unchecked: nearest.unchecked,
+    unlocated,
   };
+}
+
+/** New vertices laid into the old space by the inverse alignment, each at the nearest old point facing its way (see `carryMaps`). */
+function closestPointOf(from: GroomSurface, to: GroomSurface, a: Alignment, reach: number) {
+  const q = to.mesh.positions;
+  const query = new Float64Array(SKIN_QUERY_SIZE);
+  const r = a.rotation;
+  const turnBack = (d: readonly number[]) => [r[0] * d[0] + r[3] * d[1] + r[6] * d[2], r[1] * d[0] + r[4] * d[1] + r[7] * d[2], r[2] * d[0] + r[5] * d[1] + r[8] * d[2]];
+  const normal = to.vertexNormal;
+  let probe: NormalProbe | undefined;
+  const out = {
+    farthest: 0,
+    unchecked: 0,
+    /** The old face vertex v reads, its weights written into `weights` at 3v; `hint`: a face to start the search from. */
+    locate(v: number, hint: number | undefined, weights: Float64Array): number {
+      // x_old = Rᵀ (x_new − t) / s, R being a rotation; the normal turned back by Rᵀ alone.
+      const [x, y, z] = turnBack([0, 1, 2].map((k) => (q[3 * v + k] - a.translation[k]) / a.scale));
+      const n = turnBack([normal[3 * v], normal[3 * v + 1], normal[3 * v + 2]]);
+      from.skin.closest(x, y, z, Infinity, query, hint);
+      let point: [number, number, number] = [query[0], query[1], query[2]];
+      let face = query[7];
+      if (query[3] * n[0] + query[4] * n[1] + query[5] * n[2] <= 0) {
+        probe ??= buildNormalProbe(from.mesh);
+        const hit = probe.along([x, y, z], n, reach);
+        if (hit) {
+          point = hit.point;
+          face = hit.face;
+        } else out.unchecked++;
+      }
+      weights.set(barycentricOnFace(from.mesh, face, point), 3 * v);
+      out.farthest = Math.max(out.farthest, Math.hypot(point[0] - x, point[1] - y, point[2] - z) * a.scale);
+      return face;
+    },
+  };
+  return out;
 }

@@ -28,7 +28,7 @@ export function transferReportText(report: TransferReport): string {
   if (report.maps?.length) {
     lines.push(`maps        ${report.maps.length} carried`);
     for (const m of report.maps) {
-      lines.push(`  ${m.path.padEnd(32)} ${m.attribute.padEnd(13)} ${m.how === 'polygon' ? 'by polygon, unchanged' : `by the nearest point of the old surface facing the same way (farthest ${percent(m.farthest!)} of the new surface's size${m.unchecked ? `; ${m.unchecked} vertices found none facing their way and took the nearest` : ''})`}`);
+      lines.push(`  ${m.path.padEnd(32)} ${m.attribute.padEnd(13)} ${m.how === 'polygon' ? 'by polygon, unchanged' : m.how === 'uv' ? `by UV${m.unlocated ? ` (${m.unlocated} vertices off the old UV layout read at the nearest point facing their way)` : ''}` : `by the nearest point of the old surface facing the same way (farthest ${percent(m.farthest!)} of the new surface's size${m.unchecked ? `; ${m.unchecked} vertices found none facing their way and took the nearest` : ''})`}`);
     }
   }
   if (report.notCarried.length > 0) {

@@ -2,6 +2,7 @@ import { FieldError, indexBudget, nextAroundVertex, nextHalfedge, type SolvedFie
 import { GroomError } from '../errors';
 import { edgePath, vertexOfPlace } from '../place/place';
 import { fieldRequestFromSpec, solveGroomField } from '../place/request';
+import { setRegionMask } from '../place/set-region';
 import { SKIN_QUERY_SIZE } from '../place/skin';
 import type { GroomSurface } from '../place/surface';
 import { CENTIMETRES_PER_UNIT, parseGroomSpec, type GroomSpec, type SymmetrySpec, type Unit } from '../spec/spec';
@@ -189,6 +190,7 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     notCarried.push({ path, reason: crossing.get(path) ?? 'some of its points could not be carried, so the whole curve was left out' });
   }
   for (const path of placed.droppedStrokes) notCarried.push({ path, reason: 'fewer than two of its points could be carried' });
+  notCarried.push(...placed.droppedSides);
 
   const names = to.surface.mesh.groups?.names ?? [];
   const regions = spec.guides.regions.map((name) => {
@@ -215,8 +217,8 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     }),
   );
 
-  // Maps are factors, so they need no unit conversion; only where each new vertex reads them.
-  const carried = spec.maps?.length || spec.masks?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale) : undefined;
+  // Maps are factors, so they need no unit conversion; only where each new vertex reads them — by the features' own method.
+  const carried = spec.maps?.length || spec.masks?.length ? carryMaps(spec, from, to, method === 'topology', alignment, reach / alignment.scale, method === 'uv' ? fromUv! : undefined) : undefined;
   const perUnit = CENTIMETRES_PER_UNIT[fromUnits] / CENTIMETRES_PER_UNIT[toUnits];
   const g = spec.guides;
   const scaled = <T extends typeof g>(block: T): T => ({
@@ -242,10 +244,11 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     ...(carried && spec.masks?.length ? { masks: carried.masks } : {}),
     ...(spec.symmetry ? { symmetry: carriedSymmetry(spec.symmetry, alignment) } : {}),
     guides: { ...scaled(g), regions: keptRegions },
-    ...(spec.guideSets
-      ? { guideSets: spec.guideSets.map((set, i) => ({ ...set, region: set.region.groups ? { groups: setGroups[i] } : set.region, guides: scaled(set.guides) })) }
+    ...(placed.spec.guideSets
+      ? { guideSets: placed.spec.guideSets.map((set, i) => ({ ...set, region: set.region.groups ? { groups: setGroups[i] } : set.region, guides: scaled(set.guides) })) }
       : {}),
   });
+  notCarried.push(...sideProblems(newSpec, to.surface));
 
   let budget: TransferReport['budget'] = [];
   let field: TransferReport['field'];
@@ -264,6 +267,23 @@ export function transferSpec(spec: GroomSpec, from: TransferSide, to: TransferSi
     report: { method, alignment, from: facts(from, overlaps[0]), to: facts(to, overlaps[1]), features: reports, notCarried, regions, budget, field, ...(carried && spec.maps?.length ? { maps: carried.report } : {}), ...(carried && spec.masks?.length ? { masks: carried.maskReport } : {}) },
     ...(solved ? { solved } : {}),
   };
+}
+
+/**
+ * The sides of partings the carried sets grow on that the new surface cannot give (a parting that
+ * no longer cuts it in two, a `from` that landed on the parting), in the words growing would use.
+ */
+function sideProblems(spec: GroomSpec, surface: GroomSurface): { path: string; reason: string }[] {
+  return (spec.guideSets ?? []).flatMap((set, i) => {
+    if (!set.region.partings) return [];
+    try {
+      setRegionMask(surface, spec, set.region, `guideSets[${i}].region`);
+      return [];
+    } catch (error) {
+      if (!(error instanceof GroomError || error instanceof FieldError)) throw error;
+      return [{ path: `guideSets[${i}].region`, reason: `the carried side cannot be grown on: ${error.message}` }];
+    }
+  });
 }
 
 /**
@@ -290,6 +310,7 @@ function keptVertex(spec: GroomSpec, f: AnchoredFeature): number | undefined {
   if (s.list === 'singularities') return spec.field.singularities[s.item].vertex;
   if (s.list === 'pins') return spec.pins[s.item].vertex;
   if (s.list === 'partings' || s.list === 'crests') return spec.field[s.list][s.item].vertices?.[s.point!];
+  if (s.list === 'sides') return spec.guideSets![s.item].region.from!.vertex;
   return undefined;
 }
 

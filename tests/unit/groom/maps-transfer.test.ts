@@ -45,12 +45,42 @@ describe('painted maps travel with the groom', () => {
     const shifted = transferSphere(RINGS, SEGMENTS, { shift: 5 });
     const { spec: carried, report } = transferSpec(spec, side(a), side(shifted));
     expect(report.method).toBe('uv');
-    expect(report.maps![0].how).toBe('closest point');
+    // The features went by UV, so the maps do too (lib/groom/README.md, "Painted maps", Travel).
+    expect(report.maps![0]).toEqual({ path: 'maps[0]', attribute: 'length', how: 'uv', unlocated: 0 });
     const before = decodeMap(spec.maps![0], a.mesh), after = decodeMap(carried.maps![0], shifted.mesh);
     const key = (p: Float64Array, v: number) => [0, 1, 2].map((k) => p[3 * v + k].toFixed(9)).join(' ');
     const valueAt = new Map<string, number>();
     for (let v = 0; v < before.length; v++) valueAt.set(key(a.mesh.positions, v), before[v]);
     for (let v = 0; v < after.length; v++) expect(Math.abs(after[v] - valueAt.get(key(shifted.mesh.positions, v))!)).toBeLessThanOrEqual(2 / 65535);
+  });
+
+  it('by UV onto a character bent out of shape: each vertex reads the value painted at its UV, where the alignment would read another place', () => {
+    // Other triangles (the other diagonal, other numbers) and the sphere bent: x pushed by 0.8 z².
+    // No similarity lays it onto the old sphere, but each vertex keeps its UV (transfer-sphere.ts).
+    const bend = ([x, y, z]: [number, number, number]): [number, number, number] => [x + 0.8 * z * z, y, z];
+    const bent = transferSphere(RINGS, SEGMENTS, { split: 'bc', asTriangles: true, shift: 7, sculpt: bend });
+    const unbent = transferSphere(RINGS, SEGMENTS, { split: 'bc', asTriangles: true, shift: 7 });
+    const p = a.mesh.positions, nV = p.length / 3;
+    const painted = Float64Array.from({ length: nV }, (_x, v) => 1.6 + p[3 * v + 2] + 0.5 * p[3 * v]);
+    const cap = Float64Array.from({ length: nV }, (_x, v) => Math.max(0, Math.min(1, 2 * p[3 * v + 2])));
+    const input = parseGroomSpec({ specVersion: 3, units: 'cm', upAxis: 'z', field: {}, maps: [encodeMap('length', painted, a.mesh)], masks: [encodeMask('cap', cap, a.mesh)] });
+    const { spec: carried, report } = transferSpec(input, side(a), side(bent));
+    expect(report.method).toBe('uv');
+    expect(report.maps).toEqual([{ path: 'maps[0]', attribute: 'length', how: 'uv', unlocated: 0 }]);
+    expect(report.masks).toEqual([{ path: 'masks[0]', name: 'cap', how: 'uv', unlocated: 0 }]);
+    expect(transferReportText(report)).toMatch(/maps\[0\]\s+length\s+by UV\n/);
+    // The expected value at each new vertex: the painted function at its point of the unit sphere (the same vertex unbent).
+    const q = unbent.mesh.positions;
+    const expected = (v: number) => 1.6 + q[3 * v + 2] + 0.5 * q[3 * v];
+    const length = decodeMap(carried.maps![0], bent.mesh), mask = decodeMask(carried.masks![0], bent.mesh);
+    // Same grid vertex, same UV: twice quantised at 16 bits (each map about 3 wide).
+    for (let v = 0; v < length.length; v++) expect(Math.abs(length[v] - expected(v))).toBeLessThanOrEqual(2 * 3.2 / 65535);
+    for (let v = 0; v < mask.length; v++) expect(Math.abs(mask[v] - Math.max(0, Math.min(1, 2 * q[3 * v + 2])))).toBeLessThanOrEqual(2 / 255);
+    // What the alignment would read instead: the bent vertices lie where other values were painted.
+    const aligned = transferSpec(input, side(a), side(bent), { method: 'alignment' });
+    expect(aligned.report.maps![0].how).toBe('closest point');
+    const off = decodeMap(aligned.spec.maps![0], bent.mesh);
+    expect(Math.max(...Array.from(off, (x, v) => Math.abs(x - expected(v))))).toBeGreaterThan(0.1);
   });
 
   it('by the nearest point after the alignment on other triangles: values where they were, within the quantisation', () => {
