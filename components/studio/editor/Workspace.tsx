@@ -43,6 +43,7 @@ import { useLiveState } from './hooks/useLiveState';
 import { useShortcuts } from './hooks/useShortcuts';
 import { useToolDriver, type ToolDriver } from './hooks/useToolDriver';
 import { useSteadyFrame } from './hooks/useSteadyFrame';
+import { useDrawnSurface } from './hooks/useDrawnSurface';
 
 // The field worker's code starts loading as soon as the editor's code runs, before the page is
 // hydrated: it is the longest wait before the surface can be opened.
@@ -66,6 +67,8 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
   // What the stage frames: the prepared surface, or the surface as read while it is prepared (the
   // same centre and radius, so the view does not jump when the prepared surface replaces it).
   const view = useSteadyFrame(surface ?? field.preview);
+  // One geometry for both: the prepared surface replaces the surface as read without being drawn anew.
+  const surfaceShape = useDrawnSurface(field.preview, surface);
   const actions = useEditorActions({ getEditor, setEditor, surface, solve, stage, onAdded: () => setTab('features') });
   // The brush starts eight mean edges across once the surface is open; the groomer's choices are kept in the tool options.
   const brush = useMemo(() => toolOptions.brush ?? (surface ? defaultBrush(surface.meanEdge) : null), [surface, toolOptions.brush]);
@@ -129,10 +132,11 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
       <div className="grid min-h-[620px] gap-3 lg:grid-cols-[minmax(0,1fr)_26rem]" style={{ height: 'calc(100vh - 12rem)' }}>
         <section aria-label="Surface view" className="relative min-h-[420px] overflow-hidden rounded-2xl bg-tarn-deep">
           {view ? (
-            <Stage label={surface ? `The growth surface with the field${showGuides ? ' and guides' : ''}` : 'The growth surface, while the field solver is prepared'} center={view.center} radius={view.radius} upAxis={spec.upAxis} apiRef={stage} pickTarget={meshRef}>
-              {!surface && field.preview && <SurfaceMesh positions={field.preview.positions} triangles={field.preview.triangles} normals={field.preview.vertexNormals} onDrawn={field.onSurfaceDrawn} />}
+            <Stage label={surface ? `The growth surface with the field${showGuides ? ' and guides' : ''}` : 'The growth surface, while the field solver is prepared'} center={view.center} radius={view.radius} upAxis={spec.upAxis} apiRef={stage} pickTarget={meshRef} lighter={dragging}>
+              {!surface && field.preview && surfaceShape && <SurfaceMesh positions={field.preview.positions} triangles={field.preview.triangles} geometry={surfaceShape} onDrawn={field.onSurfaceDrawn} />}
               {surface && <EditorScene
                 surface={surface}
+                surfaceGeometry={surfaceShape ?? undefined}
                 // While a marker is dragged the stage shows the spec of the field it draws: the
                 // marker moves with its field, and a pointer move alone draws no frame (each one
                 // costs the software renderer as much as a field update, on the worker's cores).
