@@ -74,7 +74,7 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
   const brush = useMemo(() => toolOptions.brush ?? (surface ? defaultBrush(surface.meanEdge) : null), [surface, toolOptions.brush]);
   const options = useMemo(() => (brush && !toolOptions.brush ? { ...toolOptions, brush } : toolOptions), [brush, toolOptions]);
   const setBrush = useCallback((next: BrushOptions) => setToolOptions((old) => ({ ...old, brush: next })), []);
-  const tools = useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice: setNotice });
+  const tools = useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice: setNotice, onDragMove: field.solveNow });
   const tint = useTintView(surface, spec, tools.tool === 'tint' ? (brush?.paints ?? null) : null, tools.painting);
   const dragging = tools.dragging !== null;
   const guides = useGuides({ client: field.client, surface, spec, rootsFrom, show: showGuides, paused: dragging });

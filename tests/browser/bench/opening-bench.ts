@@ -90,6 +90,8 @@ async function openingFigures(page: Page) {
       firstSolveMilliseconds: Math.round(solved?.detail?.milliseconds ?? NaN),
       longestMainThreadTask: during.reduce((m, t) => Math.max(m, t.ms), 0),
       mainThreadLongTaskTotal: during.reduce((s, t) => s + t.ms, 0),
+      // Each long task's start (ms from navigation) and length, to tell which stage it belongs to.
+      longTasks: during,
       progressLines: w.__opening.lines,
     };
   });
