@@ -41,6 +41,10 @@ export async function refuseSurface(surfaceId: string, problems: readonly Proble
  * each at a million faces, here once instead of at every opening). Only a speed-up for the
  * editor: when it cannot be stored the surface is ready all the same (null), and the editor reads
  * the file; when the orderings cannot be worked out the form is stored without them.
+ *
+ * Forms written before these parts (version 1) are not rewritten: the editor opens them as before
+ * (checking and ordering in the browser), their URL is served as immutable for a year so a browser
+ * holding one would not fetch a new one anyway, and the saving is a speed-up of the opening only.
  */
 async function writePrepared(row: SurfaceRow, read: SurfaceReadResult): Promise<string | null> {
   const key = `${row.object_key.slice(0, row.object_key.lastIndexOf('/'))}/prepared-${randomUUID()}.${PREPARED_EXTENSION}`;
