@@ -1,5 +1,5 @@
 /**
- * `node --import tsx bench/prepared.ts` — what the prepared form's groundwork (format version 2:
+ * `npm run bench:prepared` — what the prepared form's groundwork (format version 2:
  * the check's mark and the field's ring orderings) saves `prepareSurface`, on the UV spheres of the
  * editor's opening bench (50,240, 200,320 and 1,000,800 faces). Each size and variant runs in its
  * own process, as the editor's worker prepares on a fresh heap: three preparations of the surface
