@@ -16,11 +16,10 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { expect, test, type Page } from '@playwright/test';
-import { closeDb, db } from '../../../lib/platform/db';
-import { uvSphere } from '../../fixtures/shapes';
-import { surfaceToObj } from '../../../lib/groom/demo/obj';
+import { closeDb } from '../../../lib/platform/db';
 import { confirmedAccount, signInThroughForm } from '../helpers';
 import { waitForField, waitForSaved } from '../studio-helpers';
+import { serverIdle, sphereGroom, sphereObj } from './bench-groom';
 import { dragFigures, nearestRank, type DragAsk, type DrawnField } from './drag-figures';
 
 test.afterAll(closeDb);
@@ -33,44 +32,6 @@ const SIZES = [
 ];
 
 /** Waits until the server's queued work (surface checks, thumbnails) is done: here it shares the two cores with the browser. */
-async function serverIdle() {
-  await expect
-    .poll(async () => Number((await db().raw(`SELECT count(*) AS n FROM pgboss.job WHERE state IN ('created', 'retry', 'active') AND start_after <= now()`)).rows[0].n), { timeout: 300_000, intervals: [500] })
-    .toBe(0);
-}
-
-async function api<T>(page: Page, method: 'get' | 'post' | 'put', url: string, data?: unknown): Promise<T> {
-  const response = await page.request[method](url, data === undefined ? {} : { data });
-  const body = await response.json();
-  if (!response.ok()) throw new Error(`${method.toUpperCase()} ${url}: ${response.status()} ${JSON.stringify(body)}`);
-  return body.data as T;
-}
-
-/** A groom with two twisted whorls on a UV sphere of radius 10 cm, made through the studio API as the pages would. */
-async function sphereGroom(page: Page, rings: number, segments: number): Promise<{ groomId: string; faces: number; objBytes: number }> {
-  const mesh = uvSphere(rings, segments, 10);
-  const obj = Buffer.from(surfaceToObj(mesh, `uv sphere ${rings} × ${segments}, for the drag benchmark`));
-  const ticket = await api<{ uploadId: string; url: string }>(page, 'post', '/api/studio/uploads', { fileName: `sphere-${rings}x${segments}.obj`, byteSize: obj.byteLength });
-  const put = await fetch(ticket.url, { method: 'PUT', body: obj });
-  expect(put.ok).toBe(true);
-  const { surface } = await api<{ surface: { id: string } }>(page, 'post', '/api/studio/surfaces', { uploadId: ticket.uploadId, name: `Sphere ${rings} × ${segments}`, units: 'cm' });
-  await expect
-    .poll(async () => (await api<{ surface: { state: string } }>(page, 'get', `/api/studio/surfaces/${surface.id}`)).surface.state, { timeout: 300_000, intervals: [1000] })
-    .toBe('ready');
-  const { groom } = await api<{ groom: { id: string; revision: number } }>(page, 'post', '/api/studio/grooms', { surfaceId: surface.id, name: 'Drag bench coat' });
-  await api(page, 'put', `/api/studio/grooms/${groom.id}/spec`, {
-    baseRevision: groom.revision,
-    spec: {
-      specVersion: 2,
-      units: 'cm',
-      upAxis: 'z',
-      field: { singularities: [{ point: [10, 0, 0], index: 1, twist: 0 }, { point: [-10, 0, 0], index: 1, twist: 180 }] },
-      guides: { density: 2, length: 1.5 },
-    },
-  });
-  return { groomId: groom.id, faces: mesh.triangles.length / 3, objBytes: obj.byteLength };
-}
-
 /**
  * Holds whorl 1 (pressed with the real mouse in the middle of the view, where "Look at" put it)
  * and moves it in circles with pointer moves dispatched on the canvas from requestAnimationFrame.
@@ -202,7 +163,8 @@ test('studio editor: dragging a whorl on 50k- and 200k-face surfaces, updates dr
     return result;
   };
   for (const size of SIZES) {
-    const made = await sphereGroom(page, size.rings, size.segments);
+    const sphere = sphereObj(size.rings, size.segments, 'drag benchmark');
+    const made = await sphereGroom(page, sphere.obj, sphere.faces, 'Drag bench');
     await serverIdle();
     const firstField = await openLookingAtWhorl(page, made.groomId);
 
