@@ -13,13 +13,14 @@ export { buildTopology, nextHalfedge, prevHalfedge, nextAroundVertex, type Topol
 export { cornerAngles, angleDefects, faceAreas, faceNormals, vertexNormals, surfaceArea, boundingBox, eulerCharacteristic, componentFacts, genus, type ComponentFacts, type BoundingBox } from './mesh/geometry';
 export { buildFaceFrames, type FaceFrames } from './mesh/transport';
 export { readSurface, sniffContent, DEFAULT_MAX_FACES, DEFAULT_WELD_FRACTION, type SurfaceFormat, type ReadSurfaceOptions, type SurfaceReadResult, type UvPresence } from './mesh/read';
-export { readPreparedSurface, readSurfaceOrPrepared, writePreparedSurface, PREPARED_EXTENSION } from './mesh/read/prepared';
+export { readPreparedSurface, readSurfaceOrPrepared, writePreparedSurface, PREPARED_EXTENSION, type PreparedGroundwork, type PreparedSurfaceRead, type RingOrderings } from './mesh/read/prepared';
 export { checkSurface, checkSurfaceFile, type Problem, type SurfaceReport, type SurfaceFacts } from './mesh/check';
 export { uvFacts, UV_RASTER_SIZE, type UvFacts } from './mesh/uv-check';
 
 // The field: the connection, the directions it carries, and the proof by measured indices.
 export {
   prepareSurface,
+  ringOrderings,
   indexBudget,
   solveConnection,
   type BoundaryMode,
@@ -28,6 +29,7 @@ export {
   type CurveFeature,
   type FieldRequest,
   type FieldSurface,
+  type PrepareSurfaceOptions,
   type ConnectionResult,
   type IndexBudget,
 } from './connection';

@@ -3,7 +3,7 @@
 // problems found; the file is removed, the row stays so the groomer sees why). Each step is
 // written on the row with its progress for the studio's list.
 import { randomUUID } from 'node:crypto';
-import { checkSurfaceFile, PREPARED_EXTENSION, writePreparedSurface, type Problem, type SurfaceReadResult } from '../field';
+import { checkSurfaceFile, PREPARED_EXTENSION, ringOrderings, writePreparedSurface, type Problem, type RingOrderings, type SurfaceReadResult } from '../field';
 import { CENTIMETRES_PER_UNIT, renderThumbnail } from '../groom';
 import { encodeImage } from '../groom/render/encode-image';
 import { db } from '../platform/db';
@@ -36,13 +36,27 @@ export async function refuseSurface(surfaceId: string, problems: readonly Proble
 }
 
 /**
- * Stores the reading in its prepared form beside the file. Only a speed-up for the editor: when
- * it cannot be stored the surface is ready all the same (null), and the editor reads the file.
+ * Stores the reading in its prepared form beside the file, with what the editor would otherwise
+ * work out again: the mark that it passed this check, and the field's ring orderings (about 0.7 s
+ * each at a million faces, here once instead of at every opening). Only a speed-up for the
+ * editor: when it cannot be stored the surface is ready all the same (null), and the editor reads
+ * the file; when the orderings cannot be worked out the form is stored without them.
+ *
+ * Forms written before these parts (version 1) are not rewritten: the editor opens them as before
+ * (checking and ordering in the browser), their URL is served as immutable for a year so a browser
+ * holding one would not fetch a new one anyway, and the saving is a speed-up of the opening only.
  */
 async function writePrepared(row: SurfaceRow, read: SurfaceReadResult): Promise<string | null> {
   const key = `${row.object_key.slice(0, row.object_key.lastIndexOf('/'))}/prepared-${randomUUID()}.${PREPARED_EXTENSION}`;
+  let orderings: RingOrderings = {};
   try {
-    await putObject(key, writePreparedSurface(read), 'application/octet-stream');
+    orderings = ringOrderings(read.mesh);
+  } catch (error) {
+    console.error(`[studio] the field's orderings of surface ${row.id} were not worked out (the editor works them out): ${(error as Error).message}`);
+  }
+  try {
+    // Only surfaces that passed the check get here: the mark is this job's word for it.
+    await putObject(key, writePreparedSurface(read, { checked: true, ringOrderings: orderings }), 'application/octet-stream');
     return key;
   } catch (error) {
     console.error(`[studio] the prepared form of surface ${row.id} was not stored (the editor reads its file): ${(error as Error).message}`);

@@ -4,7 +4,7 @@
 // live outside the heap the flag limits). A child stopped that way is replaced at the next job.
 // The web server never runs this: only job-worker processes.
 import { fork, type ChildProcess } from 'node:child_process';
-import { readFile } from 'node:fs/promises';
+import { readFile, writeFile } from 'node:fs/promises';
 import { setPriority } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import type { JobBudget, JobKind } from '../../lib/platform/jobs';
@@ -19,6 +19,13 @@ const PAGE_BYTES = 4096;
  * a busy core gives the server's requests nearly all of its time (Linux's CFS weighs nice 0 against
  * nice 19 as 1024 to 15, sched(7)), so heavy jobs take longer instead of requests waiting. With
  * nice 10 (1024 to 110) two exports on two cores still held the search's p95 at 92 ms.
+ *
+ * A task's nice only counts against tasks of its own group, though: where the kernel groups tasks
+ * by session (autogroup, sched(7): on by default on desktop and many server kernels, and so on this
+ * machine), the CPU is first shared equally between sessions, and a job worker's session got as much
+ * as the web server's whatever its children's nice. So each child starts a session of its own
+ * (`detached`) and that session's group gets the same nice 19 (/proc/<pid>/autogroup). Detached
+ * children still end with their worker: they exit when its channel closes (child.ts).
  */
 const JOB_NICENESS = 19;
 /** A child left larger than this share of its budget after a job is replaced, so the next job starts with the budget free. */
@@ -67,6 +74,16 @@ async function residentBytes(pid: number): Promise<number | null> {
   }
 }
 
+/** Nice 19 for the child and for its session's group; a kernel without autogroup has no such file. */
+async function lowerPriority(pid: number, queue: string): Promise<void> {
+  try {
+    setPriority(pid, JOB_NICENESS);
+  } catch (error) {
+    console.error(`[jobs-worker] could not lower the priority of the ${queue} child: ${(error as Error).message}`);
+  }
+  await writeFile(`/proc/${pid}/autogroup`, String(JOB_NICENESS)).catch(() => {});
+}
+
 type Slot = { child: ChildProcess; stderrTail: string; exited: Promise<void> };
 const slots = new Map<string, Slot>();
 let nextJob = 1;
@@ -78,13 +95,10 @@ function childFor(kind: JobKind, budget: JobBudget): Slot {
     execArgv: ['--import', 'tsx', `--max-old-space-size=${budget.memoryMb}`],
     env: process.env,
     stdio: ['ignore', 'inherit', 'pipe', 'ipc'],
+    detached: true,
   });
   const slot: Slot = { child, stderrTail: '', exited: new Promise((resolve) => child.once('exit', () => resolve())) };
-  try {
-    if (child.pid !== undefined) setPriority(child.pid, JOB_NICENESS);
-  } catch (error) {
-    console.error(`[jobs-worker] could not lower the priority of the ${kind.queue} child: ${(error as Error).message}`);
-  }
+  if (child.pid !== undefined) void lowerPriority(child.pid, kind.queue);
   child.stderr?.on('data', (chunk: Buffer) => {
     process.stderr.write(chunk);
     slot.stderrTail = (slot.stderrTail + chunk.toString('utf8')).slice(-4000);

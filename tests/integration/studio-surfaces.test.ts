@@ -15,7 +15,7 @@ import * as uploadsRoute from '@/app/api/studio/uploads/route';
 import * as surfacesRoute from '@/app/api/studio/surfaces/route';
 import * as surfaceRoute from '@/app/api/studio/surfaces/[surfaceId]/route';
 import * as preparedRoute from '@/app/api/studio/surfaces/[surfaceId]/prepared/route';
-import { readPreparedSurface, readSurface } from '@/lib/field';
+import { prepareSurface, readPreparedSurface, readSurface } from '@/lib/field';
 import * as groomsRoute from '@/app/api/studio/grooms/route';
 import type { ReadySurface, SurfaceDetail, SurfaceSummary, UncheckedSurface } from '@/lib/studio/types';
 
@@ -127,8 +127,26 @@ describe('registering an uploaded surface', () => {
     expect(Array.from(prepared.mesh.triangles)).toEqual(Array.from(fromFile.mesh.triangles));
     expect(Array.from(prepared.mesh.fileVertexToVertex!)).toEqual(Array.from(fromFile.mesh.fileVertexToVertex!));
     expect(prepared.sourceVertexCount).toBe(fromFile.sourceVertexCount);
+    // What the check worked out for the editor (format version 2): its mark, and the field's ring
+    // ordering as prepareSurface works it out from the file (the ring is closed: one serves every mode).
+    expect(prepared.groundwork?.checked).toBe(true);
+    expect(Object.keys(prepared.groundwork!.ringOrderings)).toEqual(['free']);
+    expect(Array.from(prepared.groundwork!.ringOrderings.free!)).toEqual(Array.from(prepareSurface(fromFile.mesh).solver.ordering));
     const rivalAsks = await callRoute(preparedRoute, 'GET', detail.prepared!.url, { cookie: rival.cookie, params: { surfaceId: ringSurface.id } });
     expect(rivalAsks.status).toBe(404);
+  });
+
+  it('keeps both ring orderings of a surface with a boundary (free and held) in its prepared form', async () => {
+    const surface = await createSurface(wren, 'ngons.obj', await fixture('ngons-and-groups.obj'), 'Tiled patch');
+    const row = await db()('growth_surfaces').where({ id: surface.id }).first();
+    const answer = await callRoute(preparedRoute, 'GET', `/api/studio/surfaces/${surface.id}/prepared`, { cookie: wren.cookie, params: { surfaceId: surface.id } });
+    expect(answer.status).toBe(200);
+    const prepared = readPreparedSurface(new Uint8Array(await answer.arrayBuffer()));
+    expect(row.prepared_key).toMatch(/\.wwsurf$/);
+    const fromFile = readSurface(await fixture('ngons-and-groups.obj'), 'ngons.obj');
+    expect(prepared.groundwork?.checked).toBe(true);
+    expect(Array.from(prepared.groundwork!.ringOrderings.free!)).toEqual(Array.from(prepareSurface(fromFile.mesh, { boundary: 'free' }).solver.ordering));
+    expect(Array.from(prepared.groundwork!.ringOrderings.held!)).toEqual(Array.from(prepareSurface(fromFile.mesh, { boundary: 'tangent' }).solver.ordering));
   });
 
   it('deletes a surface with its file, thumbnail and prepared form', async () => {

@@ -4,7 +4,7 @@
 // strokes, and the path of a curve being drawn.
 import type { ThreeEvent } from '@react-three/fiber';
 import { memo, useMemo, useRef, type RefObject } from 'react';
-import { DoubleSide, Quaternion, Vector3, type Mesh } from 'three';
+import { DoubleSide, Quaternion, Vector3, type BufferGeometry, type Mesh } from 'three';
 import type { GroomSpec } from '@/lib/groom/spec/spec';
 import { sameFeature, singularityKind, type FeatureRef, type Vec3 } from '@/lib/studio/client/features';
 import { placeOnSurface } from '@/lib/studio/client/marker-places';
@@ -170,8 +170,11 @@ export function EditorScene({
   grainMarks,
   onTakeMark,
   tint = null,
+  surfaceGeometry,
 }: {
   surface: OpenedSurface;
+  /** The surface's geometry when the page keeps it (useDrawnSurface); made from `surface` when absent. */
+  surfaceGeometry?: BufferGeometry;
   spec: GroomSpec;
   solve: SolveReport | null;
   fieldLines: Float32Array | null;
@@ -204,7 +207,7 @@ export function EditorScene({
 
   return (
     <>
-      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} onDrawn={onSurfaceDrawn} hierarchy={surface.pickHierarchy} />
+      <SurfaceMesh positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} closed={surface.components.every((c) => c.boundaryLoopCount === 0)} meshRef={meshRef} onPointerDown={pointer.down} onPointerMove={pointer.move} onPointerUp={pointer.up} onDrawn={onSurfaceDrawn} hierarchy={surface.pickHierarchy} geometry={surfaceGeometry} />
       {tint && tint.values.length === surface.vertexCount && <TintOverlay positions={surface.positions} triangles={surface.triangles} normals={surface.vertexNormals} values={tint.values} kind={tint.kind} version={tint.version} />}
       {surface.boundaryLines.length > 0 && <LineLayer lines={surface.boundaryLines} tail={COLOURS.border} head={COLOURS.border} name="border" />}
       {fieldLines && (

@@ -44,6 +44,7 @@ import { useShortcuts } from './hooks/useShortcuts';
 import { useToolDriver, type ToolDriver } from './hooks/useToolDriver';
 import { useTwinSurface } from './hooks/useTwinSurface';
 import { useSteadyFrame } from './hooks/useSteadyFrame';
+import { useDrawnSurface } from './hooks/useDrawnSurface';
 
 // The field worker's code starts loading as soon as the editor's code runs, before the page is
 // hydrated: it is the longest wait before the surface can be opened.
@@ -67,13 +68,15 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
   // What the stage frames: the prepared surface, or the surface as read while it is prepared (the
   // same centre and radius, so the view does not jump when the prepared surface replaces it).
   const view = useSteadyFrame(surface ?? field.preview);
+  // One geometry for both: the prepared surface replaces the surface as read without being drawn anew.
+  const surfaceShape = useDrawnSurface(field.preview, surface);
   const actions = useEditorActions({ getEditor, setEditor, surface, solve, stage, onAdded: () => setTab('features') });
   useTwinSurface({ client: field.client, surface, on: !!spec.symmetry, getEditor, setEditor, onFailure: setNotice });
   // The brush starts eight mean edges across once the surface is open; the groomer's choices are kept in the tool options.
   const brush = useMemo(() => toolOptions.brush ?? (surface ? defaultBrush(surface.meanEdge) : null), [surface, toolOptions.brush]);
   const options = useMemo(() => (brush && !toolOptions.brush ? { ...toolOptions, brush } : toolOptions), [brush, toolOptions]);
   const setBrush = useCallback((next: BrushOptions) => setToolOptions((old) => ({ ...old, brush: next })), []);
-  const tools = useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice: setNotice });
+  const tools = useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice: setNotice, onDragMove: field.solveNow });
   const tint = useTintView(surface, spec, tools.tool === 'tint' ? (brush?.paints ?? null) : null, tools.painting);
   const dragging = tools.dragging !== null;
   const guides = useGuides({ client: field.client, surface, spec, rootsFrom, show: showGuides, paused: dragging });
@@ -131,10 +134,11 @@ export function Workspace({ title, subtitle, source, rootsFrom, initialSpec, per
       <div className="grid min-h-[620px] gap-3 lg:grid-cols-[minmax(0,1fr)_26rem]" style={{ height: 'calc(100vh - 12rem)' }}>
         <section aria-label="Surface view" className="relative min-h-[420px] overflow-hidden rounded-2xl bg-tarn-deep">
           {view ? (
-            <Stage label={surface ? `The growth surface with the field${showGuides ? ' and guides' : ''}` : 'The growth surface, while the field solver is prepared'} center={view.center} radius={view.radius} upAxis={spec.upAxis} apiRef={stage} pickTarget={meshRef}>
-              {!surface && field.preview && <SurfaceMesh positions={field.preview.positions} triangles={field.preview.triangles} normals={field.preview.vertexNormals} onDrawn={field.onSurfaceDrawn} />}
+            <Stage label={surface ? `The growth surface with the field${showGuides ? ' and guides' : ''}` : 'The growth surface, while the field solver is prepared'} center={view.center} radius={view.radius} upAxis={spec.upAxis} apiRef={stage} pickTarget={meshRef} lighter={dragging}>
+              {!surface && field.preview && surfaceShape && <SurfaceMesh positions={field.preview.positions} triangles={field.preview.triangles} geometry={surfaceShape} onDrawn={field.onSurfaceDrawn} />}
               {surface && <EditorScene
                 surface={surface}
+                surfaceGeometry={surfaceShape ?? undefined}
                 // While a marker is dragged the stage shows the spec of the field it draws: the
                 // marker moves with its field, and a pointer move alone draws no frame (each one
                 // costs the software renderer as much as a field update, on the worker's cores).

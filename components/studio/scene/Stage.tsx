@@ -35,6 +35,26 @@ export interface StageProps {
   children: ReactNode;
   label: string;
   className?: string;
+  /**
+   * Draw cheaper (fewer pixels) while a marker is dragged: with software WebGL every frame's cost,
+   * and its read-back to the page, grows with the pixels; the full pixel ratio comes back on release.
+   */
+  lighter?: boolean;
+}
+
+/** The pixel ratio the stage draws at while `lighter` (the drag bench may set `window.whorlwindDragPixelRatio` to compare). */
+export const DRAG_PIXEL_RATIO = 0.5;
+
+function dragPixelRatio(): number {
+  const chosen = typeof window === 'undefined' ? undefined : (window as { whorlwindDragPixelRatio?: unknown }).whorlwindDragPixelRatio;
+  return typeof chosen === 'number' && chosen > 0 && chosen <= 1 ? chosen : DRAG_PIXEL_RATIO;
+}
+
+/** A change of the pixel ratio clears the canvas: it is drawn again at once. */
+function RedrawOn({ ratio }: { ratio: number }) {
+  const invalidate = useThree((state) => state.invalidate);
+  useEffect(() => invalidate(), [invalidate, ratio]);
+  return null;
 }
 
 function CameraRig({ center, radius, upAxis, apiRef, pickTarget }: Omit<StageProps, 'children' | 'label' | 'className'>) {
@@ -110,12 +130,13 @@ function CameraRig({ center, radius, upAxis, apiRef, pickTarget }: Omit<StagePro
   return null;
 }
 
-export function Stage({ children, label, className = '', ...rig }: StageProps) {
+export function Stage({ children, label, className = '', lighter = false, ...rig }: StageProps) {
+  const ratio = lighter ? dragPixelRatio() : 1;
   return (
     <div className={`relative h-full w-full ${className}`} role="img" aria-label={label}>
       <Canvas
         frameloop="demand"
-        dpr={1}
+        dpr={ratio}
         camera={{ fov: 35, position: [0, 0, 10] }}
         // Every frame matters while a feature is dragged: no multisampling, no kept buffer, and the
         // page's own colour handling (no tone mapping pass) — software renderers pay for each.
@@ -127,6 +148,7 @@ export function Stage({ children, label, className = '', ...rig }: StageProps) {
         <hemisphereLight args={['#f6f2e9', '#4a4038', 1.1]} />
         <CameraLight />
         <CameraRig {...rig} />
+        <RedrawOn ratio={ratio} />
         {children}
       </Canvas>
     </div>

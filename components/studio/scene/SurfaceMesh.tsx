@@ -55,6 +55,7 @@ export function SurfaceMesh({
   onPointerLeave,
   onDrawn,
   hierarchy,
+  geometry: shared,
 }: {
   positions: ArrayLike<number>;
   triangles: Uint32Array;
@@ -73,15 +74,26 @@ export function SurfaceMesh({
   onDrawn?: () => void;
   /** A picking hierarchy built elsewhere on these same arrays (OpenedSurface's `pickHierarchy`). */
   hierarchy?: { readonly roots: readonly ArrayBuffer[]; readonly indirectBuffer: Uint32Array | Uint16Array };
+  /**
+   * The geometry of these same arrays, made and disposed by the caller (useDrawnSurface: kept when
+   * the prepared surface replaces the surface as read); made here from the arrays when absent.
+   */
+  geometry?: BufferGeometry;
 }) {
-  const geometry = useMemo(() => surfaceGeometry(positions, triangles, undefined, normals), [normals, positions, triangles]);
+  const own = useMemo(() => (shared ? null : surfaceGeometry(positions, triangles, undefined, normals)), [normals, positions, shared, triangles]);
+  const geometry = shared ?? own!;
+  // Nothing picks on a surface without handlers or a ref (the surface shown while it is prepared):
+  // it needs no hierarchy, whose building would hold the main thread for half a second at a million faces.
+  const picked = !!(meshRef || onPointerDown || onPointerMove || onPointerUp);
   useEffect(() => {
+    const release = () => own?.dispose();
+    if (!picked) return release;
     if (hierarchy && !geometry.boundsTree) {
       // Built by the field worker on the same arrays: taken as it is, nothing to compute here.
       // Version 1 of the layout (lib/groom/place/skin.ts checks it): without it three-mesh-bvh would "fix up" the buffers.
       const serialized = { version: 1, roots: [...hierarchy.roots], index: triangles, indirectBuffer: hierarchy.indirectBuffer } as unknown as Parameters<typeof MeshBVH.deserialize>[0];
       geometry.boundsTree = MeshBVH.deserialize(serialized, geometry, { setIndex: false });
-      return () => geometry.dispose();
+      return release;
     }
     // The picking hierarchy is built once the page is idle, so it does not hold up the first
     // field; until then a pick tests every face.
@@ -91,9 +103,9 @@ export function SurfaceMesh({
     const idle = typeof requestIdleCallback === 'function' ? requestIdleCallback(build, { timeout: 1500 }) : setTimeout(build, 200);
     return () => {
       if (typeof cancelIdleCallback === 'function' && typeof idle === 'number') cancelIdleCallback(idle);
-      geometry.dispose();
+      release();
     };
-  }, [geometry, hierarchy, triangles]);
+  }, [geometry, hierarchy, own, picked, triangles]);
   return (
     <mesh
       ref={meshRef}

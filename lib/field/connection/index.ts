@@ -17,7 +17,7 @@ import { isIndependentRow, ringSolution, solveRows, type ExtraRow } from './schu
 import type { FieldSurface } from './surface';
 
 export type { BoundaryMode, ConnectionResult, CurveFeature, FaceAlignment, FieldRequest, IndexBudget, PieceBudget, PointSingularity } from './request';
-export { prepareSurface, type FieldSurface } from './surface';
+export { prepareSurface, ringOrderings, type FieldSurface, type PrepareSurfaceOptions } from './surface';
 export { indexBudget, pieceName } from './budget';
 export { dualPieces } from './curves';
 export { cutIntoPieces, type SurfacePiece, type SurfacePieces } from './pieces';

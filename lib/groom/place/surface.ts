@@ -5,7 +5,7 @@ import {
   prepareHarmonic,
   prepareSurface,
   vertexNormals,
-  type BoundaryMode,
+  type PrepareSurfaceOptions,
   type FieldSurface,
   type HarmonicInterpolator,
   type TriangleMesh,
@@ -42,11 +42,12 @@ export interface GroomSurface {
  * Prepares a surface for grooming.
  *
  * Guarantees: throws the field engine's FieldError for a surface it cannot work with
- * (non-manifold, inconsistent orientation, no faces); the mesh's arrays are not modified.
+ * (non-manifold, inconsistent orientation, no faces); the mesh's arrays are not modified. The
+ * options are prepareSurface's (a stored ordering, a check vouched for) and change no result.
  */
-export function prepareGroomSurface(mesh: TriangleMesh, options: { boundary?: BoundaryMode } = {}): GroomSurface {
+export function prepareGroomSurface(mesh: TriangleMesh, options: PrepareSurfaceOptions = {}): GroomSurface {
   const t0 = now();
-  const field = prepareSurface(mesh, { boundary: options.boundary ?? 'free' });
+  const field = prepareSurface(mesh, { ...options, boundary: options.boundary ?? 'free' });
   const t1 = now();
   const skin = buildSkin(mesh, field.topology);
   const t2 = now();

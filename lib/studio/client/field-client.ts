@@ -1,14 +1,16 @@
 // The page's side of the field worker: requests with promises and progress, and "lanes" in which
 // only the newest request counts. While a whorl is dragged the page asks for a solve at every
-// pointer move; a lane sends one, keeps only the newest of those that arrive meanwhile, and sends
-// that one when the worker answers — so the worker always works on the latest position and the
-// screen updates as fast as the worker solves. Lanes of lower priority (guide growth) wait until
-// the lanes above them are idle, so a long growth never starts in the middle of a drag.
+// pointer move; a lane posts each one at once, tagged with the lane, and the worker carries out
+// only the newest of those waiting when its turn comes, answering the older ones as superseded
+// (request-queue.ts) — so the worker starts on the latest position as soon as it is free, even
+// while the page is still busy drawing the last answer. Lanes of lower priority (guide growth)
+// wait on the page until the lanes above them are idle, so a long growth never starts in the
+// middle of a drag.
 import { EARLY_OPEN_ID, FIELD_WORKER_NAME, FIELD_WORKER_URL, hasEarlyField, openingKey, takeEarlyField } from './field-start';
-import type { OpenedSurface, ProgressReport, ResultOf, WorkerError, WorkerReply, WorkerRequest, WorkerRequestBody } from './protocol';
+import type { OpenedSurface, ProgressReport, ResultOf, WorkerError, WorkerMessage, WorkerReply, WorkerRequestBody } from './protocol';
 
 export interface WorkerLike {
-  postMessage(message: WorkerRequest, transfer?: Transferable[]): void;
+  postMessage(message: WorkerMessage, transfer?: Transferable[]): void;
   onmessage: ((event: MessageEvent<WorkerReply>) => void) | null;
   onerror: ((event: ErrorEvent) => void) | null;
   terminate(): void;
@@ -22,7 +24,7 @@ export class WorkerFailure extends Error {
   }
 }
 
-/** What a lane request resolves to when a newer request of the same lane replaced it before it was sent. */
+/** What a lane request resolves to when a newer request of the same lane replaced it before it was carried out. */
 export const SUPERSEDED = Symbol('superseded');
 export type Superseded = typeof SUPERSEDED;
 
@@ -43,7 +45,9 @@ interface Queued {
 
 interface Lane {
   readonly priority: number;
-  busy: boolean;
+  /** Requests of the lane posted to the worker and not yet answered. */
+  atWorker: number;
+  /** A request held on the page until the lanes above are idle. */
   queued: Queued | null;
 }
 
@@ -90,12 +94,14 @@ export class FieldClient {
   }
 
   /**
-   * Sends a request in a lane: at once when the lane (and every lane of higher priority) is idle,
-   * otherwise it waits, replacing — and resolving with SUPERSEDED — any request already waiting there.
-   * Lower `priority` numbers go first.
+   * Sends a request in a lane. It is posted at once when every lane of higher priority is idle
+   * (lower `priority` numbers go first), otherwise it waits on the page, replacing — and resolving
+   * with SUPERSEDED — any request of the lane already waiting there. Guarantees: every request
+   * resolves exactly once, with its result or SUPERSEDED (or rejects); the newest request of a lane
+   * is always carried out; a lane's results come in the order its requests were made.
    */
   latest<K extends Kind>(lane: string, priority: number, body: BodyOf<K>, onProgress?: Listener): Promise<ResultOf[K] | Superseded> {
-    const state = this.lanes.get(lane) ?? { priority, busy: false, queued: null };
+    const state = this.lanes.get(lane) ?? { priority, atWorker: 0, queued: null };
     this.lanes.set(lane, state);
     return new Promise((resolve, reject) => {
       const pending: Pending = { resolve: resolve as (value: unknown) => void, reject, onProgress };
@@ -108,7 +114,7 @@ export class FieldClient {
   /** True while a lane has a request at the worker or waiting. */
   isBusy(lane: string): boolean {
     const state = this.lanes.get(lane);
-    return !!state && (state.busy || state.queued !== null);
+    return !!state && (state.atWorker > 0 || state.queued !== null);
   }
 
   terminate(): void {
@@ -116,20 +122,23 @@ export class FieldClient {
     this.worker.terminate();
   }
 
+  /** Posts the lanes' waiting requests whose turn it is. */
   private pump(): void {
-    const ordered = [...this.lanes.values()].sort((a, b) => a.priority - b.priority);
-    for (const lane of ordered) {
-      if (lane.queued && !lane.busy) {
-        const higherActive = ordered.some((other) => other.priority < lane.priority && (other.busy || other.queued));
-        if (higherActive) continue;
-        const { body, pending } = lane.queued;
-        lane.queued = null;
-        lane.busy = true;
-        const done = () => {
-          lane.busy = false;
-          this.pump();
-        };
-        this.send(body, {
+    const ordered = [...this.lanes].sort(([, a], [, b]) => a.priority - b.priority);
+    for (const [laneName, lane] of ordered) {
+      if (!lane.queued) continue;
+      const higherActive = ordered.some(([, other]) => other.priority < lane.priority && (other.atWorker > 0 || other.queued));
+      if (higherActive) continue;
+      const { body, pending } = lane.queued;
+      lane.queued = null;
+      lane.atWorker++;
+      const done = () => {
+        lane.atWorker--;
+        if (lane.atWorker === 0) this.pump();
+      };
+      this.send(
+        body,
+        {
           onProgress: pending.onProgress,
           resolve: (value) => {
             pending.resolve(value);
@@ -139,19 +148,20 @@ export class FieldClient {
             pending.reject(error);
             done();
           },
-        });
-      }
+        },
+        laneName,
+      );
     }
   }
 
-  private send(body: WorkerRequestBody, pending: Pending): void {
+  private send(body: WorkerRequestBody, pending: Pending, lane?: string): void {
     if (this.broken) {
       pending.reject(new WorkerFailure(this.broken));
       return;
     }
     const id = this.nextId++;
     this.pending.set(id, pending);
-    const message = { ...body, id } as WorkerRequest;
+    const message = (lane === undefined ? { ...body, id } : { ...body, id, lane }) as WorkerMessage;
     const transfer = message.type === 'open' && message.source.kind === 'bytes' ? [message.source.bytes] : [];
     this.worker.postMessage(message, transfer);
   }
@@ -169,6 +179,7 @@ export class FieldClient {
     }
     this.pending.delete(reply.id);
     if (reply.type === 'done') pending.resolve(reply.result);
+    else if (reply.type === 'superseded') pending.resolve(SUPERSEDED);
     else pending.reject(new WorkerFailure(reply.error));
   }
 
@@ -179,7 +190,6 @@ export class FieldClient {
     for (const lane of this.lanes.values()) {
       if (lane.queued) all.push(lane.queued.pending);
       lane.queued = null;
-      lane.busy = false;
     }
     for (const pending of all) pending.reject(new WorkerFailure(error));
   }

@@ -15,6 +15,7 @@ import {
   type BoundaryMode,
   type FieldRequest,
   type IndexBudget,
+  type PreparedGroundwork,
   type SolvedField,
   type TriangleMesh,
 } from '@/lib/field';
@@ -51,6 +52,8 @@ const FIRST_GUESS_MS_PER_GUIDE = 0.5;
  */
 export class FieldEngine {
   private mesh: TriangleMesh | null = null;
+  /** What the server's check worked out for the open surface (its prepared form's), for every preparation of it. */
+  private groundwork: PreparedGroundwork | undefined;
   private surface: GroomSurface | null = null;
   private drawing: FieldDrawing | null = null;
   /** The mesh guides sample their roots on when it is not the open surface (see RootsSource). */
@@ -85,18 +88,22 @@ export class FieldEngine {
     // The page draws the surface while the solver is prepared.
     this.progress({ stage: 'surface read', fraction: 1, preview: previewOf(read.mesh) });
     const t2 = now();
+    this.groundwork = read.groundwork;
     this.prepare(read.mesh, boundary);
     const t3 = now();
     return describeSurface(this.requireSurface(), read.fileVertexCount, { downloadMilliseconds: read.downloaded - started, readMilliseconds: read.readAt - read.downloaded, prepareMilliseconds: t3 - t2 });
   }
 
-  private async read(source: SurfaceSource): Promise<{ mesh: TriangleMesh; fileVertexCount: number; downloaded: number; readAt: number }> {
+  private async read(source: SurfaceSource): Promise<{ mesh: TriangleMesh; fileVertexCount: number; downloaded: number; readAt: number; groundwork?: PreparedGroundwork }> {
     const loaded = await loadSurfaceBytes(source, this.progress);
     const downloaded = now();
     if ('mesh' in loaded) return { mesh: loaded.mesh, fileVertexCount: loaded.mesh.positions.length / 3, downloaded, readAt: now() };
     this.progress({ stage: 'reading the surface file', fraction: null });
     const read = readSurfaceOrPrepared(loaded.bytes, loaded.fileName);
-    return { mesh: read.mesh, fileVertexCount: read.sourceVertexCount, downloaded, readAt: now() };
+    // Only a prepared form fetched from the studio's server (written by its check) is vouched for;
+    // bytes handed over by the page are checked like any file. Orderings are checked before use, whatever their source.
+    const groundwork = read.groundwork && (source.kind === 'url' ? read.groundwork : { ...read.groundwork, checked: false });
+    return { mesh: read.mesh, fileVertexCount: read.sourceVertexCount, downloaded, readAt: now(), groundwork };
   }
 
   /** Reads a file that may be broken, only to draw it: no checks beyond what reading needs. */
@@ -111,7 +118,9 @@ export class FieldEngine {
     const faces = mesh.triangles.length / 3;
     this.progress({ stage: 'preparing the field solver (a one-off factorization of the surface)', fraction: null, expectedMilliseconds: faces * PREPARE_MS_PER_FACE });
     const t0 = now();
-    const surface = prepareGroomSurface(mesh, { boundary });
+    // The server's ordering is checked before use (a wrong one is worked out again), its check mark taken at its word.
+    const given = this.groundwork;
+    const surface = prepareGroomSurface(mesh, { boundary, ...(given ? { checked: given.checked, ringOrderings: given.ringOrderings } : {}) });
     const spent = now() - t0;
     if (faces > 1000) this.progress({ stage: 'surface prepared', fraction: 1, expectedMilliseconds: spent });
     this.mesh = mesh;

@@ -1,17 +1,20 @@
 // The studio's field worker: one FieldEngine per page, answering the protocol of protocol.ts.
-// Requests are answered one at a time, in order; the page (field-client.ts) makes sure that
-// only the newest solve of a burst is sent, so a drag never queues up stale work here.
+// Requests are answered one at a time, in the order they came; of a lane's requests (a drag's
+// solves, posted at once) only the newest waiting one is carried out, the older ones answered as
+// superseded (request-queue.ts) — so the worker never waits on a busy page to hear the newest
+// position, and a drag never queues up stale work here.
 // First, before any schema is built in this worker: no code generation under the app's policy.
 import '@/lib/http/no-eval';
 import { FieldEngine } from './field-engine';
 import { errorOf } from './field-reports';
-import type { WorkerReply, WorkerRequest } from './protocol';
+import type { WorkerMessage, WorkerReply, WorkerRequest } from './protocol';
+import { RequestQueue } from './request-queue';
 
 // The worker's global scope, typed by hand: the project compiles against the DOM's types, which
 // cannot be mixed with the web worker library's.
 const scope = self as unknown as {
   postMessage(message: WorkerReply, transfer: Transferable[]): void;
-  onmessage: ((event: MessageEvent<WorkerRequest>) => void) | null;
+  onmessage: ((event: MessageEvent<WorkerMessage>) => void) | null;
 };
 
 let current = 0;
@@ -57,11 +60,32 @@ async function answer(request: WorkerRequest): Promise<unknown> {
   }
 }
 
-let queue: Promise<void> = Promise.resolve();
+const queue = new RequestQueue();
+let running = false;
+let scheduled = false;
+// The next step runs as a task of its own, queued behind the messages that arrived while the last
+// request ran (a MessagePort's messages and the worker's own share the posted-message task queue,
+// in order), so the queue sees every request sent meanwhile before it picks the next one.
+const turns = new MessageChannel();
+turns.port1.onmessage = () => {
+  scheduled = false;
+  void step();
+};
 
-scope.onmessage = (event) => {
-  const request = event.data;
-  queue = queue.then(async () => {
+function schedule(): void {
+  if (running || scheduled) return;
+  scheduled = true;
+  turns.port2.postMessage(null);
+}
+
+async function step(): Promise<void> {
+  for (let next = queue.take(); next; next = queue.take()) {
+    const { request } = next;
+    if (next.kind === 'superseded') {
+      post({ id: request.id, type: 'superseded' });
+      continue;
+    }
+    running = true;
     current = request.id;
     try {
       const result = await answer(request);
@@ -69,5 +93,13 @@ scope.onmessage = (event) => {
     } catch (error) {
       post({ id: request.id, type: 'failed', error: errorOf(error) });
     }
-  });
+    running = false;
+    schedule();
+    return;
+  }
+}
+
+scope.onmessage = (event) => {
+  queue.add(event.data);
+  schedule();
 };

@@ -49,6 +49,13 @@ export type WorkerRequest =
   | { readonly id: number; readonly type: 'twist-faces' };
 
 /**
+ * A request as the page posts it: with `lane`, only the newest request of that lane counts — an
+ * older one still waiting when a newer one arrives is answered `superseded`, not carried out
+ * (request-queue.ts).
+ */
+export type WorkerMessage = WorkerRequest & { readonly lane?: string };
+
+/**
  * What a solve request carries of a spec: all but its painted maps, guide sets and symmetry,
  * which a solve never reads (it reads the field, the up axis and the pins) and which can weigh
  * megabytes — a drag sends a solve request at every pointer move.
@@ -93,7 +100,9 @@ export interface SurfacePreview {
 export type WorkerReply =
   | { readonly id: number; readonly type: 'progress'; readonly progress: ProgressReport }
   | { readonly id: number; readonly type: 'done'; readonly result: unknown }
-  | { readonly id: number; readonly type: 'failed'; readonly error: WorkerError };
+  | { readonly id: number; readonly type: 'failed'; readonly error: WorkerError }
+  /** A lane's request that a newer one of the same lane replaced before the worker started on it. */
+  | { readonly id: number; readonly type: 'superseded' };
 
 export interface ComponentSummary {
   readonly faceCount: number;

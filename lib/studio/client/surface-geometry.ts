@@ -113,3 +113,16 @@ export function surfaceBounds(positions: ArrayLike<number>): { center: Vec3; rad
   const radius = Math.hypot(hi[0] - lo[0], hi[1] - lo[1], hi[2] - lo[2]) / 2;
   return { center, radius: Number.isFinite(radius) && radius > 0 ? radius : 1 };
 }
+
+/**
+ * True when a surface drawn in single precision (`drawn`: the surface as read, SurfacePreview) is
+ * exactly the prepared surface: the same triangles in the same order, and each position the
+ * prepared one rounded to single precision. The page then keeps what it already uploaded instead of
+ * drawing the same million triangles a second time. Linear in the size, stops at the first difference.
+ */
+export function drawsSameSurface(drawn: { readonly positions: ArrayLike<number>; readonly triangles: ArrayLike<number> }, prepared: { readonly positions: ArrayLike<number>; readonly triangles: ArrayLike<number> }): boolean {
+  if (drawn.triangles.length !== prepared.triangles.length || drawn.positions.length !== prepared.positions.length) return false;
+  for (let i = 0; i < drawn.triangles.length; i++) if (drawn.triangles[i] !== prepared.triangles[i]) return false;
+  for (let i = 0; i < drawn.positions.length; i++) if (drawn.positions[i] !== Math.fround(prepared.positions[i])) return false;
+  return true;
+}

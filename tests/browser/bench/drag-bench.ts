@@ -7,18 +7,19 @@
 // (lib/studio/client/drag-timing.ts); from those come the field updates drawn per second and the
 // pointer-to-field latency (tests/browser/bench/drag-figures.ts). A second, shorter drag on the
 // 50k sphere runs under the page's CPU profiler (Chrome DevTools Protocol) for where the main
-// thread's time goes; it is not counted in the figures.
+// thread's time goes; it is not counted in the figures. The stage draws at a lower pixel ratio while
+// a marker is dragged (Stage.tsx, DRAG_PIXEL_RATIO); a further counted drag on the 50k sphere keeps
+// the full ratio (`window.whorlwindDragPixelRatio = 1`) to show what that is worth.
 // Targets: 50k faces ≥ 25 updates/s and p95 ≤ 120 ms; 200k faces ≥ 10 updates/s. Run:
 //   npm test -- browser --config tests/browser/bench/playwright.config.ts --grep drag
 // The figures are printed and written to .data/test-reports/drag-bench.json.
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { expect, test, type Page } from '@playwright/test';
-import { closeDb, db } from '../../../lib/platform/db';
-import { uvSphere } from '../../fixtures/shapes';
-import { surfaceToObj } from '../../../lib/groom/demo/obj';
+import { closeDb } from '../../../lib/platform/db';
 import { confirmedAccount, signInThroughForm } from '../helpers';
 import { waitForField, waitForSaved } from '../studio-helpers';
+import { serverIdle, sphereGroom, sphereObj } from './bench-groom';
 import { dragFigures, nearestRank, type DragAsk, type DrawnField } from './drag-figures';
 
 test.afterAll(closeDb);
@@ -31,44 +32,6 @@ const SIZES = [
 ];
 
 /** Waits until the server's queued work (surface checks, thumbnails) is done: here it shares the two cores with the browser. */
-async function serverIdle() {
-  await expect
-    .poll(async () => Number((await db().raw(`SELECT count(*) AS n FROM pgboss.job WHERE state IN ('created', 'retry', 'active') AND start_after <= now()`)).rows[0].n), { timeout: 300_000, intervals: [500] })
-    .toBe(0);
-}
-
-async function api<T>(page: Page, method: 'get' | 'post' | 'put', url: string, data?: unknown): Promise<T> {
-  const response = await page.request[method](url, data === undefined ? {} : { data });
-  const body = await response.json();
-  if (!response.ok()) throw new Error(`${method.toUpperCase()} ${url}: ${response.status()} ${JSON.stringify(body)}`);
-  return body.data as T;
-}
-
-/** A groom with two twisted whorls on a UV sphere of radius 10 cm, made through the studio API as the pages would. */
-async function sphereGroom(page: Page, rings: number, segments: number): Promise<{ groomId: string; faces: number; objBytes: number }> {
-  const mesh = uvSphere(rings, segments, 10);
-  const obj = Buffer.from(surfaceToObj(mesh, `uv sphere ${rings} × ${segments}, for the drag benchmark`));
-  const ticket = await api<{ uploadId: string; url: string }>(page, 'post', '/api/studio/uploads', { fileName: `sphere-${rings}x${segments}.obj`, byteSize: obj.byteLength });
-  const put = await fetch(ticket.url, { method: 'PUT', body: obj });
-  expect(put.ok).toBe(true);
-  const { surface } = await api<{ surface: { id: string } }>(page, 'post', '/api/studio/surfaces', { uploadId: ticket.uploadId, name: `Sphere ${rings} × ${segments}`, units: 'cm' });
-  await expect
-    .poll(async () => (await api<{ surface: { state: string } }>(page, 'get', `/api/studio/surfaces/${surface.id}`)).surface.state, { timeout: 300_000, intervals: [1000] })
-    .toBe('ready');
-  const { groom } = await api<{ groom: { id: string; revision: number } }>(page, 'post', '/api/studio/grooms', { surfaceId: surface.id, name: 'Drag bench coat' });
-  await api(page, 'put', `/api/studio/grooms/${groom.id}/spec`, {
-    baseRevision: groom.revision,
-    spec: {
-      specVersion: 2,
-      units: 'cm',
-      upAxis: 'z',
-      field: { singularities: [{ point: [10, 0, 0], index: 1, twist: 0 }, { point: [-10, 0, 0], index: 1, twist: 180 }] },
-      guides: { density: 2, length: 1.5 },
-    },
-  });
-  return { groomId: groom.id, faces: mesh.triangles.length / 3, objBytes: obj.byteLength };
-}
-
 /**
  * Holds whorl 1 (pressed with the real mouse in the middle of the view, where "Look at" put it)
  * and moves it in circles with pointer moves dispatched on the canvas from requestAnimationFrame.
@@ -149,6 +112,32 @@ function topOfProfile(profile: { nodes: { id: number; callFrame: { functionName:
   };
 }
 
+/** One counted drag of whorl 1 on the open page, with its figures. */
+async function countedDrag(page: Page, label: string, made: { faces: number; objBytes: number }, firstField: number): Promise<Record<string, unknown>> {
+  const span = await dragInPage(page, DRAG_SECONDS);
+  // The drag ends with a full solve and its measurement: the proof must still hold.
+  await expect(page.getByTestId('index-proof')).toContainText('2 singularities found, each exactly where one was placed; none elsewhere', { timeout: 120_000 });
+  const marks = await marksOf(page);
+  const figures = dragFigures(marks.asks as DragAsk[], marks.drawn as DrawnField[], span.started, span.ended);
+  const quick = marks.solved.filter((s) => s.quick && s.at >= span.started && s.at <= span.ended + 1000);
+  const stage = (name: string) => Math.round(median(quick.map((s) => s.stages?.[name] ?? NaN).filter(Number.isFinite)) * 10) / 10;
+  return {
+    surface: label,
+    faces: made.faces,
+    objBytes: made.objBytes,
+    firstFieldMilliseconds: Math.round(firstField),
+    pointerMovesDispatched: span.moves,
+    ...figures,
+    updatesPerSecond: Math.round(figures.updatesPerSecond * 10) / 10,
+    latencyP50: Math.round(figures.latencyP50),
+    latencyP95: Math.round(figures.latencyP95),
+    latencyMax: Math.round(figures.latencyMax),
+    quickSolvesInWorker: quick.length,
+    medianQuickSolveMilliseconds: Math.round(median(quick.map((s) => s.milliseconds)) * 10) / 10,
+    medianWorkerStages: { request: stage('request'), solve: stage('solve'), drawing: stage('drawing') },
+  };
+}
+
 test('studio editor: dragging a whorl on 50k- and 200k-face surfaces, updates drawn per second and pointer-to-field latency', async ({ page }) => {
   test.setTimeout(1_200_000);
   const loadBefore = loadavg().map((x) => Math.round(x * 100) / 100);
@@ -174,36 +163,21 @@ test('studio editor: dragging a whorl on 50k- and 200k-face surfaces, updates dr
     return result;
   };
   for (const size of SIZES) {
-    const made = await sphereGroom(page, size.rings, size.segments);
+    const sphere = sphereObj(size.rings, size.segments, 'drag benchmark');
+    const made = await sphereGroom(page, sphere.obj, sphere.faces, 'Drag bench');
     await serverIdle();
     const firstField = await openLookingAtWhorl(page, made.groomId);
 
-    const span = await dragInPage(page, DRAG_SECONDS);
-    // The drag ends with a full solve and its measurement: the proof must still hold.
-    await expect(page.getByTestId('index-proof')).toContainText('2 singularities found, each exactly where one was placed; none elsewhere', { timeout: 120_000 });
-    const marks = await marksOf(page);
-    const figures = dragFigures(marks.asks as DragAsk[], marks.drawn as DrawnField[], span.started, span.ended);
-    const quick = marks.solved.filter((s) => s.quick && s.at >= span.started && s.at <= span.ended + 1000);
-    const stage = (name: string) => Math.round(median(quick.map((s) => s.stages?.[name] ?? NaN).filter(Number.isFinite)) * 10) / 10;
-    results.push({
-      surface: size.label,
-      faces: made.faces,
-      objBytes: made.objBytes,
-      firstFieldMilliseconds: Math.round(firstField),
-      pointerMovesDispatched: span.moves,
-      ...figures,
-      updatesPerSecond: Math.round(figures.updatesPerSecond * 10) / 10,
-      latencyP50: Math.round(figures.latencyP50),
-      latencyP95: Math.round(figures.latencyP95),
-      latencyMax: Math.round(figures.latencyMax),
-      quickSolvesInWorker: quick.length,
-      medianQuickSolveMilliseconds: Math.round(median(quick.map((s) => s.milliseconds)) * 10) / 10,
-      medianWorkerStages: { request: stage('request'), solve: stage('solve'), drawing: stage('drawing') },
-    });
-
+    results.push(await countedDrag(page, size.label, made, firstField));
     report();
     await waitForSaved(page).catch(() => undefined);
     if (size.label === '50k') {
+      // The same drag with the stage at its full pixel ratio throughout, on the page opened again.
+      const again = await openLookingAtWhorl(page, made.groomId);
+      await page.evaluate(() => ((window as { whorlwindDragPixelRatio?: number }).whorlwindDragPixelRatio = 1));
+      results.push(await countedDrag(page, `${size.label}, full pixel ratio while dragging`, made, again));
+      report();
+      await waitForSaved(page).catch(() => undefined);
       // Where the page's main thread spends a drag (not counted above: the profiler slows it), on
       // the page opened again, so that nothing is selected and whorl 1 is in the middle of the view.
       await openLookingAtWhorl(page, made.groomId);

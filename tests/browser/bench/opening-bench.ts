@@ -19,33 +19,18 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { performance as nodePerformance } from 'node:perf_hooks';
 import { expect, test, type CDPSession, type Page } from '@playwright/test';
-import { closeDb, db } from '../../../lib/platform/db';
-import { uvSphere } from '../../fixtures/shapes';
-import { surfaceToObj } from '../../../lib/groom/demo/obj';
+import { closeDb } from '../../../lib/platform/db';
 import { readSurface, prepareSurface } from '../../../lib/field';
 import { prepareGroomSurface } from '../../../lib/groom';
 import { confirmedAccount, signInThroughForm } from '../helpers';
 import { waitForField } from '../studio-helpers';
 import { topSelfTime, type CpuProfile } from './profile-summary';
+import { serverIdle, sphereGroom, sphereObj } from './bench-groom';
 
 test.afterAll(closeDb);
 
 const OPENINGS = 3;
 const REPORTS = '.data/test-reports';
-
-/** Waits until the server's queued work (the surface check, thumbnails) is done: here the app, its jobs and the browser share two cores. */
-async function serverIdle() {
-  await expect
-    .poll(async () => Number((await db().raw(`SELECT count(*) AS n FROM pgboss.job WHERE state IN ('created', 'retry', 'active') AND start_after <= now()`)).rows[0].n), { timeout: 600_000, intervals: [1000] })
-    .toBe(0);
-}
-
-async function api<T>(page: Page, method: 'post' | 'put', url: string, data: unknown): Promise<T> {
-  const response = await page.request[method](url, { data, timeout: 300_000 });
-  const body = await response.json();
-  if (!response.ok()) throw new Error(`${method.toUpperCase()} ${url}: ${response.status()} ${JSON.stringify(body)}`);
-  return body.data as T;
-}
 
 /** Records, from the document's start, the opening's progress lines and the main thread's long tasks. */
 function watchOpening() {
@@ -90,6 +75,8 @@ async function openingFigures(page: Page) {
       firstSolveMilliseconds: Math.round(solved?.detail?.milliseconds ?? NaN),
       longestMainThreadTask: during.reduce((m, t) => Math.max(m, t.ms), 0),
       mainThreadLongTaskTotal: during.reduce((s, t) => s + t.ms, 0),
+      // Each long task's start (ms from navigation) and length, to tell which stage it belongs to.
+      longTasks: during,
       progressLines: w.__opening.lines,
     };
   });
@@ -149,10 +136,7 @@ async function profileOpening(page: Page): Promise<{ stop(): Promise<{ page: Cpu
 const median = (values: number[]) => [...values].sort((a, b) => a - b)[Math.floor(values.length / 2)];
 
 async function benchOpening(page: Page, rings: number, segments: number, profile: boolean) {
-  const mesh = uvSphere(rings, segments, 10);
-  const faces = mesh.triangles.length / 3;
-  const text = surfaceToObj(mesh, `uv sphere ${rings} × ${segments}, for the studio's opening benchmark`);
-  const obj = Buffer.from(text);
+  const { mesh, faces, obj } = sphereObj(rings, segments, "studio's opening benchmark");
 
   // The same preparation in Node, on the surface as the server reads it: twice (the first warms the engine up).
   const read = readSurface(new Uint8Array(obj), 'sphere.obj').mesh;
@@ -169,29 +153,14 @@ async function benchOpening(page: Page, rings: number, segments: number, profile
   const account = await confirmedAccount(`opening${faces}`, 'groomer', 'a-proper-coat-42');
   await signInThroughForm(page, account.email, account.password);
   await expect(page.getByTestId('signed-in-as')).toBeVisible();
-  const ticket = await api<{ uploadId: string; url: string }>(page, 'post', '/api/studio/uploads', { fileName: `sphere-${faces}.obj`, byteSize: obj.byteLength });
-  const put = await fetch(ticket.url, { method: 'PUT', body: obj });
-  expect(put.ok).toBe(true);
-  const { surface } = await api<{ surface: { id: string } }>(page, 'post', '/api/studio/surfaces', { uploadId: ticket.uploadId, name: `Sphere, ${faces} faces`, units: 'cm' });
-  await serverIdle();
-  const { groom } = await api<{ groom: { id: string; revision: number } }>(page, 'post', '/api/studio/grooms', { surfaceId: surface.id, name: 'Opening bench coat' });
-  await api(page, 'put', `/api/studio/grooms/${groom.id}/spec`, {
-    baseRevision: groom.revision,
-    spec: {
-      specVersion: 2,
-      units: 'cm',
-      upAxis: 'z',
-      field: { singularities: [{ point: [10, 0, 0], index: 1, twist: 0 }, { point: [-10, 0, 0], index: 1, twist: 180 }] },
-      guides: { density: 2, length: 1.5 },
-    },
-  });
+  const { groomId } = await sphereGroom(page, obj, faces, 'Opening bench');
   await page.addInitScript(watchOpening);
   const timeout = Math.max(120_000, faces * 0.3);
   const openings = [];
   await serverIdle();
   for (let i = 0; i < OPENINGS + (profile ? 1 : 0); i++) {
     const profiler = i === OPENINGS ? await profileOpening(page) : null;
-    await page.goto(`/studio/grooms/${groom.id}`);
+    await page.goto(`/studio/grooms/${groomId}`);
     await waitForField(page, timeout);
     if (profiler) {
       const profiles = await profiler.stop();

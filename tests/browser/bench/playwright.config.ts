@@ -1,4 +1,4 @@
-// The studio's browser benchmarks (studio-bench.ts; opening-bench.ts: --grep opening; drag-bench.ts: --grep drag) on their own: `npm test` runs
+// The studio's browser benchmarks (opening-bench.ts: --grep opening; drag-bench.ts: --grep drag) on their own: `npm test` runs
 // tests/browser/*.spec.ts only. Run it against the test stack with
 //   npm test -- browser --config tests/browser/bench/playwright.config.ts
 import { defineConfig } from '@playwright/test';
@@ -7,7 +7,7 @@ import base from '../../../playwright.config';
 export default defineConfig({
   ...base,
   testDir: '.',
-  testMatch: ['studio-bench.ts', 'opening-bench.ts', 'drag-bench.ts'],
+  testMatch: ['opening-bench.ts', 'drag-bench.ts'],
   timeout: 600_000,
   outputDir: '../../../.data/test-reports/studio-bench-results',
 });

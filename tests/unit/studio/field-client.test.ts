@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { FieldClient, SUPERSEDED, WorkerFailure, type WorkerLike } from '@/lib/studio/client/field-client';
-import type { WorkerReply, WorkerRequest } from '@/lib/studio/client/protocol';
+import type { WorkerMessage, WorkerReply } from '@/lib/studio/client/protocol';
 
 /** A worker that holds every request until the test answers it. */
 class FakeWorker implements WorkerLike {
-  readonly received: WorkerRequest[] = [];
+  readonly received: WorkerMessage[] = [];
   onmessage: ((event: MessageEvent<WorkerReply>) => void) | null = null;
   onerror: ((event: ErrorEvent) => void) | null = null;
   terminated = false;
-  postMessage(message: WorkerRequest) {
+  postMessage(message: WorkerMessage) {
     this.received.push(message);
   }
   reply(reply: WorkerReply) {
@@ -36,21 +36,29 @@ describe('the field client', () => {
     expect(seen).toEqual(['joining']);
   });
 
-  it('in a lane, only the newest of the requests made while one is at the worker is sent', async () => {
+  it('in a lane, every request is posted at once with its lane; the worker\'s "superseded" resolves it as SUPERSEDED', async () => {
     const worker = new FakeWorker();
     const client = new FieldClient(worker);
     const first = client.latest('field', 0, solve(true));
     const second = client.latest('field', 0, solve(true));
     const third = client.latest('field', 0, solve(false));
-    expect(worker.received).toHaveLength(1);
-    await expect(second).resolves.toBe(SUPERSEDED);
+    expect(worker.received.map((r) => [r.type, (r as { lane?: string }).lane])).toEqual([['solve', 'field'], ['solve', 'field'], ['solve', 'field']]);
     worker.reply({ id: worker.received[0].id, type: 'done', result: 'one' });
+    worker.reply({ id: worker.received[1].id, type: 'superseded' });
     await expect(first).resolves.toBe('one');
-    expect(worker.received).toHaveLength(2);
-    expect(worker.received[1]).toMatchObject({ type: 'solve', quick: false });
-    worker.reply({ id: worker.received[1].id, type: 'done', result: 'three' });
+    await expect(second).resolves.toBe(SUPERSEDED);
+    expect(client.isBusy('field')).toBe(true);
+    expect(worker.received[2]).toMatchObject({ type: 'solve', quick: false });
+    worker.reply({ id: worker.received[2].id, type: 'done', result: 'three' });
     await expect(third).resolves.toBe('three');
     expect(client.isBusy('field')).toBe(false);
+  });
+
+  it('a request outside a lane carries no lane (the worker never supersedes it)', () => {
+    const worker = new FakeWorker();
+    const client = new FieldClient(worker);
+    void client.request({ type: 'find-mirror' });
+    expect(worker.received[0]).not.toHaveProperty('lane');
   });
 
   it('a lower-priority lane waits until the field lane is idle', async () => {
@@ -58,11 +66,16 @@ describe('the field client', () => {
     const client = new FieldClient(worker);
     const field = client.latest('field', 0, solve(true));
     const guides = client.latest('guides', 1, { type: 'grow', spec });
-    expect(worker.received.map((r) => r.type)).toEqual(['solve']);
-    worker.reply({ id: worker.received[0].id, type: 'done', result: 'field' });
-    await field;
-    expect(worker.received.map((r) => r.type)).toEqual(['solve', 'grow']);
-    worker.reply({ id: worker.received[1].id, type: 'done', result: 'guides' });
+    const laterField = client.latest('field', 0, solve(false));
+    expect(worker.received.map((r) => r.type)).toEqual(['solve', 'solve']);
+    worker.reply({ id: worker.received[0].id, type: 'superseded' });
+    await expect(field).resolves.toBe(SUPERSEDED);
+    // Still one of the field lane's requests at the worker: the guides keep waiting.
+    expect(worker.received.map((r) => r.type)).toEqual(['solve', 'solve']);
+    worker.reply({ id: worker.received[1].id, type: 'done', result: 'field' });
+    await laterField;
+    expect(worker.received.map((r) => r.type)).toEqual(['solve', 'solve', 'grow']);
+    worker.reply({ id: worker.received[2].id, type: 'done', result: 'guides' });
     await expect(guides).resolves.toBe('guides');
   });
 

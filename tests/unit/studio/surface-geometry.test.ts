@@ -1,7 +1,11 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { checkSurfaceFile, readSurface } from '@/lib/field';
-import { guideSegments, nearestCorner, neighbourOf, problemMarks } from '@/lib/studio/client/surface-geometry';
+import { drawsSameSurface, guideSegments, nearestCorner, neighbourOf, problemMarks } from '@/lib/studio/client/surface-geometry';
+import { surfaceToObj } from '@/lib/groom/demo/obj';
+import { uvSphere } from '@/lib/groom/demo/primitives';
+import { FieldEngine } from '@/lib/studio/client/field-engine';
+import type { SurfacePreview } from '@/lib/studio/client/protocol';
 import { nameFromFile, timeAgo } from '@/lib/studio/client/format';
 import { formatBytes, extensionOf } from '@/lib/studio/client/api';
 
@@ -83,5 +87,26 @@ describe('small helpers', () => {
       if (viewers === undefined) delete process.env.TZ;
       else process.env.TZ = viewers;
     }
+  });
+});
+
+describe('the surface as read and the prepared surface drawn once (drawsSameSurface)', () => {
+  it('holds for a surface the field engine opened: the preview it sends first draws exactly the prepared surface', async () => {
+    const sphere = uvSphere(12, 16, 10);
+    let preview: SurfacePreview | undefined;
+    const engine = new FieldEngine((report) => (preview ??= report.preview));
+    const opened = await engine.open({ kind: 'bytes', bytes: new TextEncoder().encode(surfaceToObj(sphere, 'sphere')).buffer as ArrayBuffer, fileName: 'sphere.obj' }, 'free');
+    expect(preview).toBeDefined();
+    expect(drawsSameSurface(preview!, opened)).toBe(true);
+  });
+
+  it('fails on another triangle order, on a position that single precision tells apart, and on another size; passes on rounding alone', () => {
+    // 1 + 2⁻³⁰ rounds to 1 in single precision (24-bit significand, IEEE 754); 1 + 2⁻²⁰ does not.
+    const prepared = { positions: new Float64Array([0, 0, 0, 1 + 2 ** -30, 0, 0, 0, 1, 0]), triangles: new Uint32Array([0, 1, 2]) };
+    const drawn = { positions: new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), triangles: new Uint32Array([0, 1, 2]) };
+    expect(drawsSameSurface(drawn, prepared)).toBe(true);
+    expect(drawsSameSurface({ ...drawn, triangles: new Uint32Array([1, 2, 0]) }, prepared)).toBe(false);
+    expect(drawsSameSurface(drawn, { ...prepared, positions: new Float64Array([0, 0, 0, 1 + 2 ** -20, 0, 0, 0, 1, 0]) })).toBe(false);
+    expect(drawsSameSurface(drawn, { ...prepared, triangles: new Uint32Array([0, 1, 2, 0, 2, 1]) })).toBe(false);
   });
 });

@@ -30,6 +30,12 @@ export interface FieldSession {
   readonly onFieldDrawn: () => void;
   /** For the stage to call when it has drawn the surface (its preview or the prepared surface). */
   readonly onSurfaceDrawn: () => void;
+  /**
+   * Asks at once for the quick solve of a spec a dragged marker just made, from the pointer's own
+   * handler: the request reaches the worker before the page renders or draws anything for the
+   * move, instead of after (the render that follows sends nothing more for the same spec).
+   */
+  readonly solveNow: (spec: GroomSpec) => void;
 }
 
 /** A field drawing with the drag ask it answers (null when no drag asked for it). */
@@ -148,6 +154,15 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     if (surface && client) requestSolve(client, spec, display, quick);
   }, [client, display, quick, requestSolve, spec, surface]);
 
+  const live = useLatest({ client, surface, display });
+  const solveNow = useCallback(
+    (next: GroomSpec) => {
+      const { client: worker, surface: opened, display: shown } = live.current;
+      if (worker && opened) requestSolve(worker, next, shown, true);
+    },
+    [live, requestSolve],
+  );
+
   const drawing: Shown | null = solve?.lines ? { lines: solve.lines, shade: solve.lineShade, ask: askOfReport.current.get(solve) ?? null, quick: solve.quick } : lastDrawing;
   // The drawing of this render is the one the stage's next "drawn" call is about.
   const shown = useRef(drawing);
@@ -164,5 +179,5 @@ export function useFieldSession({ source, initialSpec, spec, display, quick, onF
     performance.mark('whorlwind:surface-shown');
   }, []);
 
-  return { client, surface, preview, stages, openError, task, solve, solvedSpec: solve ? (specOfReport.current.get(solve) ?? null) : null, drawing, onFieldDrawn, onSurfaceDrawn };
+  return { client, surface, preview, stages, openError, task, solve, solvedSpec: solve ? (specOfReport.current.get(solve) ?? null) : null, drawing, onFieldDrawn, onSurfaceDrawn, solveNow };
 }

@@ -53,7 +53,7 @@ export interface ToolDriver {
   readonly painting: ReturnType<typeof strokeInView>;
 }
 
-export function useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice }: {
+export function useToolDriver({ getEditor, setEditor, surface, solve, options, stage, onNotice, onDragMove }: {
   getEditor: () => EditorState;
   setEditor: (next: EditorState) => void;
   surface: OpenedSurface | null;
@@ -61,6 +61,8 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
   options: ToolOptions;
   stage: RefObject<StageApi | null>;
   onNotice: (words: string | null) => void;
+  /** A held marker moved: the spec it made, handed over at once (for the field to be asked for without waiting on a render). */
+  onDragMove?: (spec: EditorState['present']['spec']) => void;
 }): ToolDriver {
   const [session, getSession, setSession] = useLiveState<ToolSession>(() => startSession());
   // The brush's view of the surface is prepared once per surface, when the brush is first used.
@@ -69,7 +71,7 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
     if (paintSurface.current?.surface !== opened) paintSurface.current = { surface: opened, paint: preparePaintSurface({ positions: opened.positions, triangles: opened.triangles }) };
     return paintSurface.current.paint;
   }, []);
-  const latest = useLatest({ surface, solve, options, onNotice });
+  const latest = useLatest({ surface, solve, options, onNotice, onDragMove });
   const solveBefore = useRef<SolveReport | null>(null);
 
   /** Runs one step of the session (none before the surface is open) and carries it out; false when nothing took it. */
@@ -121,14 +123,17 @@ export function useToolDriver({ getEditor, setEditor, surface, solve, options, s
         run((s, c) => pointerMove(s, hit, c));
         // A held marker that moved: the field now owes the groomer this position (timed from the event).
         const after = getEditor().present.spec;
-        if (after !== before && getSession().drag) markAsked(after, event.nativeEvent.timeStamp);
+        if (after !== before && getSession().drag) {
+          markAsked(after, event.nativeEvent.timeStamp);
+          latest.current.onDragMove?.(after);
+        }
       },
       up(event: ThreeEvent<PointerEvent>) {
         const hit = hitOf(event);
         if (hit) run((s, c) => pointerUp(s, hit, c));
       },
     }),
-    [getEditor, getSession, hitOf, run],
+    [getEditor, getSession, hitOf, latest, run],
   );
 
   // A release anywhere on the page ends a drag or a stroke (the surface hears only releases over it).

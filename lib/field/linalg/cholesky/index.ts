@@ -16,7 +16,7 @@ import { factorNumeric } from './numeric';
 import type { CholeskyFactor } from './solve';
 import { analyzeCholesky, type CholeskyOptions } from './symbolic';
 
-export { analyzeCholesky, computeOrdering, type CholeskyAnalysisOptions, type CholeskyOptions, type CholeskySymbolic } from './symbolic';
+export { analyzeCholesky, computeOrdering, permutationFault, type CholeskyAnalysisOptions, type CholeskyOptions, type CholeskySymbolic } from './symbolic';
 export { factorNumeric, NotPositiveDefiniteError } from './numeric';
 export type { CholeskyFactor } from './solve';
 

@@ -137,14 +137,24 @@ export function computeOrdering(
   return factorNonZeros(A, md) < factorNonZeros(A, nd) ? md : nd;
 }
 
-function checkedPermutation(perm: Int32Array, n: number): Int32Array {
-  if (perm.length !== n) throw new RangeError(`permutation has length ${perm.length}, expected ${n}`);
+/**
+ * Why `perm` is not a permutation of 0..n−1 (wrong length, an entry out of range or repeated),
+ * or null when it is one. Linear in n; reads nothing but `perm`, so it may be given any bytes.
+ */
+export function permutationFault(perm: ArrayLike<number>, n: number): string | null {
+  if (perm.length !== n) return `it has length ${perm.length}, expected ${n}`;
   const seen = new Uint8Array(n);
   for (let k = 0; k < n; k++) {
     const v = perm[k];
-    if (!(v >= 0 && v < n) || seen[v]) throw new RangeError(`permutation is not a permutation of 0..${n - 1} (entry ${k} = ${v})`);
+    if (!(v >= 0 && v < n) || seen[v]) return `entry ${k} is ${v}, which is ${v >= 0 && v < n ? 'repeated' : `outside 0..${n - 1}`}`;
     seen[v] = 1;
   }
+  return null;
+}
+
+function checkedPermutation(perm: Int32Array, n: number): Int32Array {
+  const fault = permutationFault(perm, n);
+  if (fault) throw new RangeError(`permutation is not a permutation of 0..${n - 1}: ${fault}`);
   return perm;
 }
 
