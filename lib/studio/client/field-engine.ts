@@ -318,11 +318,6 @@ export class FieldEngine {
     return this.roots.mesh;
   }
 
-  /**
-   * Reads the grain: the suggested layout of the spec's order (lib/field's suggestLayout) on the
-   * surface as the spec holds its boundary, its singularities as grain marks. Nothing placed is
-   * read: the suggestion is where the singularities would go if none had been placed.
-   */
   /** The open surface's mirror plane (`detectMirrorPlane`), with the mean edge as the seam. */
   findMirror(): FoundMirror {
     const surface = this.requireSurface();
@@ -340,6 +335,11 @@ export class FieldEngine {
     return { firstFace };
   }
 
+  /**
+   * Reads the grain: the suggested layout of the spec's order (lib/field's suggestLayout) on the
+   * surface as the spec holds its boundary, its singularities as grain marks. Nothing placed is
+   * read: the suggestion is where the singularities would go if none had been placed.
+   */
   readGrain(spec: GroomSpec, follow: GrainFollow): GrainReading {
     const t0 = now();
     const surface = this.ensureBoundary(spec);
