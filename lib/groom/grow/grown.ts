@@ -96,6 +96,8 @@ export type GrowOptions = {
    * Make the roots mirror-symmetric across this plane (`mirroredRoots`: the positive side's roots
    * and their mirror images), for a coat whose two sides must mirror each other. The count is then
    * about the asked one (twice the positive side's share), and ids follow the kept roots' order.
+   * The spec's `symmetry` does the same on its own (this names the plane when the spec has none,
+   * and wins over it).
    */
   readonly mirrorRootsAcross?: MirrorPlane;
 };

@@ -7,7 +7,7 @@ import { growthMask } from '../place/regions';
 import { downOf } from '../place/request';
 import { cellOrder, sampleRoots } from './roots';
 import { bindRoots, rootsOnSculpt } from './binding';
-import { mirroredRoots } from './mirror-roots';
+import { growthPlane, mirroredRoots, randomKey } from './mirror-roots';
 import { shapeGuide, waver, type WaverParameters } from './shape';
 import { gatherOnto, type Gather } from './tufts';
 import { planTufts } from './tuft-plan';
@@ -62,6 +62,11 @@ function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y:
  * keeping its own clearance). Without them the guides are those of version 2, bit for bit.
  * With `guideSets` the top-level `guides` block is not grown: each set grows on its own region with
  * its own settings (see `growGuideSets`); without them the guides are exactly as before sets existed.
+ * With the spec's `symmetry` (or `mirrorRootsAcross`), every set's roots are one side's and their
+ * mirrors (ids: a root, then its mirror), each mirror grown with its source's random choices
+ * mirrored and its tuft the mirror of its source's; on a surface that is its own mirror image,
+ * under a field that is too, the two guides of a pair mirror each other to rounding. Without it,
+ * exactly as before.
  */
 export function growGuides(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, options: GrowOptions = {}): GrowResult {
   const t0 = now();
@@ -98,7 +103,11 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
   const sample = (on: TriangleMesh, faceArea: Float64Array) =>
     sampleRoots({ positions: on.positions, triangles: on.triangles, faceArea, count: wanted, allowedFace: mask, vertexDensity: pins.density, seed: settings.seed });
   const sampled = options.rootsFrom ? rootsOnSculpt(options.rootsFrom, mesh, sample) : sample(mesh, surface.faceArea);
-  const roots = options.mirrorRootsAcross ? mirroredRoots(surface, sampled, options.mirrorRootsAcross) : sampled;
+  // Mirror symmetry: one side's roots and their mirrors; a mirror takes its source's random choices (mirror-roots.ts).
+  const plane = growthPlane(spec.symmetry, options.mirrorRootsAcross);
+  const mirrored = plane ? mirroredRoots(surface, sampled, plane) : undefined;
+  const roots = mirrored ?? sampled;
+  const mirrorOf = mirrored?.mirrorOf;
   const t1 = now();
 
   const n = settings.pointsPerGuide;
@@ -130,9 +139,9 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
   /**
    * Grows one curve from a root into `out` (as curve `slot`): traced, shaped, drawn onto `gatherTo`
    * (a tuft's centre curve) and wandered when asked, then kept above the skin. `seed` and `id` key
-   * its own variation.
+   * its own variation; `mirror` when it is the mirror image of the curve `id` names (its curl and lean reflected).
    */
-  const growCurve = (out: Float64Array, slot: number, f0: number, root: Float64Array, bary: Float64Array, seed: number, id: number, shaping?: Shaping): void => {
+  const growCurve = (out: Float64Array, slot: number, f0: number, root: Float64Array, bary: Float64Array, seed: number, id: number, shaping?: Shaping, mirror = false): void => {
     const rx = root[0], ry = root[1], rz = root[2];
     weights.set(bary);
     const jitter = settings.jitter * factor(pins.jitter, f0);
@@ -149,6 +158,7 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
       jitterOffset: JITTER_LEAN * jitter * guideLength,
       jitterAngle: 2 * Math.PI * guideRandom(seed, id, 2),
       clearance,
+      mirrored: mirror,
     };
 
     // The skin path: points at arc lengths s_i·cos(lift) along the streamline from the root.
@@ -189,7 +199,7 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
 
   const tuftStart = now();
   const traceBefore = traceTime;
-  const tufting = settings.tufts ? planTufts(surface, settings.tufts, { mask, density: pins.density, areaSquareCm, area, seed: settings.seed, roots, growCurve, n }) : undefined;
+  const tufting = settings.tufts ? planTufts(surface, settings.tufts, { mask, density: pins.density, areaSquareCm, area, seed: settings.seed, roots, growCurve, n, ...(plane && mirrorOf ? { mirror: { plane, mirrorOf } } : {}) }) : undefined;
   // The tufts' own tracing counts as tracing; the rest of their planning is reported apart.
   const tuftTime = now() - tuftStart - (traceTime - traceBefore);
   const waverSettings = settings.waver && settings.waver.amplitude > 0 ? settings.waver : undefined;
@@ -211,8 +221,10 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
     const bary = roots.barycentric.subarray(3 * g, 3 * g + 3);
     const drawnOnto = tufting ? tufting.curveOf[g] : -1;
     if (gatherTo) gatherTo.curve = drawnOnto;
-    // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation.
-    if (knots) for (let k = 0; k < knots.length; k++) knots[k] = 2 * guideRandom(settings.seed, g, WAVER_CHANNEL + k) - 1;
+    const key = randomKey(mirrorOf, g), mirror = key !== g;
+    // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation;
+    // a mirror's across-values (even knots, along normal × tangent) negated, as in shape.ts's bend.
+    if (knots) for (let k = 0; k < knots.length; k++) knots[k] = (mirror && k % 2 === 0 ? -1 : 1) * (2 * guideRandom(settings.seed, key, WAVER_CHANNEL + k) - 1);
     // Painted gather and waver scale the spec's at the root (the shares capped at 1); without a map the records stay as they are.
     weights.set(bary);
     if (gatherTo && planGather && pins.gather) {
@@ -221,7 +233,7 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
     }
     if (waverParams && waverSettings && pins.waver) waverParams.amplitude = waverSettings.amplitude * factor(pins.waver, f0);
     const shaping = drawnOnto >= 0 ? (waverParams ? both : gathered) : waverParams ? wandered : undefined;
-    growCurve(points, g, f0, roots.position.subarray(3 * g, 3 * g + 3), bary, settings.seed, g, shaping);
+    growCurve(points, g, f0, roots.position.subarray(3 * g, 3 * g + 3), bary, settings.seed, key, shaping, mirror);
     stop[g] = tracer.end.reason;
     weights.set(bary);
     const widthFactor = factor(pins.width, f0);

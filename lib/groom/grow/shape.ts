@@ -22,6 +22,11 @@ export interface ShapeParameters {
   readonly jitterAngle: number;
   /** Height the guide keeps above the skin, surface units. */
   readonly clearance: number;
+  /**
+   * The guide is the mirror image of one grown with these parameters (mirror symmetry): its curl
+   * and lean are that guide's reflected — the curl turns the other way round the guide.
+   */
+  readonly mirrored?: boolean;
 }
 
 /**
@@ -110,7 +115,11 @@ function droop(out: Float64Array, o: number, n: number, params: ShapeParameters)
   }
 }
 
-/** Adds curl (a helix around the guide) and jitter (a sideways lean of the tip), both zero up to point 1. */
+/**
+ * Adds curl (a helix around the guide) and jitter (a sideways lean of the tip), both zero up to
+ * point 1. With `mirrored`, the offsets are the mirror images of those the same parameters give
+ * the mirrored guide (the same phase, lean angle and length; the helix's handedness reversed).
+ */
 function bend(out: Float64Array, o: number, n: number, step: number, skinNormal: Float64Array, params: ShapeParameters): void {
   const { curlAmplitude, curlWavelength, curlPhase, jitterOffset, jitterAngle } = params;
   if ((curlAmplitude <= 0 && jitterOffset <= 0) || n < 3) return;
@@ -141,6 +150,10 @@ function bend(out: Float64Array, o: number, n: number, step: number, skinNormal:
       a += lean * Math.cos(jitterAngle);
       b += lean * Math.sin(jitterAngle);
     }
+    // A reflection maps the frame (side, partner) of a guide to (−side′, partner′) of its mirror
+    // (the side is normal × tangent, and a reflection reverses cross products), so the mirror of
+    // the offset a·side + b·partner is −a·side′ + b·partner′.
+    if (params.mirrored) a = -a;
     offsets[3 * i] = a * bx + b * cx; offsets[3 * i + 1] = a * by + b * cy; offsets[3 * i + 2] = a * bz + b * cz;
   }
   for (let i = 2; i < n; i++) for (let k = 0; k < 3; k++) out[o + 3 * i + k] += offsets[3 * i + k];

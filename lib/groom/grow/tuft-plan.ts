@@ -4,6 +4,8 @@ import { guideRandom, hash32 } from './random';
 import type { Roots } from './roots';
 import { sampleRoots } from './roots';
 import { gathersNothing, nearestCentres, type Gather } from './tufts';
+import { firstMirroredRoots, mirroredRoots, mirrorPartners, randomKey } from './mirror-roots';
+import type { MirrorPlane } from '../spec/symmetry';
 
 /** Seeds of the two levels' centres, mixed with the groom's seed so the centres are not the guides' own first roots. */
 const TUFT_SEED = 0x7af7;
@@ -21,6 +23,7 @@ export type GrowCurve = (
   seed: number,
   id: number,
   shaping?: { gatherTo?: { curves: Float64Array; curve: number; gather: Gather } },
+  mirror?: boolean,
 ) => void;
 
 export interface TuftPlan {
@@ -46,6 +49,8 @@ export interface TuftContext {
   readonly roots: Roots;
   readonly growCurve: GrowCurve;
   readonly n: number;
+  /** Mirror symmetry: the plane, and which guide roots are mirrors of which (`MirroredRoots.mirrorOf`). */
+  readonly mirror?: { readonly plane: MirrorPlane; readonly mirrorOf: Int32Array };
 }
 
 /**
@@ -57,6 +62,12 @@ export interface TuftContext {
  * tufts' gather; then assigns every guide to the nearest centre (`nearestCentres`: in a straight
  * line, among centres facing its way) of the finest level, and its tuft through that centre.
  *
+ * With `mirror`, each level's centres are one side's and their mirrors (`mirroredRoots`, cut to
+ * the level's count without splitting a pair); a mirror centre's curve is grown with its source's
+ * random choices mirrored, its parent is the partner of its source's parent, a mirror guide's
+ * centre the partner of its source's, and its loner choice its source's — so membership mirrors
+ * exactly, whatever rounding does to near ties.
+ *
  * Guarantees: the same settings, surface and seed give the same plan; a loner (the `loners` share,
  * picked by the seed per guide id) has no tuft; an inner tuft lies in exactly one tuft.
  */
@@ -65,27 +76,34 @@ export function planTufts(surface: GroomSurface, tufts: NonNullable<GuideSetting
   const { mesh } = surface;
   const faceNormal = surface.field.frames.normal;
   const count = roots.count;
-  const level = (density: number, seed: number, onto?: { curves: Float64Array; centres: Roots; gather: Gather }) => {
+  const { mirror } = context;
+  type Level = { centres: Roots; normals: Float64Array; curves: Float64Array; parent?: Int32Array; partner?: Int32Array };
+  const level = (density: number, seed: number, onto?: { curves: Float64Array; gather: Gather; level: Level }): Level => {
     const wanted = Math.min(Math.ceil(count / 2), Math.max(1, Math.round(density * context.areaSquareCm)));
-    const centres = sampleRoots({ positions: mesh.positions, triangles: mesh.triangles, faceArea: surface.faceArea, count: wanted, allowedFace: context.mask, vertexDensity: context.density, seed });
+    const sampled = sampleRoots({ positions: mesh.positions, triangles: mesh.triangles, faceArea: surface.faceArea, count: wanted, allowedFace: context.mask, vertexDensity: context.density, seed });
+    const twins = mirror ? firstMirroredRoots(mirroredRoots(surface, sampled, mirror.plane), wanted) : undefined;
+    const centres = twins ?? sampled;
     const normals = normalsAt(faceNormal, centres.face);
     const curves = new Float64Array(3 * n * centres.count);
-    const parent = onto ? nearestCentres(centres.position, normals, onto.centres.position, normalsAt(faceNormal, onto.centres.face), spacing(context.area, onto.centres.count)) : undefined;
+    const parent = onto ? nearestCentres(centres.position, normals, onto.level.centres.position, normalsAt(faceNormal, onto.level.centres.face), spacing(context.area, onto.level.centres.count)) : undefined;
+    if (parent && twins && onto?.level.partner) for (let c = 0; c < centres.count; c++) if (twins.mirrorOf[c] >= 0 && parent[twins.mirrorOf[c]] >= 0) parent[c] = onto.level.partner[parent[twins.mirrorOf[c]]];
     for (let c = 0; c < centres.count; c++) {
       const gatherTo = onto && parent ? { curves: onto.curves, curve: parent[c], gather: onto.gather } : undefined;
-      growCurve(curves, c, centres.face[c], centres.position.subarray(3 * c, 3 * c + 3), centres.barycentric.subarray(3 * c, 3 * c + 3), seed, c, gatherTo && !gathersNothing(gatherTo.gather) ? { gatherTo } : undefined);
+      const key = randomKey(twins?.mirrorOf, c);
+      growCurve(curves, c, centres.face[c], centres.position.subarray(3 * c, 3 * c + 3), centres.barycentric.subarray(3 * c, 3 * c + 3), seed, key, gatherTo && !gathersNothing(gatherTo.gather) ? { gatherTo } : undefined, key !== c);
     }
-    return { centres, normals, curves, parent };
+    return { centres, normals, curves, parent, ...(twins ? { partner: mirrorPartners(twins.mirrorOf) } : {}) };
   };
   const outer = level(tufts.density, hash32(context.seed, TUFT_SEED));
-  const inner = tufts.inner ? level(tufts.inner.density, hash32(context.seed, INNER_SEED), { curves: outer.curves, centres: outer.centres, gather: tufts.gather }) : undefined;
+  const inner = tufts.inner ? level(tufts.inner.density, hash32(context.seed, INNER_SEED), { curves: outer.curves, gather: tufts.gather, level: outer }) : undefined;
   const finest = inner ?? outer;
   const nearest = nearestCentres(roots.position, normalsAt(faceNormal, roots.face), finest.centres.position, finest.normals, spacing(context.area, finest.centres.count));
   const gather = tufts.inner ? tufts.inner.gather : tufts.gather;
   const tuft = new Int32Array(count), innerTuft = new Int32Array(count), curveOf = new Int32Array(count);
   const drawn = !gathersNothing(gather);
+  if (mirror && finest.partner) for (let g = 0; g < count; g++) if (mirror.mirrorOf[g] >= 0 && nearest[mirror.mirrorOf[g]] >= 0) nearest[g] = finest.partner[nearest[mirror.mirrorOf[g]]];
   for (let g = 0; g < count; g++) {
-    const loner = tufts.loners > 0 && guideRandom(context.seed, g, LONER_CHANNEL) < tufts.loners;
+    const loner = tufts.loners > 0 && guideRandom(context.seed, randomKey(mirror?.mirrorOf, g), LONER_CHANNEL) < tufts.loners;
     const c = loner ? -1 : nearest[g];
     innerTuft[g] = inner && c >= 0 ? c : -1;
     tuft[g] = c < 0 ? -1 : inner?.parent ? inner.parent[c] : c;

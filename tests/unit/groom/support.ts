@@ -3,6 +3,7 @@ import { growGuides } from '@/lib/groom/grow/guides';
 import { solveGroomField } from '@/lib/groom/place/request';
 import { parseGroomSpec, type GroomSpecInput } from '@/lib/groom/spec/spec';
 import { prepareGroomSurface } from '@/lib/groom/place/surface';
+import { mirrorPoint, planeDistance, type MirrorPlane } from '@/lib/groom/spec/symmetry';
 
 /** Prepares, solves and grows a spec on a mesh, as the app does. */
 export function groomOn(mesh: TriangleMesh, input: GroomSpecInput) {
@@ -54,4 +55,30 @@ export function readGlb(bytes: Uint8Array) {
     return Array.from({ length: accessor.count * width }, (_x, i) => (accessor.componentType === 5126 ? data.getFloat32(4 * i, true) : data.getUint32(4 * i, true)));
   };
   return { json, values };
+}
+
+/**
+ * For every guide rooted off the plane (of guides of n points, stored guide after guide), the largest distance over ALL its points to the mirror
+ * image of the guide rooted nearest its root's mirror image; and how many were paired.
+ */
+export function worstMirrorGap(points: ArrayLike<number>, count: number, n: number, plane: MirrorPlane): { gap: number; paired: number } {
+  const root = (g: number) => [points[3 * n * g], points[3 * n * g + 1], points[3 * n * g + 2]];
+  let gap = 0, paired = 0;
+  for (let g = 0; g < count; g++) {
+    if (Math.abs(planeDistance(plane, root(g))) <= 1e-9) continue;
+    const m = mirrorPoint(plane, root(g));
+    let best = -1, bestDistance = Infinity;
+    for (let h = 0; h < count; h++) {
+      const r = root(h);
+      const d = Math.hypot(r[0] - m[0], r[1] - m[1], r[2] - m[2]);
+      if (d < bestDistance) [best, bestDistance] = [h, d];
+    }
+    for (let i = 0; i < n; i++) {
+      const a = mirrorPoint(plane, [points[3 * (n * g + i)], points[3 * (n * g + i) + 1], points[3 * (n * g + i) + 2]]);
+      const b = 3 * (n * best + i);
+      gap = Math.max(gap, Math.hypot(a[0] - points[b], a[1] - points[b + 1], a[2] - points[b + 2]));
+    }
+    paired++;
+  }
+  return { gap, paired };
 }

@@ -26,7 +26,7 @@ export function useGuides({ client, surface, spec, rootsFrom, show, paused }: { 
   const [task, report, clear] = useTask();
   const latestSpec = useLatest(spec);
   const latestRoots = useLatest(rootsFrom);
-  const key = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.guideSets, spec.pins, spec.maps, spec.masks, spec.units, spec.upAxis, rootsFrom?.key]), [spec, rootsFrom?.key]);
+  const key = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.guideSets, spec.pins, spec.maps, spec.masks, spec.units, spec.upAxis, spec.symmetry, rootsFrom?.key]), [spec, rootsFrom?.key]);
 
   useEffect(() => {
     if (!surface || !client || !show || paused || guides?.key === key) return;
