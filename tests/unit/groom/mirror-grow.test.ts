@@ -103,8 +103,9 @@ describe('growing with the spec’s symmetry on (jitter, curl, two tuft levels, 
  * OBJ text with every coordinate as JavaScript writes it (the shortest that reads back to the same
  * double, ECMA-262 Number::toString), so the command line reads the very surface the spec was
  * mirrored on. (The demo writer's 6 decimals give another surface, still exactly symmetric, on
- * which the solved field itself mirrors less closely: measured 2.6e-6 of the diagonal with no
- * per-guide variation at all — see the report of this work.)
+ * which the guides mirror less closely: 2.6e-6 of the diagonal with this spec, 1.2e-6 without
+ * its length pin, though the solved field mirrors within 1e-13 on both; not yet explained, see
+ * lib/groom/README.md, "Mirror symmetry".)
  */
 function exactObj(mesh: TriangleMesh): string {
   const p = mesh.positions, t = mesh.triangles, lines: string[] = ['# twin shape'];
