@@ -48,6 +48,35 @@ describe('maps of the breakup settings', () => {
     }
   });
 
+  it('multiplies the setting at the root: a constant map grows the guides of the setting times it', () => {
+    // A constant map decodes exactly to its value (low = high, README "Painted maps"), but the
+    // barycentric blend at a root sums three weights that may miss 1 by a rounding, so the factor
+    // can be off by an ulp: points are compared to 1e-9 cm (a 2 cm square; a real change moves them
+    // by millimetres, checked beside each).
+    const constant = (x: number) => halves(x, x);
+    const grow = (guides: Record<string, unknown>, maps: ReturnType<typeof encodeMap>[] = []) =>
+      groomOn(mesh, { ...PLANE, guides: { density: 150, length: 0.2, jitter: 0.3, ...guides }, ...(maps.length ? { maps } : {}) }).guides.points;
+    const apart = (a: Float64Array, b: Float64Array) => a.reduce((m, x, i) => Math.max(m, Math.abs(x - b[i])), 0);
+    const tufts = (rise: number, outer = { root: 0.1, tip: 0.7 }) => ({ density: 20, gather: { ...outer, rise }, inner: { density: 60, gather: { root: 0.2, tip: 0.9, rise } } });
+    // gatherRise: the rise of the draw the guides are drawn with (the inner level's here), 1.5 × 2 = 3.
+    const risen = grow({ tufts: tufts(1.5) }, [encodeMap('gatherRise', constant(2), mesh, 8)]);
+    expect(apart(risen, grow({ tufts: { ...tufts(1.5), inner: tufts(3).inner } }))).toBeLessThan(1e-9);
+    expect(apart(risen, grow({ tufts: tufts(1.5) }))).toBeGreaterThan(1e-4);
+    // waves: 3 × 0.5 = 1.5 waves along every guide.
+    const waved = grow({ waver: { amplitude: 0.03, waves: 3 } }, [encodeMap('waves', constant(0.5), mesh, 8)]);
+    expect(apart(waved, grow({ waver: { amplitude: 0.03, waves: 1.5 } }))).toBeLessThan(1e-9);
+    expect(apart(waved, grow({ waver: { amplitude: 0.03, waves: 3 } }))).toBeGreaterThan(1e-4);
+    // innerGather: 0 leaves the inner curves undrawn, as an outer gather of 0 does.
+    const loose = grow({ tufts: tufts(1) }, [encodeMap('innerGather', constant(0), mesh, 8)]);
+    expect(apart(loose, grow({ tufts: tufts(1, { root: 0, tip: 0 }) }))).toBeLessThan(1e-9);
+    expect(apart(loose, grow({ tufts: tufts(1) }))).toBeGreaterThan(1e-4);
+    // loners: 0.4 × 0.5 = 0.2 of the guides.
+    const lonely = { density: 20, gather: { root: 0.2, tip: 1 }, loners: 0.4 };
+    const fewer = grow({ tufts: lonely }, [encodeMap('loners', constant(0.5), mesh, 8)]);
+    expect(apart(fewer, grow({ tufts: { ...lonely, loners: 0.2 } }))).toBeLessThan(1e-9);
+    expect(apart(fewer, grow({ tufts: lonely }))).toBeGreaterThan(1e-4);
+  });
+
   it('spreads tuft centres by a tuft-density map: half the square at 1×, half at 3×', () => {
     // Statistical tolerance (our choice, as for the density map's test in maps.test.ts): each
     // half's count within 3·√N of the expected N, three standard deviations of a Poisson count; the
