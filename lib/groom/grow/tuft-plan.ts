@@ -101,7 +101,8 @@ export function planTufts(surface: GroomSurface, tufts: NonNullable<GuideSetting
     return { centres, normals, curves, parent };
   };
   const outer = level(tufts.density, hash32(context.seed, TUFT_SEED), maps.tuftDensity);
-  const inner = tufts.inner ? level(tufts.inner.density, hash32(context.seed, INNER_SEED), maps.innerTuftDensity, { curves: outer.curves, centres: outer.centres, gather: tufts.gather }) : undefined;
+  // A tuft-density map of 0 everywhere leaves no tuft for inner tufts to lie in: then there are none.
+  const inner = tufts.inner && outer.centres.count > 0 ? level(tufts.inner.density, hash32(context.seed, INNER_SEED), maps.innerTuftDensity, { curves: outer.curves, centres: outer.centres, gather: tufts.gather }) : undefined;
   const finest = inner ?? outer;
   const nearest = nearestCentres(roots.position, normalsAt(faceNormal, roots.face), finest.centres.position, finest.normals, spacing(context.area, finest.centres.count));
   const gather = tufts.inner ? tufts.inner.gather : tufts.gather;

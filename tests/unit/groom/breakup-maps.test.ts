@@ -107,6 +107,16 @@ describe('maps of the breakup settings', () => {
     expect(tufts!.innerCentres).toBe(Math.round(80 * (0.95 * 2 + 0.05 * 2 * 2 + 2 * 3)));
   });
 
+  it('grows no tufts, and finite guides, where a tuft-density map of 0 leaves the outer level no centre', () => {
+    const spec: GroomSpecInput = { ...PLANE, guides: { density: 300, length: 0.1, tufts: { density: 20, inner: { density: 60 } } }, maps: [encodeMap('tuftDensity', halves(0, 0), mesh, 8)] };
+    const { guides, tufts } = groomOn(mesh, spec);
+    expect(tufts!.centres).toBe(0);
+    expect(tufts!.innerCentres).toBe(0);
+    expect(guides.tuft.every((t) => t === -1)).toBe(true);
+    expect(guides.innerTuft.every((t) => t === -1)).toBe(true);
+    expect(guides.points.every(Number.isFinite)).toBe(true);
+  });
+
   it('leaves no loner where the loners map is 0, keeps the spec’s share where it is 1×, and caps the share at 1', () => {
     const spec: GroomSpecInput = { ...PLANE, guides: { density: 300, length: 0.05, tufts: { density: 20, loners: 0.4 } } };
     const count = (map: Float64Array) => {
