@@ -1,7 +1,8 @@
 /**
  * Benchmark of lib/groom on a 100,000-face growth surface (a torus, 400 × 125 quads split in two):
  * root sampling, tracing and shaping of 5,000 and 50,000 guides of 16 points, 50,000 with two
- * levels of tufts, loners and waver (spec version 3), 50,000 with a painted density and length map,
+ * levels of tufts, loners and waver (spec version 3), the same under the seven breakup maps, 50,000
+ * with a painted density and length map,
  * 50,000 in two guide sets, 50,000 in two guide sets with the painted maps and two tuft levels
  * together (issue 16's "Done when": ≤ 3 s), each export (the guide formats also with the surface
  * beside them), and a 1024² thumbnail (render, then encoding).
@@ -110,6 +111,20 @@ for (const count of [5_000, 50_000]) {
   row(`${what}: roots`, t.rootsMilliseconds);
   row(`${what}: tracing (guides and centre curves)`, t.traceMilliseconds);
   row(`${what}: tuft centres (sampling, shaping their curves, assigning guides)`, t.tuftsMilliseconds);
+  row(`${what}: shaping, gathering, waver and skin check`, t.shapeMilliseconds);
+  row(`${what}: total`, grown.ms);
+}
+{
+  // The same shaped coat with every breakup setting painted (0.5× to 1.5× round the tube, by x).
+  const p = mesh.positions, nV = p.length / 3;
+  const ramp = Float64Array.from({ length: nV }, (_x, v) => 1 + p[3 * v] / 84);
+  const maps = (['tuftDensity', 'innerTuftDensity', 'innerGather', 'gatherRise', 'loners', 'waves', 'tipWidth'] as const).map((a) => encodeMap(a, ramp, mesh));
+  const spec = parseGroomSpec({ ...specFor(50_000, SHAPED), maps });
+  const grown = best(() => growGuides(surface, solved.result, spec));
+  const t = grown.result.timings;
+  const what = `50000 guides × 16 with ${grown.result.tufts!.centres} tufts, ${grown.result.tufts!.innerCentres} inner tufts, loners and waver, the seven breakup maps painted`;
+  row(`${what}: roots (decoding the maps included)`, t.rootsMilliseconds);
+  row(`${what}: tuft centres`, t.tuftsMilliseconds);
   row(`${what}: shaping, gathering, waver and skin check`, t.shapeMilliseconds);
   row(`${what}: total`, grown.ms);
 }

@@ -26,7 +26,7 @@
  * polygons, weights, UVs); --with-surface also writes the growth surface into the .usda, .gltf,
  * .glb and .obj files. --thumbnail writes .png or .webp (--view, --size,
  * --colour). --map ATTRIBUTE=IMAGE paints a map (density, length, width, lift, droop, curl, jitter,
- * waver, gather) from a PNG or TIFF (8 or 16 bits) through the surface's UVs: black is 0×, white
+ * waver, gather, tuftDensity, innerTuftDensity, innerGather, gatherRise, loners, waves, tipWidth) from a PNG or TIFF (8 or 16 bits) through the surface's UVs: black is 0×, white
  * 1× the spec's value, or low× to high× with @low,high; it replaces the spec's map of that
  * attribute. Exits 0 on success; on bad input prints one line "whorlwind-groom: <reason>" to
  * stderr and exits 1 (2 for a bad command line). Uses the same library code as the app.

@@ -6,6 +6,7 @@
 import { useState } from 'react';
 import { MAP_ATTRIBUTES, type GroomSpec, type MapAttribute } from '@/lib/groom/spec/spec';
 import { TINT_RAMP, targetLabel, writeValues, type BrushOptions, type PaintTarget } from '@/lib/studio/client/paint';
+import { MAP_ATTRIBUTE_WORDS } from '@/lib/studio/client/image-maps';
 import type { OpenedSurface } from '@/lib/studio/client/protocol';
 import type { EditorActions } from './editor-actions';
 
@@ -89,7 +90,7 @@ export function TintsPanel({ spec, surface, actions, brush, onBrush, onPaint }: 
             <select value={attribute} onChange={(event) => setNewAttribute(event.target.value as MapAttribute)} className="rounded-lg border-2 border-loam/15 bg-vellum px-2 py-1 text-sm text-loam">
               {free.map((a) => (
                 <option key={a} value={a}>
-                  {a}
+                  {MAP_ATTRIBUTE_WORDS[a]}
                 </option>
               ))}
             </select>

@@ -10,8 +10,9 @@ import { bindRoots, rootsOnSculpt } from './binding';
 import { growthPlane, mirroredRoots, randomKey } from './mirror-roots';
 import { shapeGuide, waver, type WaverParameters } from './shape';
 import { gatherOnto, type Gather } from './tufts';
-import { planTufts } from './tuft-plan';
+import { planTufts, scaledGather } from './tuft-plan';
 import { SKIN_QUERY_SIZE } from '../place/skin';
+import { COAT_SETTING_RANGES } from '../spec/guide-settings';
 import { CENTIMETRES_PER_UNIT, guidePointsProblem, type GroomSpec, type GuideSettings } from '../spec/spec';
 import { growGuideSets } from './guide-sets';
 import type { GrowOptions, GrowResult } from './grown';
@@ -31,6 +32,22 @@ const JITTER_LEAN = 0.15;
 /** Height kept above the skin, as a fraction of the surface's bounding box diagonal. */
 const CLEARANCE_FRACTION = 1e-4;
 
+
+/** The waver's most waves along a guide (the schema's bound), which a painted `waves` map is capped at. */
+const WAVES_MAX = COAT_SETTING_RANGES.waverWaves.max;
+
+/** The most waves any guide gets under a `waves` map (the spec's waves × the map's largest factor, capped): what the knots must hold. */
+function paintedWaves(waves: number, painted: Float64Array | undefined): number {
+  let most = 1;
+  if (painted) for (let v = 0; v < painted.length; v++) most = Math.max(most, painted[v]);
+  return Math.min(WAVES_MAX, Math.max(waves, waves * most));
+}
+
+/** The guides' gather with its shares scaled by `share` (capped at 1) and its rise by `rise` (kept within the schema's bounds). */
+function paintedGather(gather: Gather, share: number, rise: number): Gather {
+  const { min, max } = COAT_SETTING_RANGES.gatherRise;
+  return { ...scaledGather(gather, share), rise: rise === 1 ? gather.rise : Math.min(max, Math.max(min, gather.rise * rise)) };
+}
 
 /** Barycentric weights of (x, y, z) in face f (projected onto its plane), into w. */
 function barycentric(p: Float64Array, tri: Uint32Array, f: number, x: number, y: number, z: number, w: Float64Array): void {
@@ -199,11 +216,11 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
 
   const tuftStart = now();
   const traceBefore = traceTime;
-  const tufting = settings.tufts ? planTufts(surface, settings.tufts, { mask, density: pins.density, areaSquareCm, area, seed: settings.seed, roots, growCurve, n, ...(plane && mirrorOf ? { mirror: { plane, mirrorOf } } : {}) }) : undefined;
+  const tufting = settings.tufts ? planTufts(surface, settings.tufts, { mask, density: pins.density, maps: pins, areaSquareCm, area, seed: settings.seed, roots, growCurve, n, ...(plane && mirrorOf ? { mirror: { plane, mirrorOf } } : {}) }) : undefined;
   // The tufts' own tracing counts as tracing; the rest of their planning is reported apart.
   const tuftTime = now() - tuftStart - (traceTime - traceBefore);
   const waverSettings = settings.waver && settings.waver.amplitude > 0 ? settings.waver : undefined;
-  const knots = waverSettings ? new Float64Array(2 * (Math.ceil(waverSettings.waves) + 2)) : undefined;
+  const knots = waverSettings ? new Float64Array(2 * (Math.ceil(paintedWaves(waverSettings.waves, pins.waves)) + 2)) : undefined;
   // One shaping record of each kind, reused guide after guide (only the curve number changes).
   const gatherTo = tufting ? { curves: tufting.curves, curve: -1, gather: tufting.gather } : undefined;
   const waverParams = waverSettings && knots ? { amplitude: waverSettings.amplitude, waves: waverSettings.waves, knots } : undefined;
@@ -225,20 +242,18 @@ function growSet(surface: GroomSurface, solved: SolvedField, spec: GroomSpec, se
     // Knot values keyed by the guide's id on channels of their own, so the wander never shifts the other variation;
     // a mirror's across-values (even knots, along normal × tangent) negated, as in shape.ts's bend.
     if (knots) for (let k = 0; k < knots.length; k++) knots[k] = (mirror && k % 2 === 0 ? -1 : 1) * (2 * guideRandom(settings.seed, key, WAVER_CHANNEL + k) - 1);
-    // Painted gather and waver scale the spec's at the root (the shares capped at 1); without a map the records stay as they are.
+    // Painted gather, rise, waver and waves scale the spec's at the root (the shares capped at 1); without a map the records stay as they are.
     weights.set(bary);
-    if (gatherTo && planGather && pins.gather) {
-      const f = factor(pins.gather, f0);
-      gatherTo.gather = { root: Math.min(1, planGather.root * f), tip: Math.min(1, planGather.tip * f), rise: planGather.rise };
-    }
+    if (gatherTo && planGather && (pins.gather || pins.gatherRise)) gatherTo.gather = paintedGather(planGather, factor(pins.gather, f0), factor(pins.gatherRise, f0));
     if (waverParams && waverSettings && pins.waver) waverParams.amplitude = waverSettings.amplitude * factor(pins.waver, f0);
+    if (waverParams && waverSettings && pins.waves) waverParams.waves = Math.min(WAVES_MAX, waverSettings.waves * factor(pins.waves, f0));
     const shaping = drawnOnto >= 0 ? (waverParams ? both : gathered) : waverParams ? wandered : undefined;
     growCurve(points, g, f0, roots.position.subarray(3 * g, 3 * g + 3), bary, settings.seed, key, shaping, mirror);
     stop[g] = tracer.end.reason;
     weights.set(bary);
     const widthFactor = factor(pins.width, f0);
     rootWidth[g] = settings.width * widthFactor;
-    tipWidth[g] = settings.tipWidth * widthFactor;
+    tipWidth[g] = settings.tipWidth * widthFactor * (pins.tipWidth ? factor(pins.tipWidth, f0) : 1);
 
     let arc = 0;
     for (let i = 1; i < n; i++) {

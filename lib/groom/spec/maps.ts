@@ -2,9 +2,15 @@ import { z } from 'zod';
 
 /**
  * What a painted map may drive: the pinned attributes (spec.ts's PIN_ATTRIBUTES), the waver's amplitude and the tufts' gather
- * (both shares, root and tip, capped at 1). Each is a factor on the spec's value, like a pin's.
+ * (both shares, root and tip, capped at 1), and the rest of the breakup (appended, so older specs read as before): where
+ * tuft and inner-tuft centres fall (`tuftDensity`, `innerTuftDensity`), how strongly inner tufts are drawn into their
+ * tuft (`innerGather`), the gather's rise (`gatherRise`), the share of loners (`loners`, capped at 1), the waver's waves
+ * along the guide (`waves`) and the tip's width alone (`tipWidth`). Each is a factor on the spec's value, like a pin's.
  */
-export const MAP_ATTRIBUTES = ['length', 'lift', 'droop', 'curl', 'jitter', 'density', 'width', 'waver', 'gather'] as const;
+export const MAP_ATTRIBUTES = [
+  'length', 'lift', 'droop', 'curl', 'jitter', 'density', 'width', 'waver', 'gather',
+  'tuftDensity', 'innerTuftDensity', 'innerGather', 'gatherRise', 'loners', 'waves', 'tipWidth',
+] as const;
 export type MapAttribute = (typeof MAP_ATTRIBUTES)[number];
 
 /** The per-vertex values a map and a mask share (see `mapSchema`). */

@@ -15,6 +15,13 @@ export const MAP_ATTRIBUTE_WORDS: Readonly<Record<MapAttribute, string>> = {
   jitter: 'Jitter',
   waver: 'Waver',
   gather: 'Gather into tufts',
+  tuftDensity: 'Tufts (centres per area)',
+  innerTuftDensity: 'Inner tufts (centres per area)',
+  innerGather: 'Gather of inner tufts into their tuft',
+  gatherRise: 'Gather’s rise (how late it closes)',
+  loners: 'Loners (share outside tufts)',
+  waves: 'Waves along the guide',
+  tipWidth: 'Tip width',
 };
 
 /**

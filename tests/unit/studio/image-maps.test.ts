@@ -50,6 +50,18 @@ describe('a map from an image in the editor', () => {
     expect(Object.keys(MAP_ATTRIBUTE_WORDS).sort()).toEqual([...MAP_ATTRIBUTES].sort());
   });
 
+  it('offers the breakup maps in words of their own, no two alike (the Tints panel and the image control list them)', () => {
+    for (const attribute of ['tuftDensity', 'innerTuftDensity', 'innerGather', 'gatherRise', 'loners', 'waves', 'tipWidth'] as const) {
+      expect(MAP_ATTRIBUTES).toContain(attribute);
+      // Words, not the spec's camel-case name.
+      expect(MAP_ATTRIBUTE_WORDS[attribute]).toMatch(/^[A-Z][^A-Z]*( [^A-Z]+)*$/);
+    }
+    const words = Object.values(MAP_ATTRIBUTE_WORDS);
+    expect(new Set(words.map((w) => w.toLowerCase())).size).toBe(words.length);
+    expect(MAP_ATTRIBUTE_WORDS.tipWidth).toBe('Tip width');
+    expect(MAP_ATTRIBUTE_WORDS.width).toBe('Width (root and tip)');
+  });
+
   it('sends the file as base64 (RFC 4648), byte for byte', async () => {
     const bytes = Uint8Array.from({ length: 70_000 }, (_x, i) => (i * 31) & 255);
     expect(await fileToBase64(new Blob([bytes]))).toBe(Buffer.from(bytes).toString('base64'));
