@@ -39,15 +39,7 @@ async function bestAsync(work: () => Promise<unknown>): Promise<number> {
   await work();
   let ms = Infinity;
   for (let i = 0; i < RUNS; i++) {
-    /** Painted maps: density from 0.5× to 2.5× round the tube (by x), length from 0.5× to 1.5× (by z); 16 bits. */
-function paintedMaps() {
-  const p = mesh.positions, nV = p.length / 3;
-  const density = Float64Array.from({ length: nV }, (_x, v) => 1.5 + p[3 * v] / 42);
-  const length = Float64Array.from({ length: nV }, (_x, v) => 1 + p[3 * v + 2] / 24);
-  return [encodeMap('density', density, mesh), encodeMap('length', length, mesh)];
-}
-
-const t0 = performance.now();
+    const t0 = performance.now();
     await work();
     ms = Math.min(ms, performance.now() - t0);
   }
