@@ -5,11 +5,12 @@
 import { useRef, useState } from 'react';
 import { MAP_ATTRIBUTES, type GroomSpec, type MapAttribute } from '@/lib/groom/spec/spec';
 import { postJson } from '@/lib/http/client';
-import { MAP_ATTRIBUTE_WORDS, fileToBase64, imageMapEdit } from '@/lib/studio/client/image-maps';
+import { fileToBase64, imageMapEdit } from '@/lib/studio/client/image-maps';
 import type { ImageMapResponse } from '@/lib/studio/types';
 import { MAP_IMAGE_MAX_BYTES } from '@/lib/studio/validation';
 import { NumberField } from '../ui/NumberField';
 import type { EditorActions } from './editor-actions';
+import { MapAttributeSelect } from './MapAttributeSelect';
 
 export function ImageMapControl({ spec, surfaceId, actions }: { spec: GroomSpec; surfaceId: string; actions: EditorActions }) {
   const latest = useRef(spec);
@@ -44,16 +45,7 @@ export function ImageMapControl({ spec, surfaceId, actions }: { spec: GroomSpec;
         Image
         <input type="file" accept=".png,.tif,.tiff,image/png,image/tiff" onChange={(event) => setFile(event.target.files?.[0] ?? null)} className="text-sm text-loam" />
       </label>
-      <label className="flex flex-col gap-1 text-xs font-semibold text-loam-soft">
-        The map drives
-        <select value={attribute} onChange={(event) => setAttribute(event.target.value as MapAttribute)} className="rounded-lg border-2 border-loam/15 bg-vellum px-2 py-1 text-sm text-loam">
-          {MAP_ATTRIBUTES.map((a) => (
-            <option key={a} value={a}>
-              {MAP_ATTRIBUTE_WORDS[a]}
-            </option>
-          ))}
-        </select>
-      </label>
+      <MapAttributeSelect label="The map drives" value={attribute} options={MAP_ATTRIBUTES} onChange={setAttribute} />
       <div className="grid grid-cols-2 gap-2">
         <NumberField label="Black (factor)" unit="×" value={low} min={0} max={10} onCommit={(v) => (v > high ? 'Use no more than the white factor.' : setLow(v))} />
         <NumberField label="White (factor)" unit="×" value={high} min={0} max={10} onCommit={(v) => (v < low ? 'Use no less than the black factor.' : setHigh(v))} />

@@ -6,9 +6,9 @@
 import { useState } from 'react';
 import { MAP_ATTRIBUTES, type GroomSpec, type MapAttribute } from '@/lib/groom/spec/spec';
 import { TINT_RAMP, targetLabel, writeValues, type BrushOptions, type PaintTarget } from '@/lib/studio/client/paint';
-import { MAP_ATTRIBUTE_WORDS } from '@/lib/studio/client/image-maps';
 import type { OpenedSurface } from '@/lib/studio/client/protocol';
 import type { EditorActions } from './editor-actions';
+import { MapAttributeSelect } from './MapAttributeSelect';
 
 const css = (rgb: readonly number[]) => `rgb(${rgb.map((x) => Math.round(255 * x)).join(' ')})`;
 
@@ -85,16 +85,7 @@ export function TintsPanel({ spec, surface, actions, brush, onBrush, onPaint }: 
       )}
       {free.length > 0 && (
         <div className="flex items-end gap-2">
-          <label className="flex flex-1 flex-col gap-1 text-xs font-semibold text-loam-soft">
-            Map for
-            <select value={attribute} onChange={(event) => setNewAttribute(event.target.value as MapAttribute)} className="rounded-lg border-2 border-loam/15 bg-vellum px-2 py-1 text-sm text-loam">
-              {free.map((a) => (
-                <option key={a} value={a}>
-                  {MAP_ATTRIBUTE_WORDS[a]}
-                </option>
-              ))}
-            </select>
-          </label>
+          <MapAttributeSelect label="Map for" value={attribute} options={free} onChange={setNewAttribute} className="flex-1" />
           <button type="button" disabled={!surface} onClick={() => add({ kind: 'map', attribute })} className="rounded-full border-2 border-tarn/25 px-3 py-1 text-xs font-semibold text-tarn hover:border-tarn disabled:opacity-40">
             Add map
           </button>

@@ -9,6 +9,18 @@ import type { GrownGuides, OpenedSurface, RootsSource } from '@/lib/studio/clien
 import { useLatest } from './useLiveState';
 import { useTask, type Task } from './useTask';
 
+// Painted maps and masks run to megabytes of text and the spec changes many times a second during a
+// drag: they enter the key by identity (edits replace the array only when a map or mask changes; undo
+// brings back the earlier array), so the key is not rebuilt from their bytes on every change.
+const paintedIds = new WeakMap<object, number>();
+let nextPaintedId = 1;
+function paintedKey(painted: readonly unknown[] | undefined): number {
+  if (!painted) return 0;
+  let id = paintedIds.get(painted);
+  if (id === undefined) paintedIds.set(painted, (id = nextPaintedId++));
+  return id;
+}
+
 /** How long the spec must rest before guides are grown for it. */
 const SETTLE_MILLISECONDS = 300;
 
@@ -26,7 +38,10 @@ export function useGuides({ client, surface, spec, rootsFrom, show, paused }: { 
   const [task, report, clear] = useTask();
   const latestSpec = useLatest(spec);
   const latestRoots = useLatest(rootsFrom);
-  const key = useMemo(() => JSON.stringify([spec.field, spec.guides, spec.guideSets, spec.pins, spec.maps, spec.masks, spec.units, spec.upAxis, spec.symmetry, rootsFrom?.key]), [spec, rootsFrom?.key]);
+  const key = useMemo(
+    () => JSON.stringify([spec.field, spec.guides, spec.guideSets, spec.pins, paintedKey(spec.maps), paintedKey(spec.masks), spec.units, spec.upAxis, spec.symmetry, rootsFrom?.key]),
+    [spec, rootsFrom?.key],
+  );
 
   useEffect(() => {
     if (!surface || !client || !show || paused || guides?.key === key) return;
