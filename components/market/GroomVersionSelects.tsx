@@ -37,8 +37,8 @@ export function GroomVersionSelects({
   grooms,
   groomId,
   onGroomChange,
-  onVersionChange,
   errors,
+  clearError,
   defaultVersionId = '',
   versionNote,
 }: {
@@ -46,8 +46,9 @@ export function GroomVersionSelects({
   grooms: GroomSummary[];
   groomId: string;
   onGroomChange: (groomId: string) => void;
-  onVersionChange: () => void;
   errors: { groomId?: string; versionId?: string };
+  /** The form's own: a choice clears the error shown under it (a new groom, the version's too). */
+  clearError: (name: 'groomId' | 'versionId') => void;
   /** The version chosen at first, when the groom shown is the one it belongs to. */
   defaultVersionId?: string;
   /** Words after a version's name (e.g. that it is the one on sale now). */
@@ -56,7 +57,12 @@ export function GroomVersionSelects({
   const versions = useSWR<VersionListResponse, ApiRequestError>(groomId ? `/api/studio/grooms/${groomId}/versions` : null, fetchData);
   return (
     <>
-      <SelectField name="groomId" label="Groom" error={errors.groomId} value={groomId} onChange={(event) => onGroomChange(event.target.value)}>
+      <SelectField name="groomId" label="Groom" error={errors.groomId} value={groomId} onChange={(event) => {
+          onGroomChange(event.target.value);
+          clearError('groomId');
+          clearError('versionId');
+        }}
+      >
         <option value="">Choose a groom…</option>
         {grooms.map((groom) => (
           <option key={groom.id} value={groom.id}>
@@ -70,7 +76,7 @@ export function GroomVersionSelects({
         label="Saved version"
         error={errors.versionId}
         defaultValue={defaultVersionId}
-        onChange={onVersionChange}
+        onChange={() => clearError('versionId')}
         disabled={!groomId || !versions.data}
       >
         {!groomId ? (

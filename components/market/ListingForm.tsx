@@ -153,13 +153,9 @@ export function ListingForm({ licences, listing, preselect, feePercent }: Listin
             <GroomVersionSelects
               grooms={listable}
               groomId={groomId}
-              onGroomChange={(next) => {
-                setGroomId(next);
-                form.clearError('groomId');
-                form.clearError('versionId');
-              }}
-              onVersionChange={() => form.clearError('versionId')}
+              onGroomChange={setGroomId}
               errors={form.errors}
+              clearError={form.clearError}
               defaultVersionId={preselect?.groomId === groomId ? preselect?.versionId : undefined}
             />
             <div className="sm:col-span-2">

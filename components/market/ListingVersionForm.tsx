@@ -61,13 +61,9 @@ export function ListingVersionForm({ listing }: { listing: ListingDetail }) {
         <GroomVersionSelects
           grooms={listable}
           groomId={groomId}
-          onGroomChange={(next) => {
-            setGroomId(next);
-            form.clearError('groomId');
-            form.clearError('versionId');
-          }}
-          onVersionChange={() => form.clearError('versionId')}
+          onGroomChange={setGroomId}
           errors={form.errors}
+          clearError={form.clearError}
           versionNote={(version) => (version.id === listing.groom.versionId ? ' (on sale now)' : '')}
         />
       </fieldset>
